@@ -1,0 +1,89 @@
+//! Curves in the surface's parameter plane: "give me (u, v) and its first two derivatives at
+//! t". Implemented by 2D NURBS curves, Rust closures ([`FnCurve`]) and host callbacks (in the
+//! C ABI).
+
+use crate::error::{Result, StrakeError};
+use crate::jet::{CurveJet, DerivOrder, Interval};
+use crate::nurbs::{NurbsCurve, SpanHint};
+
+/// A curve t ↦ (u(t), v(t)) in a surface's parameter plane.
+///
+/// Implementations must be safe to evaluate from several threads at once; per-caller state
+/// lives in the [`SpanHint`] the caller passes.
+pub trait UvCurve: Send + Sync {
+    /// The parameter domain of t.
+    fn domain(&self) -> Interval;
+    /// The jet at t, called only with t inside the domain; checked by the caller
+    /// ([`UvCurve::checked_jet`]).
+    fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet>;
+
+    /// The jet at t: checks that t is finite and inside the domain, evaluates, and checks that
+    /// the jet is finite. Errors: `NonFinite`, `OutOfDomain`, and whatever the source reports.
+    #[inline]
+    fn checked_jet(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
+        self.domain().check("t", t)?;
+        let jet = self.jet_in_domain(t, hint)?;
+        jet.check_finite()?;
+        Ok(jet)
+    }
+}
+
+impl UvCurve for NurbsCurve<2> {
+    fn domain(&self) -> Interval {
+        NurbsCurve::domain(self)
+    }
+    #[inline]
+    fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
+        let d = self.derivs_unchecked(t, DerivOrder::Second, hint);
+        Ok(CurveJet { u: d.p[0], v: d.p[1], du: d.d1[0], dv: d.d1[1], ddu: d.d2[0], ddv: d.d2[1] })
+    }
+}
+
+/// A curve whose jet comes from a closure `f(t)`.
+pub struct FnCurve<F> {
+    f: F,
+    domain: Interval,
+}
+
+impl<F> FnCurve<F>
+where
+    F: Fn(f64) -> Result<CurveJet> + Send + Sync,
+{
+    /// A curve on `domain` evaluated by `f`.
+    pub fn new(domain: Interval, f: F) -> Self {
+        FnCurve { f, domain }
+    }
+}
+
+impl<F> UvCurve for FnCurve<F>
+where
+    F: Fn(f64) -> Result<CurveJet> + Send + Sync,
+{
+    fn domain(&self) -> Interval {
+        self.domain
+    }
+    #[inline]
+    fn jet_in_domain(&self, t: f64, _hint: &mut SpanHint) -> Result<CurveJet> {
+        (self.f)(t)
+    }
+}
+
+impl<C: UvCurve + ?Sized> UvCurve for &C {
+    fn domain(&self) -> Interval {
+        (**self).domain()
+    }
+    fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
+        (**self).jet_in_domain(t, hint)
+    }
+}
+
+/// Straight line in the parameter plane from (u0, v0) to (u1, v1) for t in [0, 1]; a
+/// convenience for iso-curves and slanted paths.
+pub fn uv_line(u0: f64, v0: f64, u1: f64, v1: f64) -> Result<NurbsCurve<2>> {
+    if !(u0.is_finite() && v0.is_finite() && u1.is_finite() && v1.is_finite()) {
+        return Err(StrakeError::InvalidArgument(format!(
+            "uv line endpoints ({u0}, {v0}) -> ({u1}, {v1}) are not finite"
+        )));
+    }
+    NurbsCurve::new(1, &[0.0, 0.0, 1.0, 1.0], &[[u0, v0], [u1, v1]], None)
+}

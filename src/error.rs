@@ -1,0 +1,143 @@
+//! The one error type of the crate. Every failure names what was wrong (which input, which
+//! index, which value); the C ABI maps each variant to a stable status number.
+
+use std::fmt;
+
+/// Which input held a value that was not finite (NaN or infinite).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum NonFiniteSource {
+    /// A surface jet (point or partial derivative) produced by the surface.
+    SurfaceJet,
+    /// A curve jet ((u, v) or their derivatives) produced by the curve.
+    CurveJet,
+    /// A parameter passed in by the caller.
+    Parameter,
+    /// A quantity computed from finite inputs that overflowed (e.g. a curvature of 1e300).
+    Result,
+}
+
+impl fmt::Display for NonFiniteSource {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            NonFiniteSource::SurfaceJet => "surface jet",
+            NonFiniteSource::CurveJet => "curve jet",
+            NonFiniteSource::Parameter => "parameter",
+            NonFiniteSource::Result => "computed result",
+        })
+    }
+}
+
+/// Everything that can go wrong in strake. `Display` gives the detailed message that the C ABI
+/// hands to the host.
+#[derive(Debug, Clone, PartialEq)]
+pub enum StrakeError {
+    /// An argument is invalid (e.g. a count of zero, an empty array, mismatched lengths).
+    InvalidArgument(String),
+    /// A value that must be finite is NaN or infinite.
+    NonFinite {
+        /// Where the value came from.
+        source: NonFiniteSource,
+        /// Which component (e.g. `"Suv.y"` or `"t"`).
+        what: &'static str,
+        /// The offending value.
+        value: f64,
+    },
+    /// The knot vector is invalid: decreasing, non-finite, wrong length, or a zero-length domain.
+    InvalidKnots(String),
+    /// A weight is not positive and finite.
+    InvalidWeight {
+        /// Index of the weight in the caller's array.
+        index: usize,
+        /// The offending value.
+        value: f64,
+    },
+    /// A control point coordinate is not finite.
+    InvalidControlPoint {
+        /// Index of the control point in the caller's array.
+        index: usize,
+        /// The offending value.
+        value: f64,
+    },
+    /// Degree, control-point count and knot count do not fit together.
+    InvalidDegree(String),
+    /// A parameter lies outside the domain of the surface or curve (no silent clamping).
+    OutOfDomain {
+        /// Name of the parameter (`"u"`, `"v"` or `"t"`).
+        name: &'static str,
+        /// The offending value.
+        value: f64,
+        /// Lower end of the domain.
+        lo: f64,
+        /// Upper end of the domain.
+        hi: f64,
+    },
+    /// The surface is degenerate at this point: `|Su × Sv|` vanishes relative to the scale of
+    /// `Su` and `Sv` (a pole, a collapsed edge, a fold). The normal is not defined.
+    DegenerateSurface {
+        /// Surface parameter u.
+        u: f64,
+        /// Surface parameter v.
+        v: f64,
+        /// The conditioning figure that fell below the threshold (see [`crate::frame`]).
+        conditioning: f64,
+    },
+    /// The curve stalls at this parameter: its velocity vanishes relative to its scale, so
+    /// the tangent is not defined.
+    StalledCurve {
+        /// Curve parameter t.
+        t: f64,
+        /// The speed figure that fell below the threshold (see [`crate::frame`]).
+        speed_figure: f64,
+    },
+    /// A host callback returned a non-zero code.
+    Callback {
+        /// Which callback (`"surface"` or `"curve"`).
+        which: &'static str,
+        /// The host's own code, passed back unchanged.
+        code: i32,
+    },
+}
+
+impl fmt::Display for StrakeError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            StrakeError::InvalidArgument(m) => write!(f, "invalid argument: {m}"),
+            StrakeError::NonFinite { source, what, value } => {
+                write!(f, "non-finite value in {source}: {what} = {value}")
+            }
+            StrakeError::InvalidKnots(m) => write!(f, "invalid knot vector: {m}"),
+            StrakeError::InvalidWeight { index, value } => write!(
+                f,
+                "invalid weight: weight[{index}] = {value}; weights must be positive and finite"
+            ),
+            StrakeError::InvalidControlPoint { index, value } => write!(
+                f,
+                "invalid control point: control point {index} has non-finite coordinate {value}"
+            ),
+            StrakeError::InvalidDegree(m) => write!(f, "invalid degree: {m}"),
+            StrakeError::OutOfDomain { name, value, lo, hi } => write!(
+                f,
+                "parameter out of domain: {name} = {value} is outside [{lo}, {hi}]"
+            ),
+            StrakeError::DegenerateSurface { u, v, conditioning } => write!(
+                f,
+                "degenerate surface point at (u, v) = ({u}, {v}): |Su x Sv| vanishes relative \
+                 to |Su| and |Sv| (conditioning {conditioning:e}); the normal is undefined"
+            ),
+            StrakeError::StalledCurve { t, speed_figure } => write!(
+                f,
+                "stalled curve at t = {t}: the parameter-plane velocity (u', v') vanishes \
+                 relative to the curve's scale (speed figure {speed_figure:e}); the tangent is \
+                 undefined"
+            ),
+            StrakeError::Callback { which, code } => {
+                write!(f, "host {which} callback failed with code {code}")
+            }
+        }
+    }
+}
+
+impl std::error::Error for StrakeError {}
+
+/// Shorthand for results of this crate.
+pub type Result<T> = std::result::Result<T, StrakeError>;

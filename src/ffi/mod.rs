@@ -1,0 +1,1 @@
+//! The C ABI (placeholder module, filled in by the ffi layer).

@@ -1,0 +1,152 @@
+//! Jets: a point together with its derivatives, the currency between surfaces, curves and the
+//! frame computation.
+
+use crate::error::{NonFiniteSource, Result, StrakeError};
+use crate::math::{Vec3, all_finite};
+
+/// How many derivatives a surface or curve must supply.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
+pub enum DerivOrder {
+    /// Position only.
+    Position = 0,
+    /// Position and first partial derivatives.
+    First = 1,
+    /// Position, first and second partial derivatives.
+    Second = 2,
+}
+
+/// A surface point S(u, v) with its partial derivatives up to second order.
+///
+/// Lengths are in the host's unit; derivatives are per unit of the surface parameters. Entries
+/// beyond the order that was requested are zero.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct SurfaceJet {
+    /// The point S.
+    pub p: Vec3,
+    /// ∂S/∂u.
+    pub su: Vec3,
+    /// ∂S/∂v.
+    pub sv: Vec3,
+    /// ∂²S/∂u².
+    pub suu: Vec3,
+    /// ∂²S/∂u∂v.
+    pub suv: Vec3,
+    /// ∂²S/∂v².
+    pub svv: Vec3,
+}
+
+impl SurfaceJet {
+    /// Fails with [`StrakeError::NonFinite`] naming the first non-finite entry.
+    pub fn check_finite(&self) -> Result<()> {
+        let entries: [(&'static str, &Vec3); 6] = [
+            ("S", &self.p),
+            ("Su", &self.su),
+            ("Sv", &self.sv),
+            ("Suu", &self.suu),
+            ("Suv", &self.suv),
+            ("Svv", &self.svv),
+        ];
+        for (name, v) in entries {
+            if !all_finite(v) {
+                let value = [v.x, v.y, v.z].into_iter().find(|c| !c.is_finite()).unwrap_or(f64::NAN);
+                return Err(StrakeError::NonFinite { source: NonFiniteSource::SurfaceJet, what: name, value });
+            }
+        }
+        Ok(())
+    }
+}
+
+/// A point (u, v) of a curve in the surface's parameter plane, with its first and second
+/// derivatives with respect to the curve parameter t.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct CurveJet {
+    /// u(t).
+    pub u: f64,
+    /// v(t).
+    pub v: f64,
+    /// du/dt.
+    pub du: f64,
+    /// dv/dt.
+    pub dv: f64,
+    /// d²u/dt².
+    pub ddu: f64,
+    /// d²v/dt².
+    pub ddv: f64,
+}
+
+impl CurveJet {
+    /// Fails with [`StrakeError::NonFinite`] naming the first non-finite entry.
+    pub fn check_finite(&self) -> Result<()> {
+        let entries = [
+            ("u", self.u),
+            ("v", self.v),
+            ("du", self.du),
+            ("dv", self.dv),
+            ("ddu", self.ddu),
+            ("ddv", self.ddv),
+        ];
+        for (name, value) in entries {
+            if !value.is_finite() {
+                return Err(StrakeError::NonFinite { source: NonFiniteSource::CurveJet, what: name, value });
+            }
+        }
+        Ok(())
+    }
+}
+
+/// A closed interval `[lo, hi]` of a parameter, with `lo < hi`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Interval {
+    /// Lower end.
+    pub lo: f64,
+    /// Upper end.
+    pub hi: f64,
+}
+
+impl Interval {
+    /// Validates and builds an interval; `name` is used in the error message.
+    pub fn new(name: &str, lo: f64, hi: f64) -> Result<Self> {
+        if !lo.is_finite() || !hi.is_finite() {
+            return Err(StrakeError::InvalidArgument(format!(
+                "{name} range [{lo}, {hi}] is not finite"
+            )));
+        }
+        if lo >= hi {
+            return Err(StrakeError::InvalidArgument(format!(
+                "{name} range [{lo}, {hi}] is empty: the lower end must be below the upper end"
+            )));
+        }
+        Ok(Interval { lo, hi })
+    }
+
+    /// `hi − lo`.
+    #[inline]
+    pub fn width(&self) -> f64 {
+        self.hi - self.lo
+    }
+
+    /// Fails with [`StrakeError::OutOfDomain`] (or `NonFinite`) unless `lo ≤ x ≤ hi`.
+    #[inline]
+    pub fn check(&self, name: &'static str, x: f64) -> Result<()> {
+        if !x.is_finite() {
+            return Err(StrakeError::NonFinite { source: NonFiniteSource::Parameter, what: name, value: x });
+        }
+        if x < self.lo || x > self.hi {
+            return Err(StrakeError::OutOfDomain { name, value: x, lo: self.lo, hi: self.hi });
+        }
+        Ok(())
+    }
+
+    /// `n` evenly spaced values from `lo` to `hi` inclusive (`n ≥ 2`), or `lo` when `n == 1`.
+    /// The last value is exactly `hi`.
+    #[inline]
+    pub fn even(&self, i: usize, n: usize) -> f64 {
+        if n <= 1 {
+            return self.lo;
+        }
+        if i + 1 == n {
+            return self.hi;
+        }
+        self.lo + self.width() * (i as f64 / (n - 1) as f64)
+    }
+}

@@ -1,0 +1,161 @@
+//! Knot vectors: validation and span search (The NURBS Book, 2nd ed., A2.1 FindSpan, p. 68),
+//! with a hint so that marching along a path does not search from scratch.
+
+use crate::error::{Result, StrakeError};
+use crate::jet::Interval;
+
+/// Highest degree strake accepts. Basis functions live in fixed-size stack arrays of
+/// `MAX_DEGREE + 1` entries so that evaluation never allocates.
+pub const MAX_DEGREE: usize = 24;
+
+/// A remembered knot span, to start the next span search from. A wrong or stale hint costs a
+/// search, never a wrong answer. `SpanHint::default()` holds no hint.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub struct SpanHint(pub Option<usize>);
+
+/// A validated knot vector U = {u₀, …, u_m} for degree p and n + 1 control points
+/// (m = n + p + 1). Its domain is [u_p, u_{n+1}].
+#[derive(Debug, Clone, PartialEq)]
+pub struct KnotVector {
+    knots: Vec<f64>,
+    degree: usize,
+    /// Number of control points n + 1.
+    count: usize,
+}
+
+impl KnotVector {
+    /// Validates a knot vector for `degree` and `count` control points.
+    ///
+    /// `name` (e.g. `"u knots"`) prefixes the messages. Errors: `InvalidDegree` for a degree of 0
+    /// or above [`MAX_DEGREE`], too few control points or a knot count other than
+    /// count + degree + 1; `InvalidKnots` for a non-finite or decreasing knot (naming its index
+    /// and value), a knot of multiplicity above degree + 1, or a zero-length domain.
+    pub fn new(name: &str, knots: &[f64], degree: usize, count: usize) -> Result<Self> {
+        if degree == 0 || degree > MAX_DEGREE {
+            return Err(StrakeError::InvalidDegree(format!(
+                "{name}: degree {degree} is outside 1..={MAX_DEGREE}"
+            )));
+        }
+        if count < degree + 1 {
+            return Err(StrakeError::InvalidDegree(format!(
+                "{name}: degree {degree} needs at least {} control points, got {count}",
+                degree + 1
+            )));
+        }
+        if knots.len() != count + degree + 1 {
+            return Err(StrakeError::InvalidDegree(format!(
+                "{name}: degree {degree} with {count} control points needs {} knots, got {}",
+                count + degree + 1,
+                knots.len()
+            )));
+        }
+        for (i, &k) in knots.iter().enumerate() {
+            if !k.is_finite() {
+                return Err(StrakeError::InvalidKnots(format!("{name}: knot[{i}] = {k} is not finite")));
+            }
+            if i > 0 && k < knots[i - 1] {
+                return Err(StrakeError::InvalidKnots(format!(
+                    "{name}: knot[{i}] = {k} is below knot[{}] = {}; knots must be non-decreasing",
+                    i - 1,
+                    knots[i - 1]
+                )));
+            }
+        }
+        let mut run_start = 0;
+        for i in 1..=knots.len() {
+            if i == knots.len() || knots[i] != knots[run_start] {
+                let mult = i - run_start;
+                if mult > degree + 1 {
+                    return Err(StrakeError::InvalidKnots(format!(
+                        "{name}: knot value {} at index {run_start} has multiplicity {mult}, \
+                         above degree + 1 = {}",
+                        knots[run_start],
+                        degree + 1
+                    )));
+                }
+                run_start = i;
+            }
+        }
+        let (lo, hi) = (knots[degree], knots[count]);
+        if lo >= hi {
+            return Err(StrakeError::InvalidKnots(format!(
+                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] has zero length"
+            )));
+        }
+        Ok(KnotVector { knots: knots.to_vec(), degree, count })
+    }
+
+    /// The knots.
+    #[inline]
+    pub fn knots(&self) -> &[f64] {
+        &self.knots
+    }
+
+    /// The degree p.
+    #[inline]
+    pub fn degree(&self) -> usize {
+        self.degree
+    }
+
+    /// The number of control points n + 1.
+    #[inline]
+    pub fn count(&self) -> usize {
+        self.count
+    }
+
+    /// The parameter domain [u_p, u_{n+1}].
+    #[inline]
+    pub fn domain(&self) -> Interval {
+        Interval { lo: self.knots[self.degree], hi: self.knots[self.count] }
+    }
+
+    /// The knot span index i with u_i ≤ u < u_{i+1} and u_i < u_{i+1}, p ≤ i ≤ n; at the upper
+    /// end of the domain, the last non-empty span. `u` must lie in the domain (callers check).
+    /// Tries `hint` and its right neighbour first, then binary search (A2.1), and stores the
+    /// span found in `hint`.
+    #[inline]
+    pub fn find_span(&self, u: f64, hint: &mut SpanHint) -> usize {
+        let k = &self.knots;
+        let n = self.count - 1;
+        if let Some(h) = hint.0 {
+            if u < k[n + 1] && h >= self.degree && h <= n && k[h] <= u {
+                if u < k[h + 1] {
+                    return h;
+                }
+                if h < n && u < k[h + 2] {
+                    // k[h + 1] <= u < k[h + 2]: the next span, non-empty.
+                    hint.0 = Some(h + 1);
+                    return h + 1;
+                }
+            }
+        }
+        let span = self.search(u);
+        hint.0 = Some(span);
+        span
+    }
+
+    fn search(&self, u: f64) -> usize {
+        let k = &self.knots;
+        let p = self.degree;
+        let n = self.count - 1;
+        if u >= k[n + 1] {
+            // Last non-empty span.
+            let mut i = n;
+            while k[i] >= k[n + 1] {
+                i -= 1;
+            }
+            return i;
+        }
+        let (mut lo, mut hi) = (p, n + 1);
+        // Invariant: k[lo] <= u < k[hi].
+        while hi - lo > 1 {
+            let mid = (lo + hi) / 2;
+            if u < k[mid] {
+                hi = mid;
+            } else {
+                lo = mid;
+            }
+        }
+        lo
+    }
+}

@@ -1,0 +1,190 @@
+//! The surface at one point: unit normal, fundamental forms, principal curvatures and
+//! directions, mean and Gaussian curvature.
+//!
+//! Sign convention: N = σ (Su × Sv)/|Su × Sv| with σ = +1 for [`Orientation::Forward`]
+//! and −1 for [`Orientation::Reversed`]. The second fundamental form uses this N:
+//! L = Suu·N, M = Suv·N, Nn = Svv·N, so a curvature is positive where the surface bends toward N
+//! (a sphere with the outward normal has k1 = k2 = −1/R).
+//!
+//! Principal curvatures are the eigenvalues of the shape operator, computed as the symmetric
+//! 2 × 2 matrix of the second fundamental form in the orthonormal tangent basis
+//! e1 = Su/|Su|, e2 = N × e1. Its eigenvalues are m ± d with m = (W11 + W22)/2 and
+//! d = hypot((W11 − W22)/2, W12): no H² − K cancellation, so they stay accurate at and near
+//! umbilics (do Carmo §3-3 gives k = H ± √(H² − K), which loses half the digits there).
+
+use crate::error::{NonFiniteSource, Result, StrakeError};
+use crate::jet::SurfaceJet;
+use crate::math::{Vec3, all_finite};
+
+/// Which way the unit normal points.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Orientation {
+    /// N = (Su × Sv)/|Su × Sv|.
+    #[default]
+    Forward,
+    /// N = −(Su × Sv)/|Su × Sv| (e.g. to put the normal on the tool side).
+    Reversed,
+}
+
+impl Orientation {
+    /// σ: +1.0 for `Forward`, −1.0 for `Reversed`.
+    #[inline(always)]
+    pub fn sign(self) -> f64 {
+        match self {
+            Orientation::Forward => 1.0,
+            Orientation::Reversed => -1.0,
+        }
+    }
+}
+
+/// Below this surface conditioning figure (see [`surface_conditioning`]) a point is refused as
+/// degenerate. The error of the normal grows like ε/c and that of the curvatures like ε/c²
+/// (ε = 2.2e-16); DEVELOPERS.md (accuracy) records the measurement behind the value.
+pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-7;
+
+/// The conditioning figure of a surface point: how far it is from a degenerate one.
+///
+/// c = |Su × Sv| Δu Δv / max(|Su| Δu, |Sv| Δv)², where Δu and Δv are the widths of the
+/// parameter domain (so that the figure does not depend on how the parameters are scaled).
+/// It is the sine of the angle between Su and Sv when |Su| Δu = |Sv| Δv, at most that sine
+/// otherwise, and it tends to 0 both when Su and Sv become parallel and when one of them
+/// vanishes (a pole). c = 0 when Su = Sv = 0. Dimensionless, in [0, 1].
+#[inline]
+pub fn surface_conditioning(su: &Vec3, sv: &Vec3, cross_norm: f64, u_extent: f64, v_extent: f64) -> f64 {
+    let a = su.norm() * u_extent;
+    let b = sv.norm() * v_extent;
+    let m = a.max(b);
+    if m == 0.0 || !m.is_finite() {
+        return 0.0;
+    }
+    (cross_norm * u_extent * v_extent) / (m * m)
+}
+
+/// Principal curvatures and directions at a surface point.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PrincipalCurvatures {
+    /// Larger principal curvature k1 (1/length; sign as in the module docs).
+    pub k1: f64,
+    /// Smaller principal curvature k2 ≤ k1.
+    pub k2: f64,
+    /// Unit direction of k1, tangent to the surface. At an umbilic (k1 = k2) every direction is
+    /// principal and this is Su/|Su|.
+    pub d1: Vec3,
+    /// Unit direction of k2: N × d1, so (d1, d2, N) is right-handed.
+    pub d2: Vec3,
+    /// Mean curvature H = (k1 + k2)/2.
+    pub mean: f64,
+    /// Gaussian curvature K = k1 k2 (1/length²).
+    pub gaussian: f64,
+}
+
+/// The local geometry of a surface point, everything that does not depend on a curve.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SurfacePoint {
+    /// Unit normal N (sign per [`Orientation`]).
+    pub n: Vec3,
+    /// First fundamental form E = Su·Su.
+    pub e: f64,
+    /// First fundamental form F = Su·Sv.
+    pub f: f64,
+    /// First fundamental form G = Sv·Sv.
+    pub g: f64,
+    /// |Su × Sv| = √(EG − F²).
+    pub area: f64,
+    /// Second fundamental form L = Suu·N.
+    pub l: f64,
+    /// Second fundamental form M = Suv·N.
+    pub m: f64,
+    /// Second fundamental form Nn = Svv·N.
+    pub nn: f64,
+    /// Principal curvatures and directions.
+    pub principal: PrincipalCurvatures,
+    /// Conditioning figure (see [`surface_conditioning`]).
+    pub conditioning: f64,
+}
+
+impl SurfacePoint {
+    /// Computes the normal, fundamental forms and principal curvatures from a second-order jet.
+    ///
+    /// `u`, `v` are only used in the error message. `u_extent`, `v_extent` are the widths of the
+    /// surface's parameter domain (for the conditioning figure). Errors: `NonFinite` for a
+    /// non-finite jet entry, `DegenerateSurface` when the conditioning figure is below
+    /// [`DEGENERATE_SURFACE_LIMIT`].
+    pub fn new(
+        jet: &SurfaceJet,
+        orientation: Orientation,
+        u: f64,
+        v: f64,
+        u_extent: f64,
+        v_extent: f64,
+    ) -> Result<Self> {
+        jet.check_finite()?;
+        let su = &jet.su;
+        let sv = &jet.sv;
+        let cross = su.cross(sv);
+        let area = cross.norm();
+        let conditioning = surface_conditioning(su, sv, area, u_extent, v_extent);
+        if !(conditioning >= DEGENERATE_SURFACE_LIMIT) {
+            return Err(StrakeError::DegenerateSurface { u, v, conditioning });
+        }
+        let sigma = orientation.sign();
+        let n = cross * (sigma / area);
+        let e = su.dot(su);
+        let f = su.dot(sv);
+        let g = sv.dot(sv);
+        let l = jet.suu.dot(&n);
+        let m = jet.suv.dot(&n);
+        let nn = jet.svv.dot(&n);
+
+        // Second fundamental form in the orthonormal basis e1 = Su/|Su|, e2 = N × e1.
+        // e2 = α Su + β Sv with β = σ|Su|/A, α = −σF/(|Su| A), A = |Su × Sv|.
+        let su_len = e.sqrt();
+        let beta = sigma * su_len / area;
+        let alpha = -sigma * f / (su_len * area);
+        let w11 = l / e;
+        let w12 = (l * alpha + m * beta) / su_len;
+        let w22 = l * alpha * alpha + 2.0 * m * alpha * beta + nn * beta * beta;
+        let half_diff = 0.5 * (w11 - w22);
+        let mean = 0.5 * (w11 + w22);
+        let d = half_diff.hypot(w12);
+        let k1 = mean + d;
+        let k2 = mean - d;
+        // Eigenvector of k1 at angle θ from e1 with tan 2θ = 2 W12 / (W11 − W22).
+        // At an umbilic (d at round-off level) every direction is principal: take e1.
+        let scale = w11.abs().max(w22.abs()).max(w12.abs());
+        let theta = if d <= 4.0 * f64::EPSILON * scale { 0.0 } else { 0.5 * w12.atan2(half_diff) };
+        let e1 = su / su_len;
+        let e2 = n.cross(&e1);
+        let (s, c) = theta.sin_cos();
+        let d1 = e1 * c + e2 * s;
+        let d2 = n.cross(&d1);
+        let principal = PrincipalCurvatures { k1, k2, d1, d2, mean, gaussian: k1 * k2 };
+        let out = SurfacePoint { n, e, f, g, area, l, m, nn, principal, conditioning };
+        if !(k1.is_finite() && k2.is_finite() && all_finite(&n) && out.principal.gaussian.is_finite()) {
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Result,
+                what: "principal curvature",
+                value: if k1.is_finite() { k2 } else { k1 },
+            });
+        }
+        Ok(out)
+    }
+
+    /// The second fundamental form II(X, Y) = L x₁y₁ + M (x₁y₂ + x₂y₁) + Nn x₂y₂ on tangent
+    /// vectors given by their (u, v) components x = (x₁, x₂), y = (y₁, y₂).
+    #[inline]
+    pub fn second_form(&self, x: (f64, f64), y: (f64, f64)) -> f64 {
+        self.l * x.0 * y.0 + self.m * (x.0 * y.1 + x.1 * y.0) + self.nn * x.1 * y.1
+    }
+
+    /// The (u, v) components (a, b) of a tangent vector X = a Su + b Sv, from X·Su and X·Sv
+    /// (solving the Gram system with the first fundamental form).
+    #[inline]
+    pub fn components(&self, x_dot_su: f64, x_dot_sv: f64) -> (f64, f64) {
+        let det = self.area * self.area;
+        (
+            (self.g * x_dot_su - self.f * x_dot_sv) / det,
+            (self.e * x_dot_sv - self.f * x_dot_su) / det,
+        )
+    }
+}

@@ -1,0 +1,65 @@
+//! Surfaces: one trait, "give me the jet at (u, v) up to order k, and your domain", implemented
+//! by analytic closures ([`FnSurface`]), by host callbacks (in the C ABI) and by native NURBS.
+
+mod closure;
+
+pub use closure::FnSurface;
+
+use crate::error::Result;
+use crate::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::nurbs::SpanHint;
+use crate::principal::Orientation;
+
+/// Remembered knot spans in u and v, for surfaces that have them; ignored by others.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub struct SurfaceHint {
+    /// Span hint in u.
+    pub u: SpanHint,
+    /// Span hint in v.
+    pub v: SpanHint,
+}
+
+/// A surface S(u, v) that can be evaluated with its partial derivatives.
+///
+/// Implementations must be safe to evaluate from several threads at once (`Send + Sync`);
+/// per-caller state lives in the [`SurfaceHint`] the caller passes.
+pub trait SurfaceSource: Send + Sync {
+    /// The u parameter domain.
+    fn u_domain(&self) -> Interval;
+    /// The v parameter domain.
+    fn v_domain(&self) -> Interval;
+    /// Which way the unit normal points (see [`Orientation`]).
+    fn orientation(&self) -> Orientation;
+    /// The jet at (u, v) up to `order`; entries above `order` may be left zero. Called only
+    /// with (u, v) inside the domain; the result is checked for finiteness by the caller
+    /// ([`SurfaceSource::checked_jet`]).
+    fn jet_in_domain(&self, u: f64, v: f64, order: DerivOrder, hint: &mut SurfaceHint) -> Result<SurfaceJet>;
+
+    /// The jet at (u, v): checks that u and v are finite and inside the domain (no clamping),
+    /// evaluates, and checks that every requested entry is finite.
+    ///
+    /// Errors: `NonFinite` (parameter or jet), `OutOfDomain`, and whatever the source reports.
+    #[inline]
+    fn checked_jet(&self, u: f64, v: f64, order: DerivOrder, hint: &mut SurfaceHint) -> Result<SurfaceJet> {
+        self.u_domain().check("u", u)?;
+        self.v_domain().check("v", v)?;
+        let jet = self.jet_in_domain(u, v, order, hint)?;
+        jet.check_finite()?;
+        Ok(jet)
+    }
+}
+
+impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
+    fn u_domain(&self) -> Interval {
+        (**self).u_domain()
+    }
+    fn v_domain(&self) -> Interval {
+        (**self).v_domain()
+    }
+    fn orientation(&self) -> Orientation {
+        (**self).orientation()
+    }
+    fn jet_in_domain(&self, u: f64, v: f64, order: DerivOrder, hint: &mut SurfaceHint) -> Result<SurfaceJet> {
+        (**self).jet_in_domain(u, v, order, hint)
+    }
+}
