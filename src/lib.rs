@@ -28,6 +28,6 @@ pub use frame::{
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
 pub use nurbs::{KnotVector, NurbsCurve, SpanHint};
-pub use path::{CurveOnSurface, Hints, SampleError};
+pub use path::{CurveOnSurface, Hints, PathSample, SampleError};
 pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

@@ -10,6 +10,18 @@ use crate::nurbs::SpanHint;
 use crate::principal::SurfacePoint;
 use crate::surface::{SurfaceHint, SurfaceSource};
 
+/// One sample of a path: where it is along the curve and its frame there.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PathSample {
+    /// Curve parameter t.
+    pub t: f64,
+    /// Arc length from the start of the sampled range to this sample (host length unit).
+    pub arc_length: f64,
+    /// Frame, invariants and principal curvatures at the sample; (u, v) are in `frame.u`,
+    /// `frame.v`.
+    pub frame: DarbouxFrame,
+}
+
 /// A failure inside a batch: the index of the sample that failed and why.
 #[derive(Debug, Clone, PartialEq)]
 pub struct SampleError {
