@@ -9,6 +9,7 @@
 #![warn(missing_docs)]
 
 pub mod analytic;
+pub mod checks;
 pub mod curve;
 pub mod error;
 pub mod ffi;

@@ -1,0 +1,30 @@
+//! What a machining or fibre-placement engineer asks of a path, computed from the Darboux frame
+//! and the principal curvatures: local gouging and the smallest lead angle that avoids it,
+//! scallop height and step-over, curvature-limited feed, fibre steering and twist, the tool
+//! axis, and path summaries with the intervals where a limit is violated.
+//!
+//! All of these are geometric aids. Toolpaths planned with them must be verified by simulation
+//! and on the machine; machine-builder limits and licensed practice come first.
+//!
+//! Sign convention shared by every check: the tool is on one side of the surface, given by
+//! [`ToolSide`]. A curvature "concave toward the tool" is s·κn with s = +1 when the tool is on
+//! the side N points to, −1 otherwise: positive where the surface bends toward the tool (a
+//! pocket floor seen from the cutter), negative where it bends away (a convex boss).
+
+pub mod cutter;
+pub mod feed;
+pub mod fibre;
+pub mod gouge;
+pub mod scallop;
+pub mod summary;
+pub mod tool_axis;
+
+pub use cutter::{Cutter, ToolSide};
+pub use feed::{FeedLimits, curvature_limited_feed};
+pub use fibre::{FibreLimits, FibreState, fibre_state};
+pub use gouge::{GougeState, gouge_state};
+pub use scallop::{
+    scallop_height, scallop_height_approx, step_over_for_scallop, step_over_for_scallop_approx,
+};
+pub use summary::{Extremes, Violation, extremes, violations};
+pub use tool_axis::{ToolAngles, tool_axis};

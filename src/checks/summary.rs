@@ -1,0 +1,165 @@
+//! Path summaries: the extreme values of a per-sample quantity and where they occur, and every
+//! interval along the path where it exceeds a limit, so that the host can refine or re-plan
+//! just those parts.
+//!
+//! Crossings of the limit between two samples are placed by linear interpolation of the
+//! quantity in arc length (and in t); their accuracy is that of the sampling. A quantity that
+//! must stay above a limit (e.g. a radius) is checked by passing its negation or its inverse
+//! (e.g. a curvature against the inverse of the smallest radius).
+
+use crate::error::{Result, StrakeError};
+use crate::path::PathSample;
+
+/// Where a quantity is smallest and largest along a path.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Extremes {
+    /// Smallest value.
+    pub min: f64,
+    /// Index of the sample where it occurs (the first, on ties).
+    pub min_index: usize,
+    /// Arc length there.
+    pub min_arc_length: f64,
+    /// Curve parameter there.
+    pub min_t: f64,
+    /// Largest value.
+    pub max: f64,
+    /// Index of the sample where it occurs (the first, on ties).
+    pub max_index: usize,
+    /// Arc length there.
+    pub max_arc_length: f64,
+    /// Curve parameter there.
+    pub max_t: f64,
+}
+
+/// An interval along the path where a quantity exceeds its limit.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Violation {
+    /// Arc length where the violation starts (interpolated crossing, or the first sample).
+    pub start_arc_length: f64,
+    /// Arc length where it ends (interpolated crossing, or the last sample).
+    pub end_arc_length: f64,
+    /// Curve parameter where it starts.
+    pub start_t: f64,
+    /// Curve parameter where it ends.
+    pub end_t: f64,
+    /// First violating sample.
+    pub first_index: usize,
+    /// Last violating sample.
+    pub last_index: usize,
+    /// Largest value inside the interval.
+    pub worst: f64,
+}
+
+fn check_lengths(samples: &[PathSample], values: &[f64]) -> Result<()> {
+    if samples.is_empty() || samples.len() != values.len() {
+        return Err(StrakeError::InvalidArgument(format!(
+            "{} samples and {} values: need the same, non-zero count",
+            samples.len(),
+            values.len()
+        )));
+    }
+    if let Some(i) = values.iter().position(|v| v.is_nan()) {
+        return Err(StrakeError::InvalidArgument(format!("value[{i}] is NaN")));
+    }
+    Ok(())
+}
+
+/// The extremes of `values[i]` (the quantity at `samples[i]`). Errors: `InvalidArgument` for
+/// empty or mismatched arrays, or a NaN value (naming its index).
+pub fn extremes(samples: &[PathSample], values: &[f64]) -> Result<Extremes> {
+    check_lengths(samples, values)?;
+    let (mut lo, mut hi) = (0, 0);
+    for (i, &v) in values.iter().enumerate() {
+        if v < values[lo] {
+            lo = i;
+        }
+        if v > values[hi] {
+            hi = i;
+        }
+    }
+    Ok(Extremes {
+        min: values[lo],
+        min_index: lo,
+        min_arc_length: samples[lo].arc_length,
+        min_t: samples[lo].t,
+        max: values[hi],
+        max_index: hi,
+        max_arc_length: samples[hi].arc_length,
+        max_t: samples[hi].t,
+    })
+}
+
+/// Where the crossing of `limit` lies between samples a and b, as (arc length, t).
+fn crossing(a: &PathSample, va: f64, b: &PathSample, vb: f64, limit: f64) -> (f64, f64) {
+    let f = (limit - va) / (vb - va);
+    if !f.is_finite() {
+        return (b.arc_length, b.t);
+    }
+    let f = f.clamp(0.0, 1.0);
+    (
+        a.arc_length + f * (b.arc_length - a.arc_length),
+        a.t + f * (b.t - a.t),
+    )
+}
+
+/// Every maximal run of samples with `values[i] > limit`, with interpolated ends, appended to
+/// `out` in path order. Errors as for [`extremes`], and for a NaN limit.
+pub fn violations(
+    samples: &[PathSample],
+    values: &[f64],
+    limit: f64,
+    out: &mut Vec<Violation>,
+) -> Result<()> {
+    check_lengths(samples, values)?;
+    if limit.is_nan() {
+        return Err(StrakeError::InvalidArgument("limit is NaN".into()));
+    }
+    let mut i = 0;
+    let n = values.len();
+    while i < n {
+        if values[i] <= limit {
+            i += 1;
+            continue;
+        }
+        let first = i;
+        let mut worst = values[i];
+        while i + 1 < n && values[i + 1] > limit {
+            i += 1;
+            worst = worst.max(values[i]);
+        }
+        let last = i;
+        let (s0, t0) = if first == 0 {
+            (samples[0].arc_length, samples[0].t)
+        } else {
+            crossing(
+                &samples[first - 1],
+                values[first - 1],
+                &samples[first],
+                values[first],
+                limit,
+            )
+        };
+        let (s1, t1) = if last + 1 == n {
+            (samples[last].arc_length, samples[last].t)
+        } else {
+            crossing(
+                &samples[last],
+                values[last],
+                &samples[last + 1],
+                values[last + 1],
+                limit,
+            )
+        };
+        out.push(Violation {
+            start_arc_length: s0,
+            end_arc_length: s1,
+            start_t: t0,
+            end_t: t1,
+            first_index: first,
+            last_index: last,
+            worst,
+        });
+        i += 1;
+    }
+    Ok(())
+}
