@@ -17,6 +17,7 @@ pub mod frame;
 pub mod jet;
 pub mod math;
 pub mod nurbs;
+pub mod parallel;
 pub mod path;
 pub mod principal;
 pub mod surface;

@@ -1,0 +1,70 @@
+//! Batch and parallel entry points give the same frames as one-at-a-time evaluation, and report
+//! the failing index.
+
+use strake::analytic::torus;
+use strake::parallel::frames_at_parallel;
+use strake::{CurveOnSurface, DarbouxFrame, Hints, NurbsCurve, StrakeError};
+
+fn curve() -> NurbsCurve<2> {
+    // A cubic UV path winding around the torus.
+    let knots = [0.0, 0.0, 0.0, 0.0, 0.3, 0.5, 0.8, 1.0, 1.0, 1.0, 1.0];
+    let pts = [
+        [0.1, 0.2],
+        [1.0, 1.5],
+        [2.0, 0.5],
+        [3.0, 3.0],
+        [4.0, 4.5],
+        [5.0, 2.0],
+        [6.0, 5.5],
+    ];
+    NurbsCurve::new(3, &knots, &pts, Some(&[1.0, 0.8, 1.2, 1.0, 0.9, 1.1, 1.0])).unwrap()
+}
+
+#[test]
+fn serial_batch_even_and_parallel_agree_with_single_frames() {
+    let s = torus(5.0, 1.5);
+    let c = curve();
+    let cs = CurveOnSurface::new(&s, &c);
+    let n = 2000;
+    let ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+    let mut single = Vec::with_capacity(n);
+    for &t in &ts {
+        // Fresh hints each time: no help from marching.
+        single.push(cs.frame(t, &mut Hints::default()).unwrap());
+    }
+    let blank = single[0];
+    let mut batch = vec![blank; n];
+    cs.frames_at(&ts, &mut batch).unwrap();
+    assert_eq!(batch, single);
+    let mut even = vec![blank; n];
+    cs.frames_even(&mut even).unwrap();
+    assert_eq!(even, single);
+    for threads in [1, 2, 3, 8] {
+        let mut par = vec![blank; n];
+        frames_at_parallel(&cs, &ts, &mut par, threads).unwrap();
+        assert_eq!(par, single, "threads = {threads}");
+    }
+}
+
+#[test]
+fn failures_report_the_lowest_index() {
+    let s = torus(5.0, 1.5);
+    let c = curve();
+    let cs = CurveOnSurface::new(&s, &c);
+    let n = 3000;
+    let mut ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+    ts[2100] = 1.5;
+    ts[2900] = f64::NAN;
+    let mut out: Vec<DarbouxFrame> = vec![cs.frame(0.0, &mut Hints::default()).unwrap(); n];
+    let e = frames_at_parallel(&cs, &ts, &mut out, 2).unwrap_err();
+    assert_eq!(e.index, 2100);
+    assert!(matches!(
+        e.error,
+        StrakeError::OutOfDomain { name: "t", .. }
+    ));
+    let e = cs.frames_at(&ts, &mut out).unwrap_err();
+    assert_eq!(e.index, 2100);
+    assert!(e.to_string().contains("sample 2100"));
+    assert!(frames_at_parallel(&cs, &ts, &mut out, 0).is_err());
+    assert!(cs.frames_at(&ts[..10], &mut out).is_err());
+}
