@@ -61,7 +61,8 @@ impl ParamScales {
 /// that crosses the surface once; tends to 0 where the curve stalls. Dimensionless.
 #[inline]
 pub fn curve_speed_figure(jet: &CurveJet, s: &ParamScales) -> f64 {
-    (jet.du / s.u_extent).hypot(jet.dv / s.v_extent) * s.t_extent
+    let (a, b) = (jet.du / s.u_extent, jet.dv / s.v_extent);
+    (a * a + b * b).sqrt() * s.t_extent
 }
 
 /// How far a result is from the degenerate cases that make it untrustworthy.

@@ -9,7 +9,7 @@
 //! Principal curvatures are the eigenvalues of the shape operator, computed as the symmetric
 //! 2 × 2 matrix of the second fundamental form in the orthonormal tangent basis
 //! e1 = Su/|Su|, e2 = N × e1. Its eigenvalues are m ± d with m = (W11 + W22)/2 and
-//! d = hypot((W11 − W22)/2, W12): no H² − K cancellation, so they stay accurate at and near
+//! d = √(((W11 − W22)/2)² + W12²): no H² − K cancellation, so they stay accurate at and near
 //! umbilics (do Carmo §3-3 gives k = H ± √(H² − K), which loses half the digits there).
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
@@ -50,20 +50,15 @@ pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-7;
 /// otherwise, and it tends to 0 both when Su and Sv become parallel and when one of them
 /// vanishes (a pole). c = 0 when Su = Sv = 0. Dimensionless, in [0, 1].
 #[inline]
-pub fn surface_conditioning(
-    su: &Vec3,
-    sv: &Vec3,
-    cross_norm: f64,
-    u_extent: f64,
-    v_extent: f64,
-) -> f64 {
-    let a = su.norm() * u_extent;
-    let b = sv.norm() * v_extent;
+pub fn surface_conditioning(su: &Vec3, sv: &Vec3, cross_norm: f64, u_extent: f64, v_extent: f64) -> f64 {
+    // max(|Su| Δu, |Sv| Δv)² = max(E Δu², G Δv²): no square roots needed.
+    let a = su.norm_squared() * (u_extent * u_extent);
+    let b = sv.norm_squared() * (v_extent * v_extent);
     let m = a.max(b);
     if m == 0.0 || !m.is_finite() {
         return 0.0;
     }
-    (cross_norm * u_extent * v_extent) / (m * m)
+    (cross_norm * u_extent * v_extent) / m
 }
 
 /// Principal curvatures and directions at a surface point.
@@ -145,28 +140,35 @@ impl SurfacePoint {
         // Second fundamental form in the orthonormal basis e1 = Su/|Su|, e2 = N × e1.
         // e2 = α Su + β Sv with β = σ|Su|/A, α = −σF/(|Su| A), A = |Su × Sv|.
         let su_len = e.sqrt();
-        let beta = sigma * su_len / area;
-        let alpha = -sigma * f / (su_len * area);
-        let w11 = l / e;
-        let w12 = (l * alpha + m * beta) / su_len;
+        let inv_su = 1.0 / su_len;
+        let inv_area = 1.0 / area;
+        let beta = sigma * su_len * inv_area;
+        let alpha = -sigma * f * inv_su * inv_area;
+        let w11 = l * inv_su * inv_su;
+        let w12 = (l * alpha + m * beta) * inv_su;
         let w22 = l * alpha * alpha + 2.0 * m * alpha * beta + nn * beta * beta;
         let half_diff = 0.5 * (w11 - w22);
         let mean = 0.5 * (w11 + w22);
-        let d = half_diff.hypot(w12);
+        // √ rather than hypot: hypot is several times slower, and the squares cannot overflow
+        // for curvatures below 1e150 per unit length.
+        let d = (half_diff * half_diff + w12 * w12).sqrt();
         let k1 = mean + d;
         let k2 = mean - d;
-        // Eigenvector of k1 at angle θ from e1 with tan 2θ = 2 W12 / (W11 − W22).
-        // At an umbilic (d at round-off level) every direction is principal: take e1.
+        // Eigenvector of k1, from whichever of the two equivalent forms is better conditioned:
+        // (d + h, W12) when h = (W11 − W22)/2 ≥ 0, else (W12, d − h). At an umbilic (d at
+        // round-off level) every direction is principal: take e1.
         let scale = w11.abs().max(w22.abs()).max(w12.abs());
-        let theta = if d <= 4.0 * f64::EPSILON * scale {
-            0.0
+        let (x, y) = if d <= 4.0 * f64::EPSILON * scale {
+            (1.0, 0.0)
+        } else if half_diff >= 0.0 {
+            (d + half_diff, w12)
         } else {
-            0.5 * w12.atan2(half_diff)
+            (w12, d - half_diff)
         };
-        let e1 = su / su_len;
+        let inv = 1.0 / (x * x + y * y).sqrt();
+        let e1 = su * inv_su;
         let e2 = n.cross(&e1);
-        let (s, c) = theta.sin_cos();
-        let d1 = e1 * c + e2 * s;
+        let d1 = e1 * (x * inv) + e2 * (y * inv);
         let d2 = n.cross(&d1);
         let principal = PrincipalCurvatures {
             k1,
