@@ -371,7 +371,7 @@ extern "C" {
  *
  * - `knots`: `knot_count` non-decreasing finite knots; `knot_count` must be
  *   `point_count + degree + 1`. Clamped and unclamped vectors are both accepted; the curve's
- *   domain is [knots[degree], knots[point_count]].
+ *   domain is `[knots[degree], knots[point_count]]`.
  * - `uv_points`: `2 * point_count` values, u then v for each control point.
  * - `weights`: NULL for a non-rational curve, else `point_count` positive finite weights.
  *

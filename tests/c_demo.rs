@@ -10,8 +10,8 @@ use std::path::PathBuf;
 use std::process::Command;
 use strake::nurbs::basis_rows;
 use strake::{
-    CurveOnSurface, DerivOrder, FnSurface, Hints, Interval, KnotVector, NurbsCurve, Orientation, SpanHint,
-    SurfaceJet, Vec3,
+    CurveOnSurface, DerivOrder, FnSurface, Hints, Interval, KnotVector, NurbsCurve, Orientation,
+    SpanHint, SurfaceJet, Vec3,
 };
 
 fn build(name: &str, sources: &[PathBuf], extra: &[&str]) -> PathBuf {
@@ -23,7 +23,10 @@ fn build(name: &str, sources: &[PathBuf], extra: &[&str]) -> PathBuf {
 }
 
 fn run(exe: &PathBuf, args: &[&str]) -> String {
-    let out = Command::new(exe).args(args).output().expect("run the C program");
+    let out = Command::new(exe)
+        .args(args)
+        .output()
+        .expect("run the C program");
     let stdout = String::from_utf8(out.stdout).expect("UTF-8 output");
     assert!(
         out.status.success(),
@@ -50,7 +53,12 @@ struct Raw {
 }
 
 fn numbers(rest: &[&str]) -> Vec<f64> {
-    rest.iter().map(|x| x.parse::<f64>().unwrap_or_else(|_| panic!("not a number: {x}"))).collect()
+    rest.iter()
+        .map(|x| {
+            x.parse::<f64>()
+                .unwrap_or_else(|_| panic!("not a number: {x}"))
+        })
+        .collect()
 }
 
 fn parse_raw(text: &str) -> Raw {
@@ -73,7 +81,12 @@ fn parse_raw(text: &str) -> Raw {
             "surface_count" => r.count_v = rest[1].parse().unwrap(),
             "knots_u" => r.knots_u = numbers(rest),
             "knots_v" => r.knots_v = numbers(rest),
-            "net" => r.net = numbers(rest).chunks(3).map(|c| Vec3::new(c[0], c[1], c[2])).collect(),
+            "net" => {
+                r.net = numbers(rest)
+                    .chunks(3)
+                    .map(|c| Vec3::new(c[0], c[1], c[2]))
+                    .collect()
+            }
             "path_knots" => r.path_knots = numbers(rest),
             "path_uv" => r.path_uv = numbers(rest).chunks(2).map(|c| [c[0], c[1]]).collect(),
             "frame" => {
@@ -82,7 +95,11 @@ fn parse_raw(text: &str) -> Raw {
                 assert_eq!(v[0] as usize, r.frames.len());
                 r.frames.push(v[1..].to_vec());
             }
-            "extreme" => r.extremes.push((rest[0].to_string(), rest[1].to_string(), rest[2].parse().unwrap())),
+            "extreme" => r.extremes.push((
+                rest[0].to_string(),
+                rest[1].to_string(),
+                rest[2].parse().unwrap(),
+            )),
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }
@@ -113,7 +130,14 @@ fn rust_surface(raw: &Raw) -> impl strake::SurfaceSource {
                 }
             }
         }
-        Ok(SurfaceJet { p: d[0][0], su: d[1][0], sv: d[0][1], suu: d[2][0], suv: d[1][1], svv: d[0][2] })
+        Ok(SurfaceJet {
+            p: d[0][0],
+            su: d[1][0],
+            sv: d[0][1],
+            suu: d[2][0],
+            suv: d[1][1],
+            svv: d[0][2],
+        })
     };
     let unit = Interval::new("u", 0.0, 1.0).unwrap();
     FnSurface::new(unit, unit, Orientation::Forward, f)
@@ -126,16 +150,57 @@ fn flatten(t: f64, f: &strake::DarbouxFrame) -> Vec<f64> {
     for w in [f.point, f.t, f.b, f.n] {
         v.extend_from_slice(w.as_slice());
     }
-    v.extend_from_slice(&[f.normal_curvature, f.geodesic_curvature, f.geodesic_torsion, f.speed, p.k1, p.k2]);
+    v.extend_from_slice(&[
+        f.normal_curvature,
+        f.geodesic_curvature,
+        f.geodesic_torsion,
+        f.speed,
+        p.k1,
+        p.k2,
+    ]);
     v.extend_from_slice(p.d1.as_slice());
     v.extend_from_slice(p.d2.as_slice());
-    v.extend_from_slice(&[p.mean, p.gaussian, f.conditioning.surface, f.conditioning.curve]);
+    v.extend_from_slice(&[
+        p.mean,
+        p.gaussian,
+        f.conditioning.surface,
+        f.conditioning.curve,
+    ]);
     v
 }
 
 const FIELD_NAMES: [&str; 31] = [
-    "t", "u", "v", "x", "y", "z", "Tx", "Ty", "Tz", "Bx", "By", "Bz", "Nx", "Ny", "Nz", "kn", "kg", "tg", "speed",
-    "k1", "k2", "d1x", "d1y", "d1z", "d2x", "d2y", "d2z", "H", "K", "surface_conditioning", "curve_speed_figure",
+    "t",
+    "u",
+    "v",
+    "x",
+    "y",
+    "z",
+    "Tx",
+    "Ty",
+    "Tz",
+    "Bx",
+    "By",
+    "Bz",
+    "Nx",
+    "Ny",
+    "Nz",
+    "kn",
+    "kg",
+    "tg",
+    "speed",
+    "k1",
+    "k2",
+    "d1x",
+    "d1y",
+    "d1z",
+    "d2x",
+    "d2y",
+    "d2z",
+    "H",
+    "K",
+    "surface_conditioning",
+    "curve_speed_figure",
 ];
 
 // The C host's evaluator and strake's Rust API are two independent implementations of the same
@@ -191,7 +256,10 @@ fn demo_numbers_match_the_rust_api() {
         } else {
             values.iter().cloned().fold(f64::NEG_INFINITY, f64::max)
         };
-        assert!((values[*index] - best).abs() <= 1e-12 * best.abs(), "{which} of {name}: sample {index}");
+        assert!(
+            (values[*index] - best).abs() <= 1e-12 * best.abs(),
+            "{which} of {name}: sample {index}"
+        );
     }
 }
 
@@ -216,8 +284,16 @@ fn demo_numbers_satisfy_the_identities() {
         assert!(t.dot(&n).abs() < 1e-14 && t.dot(&b).abs() < 1e-14 && b.dot(&n).abs() < 1e-14);
         assert!((t.cross(&b) - n).norm() < 1e-14);
         let (cos, sin) = (t.dot(&d1), t.dot(&d2));
-        assert!((kn - (k1 * cos * cos + k2 * sin * sin)).abs() < 1e-13 * kscale, "Euler kn at t = {}", c[0]);
-        assert!((tg - (k2 - k1) * sin * cos).abs() < 1e-13 * kscale, "Euler tg at t = {}", c[0]);
+        assert!(
+            (kn - (k1 * cos * cos + k2 * sin * sin)).abs() < 1e-13 * kscale,
+            "Euler kn at t = {}",
+            c[0]
+        );
+        assert!(
+            (tg - (k2 - k1) * sin * cos).abs() < 1e-13 * kscale,
+            "Euler tg at t = {}",
+            c[0]
+        );
         assert!((c[27] - 0.5 * (k1 + k2)).abs() < 1e-15 * kscale.max(1.0));
         assert!((c[28] - k1 * k2).abs() < 1e-15);
         assert!(k1 >= k2);
@@ -228,8 +304,16 @@ fn demo_numbers_satisfy_the_identities() {
 /// The table rows of the demo's normal output: the 13 numbers of each row.
 fn table_rows(text: &str) -> Vec<Vec<f64>> {
     text.lines()
-        .filter(|l| l.matches('|').count() == 4 && l.trim_start().starts_with(|c: char| c.is_ascii_digit()))
-        .map(|l| numbers(&l.split_whitespace().filter(|w| *w != "|").collect::<Vec<_>>()))
+        .filter(|l| {
+            l.matches('|').count() == 4 && l.trim_start().starts_with(|c: char| c.is_ascii_digit())
+        })
+        .map(|l| {
+            numbers(
+                &l.split_whitespace()
+                    .filter(|w| *w != "|")
+                    .collect::<Vec<_>>(),
+            )
+        })
         .collect()
 }
 
@@ -261,7 +345,12 @@ fn demo_prints_table_summary_and_refusal() {
     for (row, frame) in rows.iter().zip(&raw.frames) {
         for (col, field, decimals) in columns {
             let half_unit = 0.5 * 10f64.powi(-decimals) + 1e-12;
-            assert!((row[col] - frame[field]).abs() <= half_unit, "column {col}: {} vs {}", row[col], frame[field]);
+            assert!(
+                (row[col] - frame[field]).abs() <= half_unit,
+                "column {col}: {} vs {}",
+                row[col],
+                frame[field]
+            );
         }
     }
     for needle in [
@@ -279,7 +368,11 @@ fn demo_prints_table_summary_and_refusal() {
 
 #[test]
 fn c_abi_check_program_passes() {
-    let exe = build("abi_check", &[c_build::root().join("tests").join("c").join("abi_check.c")], &[]);
+    let exe = build(
+        "abi_check",
+        &[c_build::root().join("tests").join("c").join("abi_check.c")],
+        &[],
+    );
     let out = run(&exe, &[]);
     assert!(out.contains(", 0 failed"), "{out}");
 }
@@ -289,7 +382,11 @@ fn c_abi_check_program_passes() {
 #[test]
 fn c_programs_under_sanitizers() {
     if !c_build::sanitizers_available() {
-        eprintln!("note: {} cannot build with {:?}; sanitizer run skipped", c_build::compiler(), c_build::SANITIZER_FLAGS);
+        eprintln!(
+            "note: {} cannot build with {:?}; sanitizer run skipped",
+            c_build::compiler(),
+            c_build::SANITIZER_FLAGS
+        );
         return;
     }
     let check = build(
@@ -298,7 +395,11 @@ fn c_programs_under_sanitizers() {
         c_build::SANITIZER_FLAGS,
     );
     assert!(run(&check, &[]).contains(", 0 failed"));
-    let demo = build("mould_cavity_sanitized", &c_build::demo_sources(), c_build::SANITIZER_FLAGS);
+    let demo = build(
+        "mould_cavity_sanitized",
+        &c_build::demo_sources(),
+        c_build::SANITIZER_FLAGS,
+    );
     let plain = build("mould_cavity_plain", &c_build::demo_sources(), &[]);
     assert_eq!(run(&demo, &["--raw"]), run(&plain, &["--raw"]));
     run(&demo, &[]);
@@ -318,7 +419,15 @@ fn header_compiles_as_cpp() {
     )
     .unwrap();
     let out = Command::new(&cxx)
-        .args(["-std=c++11", "-Wall", "-Wextra", "-Wpedantic", "-Werror", "-fsyntax-only", "-I"])
+        .args([
+            "-std=c++11",
+            "-Wall",
+            "-Wextra",
+            "-Wpedantic",
+            "-Werror",
+            "-fsyntax-only",
+            "-I",
+        ])
         .arg(c_build::root().join("include"))
         .arg(&src)
         .output();

@@ -24,8 +24,12 @@ fn version_macros() -> String {
 
 fn generate() -> String {
     let dir = root();
-    let mut config = cbindgen::Config::from_file(dir.join("cbindgen.toml")).expect("cbindgen.toml parses");
-    config.after_includes = Some(format!("\n/** Version of this header (matches Cargo.toml). */\n{}", version_macros()));
+    let mut config =
+        cbindgen::Config::from_file(dir.join("cbindgen.toml")).expect("cbindgen.toml parses");
+    config.after_includes = Some(format!(
+        "\n/** Version of this header (matches Cargo.toml). */\n{}",
+        version_macros()
+    ));
     let bindings = cbindgen::Builder::new()
         .with_crate(&dir)
         .with_config(config)
@@ -46,7 +50,11 @@ fn first_difference(a: &str, b: &str) -> String {
             return format!("line {}:\n  committed: {x}\n  generated: {y}", i + 1);
         }
     }
-    format!("line counts differ: committed {}, generated {}", a.lines().count(), b.lines().count())
+    format!(
+        "line counts differ: committed {}, generated {}",
+        a.lines().count(),
+        b.lines().count()
+    )
 }
 
 #[test]
@@ -85,10 +93,22 @@ fn macro_value(header: &str, name: &str) -> String {
 #[test]
 fn version_macros_and_function_match_cargo_toml() {
     let h = header_text();
-    assert_eq!(macro_value(&h, "STRAKE_VERSION_MAJOR"), env!("CARGO_PKG_VERSION_MAJOR"));
-    assert_eq!(macro_value(&h, "STRAKE_VERSION_MINOR"), env!("CARGO_PKG_VERSION_MINOR"));
-    assert_eq!(macro_value(&h, "STRAKE_VERSION_PATCH"), env!("CARGO_PKG_VERSION_PATCH"));
-    assert_eq!(macro_value(&h, "STRAKE_VERSION_STRING"), format!("\"{}\"", env!("CARGO_PKG_VERSION")));
+    assert_eq!(
+        macro_value(&h, "STRAKE_VERSION_MAJOR"),
+        env!("CARGO_PKG_VERSION_MAJOR")
+    );
+    assert_eq!(
+        macro_value(&h, "STRAKE_VERSION_MINOR"),
+        env!("CARGO_PKG_VERSION_MINOR")
+    );
+    assert_eq!(
+        macro_value(&h, "STRAKE_VERSION_PATCH"),
+        env!("CARGO_PKG_VERSION_PATCH")
+    );
+    assert_eq!(
+        macro_value(&h, "STRAKE_VERSION_STRING"),
+        format!("\"{}\"", env!("CARGO_PKG_VERSION"))
+    );
     // SAFETY: strake_version returns a static NUL-terminated string.
     let v = unsafe { std::ffi::CStr::from_ptr(strake::ffi::strake_version()) };
     assert_eq!(v.to_str().unwrap(), env!("CARGO_PKG_VERSION"));
@@ -111,7 +131,11 @@ fn header_names_are_prefixed_and_statuses_numbered() {
     // Function declarations start at column 0 with a return type and an opening parenthesis.
     let functions: Vec<&str> = h
         .lines()
-        .filter(|l| !l.starts_with([' ', '/', '*', '#', '}', '{']) && !l.starts_with("typedef") && l.contains('('))
+        .filter(|l| {
+            !l.starts_with([' ', '/', '*', '#', '}', '{'])
+                && !l.starts_with("typedef")
+                && l.contains('(')
+        })
         .map(|l| l[..l.find('(').unwrap()].rsplit([' ', '*']).next().unwrap())
         .collect();
     for name in &functions {
@@ -141,7 +165,10 @@ fn header_names_are_prefixed_and_statuses_numbered() {
     }
     for s in strake::ffi::StrakeStatus::ALL {
         let name = s.c_name().to_str().unwrap();
-        assert!(h.contains(&format!("{name} = {},", s as u32)), "{name} missing or renumbered");
+        assert!(
+            h.contains(&format!("{name} = {},", s as u32)),
+            "{name} missing or renumbered"
+        );
     }
     assert!(Path::new(&header_path()).exists());
 }

@@ -19,7 +19,8 @@ use std::ffi::c_void;
 /// respect to t and return 0, or return a non-zero code to report a failure (strake returns
 /// `STRAKE_STATUS_CURVE_CALLBACK_FAILED` and passes the code back). Entries must be finite.
 /// The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
-pub type StrakeCurveFn = Option<unsafe extern "C" fn(user_data: *mut c_void, t: f64, out: *mut StrakeCurveJet) -> i32>;
+pub type StrakeCurveFn =
+    Option<unsafe extern "C" fn(user_data: *mut c_void, t: f64, out: *mut StrakeCurveJet) -> i32>;
 
 /// An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs` or
 /// `strake_curve_from_callback`, released by `strake_curve_free`. Immutable after creation, so
@@ -43,7 +44,10 @@ impl StrakeCurve {
 fn publish(curve: StrakeCurve, out: *mut *mut StrakeCurve) -> std::result::Result<(), Failure> {
     let slot = output(out, "out")?;
     // SAFETY: `out` was checked non-null and aligned; the caller provides a writable slot.
-    unsafe { slot.as_ptr().write(std::mem::MaybeUninit::new(Box::into_raw(Box::new(curve)))) };
+    unsafe {
+        slot.as_ptr()
+            .write(std::mem::MaybeUninit::new(Box::into_raw(Box::new(curve))))
+    };
     Ok(())
 }
 
@@ -51,7 +55,7 @@ fn publish(curve: StrakeCurve, out: *mut *mut StrakeCurve) -> std::result::Resul
 ///
 /// - `knots`: `knot_count` non-decreasing finite knots; `knot_count` must be
 ///   `point_count + degree + 1`. Clamped and unclamped vectors are both accepted; the curve's
-///   domain is [knots[degree], knots[point_count]].
+///   domain is `[knots[degree], knots[point_count]]`.
 /// - `uv_points`: `2 * point_count` values, u then v for each control point.
 /// - `weights`: NULL for a non-rational curve, else `point_count` positive finite weights.
 ///
@@ -80,7 +84,14 @@ pub unsafe extern "C" fn strake_curve_new_nurbs(
         output(out, "out")?;
         // SAFETY (all three slices): the caller guarantees the element counts documented above.
         let knots = unsafe { input_slice(knots, knot_count, "knots", "knot_count")? };
-        let points = unsafe { input_slice(uv_points.cast::<[f64; 2]>(), point_count, "uv_points", "point_count")? };
+        let points = unsafe {
+            input_slice(
+                uv_points.cast::<[f64; 2]>(),
+                point_count,
+                "uv_points",
+                "point_count",
+            )?
+        };
         let weights = if weights.is_null() {
             None
         } else {
@@ -114,7 +125,10 @@ impl UvCurve for CallbackCurve {
         // SAFETY: the host promised a callback with this signature; `jet` is valid and zeroed.
         let code = unsafe { (self.f)(self.user_data, t, &mut jet) };
         if code != 0 {
-            return Err(StrakeError::Callback { which: "curve", code });
+            return Err(StrakeError::Callback {
+                which: "curve",
+                code,
+            });
         }
         Ok(CurveJet::from(&jet))
     }
@@ -142,7 +156,14 @@ pub unsafe extern "C" fn strake_curve_from_callback(
         let f = f.ok_or_else(|| Failure::null("f"))?;
         output(out, "out")?;
         let domain = Interval::new("t", finite("t_min", t_min)?, finite("t_max", t_max)?)?;
-        publish(StrakeCurve::new(Box::new(CallbackCurve { f, user_data, domain })), out)
+        publish(
+            StrakeCurve::new(Box::new(CallbackCurve {
+                f,
+                user_data,
+                domain,
+            })),
+            out,
+        )
     })
 }
 

@@ -40,7 +40,10 @@ pub unsafe extern "C" fn strake_frame_at(
         let slot = output(out, "out")?;
         let frame = CurveOnSurface::new(s.source(), c.curve()).frame(t, &mut Hints::default())?;
         // SAFETY: `out` checked non-null and aligned; the caller provides a writable frame.
-        unsafe { slot.as_ptr().write(MaybeUninit::new(StrakeFrame::new(t, &frame))) };
+        unsafe {
+            slot.as_ptr()
+                .write(MaybeUninit::new(StrakeFrame::new(t, &frame)))
+        };
         Ok(())
     })
 }
@@ -62,12 +65,16 @@ fn batch(
     let mut hints = Hints::default();
     for index in 0..count {
         let t = t_of(index);
-        let frame = pair.frame(t, &mut hints).map_err(|error| SampleError { index, t, error })?;
+        let frame = pair
+            .frame(t, &mut hints)
+            .map_err(|error| SampleError { index, t, error })?;
         scratch.push(StrakeFrame::new(t, &frame));
     }
     // SAFETY: the caller provides room for `count` frames at `out` (non-null, aligned, size
     // checked by `check_count`); `scratch` is our own buffer and cannot overlap it.
-    unsafe { std::ptr::copy_nonoverlapping(scratch.as_ptr(), out.as_ptr().cast::<StrakeFrame>(), count) };
+    unsafe {
+        std::ptr::copy_nonoverlapping(scratch.as_ptr(), out.as_ptr().cast::<StrakeFrame>(), count)
+    };
     Ok(())
 }
 
@@ -167,7 +174,10 @@ pub unsafe extern "C" fn strake_frame_from_jets(
             e => e.into(),
         })?;
         // SAFETY: `out` checked non-null and aligned; the caller provides a writable frame.
-        unsafe { slot.as_ptr().write(MaybeUninit::new(StrakeFrame::new(0.0, &frame))) };
+        unsafe {
+            slot.as_ptr()
+                .write(MaybeUninit::new(StrakeFrame::new(0.0, &frame)))
+        };
         Ok(())
     })
 }

@@ -30,12 +30,19 @@ pub(crate) struct Failure {
 impl Failure {
     /// A failure with a status and a message.
     pub fn new(status: StrakeStatus, message: String) -> Self {
-        Failure { status, message, callback_code: None }
+        Failure {
+            status,
+            message,
+            callback_code: None,
+        }
     }
 
     /// `STRAKE_STATUS_NULL_POINTER` naming the argument.
     pub fn null(name: &str) -> Self {
-        Failure::new(StrakeStatus::NullPointer, format!("argument `{name}` is NULL"))
+        Failure::new(
+            StrakeStatus::NullPointer,
+            format!("argument `{name}` is NULL"),
+        )
     }
 
     /// `STRAKE_STATUS_INVALID_ARGUMENT` with a message.
@@ -53,13 +60,21 @@ fn callback_code(e: &StrakeError) -> Option<i32> {
 
 impl From<StrakeError> for Failure {
     fn from(e: StrakeError) -> Self {
-        Failure { status: StrakeStatus::of(&e), message: e.to_string(), callback_code: callback_code(&e) }
+        Failure {
+            status: StrakeStatus::of(&e),
+            message: e.to_string(),
+            callback_code: callback_code(&e),
+        }
     }
 }
 
 impl From<SampleError> for Failure {
     fn from(e: SampleError) -> Self {
-        Failure { status: StrakeStatus::of(&e.error), message: e.to_string(), callback_code: callback_code(&e.error) }
+        Failure {
+            status: StrakeStatus::of(&e.error),
+            message: e.to_string(),
+            callback_code: callback_code(&e.error),
+        }
     }
 }
 
@@ -75,7 +90,10 @@ fn panic_text(payload: &(dyn Any + Send)) -> &str {
 
 /// Runs the body of the exported function `func` behind the panic boundary and turns its
 /// outcome into a status (and the thread-local message on failure).
-pub(crate) fn guard(func: &'static str, body: impl FnOnce() -> Result<(), Failure>) -> StrakeStatus {
+pub(crate) fn guard(
+    func: &'static str,
+    body: impl FnOnce() -> Result<(), Failure>,
+) -> StrakeStatus {
     // Handles are immutable, so a panic cannot leave one half-changed: asserting unwind safety
     // is sound here.
     match catch_unwind(AssertUnwindSafe(body)) {
@@ -86,7 +104,10 @@ pub(crate) fn guard(func: &'static str, body: impl FnOnce() -> Result<(), Failur
         }
         Err(payload) => {
             message::record(
-                format!("{func}: internal error (panic caught at the C boundary): {}", panic_text(&*payload)),
+                format!(
+                    "{func}: internal error (panic caught at the C boundary): {}",
+                    panic_text(&*payload)
+                ),
                 None,
             );
             StrakeStatus::InternalPanic
@@ -106,7 +127,10 @@ pub(crate) fn non_null<T>(p: *const T, name: &str) -> Result<NonNull<T>, Failure
     if !p.is_aligned() {
         return Err(Failure::new(
             StrakeStatus::NullPointer,
-            format!("argument `{name}` = {p:p} is not aligned to {} bytes", std::mem::align_of::<T>()),
+            format!(
+                "argument `{name}` = {p:p} is not aligned to {} bytes",
+                std::mem::align_of::<T>()
+            ),
         ));
     }
     Ok(nn)
@@ -124,7 +148,9 @@ pub(crate) unsafe fn input<'a, T>(p: *const T, name: &str) -> Result<&'a T, Fail
 /// Checks that `count` elements of `T` fit in one allocation (at most `isize::MAX` bytes).
 pub(crate) fn check_count<T>(count: usize, name: &str) -> Result<(), Failure> {
     if count == 0 {
-        return Err(Failure::invalid(format!("`{name}` is 0; at least one element is needed")));
+        return Err(Failure::invalid(format!(
+            "`{name}` is 0; at least one element is needed"
+        )));
     }
     match count.checked_mul(std::mem::size_of::<T>()) {
         Some(bytes) if bytes <= isize::MAX as usize => Ok(()),
@@ -140,7 +166,12 @@ pub(crate) fn check_count<T>(count: usize, name: &str) -> Result<(), Failure> {
 ///
 /// # Safety
 /// When not NULL, `p` must point to `len` valid elements not written during the call.
-pub(crate) unsafe fn input_slice<'a, T>(p: *const T, len: usize, name: &str, len_name: &str) -> Result<&'a [T], Failure> {
+pub(crate) unsafe fn input_slice<'a, T>(
+    p: *const T,
+    len: usize,
+    name: &str,
+    len_name: &str,
+) -> Result<&'a [T], Failure> {
     let nn = non_null(p, name)?;
     check_count::<T>(len, len_name)?;
     // SAFETY: non-null, aligned, size fits in isize; validity is the caller's contract.
@@ -161,7 +192,9 @@ mod tests {
     // (common practice for C ABIs: unwinding across `extern "C"` aborts the host).
     #[test]
     fn a_panic_becomes_internal_panic_with_message() {
-        let status = guard("strake_test_fn", || -> Result<(), Failure> { panic!("boom at index 7") });
+        let status = guard("strake_test_fn", || -> Result<(), Failure> {
+            panic!("boom at index 7")
+        });
         assert_eq!(status, StrakeStatus::InternalPanic);
         let m = message::last_message();
         assert!(m.starts_with("strake_test_fn: internal error"), "{m}");
@@ -173,7 +206,11 @@ mod tests {
     #[test]
     fn failures_carry_status_message_and_callback_code() {
         let status = guard("strake_test_fn", || {
-            Err(StrakeError::Callback { which: "curve", code: -12 }.into())
+            Err(StrakeError::Callback {
+                which: "curve",
+                code: -12,
+            }
+            .into())
         });
         assert_eq!(status, StrakeStatus::CurveCallbackFailed);
         assert!(message::last_message().contains("code -12"));
@@ -195,6 +232,11 @@ mod tests {
         let e = check_count::<[f64; 2]>(usize::MAX / 2 + 1, "point_count").unwrap_err();
         assert_eq!(e.status, StrakeStatus::InvalidArgument);
         assert!(e.message.contains("too large"));
-        assert!(check_count::<f64>(0, "count").unwrap_err().message.contains("`count` is 0"));
+        assert!(
+            check_count::<f64>(0, "count")
+                .unwrap_err()
+                .message
+                .contains("`count` is 0")
+        );
     }
 }

@@ -27,7 +27,9 @@ pub(crate) fn record(message: String, callback_code: Option<i32>) {
 
 /// A copy of this thread's last message (empty when nothing has failed on this thread).
 pub fn last_message() -> String {
-    LAST_MESSAGE.try_with(|m| m.borrow().clone()).unwrap_or_default()
+    LAST_MESSAGE
+        .try_with(|m| m.borrow().clone())
+        .unwrap_or_default()
 }
 
 /// Copies the message of the last failed call on this thread into `buf`.

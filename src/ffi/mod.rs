@@ -5,7 +5,7 @@
 //!
 //! Rules every exported function follows:
 //! - Its name starts with `strake_`, types with `Strake`, constants with `STRAKE_`.
-//! - Its whole body runs inside [`guard`](self::guard) (one `catch_unwind` boundary): no panic
+//! - Its whole body runs inside the guard of `guard.rs` (one `catch_unwind` boundary): no panic
 //!   crosses into the host; a caught panic is `STRAKE_STATUS_INTERNAL_PANIC`.
 //! - It returns a [`StrakeStatus`] (functions that cannot fail return their value instead).
 //! - Every pointer is checked: NULL (or misaligned) gives `STRAKE_STATUS_NULL_POINTER` naming
@@ -35,10 +35,15 @@ pub mod surface;
 pub mod types;
 pub mod version;
 
-pub use curve::{StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback, strake_curve_new_nurbs};
+pub use curve::{
+    StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
+    strake_curve_new_nurbs,
+};
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
 pub use message::{strake_last_callback_code, strake_last_error_message};
 pub use status::{StrakeStatus, strake_status_name};
-pub use surface::{StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback};
+pub use surface::{
+    StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
+};
 pub use types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurfaceJet};
 pub use version::strake_version;

@@ -132,6 +132,8 @@ impl StrakeStatus {
 #[unsafe(no_mangle)]
 pub extern "C" fn strake_status_name(status: u32) -> *const std::ffi::c_char {
     crate::ffi::guard::guard_value(c"STRAKE_STATUS_UNKNOWN".as_ptr(), || {
-        StrakeStatus::from_code(status).map_or(c"STRAKE_STATUS_UNKNOWN", StrakeStatus::c_name).as_ptr()
+        StrakeStatus::from_code(status)
+            .map_or(c"STRAKE_STATUS_UNKNOWN", StrakeStatus::c_name)
+            .as_ptr()
     })
 }

@@ -29,7 +29,13 @@ use std::ffi::c_void;
 /// called from several threads at once when the host evaluates one handle from several
 /// threads; `user_data` must allow that.
 pub type StrakeSurfaceFn = Option<
-    unsafe extern "C" fn(user_data: *mut c_void, u: f64, v: f64, order: i32, out: *mut StrakeSurfaceJet) -> i32,
+    unsafe extern "C" fn(
+        user_data: *mut c_void,
+        u: f64,
+        v: f64,
+        order: i32,
+        out: *mut StrakeSurfaceJet,
+    ) -> i32,
 >;
 
 /// An opaque surface: created by `strake_surface_from_callback`, released by
@@ -55,10 +61,16 @@ impl StrakeSurface {
 }
 
 /// Hands a new surface to the host through `out`.
-pub(crate) fn publish(surface: StrakeSurface, out: *mut *mut StrakeSurface) -> std::result::Result<(), Failure> {
+pub(crate) fn publish(
+    surface: StrakeSurface,
+    out: *mut *mut StrakeSurface,
+) -> std::result::Result<(), Failure> {
     let slot = output(out, "out")?;
     // SAFETY: `out` was checked non-null and aligned; the caller provides a writable slot.
-    unsafe { slot.as_ptr().write(std::mem::MaybeUninit::new(Box::into_raw(Box::new(surface)))) };
+    unsafe {
+        slot.as_ptr()
+            .write(std::mem::MaybeUninit::new(Box::into_raw(Box::new(surface))))
+    };
     Ok(())
 }
 
@@ -89,13 +101,22 @@ impl SurfaceSource for CallbackSurface {
         self.orientation
     }
     #[inline]
-    fn jet_in_domain(&self, u: f64, v: f64, order: DerivOrder, _hint: &mut SurfaceHint) -> Result<SurfaceJet> {
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        _hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
         let mut jet = StrakeSurfaceJet::default();
         // SAFETY: the host promised a callback with this signature; `jet` is a valid, zeroed,
         // exclusively borrowed jet for the duration of the call.
         let code = unsafe { (self.f)(self.user_data, u, v, order as i32, &mut jet) };
         if code != 0 {
-            return Err(StrakeError::Callback { which: "surface", code });
+            return Err(StrakeError::Callback {
+                which: "surface",
+                code,
+            });
         }
         Ok(SurfaceJet::from(&jet))
     }
@@ -106,7 +127,12 @@ pub(crate) fn finite(name: &'static str, value: f64) -> std::result::Result<f64,
     if value.is_finite() {
         Ok(value)
     } else {
-        Err(StrakeError::NonFinite { source: NonFiniteSource::Parameter, what: name, value }.into())
+        Err(StrakeError::NonFinite {
+            source: NonFiniteSource::Parameter,
+            what: name,
+            value,
+        }
+        .into())
     }
 }
 
@@ -115,7 +141,9 @@ pub(crate) fn orientation(flip_normal: i32) -> std::result::Result<Orientation, 
     match flip_normal {
         0 => Ok(Orientation::Forward),
         1 => Ok(Orientation::Reversed),
-        x => Err(Failure::invalid(format!("`flip_normal` = {x}; it must be 0 (N along Su x Sv) or 1 (reversed)"))),
+        x => Err(Failure::invalid(format!(
+            "`flip_normal` = {x}; it must be 0 (N along Su x Sv) or 1 (reversed)"
+        ))),
     }
 }
 
@@ -152,7 +180,13 @@ pub unsafe extern "C" fn strake_surface_from_callback(
         let u = Interval::new("u", finite("u_min", u_min)?, finite("u_max", u_max)?)?;
         let v = Interval::new("v", finite("v_min", v_min)?, finite("v_max", v_max)?)?;
         let orientation = orientation(flip_normal)?;
-        let source = CallbackSurface { f, user_data, u, v, orientation };
+        let source = CallbackSurface {
+            f,
+            user_data,
+            u,
+            v,
+            orientation,
+        };
         publish(StrakeSurface::new(Box::new(source)), out)
     })
 }

@@ -60,7 +60,14 @@ pub struct StrakeCurveJet {
 
 impl From<&StrakeCurveJet> for CurveJet {
     fn from(j: &StrakeCurveJet) -> Self {
-        CurveJet { u: j.u, v: j.v, du: j.du, dv: j.dv, ddu: j.ddu, ddv: j.ddv }
+        CurveJet {
+            u: j.u,
+            v: j.v,
+            du: j.du,
+            dv: j.dv,
+            ddu: j.ddu,
+            ddv: j.ddv,
+        }
     }
 }
 
@@ -81,7 +88,11 @@ pub struct StrakeParamScales {
 
 impl From<&StrakeParamScales> for ParamScales {
     fn from(s: &StrakeParamScales) -> Self {
-        ParamScales { u_extent: s.u_extent, v_extent: s.v_extent, t_extent: s.t_extent }
+        ParamScales {
+            u_extent: s.u_extent,
+            v_extent: s.v_extent,
+            t_extent: s.t_extent,
+        }
     }
 }
 

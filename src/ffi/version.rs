@@ -2,10 +2,11 @@
 
 use std::ffi::{CStr, c_char};
 
-const VERSION: &CStr = match CStr::from_bytes_with_nul(concat!(env!("CARGO_PKG_VERSION"), "\0").as_bytes()) {
-    Ok(v) => v,
-    Err(_) => panic!("the package version contains a NUL byte"),
-};
+const VERSION: &CStr =
+    match CStr::from_bytes_with_nul(concat!(env!("CARGO_PKG_VERSION"), "\0").as_bytes()) {
+        Ok(v) => v,
+        Err(_) => panic!("the package version contains a NUL byte"),
+    };
 
 /// The version of the library actually loaded, as "MAJOR.MINOR.PATCH" (a static NUL-terminated
 /// string owned by the library; do not free it). Compare it with STRAKE_VERSION_STRING from the

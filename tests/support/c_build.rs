@@ -13,7 +13,11 @@ use std::process::Command;
 pub const STRICT_FLAGS: &[&str] = &["-std=c11", "-Wall", "-Wextra", "-Wpedantic", "-Werror"];
 
 /// Sanitizer flags for the checked builds.
-pub const SANITIZER_FLAGS: &[&str] = &["-fsanitize=address,undefined", "-fno-sanitize-recover=all", "-g"];
+pub const SANITIZER_FLAGS: &[&str] = &[
+    "-fsanitize=address,undefined",
+    "-fno-sanitize-recover=all",
+    "-g",
+];
 
 /// The crate's root directory.
 pub fn root() -> PathBuf {
@@ -22,11 +26,18 @@ pub fn root() -> PathBuf {
 
 /// The C compiler: `$CC` or `cc`.
 pub fn compiler() -> String {
-    std::env::var("CC").ok().filter(|c| !c.is_empty()).unwrap_or_else(|| "cc".to_string())
+    std::env::var("CC")
+        .ok()
+        .filter(|c| !c.is_empty())
+        .unwrap_or_else(|| "cc".to_string())
 }
 
 fn library_file_name() -> String {
-    format!("{}strake{}", std::env::consts::DLL_PREFIX, std::env::consts::DLL_SUFFIX)
+    format!(
+        "{}strake{}",
+        std::env::consts::DLL_PREFIX,
+        std::env::consts::DLL_SUFFIX
+    )
 }
 
 /// The directory holding the shared library built together with the running program:
@@ -35,13 +46,19 @@ fn library_file_name() -> String {
 /// build that needs the library; the copy directly in `target/<profile>/` is only refreshed by
 /// `cargo build` and may be stale, so it is not used.
 pub fn library_dir() -> Result<PathBuf, String> {
-    let exe = std::env::current_exe().map_err(|e| format!("cannot locate the running executable: {e}"))?;
+    let exe = std::env::current_exe()
+        .map_err(|e| format!("cannot locate the running executable: {e}"))?;
     let name = library_file_name();
     exe.ancestors()
         .skip(1)
         .flat_map(|d| [d.to_path_buf(), d.join("deps")])
         .find(|d| d.file_name().is_some_and(|n| n == "deps") && d.join(&name).is_file())
-        .ok_or_else(|| format!("{name} not found in the deps directory above {}", exe.display()))
+        .ok_or_else(|| {
+            format!(
+                "{name} not found in the deps directory above {}",
+                exe.display()
+            )
+        })
 }
 
 /// A directory for compiled C programs, inside the target directory.
@@ -72,7 +89,9 @@ pub fn compile(sources: &[PathBuf], output: &Path, extra: &[&str]) -> Result<(),
         cmd.arg(format!("-Wl,-rpath,{}", lib.display()));
     }
     let shown = format!("{cmd:?}");
-    let out = cmd.output().map_err(|e| format!("cannot run the C compiler `{}`: {e}", compiler()))?;
+    let out = cmd
+        .output()
+        .map_err(|e| format!("cannot run the C compiler `{}`: {e}", compiler()))?;
     if !out.status.success() {
         return Err(format!(
             "C compilation failed:\n{shown}\n{}{}",
@@ -98,7 +117,10 @@ pub fn sanitizers_available() -> bool {
         .arg(&exe)
         .output()
         .is_ok_and(|o| o.status.success());
-    built && Command::new(&exe).output().is_ok_and(|o| o.status.success())
+    built
+        && Command::new(&exe)
+            .output()
+            .is_ok_and(|o| o.status.success())
 }
 
 /// The C sources of the mould cavity demo.
