@@ -436,3 +436,69 @@ fn header_compiles_as_cpp() {
         Ok(o) => assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr)),
     }
 }
+
+// The same programs under valgrind's memcheck when it is installed: invalid reads or writes,
+// uses of uninitialised memory and definite leaks on either side of the boundary fail the run
+// (common practice for C ABIs). Skipped with a note when valgrind is absent.
+#[test]
+fn c_programs_under_valgrind() {
+    if Command::new("valgrind").arg("--version").output().is_err() {
+        eprintln!("note: valgrind not found; memcheck run skipped");
+        return;
+    }
+    let check = build(
+        "abi_check_memcheck",
+        &[c_build::root().join("tests").join("c").join("abi_check.c")],
+        &[],
+    );
+    let demo = build("mould_cavity_memcheck", &c_build::demo_sources(), &[]);
+    for (exe, args) in [(&check, vec![]), (&demo, vec![]), (&demo, vec!["--raw"])] {
+        let out = Command::new("valgrind")
+            .args([
+                "-q",
+                "--error-exitcode=99",
+                "--leak-check=full",
+                "--errors-for-leak-kinds=definite",
+            ])
+            .arg(exe)
+            .args(&args)
+            .output()
+            .expect("run valgrind");
+        assert!(
+            out.status.success(),
+            "valgrind {} {args:?} failed ({}):\n{}",
+            exe.display(),
+            out.status,
+            String::from_utf8_lossy(&out.stderr)
+        );
+    }
+}
+
+// The README's C example compiles cleanly and runs. For the bowl z = (x^2 + y^2)/2 with the
+// upward normal Su x Sv = (-u, -v, 1), the second fundamental form is (du^2 + dv^2)/sqrt(1 +
+// u^2 + v^2), positive definite (do Carmo §3-3, graph of a function), so kn = II/I > 0 in
+// every direction: every printed kn must be positive.
+#[test]
+fn readme_example_runs() {
+    let exe = build(
+        "readme_example",
+        &[c_build::root()
+            .join("tests")
+            .join("c")
+            .join("readme_example.c")],
+        &[],
+    );
+    let out = run(&exe, &[]);
+    let kns: Vec<f64> = out
+        .lines()
+        .map(|l| {
+            let kn = l
+                .split_whitespace()
+                .find_map(|w| w.strip_prefix("kn="))
+                .expect("kn= in each line");
+            kn.parse().unwrap()
+        })
+        .collect();
+    assert_eq!(kns.len(), 5, "{out}");
+    assert!(kns.iter().all(|&k| k > 0.0), "{out}");
+}
