@@ -1,1 +1,49 @@
-//! The C ABI (placeholder module, filled in by the ffi layer).
+//! The C ABI: the only module with `extern "C"` and raw pointers. Thin by design: each function
+//! checks its arguments, converts them, calls the layers above and maps errors to statuses.
+//! Nothing of the math lives here. The header `include/strake.h` is generated from these items
+//! by cbindgen (see `cbindgen.toml` and `tests/header.rs`).
+//!
+//! Rules every exported function follows:
+//! - Its name starts with `strake_`, types with `Strake`, constants with `STRAKE_`.
+//! - Its whole body runs inside the guard of `guard.rs` (one `catch_unwind` boundary): no panic
+//!   crosses into the host; a caught panic is `STRAKE_STATUS_INTERNAL_PANIC`.
+//! - It returns a [`StrakeStatus`] (functions that cannot fail return their value instead).
+//! - Every pointer is checked: NULL (or misaligned) gives `STRAKE_STATUS_NULL_POINTER` naming
+//!   the argument; counts of zero or sizes that overflow give `STRAKE_STATUS_INVALID_ARGUMENT`.
+//! - Outputs are written only on success; on failure the thread-local message (see
+//!   `strake_last_error_message`) says which argument, index, value or sample was wrong.
+//! - Inputs are `const` pointers, outputs non-`const`; arrays are copied at creation, so the
+//!   host may free them after the call. Handles are owned by the host and released with the
+//!   matching `_free` function, where NULL is a no-op.
+//!
+//! Threads: handles are immutable after creation; one handle may be evaluated from many
+//! threads at once. Host callbacks may then be called concurrently from those threads, so the
+//! host's callback and `user_data` must allow that (or the host evaluates from one thread).
+//! Messages and callback codes are per thread.
+//!
+//! Adding a constructor for another kind of surface or curve takes one new file here: build the
+//! Rust object, wrap it with [`StrakeSurface::new`] or [`StrakeCurve::new`] and hand it out; the
+//! evaluation functions work unchanged.
+
+pub(crate) mod guard;
+
+pub mod curve;
+pub mod evaluate;
+pub mod message;
+pub mod status;
+pub mod surface;
+pub mod types;
+pub mod version;
+
+pub use curve::{
+    StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
+    strake_curve_new_nurbs,
+};
+pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
+pub use message::{strake_last_callback_code, strake_last_error_message};
+pub use status::{StrakeStatus, strake_status_name};
+pub use surface::{
+    StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
+};
+pub use types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurfaceJet};
+pub use version::strake_version;

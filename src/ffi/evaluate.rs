@@ -1,0 +1,183 @@
+//! Evaluation entry points: one frame, a whole path given by the host's parameters, a path at
+//! evenly spaced parameters, and the pure frame from two jets.
+//!
+//! Outputs are written only on success. The batch calls evaluate into one scratch buffer
+//! allocated per call (never per point), and copy it to the host's array once every sample has
+//! succeeded; a failure names the sample's index and parameter.
+
+use super::curve::StrakeCurve;
+use super::guard::{Failure, check_count, guard, input, input_slice, output};
+use super::status::StrakeStatus;
+use super::surface::{StrakeSurface, orientation};
+use super::types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurfaceJet};
+use crate::error::StrakeError;
+use crate::frame::{ParamScales, darboux_frame};
+use crate::jet::{CurveJet, SurfaceJet};
+use crate::path::{CurveOnSurface, Hints, SampleError};
+use std::mem::MaybeUninit;
+
+/// Computes the frame at curve parameter `t` of `curve` lying on `surface`.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t`, or a callback's jet entry);
+/// OUT_OF_DOMAIN (t outside the curve's domain, or the curve's (u, v) outside the surface's);
+/// DEGENERATE_SURFACE; STALLED_CURVE; SURFACE_CALLBACK_FAILED; CURVE_CALLBACK_FAILED.
+///
+/// Thread-safe: any number of threads may evaluate the same handles at once.
+///
+/// # Safety
+/// `surface` and `curve` must be NULL or live handles; `out` NULL or writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_frame_at(
+    surface: *const StrakeSurface,
+    curve: *const StrakeCurve,
+    t: f64,
+    out: *mut StrakeFrame,
+) -> StrakeStatus {
+    guard("strake_frame_at", || {
+        // SAFETY: the caller passes live handles or NULL.
+        let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
+        let slot = output(out, "out")?;
+        let frame = CurveOnSurface::new(s.source(), c.curve()).frame(t, &mut Hints::default())?;
+        // SAFETY: `out` checked non-null and aligned; the caller provides a writable frame.
+        unsafe {
+            slot.as_ptr()
+                .write(MaybeUninit::new(StrakeFrame::new(t, &frame)))
+        };
+        Ok(())
+    })
+}
+
+/// Evaluates `count` samples with parameters `t_of(i)` into a scratch buffer, then copies them
+/// to `out`.
+fn batch(
+    surface: &StrakeSurface,
+    curve: &StrakeCurve,
+    count: usize,
+    out: std::ptr::NonNull<MaybeUninit<StrakeFrame>>,
+    t_of: impl Fn(usize) -> f64,
+) -> Result<(), Failure> {
+    let pair = CurveOnSurface::new(surface.source(), curve.curve());
+    let mut scratch: Vec<StrakeFrame> = Vec::new();
+    scratch.try_reserve_exact(count).map_err(|_| {
+        Failure::invalid(format!("cannot allocate scratch space for {count} frames"))
+    })?;
+    let mut hints = Hints::default();
+    for index in 0..count {
+        let t = t_of(index);
+        let frame = pair
+            .frame(t, &mut hints)
+            .map_err(|error| SampleError { index, t, error })?;
+        scratch.push(StrakeFrame::new(t, &frame));
+    }
+    // SAFETY: the caller provides room for `count` frames at `out` (non-null, aligned, size
+    // checked by `check_count`); `scratch` is our own buffer and cannot overlap it.
+    unsafe {
+        std::ptr::copy_nonoverlapping(scratch.as_ptr(), out.as_ptr().cast::<StrakeFrame>(), count)
+    };
+    Ok(())
+}
+
+/// Computes the frames at the `count` curve parameters `ts` (a whole path in one call):
+/// `out[i]` is the frame at `ts[i]`. The parameters need not be sorted, but marching in order
+/// is fastest.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+/// message names the failing sample's index and t. Errors: those of `strake_frame_at`, plus
+/// NULL_POINTER (`ts`) and INVALID_ARGUMENT (`count` of 0 or too large).
+///
+/// # Safety
+/// `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
+/// two must not overlap.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_frames_at(
+    surface: *const StrakeSurface,
+    curve: *const StrakeCurve,
+    ts: *const f64,
+    count: usize,
+    out: *mut StrakeFrame,
+) -> StrakeStatus {
+    guard("strake_frames_at", || {
+        // SAFETY: the caller passes live handles or NULL, and `count` readable doubles at `ts`.
+        let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
+        let ts = unsafe { input_slice(ts, count, "ts", "count")? };
+        let slot = output(out, "out")?;
+        check_count::<StrakeFrame>(count, "count")?;
+        batch(s, c, count, slot, |i| ts[i])
+    })
+}
+
+/// Computes the frames at `count` evenly spaced curve parameters from the start to the end of
+/// the curve's domain, both included (`count` = 1 gives the start only): t_i = t_min +
+/// (t_max - t_min) i/(count - 1), with the last exactly t_max. `out[i].curve_param` holds t_i.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+/// message names the failing sample's index and t. Errors: those of `strake_frame_at`, plus
+/// INVALID_ARGUMENT (`count` of 0 or too large).
+///
+/// # Safety
+/// `out` must be NULL or have room for `count` frames; handles as in `strake_frame_at`.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_frames_even(
+    surface: *const StrakeSurface,
+    curve: *const StrakeCurve,
+    count: usize,
+    out: *mut StrakeFrame,
+) -> StrakeStatus {
+    guard("strake_frames_even", || {
+        // SAFETY: the caller passes live handles or NULL.
+        let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
+        let slot = output(out, "out")?;
+        check_count::<StrakeFrame>(count, "count")?;
+        let domain = c.curve().domain();
+        batch(s, c, count, slot, |i| domain.even(i, count))
+    })
+}
+
+/// Computes the frame from a surface jet and a curve jet directly, with no handles: the pure
+/// math, for hosts that evaluate both themselves. `surface_jet` must hold second-order
+/// derivatives at the curve jet's (u, v). `flip_normal` is 0 (N along Su x Sv) or 1 (reversed);
+/// `scales` gives the widths of the parameter domains against which degeneracy is judged.
+/// `out->curve_param` is set to 0.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (each pointer), INVALID_ARGUMENT (`flip_normal`, a scale not positive and
+/// finite), NON_FINITE (a jet entry), DEGENERATE_SURFACE, STALLED_CURVE. Thread-safe.
+///
+/// # Safety
+/// Each pointer must be NULL or point to a valid value of its type; `out` writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_frame_from_jets(
+    surface_jet: *const StrakeSurfaceJet,
+    curve_jet: *const StrakeCurveJet,
+    flip_normal: i32,
+    scales: *const StrakeParamScales,
+    out: *mut StrakeFrame,
+) -> StrakeStatus {
+    guard("strake_frame_from_jets", || {
+        // SAFETY: the caller passes valid values or NULL.
+        let sj = SurfaceJet::from(unsafe { input(surface_jet, "surface_jet")? });
+        let cj = CurveJet::from(unsafe { input(curve_jet, "curve_jet")? });
+        let scales = ParamScales::from(unsafe { input(scales, "scales")? });
+        let slot = output(out, "out")?;
+        let orientation = orientation(flip_normal)?;
+        let frame = darboux_frame(&sj, &cj, orientation, &scales, 0.0).map_err(|e| match e {
+            // No curve parameter is involved here: say which velocity stalled instead.
+            StrakeError::StalledCurve { speed_figure, .. } => Failure::new(
+                StrakeStatus::StalledCurve,
+                format!(
+                    "stalled curve: the curve jet's velocity (du, dv) = ({}, {}) vanishes relative \
+                     to the parameter scales (speed figure {speed_figure:e}); the tangent is undefined",
+                    cj.du, cj.dv
+                ),
+            ),
+            e => e.into(),
+        })?;
+        // SAFETY: `out` checked non-null and aligned; the caller provides a writable frame.
+        unsafe {
+            slot.as_ptr()
+                .write(MaybeUninit::new(StrakeFrame::new(0.0, &frame)))
+        };
+        Ok(())
+    })
+}

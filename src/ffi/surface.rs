@@ -1,0 +1,209 @@
+//! The opaque surface handle and the adapter that turns a host callback into a
+//! [`SurfaceSource`].
+//!
+//! The handle holds a `Box<dyn SurfaceSource>`, so any surface of the Rust API can be offered to
+//! C by one more constructor in a file of its own (e.g. a native NURBS surface):
+//! build the source, then `publish(StrakeSurface::new(Box::new(source)), out)`. Evaluation,
+//! freeing and the batch calls need no change.
+
+use super::guard::{Failure, guard, output};
+use super::status::StrakeStatus;
+use super::types::StrakeSurfaceJet;
+use crate::error::{NonFiniteSource, Result, StrakeError};
+use crate::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::principal::Orientation;
+use crate::surface::{SurfaceHint, SurfaceSource};
+use std::ffi::c_void;
+
+/// A host surface evaluator.
+///
+/// Called with the host's `user_data`, a point (u, v) inside the domain given at creation,
+/// the highest derivative order needed (0: point; 1: also su, sv; 2: also suu, suv, svv) and a
+/// jet that strake has set to zero. Fill the entries up to `order` and return 0; return any
+/// non-zero code to report a failure: strake then returns
+/// `STRAKE_STATUS_SURFACE_CALLBACK_FAILED` and passes the code back (message and
+/// `strake_last_callback_code`). Entries must be finite (a NaN or infinity gives
+/// `STRAKE_STATUS_NON_FINITE` naming the entry).
+///
+/// The callback must not unwind (no C++ exception, no longjmp) out of the call. It may be
+/// called from several threads at once when the host evaluates one handle from several
+/// threads; `user_data` must allow that.
+pub type StrakeSurfaceFn = Option<
+    unsafe extern "C" fn(
+        user_data: *mut c_void,
+        u: f64,
+        v: f64,
+        order: i32,
+        out: *mut StrakeSurfaceJet,
+    ) -> i32,
+>;
+
+/// An opaque surface: created by `strake_surface_from_callback`, released by
+/// `strake_surface_free`.
+///
+/// Immutable after creation: one handle may be evaluated from many threads at once (each call
+/// keeps its own state). The host must keep whatever `user_data` points to alive until the
+/// handle is freed, and must not free the handle while another thread uses it.
+pub struct StrakeSurface {
+    source: Box<dyn SurfaceSource>,
+}
+
+impl StrakeSurface {
+    /// Wraps any surface of the Rust API.
+    pub fn new(source: Box<dyn SurfaceSource>) -> Self {
+        StrakeSurface { source }
+    }
+
+    /// The surface inside.
+    pub fn source(&self) -> &dyn SurfaceSource {
+        &*self.source
+    }
+}
+
+/// Hands a new surface to the host through `out`.
+pub(crate) fn publish(
+    surface: StrakeSurface,
+    out: *mut *mut StrakeSurface,
+) -> std::result::Result<(), Failure> {
+    let slot = output(out, "out")?;
+    // SAFETY: `out` was checked non-null and aligned; the caller provides a writable slot.
+    unsafe {
+        slot.as_ptr()
+            .write(std::mem::MaybeUninit::new(Box::into_raw(Box::new(surface))))
+    };
+    Ok(())
+}
+
+/// A surface evaluated by a host callback.
+struct CallbackSurface {
+    f: unsafe extern "C" fn(*mut c_void, f64, f64, i32, *mut StrakeSurfaceJet) -> i32,
+    user_data: *mut c_void,
+    u: Interval,
+    v: Interval,
+    orientation: Orientation,
+}
+
+// SAFETY: strake never dereferences `user_data`; it only hands it back to the host's callback.
+// The documented contract of `StrakeSurfaceFn` puts thread safety of the callback and its
+// `user_data` on the host, which is what sharing the handle between threads requires.
+unsafe impl Send for CallbackSurface {}
+// SAFETY: as above; the struct itself is never mutated after creation.
+unsafe impl Sync for CallbackSurface {}
+
+impl SurfaceSource for CallbackSurface {
+    fn u_domain(&self) -> Interval {
+        self.u
+    }
+    fn v_domain(&self) -> Interval {
+        self.v
+    }
+    fn orientation(&self) -> Orientation {
+        self.orientation
+    }
+    #[inline]
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        _hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        let mut jet = StrakeSurfaceJet::default();
+        // SAFETY: the host promised a callback with this signature; `jet` is a valid, zeroed,
+        // exclusively borrowed jet for the duration of the call.
+        let code = unsafe { (self.f)(self.user_data, u, v, order as i32, &mut jet) };
+        if code != 0 {
+            return Err(StrakeError::Callback {
+                which: "surface",
+                code,
+            });
+        }
+        Ok(SurfaceJet::from(&jet))
+    }
+}
+
+/// A finite parameter passed by the host, or `STRAKE_STATUS_NON_FINITE` naming it.
+pub(crate) fn finite(name: &'static str, value: f64) -> std::result::Result<f64, Failure> {
+    if value.is_finite() {
+        Ok(value)
+    } else {
+        Err(StrakeError::NonFinite {
+            source: NonFiniteSource::Parameter,
+            what: name,
+            value,
+        }
+        .into())
+    }
+}
+
+/// The orientation for a `flip_normal` flag, which must be 0 or 1.
+pub(crate) fn orientation(flip_normal: i32) -> std::result::Result<Orientation, Failure> {
+    match flip_normal {
+        0 => Ok(Orientation::Forward),
+        1 => Ok(Orientation::Reversed),
+        x => Err(Failure::invalid(format!(
+            "`flip_normal` = {x}; it must be 0 (N along Su x Sv) or 1 (reversed)"
+        ))),
+    }
+}
+
+/// Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max].
+///
+/// `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv| (e.g. to put the
+/// normal on the tool side). `user_data` is handed back to `f` unchanged and may be NULL. strake
+/// calls `f` only with (u, v) inside the domain; a curve that leaves the domain gives
+/// `STRAKE_STATUS_OUT_OF_DOMAIN` (no clamping).
+///
+/// Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+/// `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+/// `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (an empty or reversed range,
+/// `flip_normal` not 0 or 1).
+///
+/// # Safety
+/// `f` must be NULL or a function with the signature of [`StrakeSurfaceFn`] honouring its
+/// contract; `out` must be NULL or point to a writable `StrakeSurface *`.
+#[unsafe(no_mangle)]
+#[allow(clippy::too_many_arguments)]
+pub unsafe extern "C" fn strake_surface_from_callback(
+    f: StrakeSurfaceFn,
+    user_data: *mut c_void,
+    u_min: f64,
+    u_max: f64,
+    v_min: f64,
+    v_max: f64,
+    flip_normal: i32,
+    out: *mut *mut StrakeSurface,
+) -> StrakeStatus {
+    guard("strake_surface_from_callback", || {
+        let f = f.ok_or_else(|| Failure::null("f"))?;
+        output(out, "out")?;
+        let u = Interval::new("u", finite("u_min", u_min)?, finite("u_max", u_max)?)?;
+        let v = Interval::new("v", finite("v_min", v_min)?, finite("v_max", v_max)?)?;
+        let orientation = orientation(flip_normal)?;
+        let source = CallbackSurface {
+            f,
+            user_data,
+            u,
+            v,
+            orientation,
+        };
+        publish(StrakeSurface::new(Box::new(source)), out)
+    })
+}
+
+/// Releases a surface. NULL is a no-op. The handle must not be used afterwards, nor be in use
+/// by another thread.
+///
+/// # Safety
+/// `surface` must be NULL or a handle returned by a strake surface constructor and not yet
+/// freed.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_surface_free(surface: *mut StrakeSurface) {
+    let _ = guard("strake_surface_free", || {
+        if !surface.is_null() {
+            // SAFETY: the caller passes a handle made by `Box::into_raw` in `publish`.
+            drop(unsafe { Box::from_raw(surface) });
+        }
+        Ok(())
+    });
+}

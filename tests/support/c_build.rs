@@ -1,0 +1,129 @@
+//! Compiling C programs against `include/strake.h` and the freshly built shared library.
+//!
+//! Shared by `examples/mould_cavity.rs` and `tests/c_demo.rs` (each includes this file with
+//! `#[path]`), so the demo command and the test build the C code the same way. Uses the system
+//! C compiler: `$CC` if set, else `cc`.
+
+#![allow(dead_code)]
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+/// The warning flags every C program of the project must compile cleanly with.
+pub const STRICT_FLAGS: &[&str] = &["-std=c11", "-Wall", "-Wextra", "-Wpedantic", "-Werror"];
+
+/// Sanitizer flags for the checked builds.
+pub const SANITIZER_FLAGS: &[&str] = &[
+    "-fsanitize=address,undefined",
+    "-fno-sanitize-recover=all",
+    "-g",
+];
+
+/// The crate's root directory.
+pub fn root() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+/// The C compiler: `$CC` or `cc`.
+pub fn compiler() -> String {
+    std::env::var("CC")
+        .ok()
+        .filter(|c| !c.is_empty())
+        .unwrap_or_else(|| "cc".to_string())
+}
+
+fn library_file_name() -> String {
+    format!(
+        "{}strake{}",
+        std::env::consts::DLL_PREFIX,
+        std::env::consts::DLL_SUFFIX
+    )
+}
+
+/// The directory holding the shared library built together with the running program:
+/// `target/<profile>/deps`, found from the running executable (`target/<profile>/deps/...` for
+/// tests, `target/<profile>/examples/...` for examples). cargo writes the cdylib there on every
+/// build that needs the library; the copy directly in `target/<profile>/` is only refreshed by
+/// `cargo build` and may be stale, so it is not used.
+pub fn library_dir() -> Result<PathBuf, String> {
+    let exe = std::env::current_exe()
+        .map_err(|e| format!("cannot locate the running executable: {e}"))?;
+    let name = library_file_name();
+    exe.ancestors()
+        .skip(1)
+        .flat_map(|d| [d.to_path_buf(), d.join("deps")])
+        .find(|d| d.file_name().is_some_and(|n| n == "deps") && d.join(&name).is_file())
+        .ok_or_else(|| {
+            format!(
+                "{name} not found in the deps directory above {}",
+                exe.display()
+            )
+        })
+}
+
+/// A directory for compiled C programs, inside the target directory.
+pub fn build_dir() -> Result<PathBuf, String> {
+    let lib = library_dir()?;
+    let dir = lib.parent().unwrap_or(&lib).join("strake-c");
+    std::fs::create_dir_all(&dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+    Ok(dir)
+}
+
+/// Compiles `sources` into the executable `output`, with the strict warning flags, `extra`
+/// flags, `include/` and the sources' own directories on the include path, and the shared
+/// library linked with an rpath so that the program runs without any environment setup.
+pub fn compile(sources: &[PathBuf], output: &Path, extra: &[&str]) -> Result<(), String> {
+    let lib = library_dir()?;
+    let mut cmd = Command::new(compiler());
+    cmd.args(STRICT_FLAGS).args(extra);
+    cmd.arg("-I").arg(root().join("include"));
+    for s in sources {
+        if let Some(dir) = s.parent() {
+            cmd.arg("-I").arg(dir);
+        }
+    }
+    cmd.args(sources);
+    cmd.arg("-o").arg(output);
+    cmd.arg("-L").arg(&lib).arg("-lstrake").arg("-lm");
+    if !cfg!(windows) {
+        cmd.arg(format!("-Wl,-rpath,{}", lib.display()));
+    }
+    let shown = format!("{cmd:?}");
+    let out = cmd
+        .output()
+        .map_err(|e| format!("cannot run the C compiler `{}`: {e}", compiler()))?;
+    if !out.status.success() {
+        return Err(format!(
+            "C compilation failed:\n{shown}\n{}{}",
+            String::from_utf8_lossy(&out.stdout),
+            String::from_utf8_lossy(&out.stderr)
+        ));
+    }
+    Ok(())
+}
+
+/// True when the C compiler can build and run a program with [`SANITIZER_FLAGS`].
+pub fn sanitizers_available() -> bool {
+    let Ok(dir) = build_dir() else { return false };
+    let src = dir.join("sanitizer_probe.c");
+    let exe = dir.join("sanitizer_probe");
+    if std::fs::write(&src, "int main(void) { return 0; }\n").is_err() {
+        return false;
+    }
+    let built = Command::new(compiler())
+        .args(SANITIZER_FLAGS)
+        .arg(&src)
+        .arg("-o")
+        .arg(&exe)
+        .output()
+        .is_ok_and(|o| o.status.success());
+    built
+        && Command::new(&exe)
+            .output()
+            .is_ok_and(|o| o.status.success())
+}
+
+/// The C sources of the mould cavity demo.
+pub fn demo_sources() -> Vec<PathBuf> {
+    vec![root().join("examples").join("c").join("mould_cavity.c")]
+}
