@@ -50,7 +50,13 @@ pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-7;
 /// otherwise, and it tends to 0 both when Su and Sv become parallel and when one of them
 /// vanishes (a pole). c = 0 when Su = Sv = 0. Dimensionless, in [0, 1].
 #[inline]
-pub fn surface_conditioning(su: &Vec3, sv: &Vec3, cross_norm: f64, u_extent: f64, v_extent: f64) -> f64 {
+pub fn surface_conditioning(
+    su: &Vec3,
+    sv: &Vec3,
+    cross_norm: f64,
+    u_extent: f64,
+    v_extent: f64,
+) -> f64 {
     // max(|Su| Δu, |Sv| Δv)² = max(E Δu², G Δv²): no square roots needed.
     let a = su.norm_squared() * (u_extent * u_extent);
     let b = sv.norm_squared() * (v_extent * v_extent);

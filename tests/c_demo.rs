@@ -501,4 +501,13 @@ fn readme_example_runs() {
         .collect();
     assert_eq!(kns.len(), 5, "{out}");
     assert!(kns.iter().all(|&k| k > 0.0), "{out}");
+    // The README shows this program verbatim (without its first comment line).
+    let root = c_build::root();
+    let program = std::fs::read_to_string(root.join("tests/c/readme_example.c")).unwrap();
+    let body = program.split_once('\n').unwrap().1.trim_end();
+    let readme = std::fs::read_to_string(root.join("README.md")).unwrap();
+    assert!(
+        readme.contains(body),
+        "README.md's C example differs from tests/c/readme_example.c"
+    );
 }

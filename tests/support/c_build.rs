@@ -88,6 +88,12 @@ pub fn compile(sources: &[PathBuf], output: &Path, extra: &[&str]) -> Result<(),
     if !cfg!(windows) {
         cmd.arg(format!("-Wl,-rpath,{}", lib.display()));
     }
+    if cfg!(target_os = "linux") {
+        // DT_RPATH rather than DT_RUNPATH: searched before LD_LIBRARY_PATH, which cargo sets to
+        // include target/<profile>/, where a stale libstrake.so from an earlier `cargo build`
+        // may lie.
+        cmd.arg("-Wl,--disable-new-dtags");
+    }
     let shown = format!("{cmd:?}");
     let out = cmd
         .output()
