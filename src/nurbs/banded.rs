@@ -64,7 +64,7 @@ impl BandMatrix {
                     piv = i;
                 }
             }
-            if !(best > pivot_floor) {
+            if best.is_nan() || best <= pivot_floor {
                 return Err(StrakeError::InvalidArgument(format!(
                     "the interpolation system is singular at column {k} (largest pivot \
                      {best:e}); the parameters do not suit the degree"
@@ -104,18 +104,20 @@ impl BandMatrix {
                 b.swap(k, piv);
             }
             let bk = b[k];
-            for i in k + 1..=(k + kl).min(n - 1) {
+            let last = (k + kl).min(n - 1);
+            for (i, bi) in b.iter_mut().enumerate().take(last + 1).skip(k + 1) {
                 let f = self.data[self.idx(i, k)];
-                for (x, y) in b[i].iter_mut().zip(&bk) {
+                for (x, y) in bi.iter_mut().zip(&bk) {
                     *x -= f * y;
                 }
             }
         }
         for k in (0..n).rev() {
             let mut acc = b[k];
-            for j in k + 1..=(k + kl + ku).min(n - 1) {
+            let last = (k + kl + ku).min(n - 1);
+            for (j, bj) in b.iter().enumerate().take(last + 1).skip(k + 1) {
                 let a = self.data[self.idx(k, j)];
-                for (x, y) in acc.iter_mut().zip(&b[j]) {
+                for (x, y) in acc.iter_mut().zip(bj) {
                     *x -= a * y;
                 }
             }
@@ -142,8 +144,9 @@ mod tests {
             x.swap(k, p);
             for i in k + 1..n {
                 let f = m[i][k] / m[k][k];
-                for j in k..n {
-                    m[i][j] -= f * m[k][j];
+                let (top, bottom) = m.split_at_mut(i);
+                for (a, b) in bottom[0][k..].iter_mut().zip(&top[k][k..]) {
+                    *a -= f * b;
                 }
                 x[i] -= f * x[k];
             }
@@ -169,10 +172,15 @@ mod tests {
         };
         let mut dense = vec![vec![0.0; n]; n];
         let mut band = BandMatrix::zeros(n, kl, ku);
-        for i in 0..n {
-            for j in i.saturating_sub(kl)..=(i + ku).min(n - 1) {
+        for (i, row) in dense.iter_mut().enumerate() {
+            for (j, entry) in row
+                .iter_mut()
+                .enumerate()
+                .take((i + ku).min(n - 1) + 1)
+                .skip(i.saturating_sub(kl))
+            {
                 let x = if i == j { 1e-3 * rnd() } else { rnd() };
-                dense[i][j] = x;
+                *entry = x;
                 band.set(i, j, x);
             }
         }
@@ -185,8 +193,8 @@ mod tests {
             assert!((x[0] - e).abs() <= 1e-10 * e.abs().max(1.0), "{x:?} vs {e}");
         }
         // And the residual of the original system is at round-off.
-        for i in 0..n {
-            let r: f64 = (0..n).map(|j| dense[i][j] * b[j][0]).sum::<f64>() - rhs[i];
+        for (i, row) in dense.iter().enumerate() {
+            let r: f64 = row.iter().zip(&b).map(|(a, x)| a * x[0]).sum::<f64>() - rhs[i];
             assert!(r.abs() < 1e-10, "row {i} residual {r:e}");
         }
     }

@@ -243,7 +243,7 @@ pub fn interpolate_with_parameters<const D: usize>(
     let n = points.len() - 1;
     if params[0] != 0.0
         || params[n] != 1.0
-        || params.windows(2).any(|w| !(w[1] > w[0]) || !w[1].is_finite())
+        || params.windows(2).any(|w| w[1] <= w[0] || !w[1].is_finite())
     {
         return Err(StrakeError::InvalidArgument(
             "interpolation parameters must increase strictly from 0 to 1".into(),
