@@ -18,6 +18,7 @@ pub mod math;
 pub mod nurbs;
 pub mod path;
 pub mod principal;
+pub mod projection;
 pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
@@ -27,7 +28,11 @@ pub use frame::{
 };
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
-pub use nurbs::{KnotVector, NurbsCurve, SpanHint};
+pub use nurbs::{EndDerivatives, KnotVector, NurbsCurve, Parametrization, SpanHint, interpolate};
 pub use path::{CurveOnSurface, Hints, PathSample, SampleError};
+pub use projection::{
+    FitOptions, ProjectedCurve, Projection, ProjectionOptions, Projector, SeamCurve, project_curve,
+    project_points, project_points_into, uv_curve_through_points,
+};
 pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

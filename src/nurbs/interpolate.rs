@@ -195,7 +195,9 @@ pub fn interpolate<const D: usize>(
     interpolate_with_parameters(points, &params, degree, ends)
 }
 
-fn check_degree(count: usize, degree: usize, with_ends: bool) -> Result<()> {
+/// Checks the degree (1..=[`MAX_DEGREE`], ≥ 2 with end derivatives) and that `count` points
+/// are enough for it ([`min_points`]).
+pub(crate) fn check_degree(count: usize, degree: usize, with_ends: bool) -> Result<()> {
     if degree == 0 || degree > MAX_DEGREE {
         return Err(StrakeError::InvalidDegree(format!(
             "interpolation degree {degree} is outside 1..={MAX_DEGREE}"
