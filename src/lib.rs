@@ -19,6 +19,7 @@ pub mod nurbs;
 pub mod path;
 pub mod principal;
 pub mod projection;
+pub mod sampling;
 pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
@@ -35,4 +36,7 @@ pub use projection::{
     project_points, project_points_into, uv_curve_through_points,
 };
 pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
+pub use sampling::{
+    ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
+};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
