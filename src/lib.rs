@@ -31,11 +31,11 @@ pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
 pub use nurbs::{EndDerivatives, KnotVector, NurbsCurve, Parametrization, SpanHint, interpolate};
 pub use path::{CurveOnSurface, Hints, PathSample, SampleError};
+pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use projection::{
     FitOptions, ProjectedCurve, Projection, ProjectionOptions, Projector, SeamCurve, project_curve,
     project_points, project_points_into, uv_curve_through_points,
 };
-pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };

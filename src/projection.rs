@@ -1,9 +1,9 @@
 //! Point inversion onto a surface, and curves in space brought onto the surface as curves in
 //! its parameter plane.
 //!
-//! **Point inversion** (The NURBS Book, 2nd ed., §6.1, pp. 229–234): the foot point (u, v) of P
-//! minimises f(u, v) = ½ |S(u, v) − P|². With r = S − P, Newton's method solves
-//! g = (Su·r, Sv·r) = 0 with the Hessian
+//! **Point inversion** (The NURBS Book, 2nd ed., §6.1): the foot point (u, v) of P minimises
+//! f(u, v) = ½ |S(u, v) − P|². With r = S − P, Newton's method solves g = (Su·r, Sv·r) = 0 with
+//! the Hessian
 //!
 //! ```text
 //! J = | Su·Su + r·Suu   Su·Sv + r·Suv |
@@ -189,7 +189,9 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
             let u = u_dom.even(i, g + 1);
             for j in 0..nv {
                 let v = v_dom.even(j, g + 1);
-                let p = surface.checked_jet(u, v, DerivOrder::Position, &mut hint)?.p;
+                let p = surface
+                    .checked_jet(u, v, DerivOrder::Position, &mut hint)?
+                    .p;
                 lo = lo.inf(&p);
                 hi = hi.sup(&p);
                 grid.push((u, v, p));
@@ -378,9 +380,11 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
                 }
             }
             let Some(b) = best.as_mut() else {
-                let (d, u, v) = fallback
-                    .map(|n| (n.distance, n.u, n.v))
-                    .unwrap_or((f64::NAN, f64::NAN, f64::NAN));
+                let (d, u, v) = fallback.map(|n| (n.distance, n.u, n.v)).unwrap_or((
+                    f64::NAN,
+                    f64::NAN,
+                    f64::NAN,
+                ));
                 return Err(StrakeError::NotConverged {
                     what: format!(
                         "Newton's method for point inversion from the {GRID_CANDIDATES} nearest \
@@ -505,7 +509,11 @@ pub struct SeamCurve {
 
 impl SeamCurve {
     /// Wraps `curve`'s u into `u_period` and v into `v_period` when given.
-    pub fn new(curve: NurbsCurve<2>, u_period: Option<Interval>, v_period: Option<Interval>) -> Self {
+    pub fn new(
+        curve: NurbsCurve<2>,
+        u_period: Option<Interval>,
+        v_period: Option<Interval>,
+    ) -> Self {
         SeamCurve {
             curve,
             u_period,
@@ -593,12 +601,8 @@ fn fit_projections<S: SurfaceSource + ?Sized>(
 ) -> Result<ProjectedCurve> {
     let uv: Vec<[f64; 2]> = projections.iter().map(|p| [p.u_path, p.v_path]).collect();
     let params = interpolation_parameters(&uv, fit.parametrization)?;
-    let curve = crate::nurbs::interpolate::interpolate_with_parameters(
-        &uv,
-        &params,
-        fit.degree,
-        None,
-    )?;
+    let curve =
+        crate::nurbs::interpolate::interpolate_with_parameters(&uv, &params, fit.degree, None)?;
     let (pu, pv) = periods(surface, opts);
     Ok(ProjectedCurve {
         curve: SeamCurve::new(curve, pu, pv),

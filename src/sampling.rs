@@ -44,7 +44,7 @@ use crate::surface::SurfaceSource;
 
 /// Abscissae of the 5-point Gauss–Legendre rule on [−1, 1]: 0, ±(1/3)√(5 − 2√(10/7)),
 /// ±(1/3)√(5 + 2√(10/7)) (M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*,
-/// Table 25.4 [memory]; checked against the closed forms and exactness in the tests).
+/// Table 25.4 \[memory\]; checked against the closed forms and exactness in the tests).
 pub const GL5_NODES: [f64; 5] = [
     -0.906_179_845_938_664,
     -0.538_469_310_105_683_1,
@@ -54,7 +54,7 @@ pub const GL5_NODES: [f64; 5] = [
 ];
 
 /// Weights of the 5-point Gauss–Legendre rule: (322 − 13√70)/900, (322 + 13√70)/900, 128/225
-/// (A&S Table 25.4 [memory]).
+/// (A&S Table 25.4 \[memory\]).
 pub const GL5_WEIGHTS: [f64; 5] = [
     0.236_926_885_056_189_1,
     0.478_628_670_499_366_47,
@@ -181,8 +181,7 @@ fn gl_recursive<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     let left = gl5(path, a, m, hints)?;
     let right = gl5(path, m, b, hints)?;
     let both = left + right;
-    if (both - whole).abs() <= tol.max(floor) || depth >= MAX_QUADRATURE_DEPTH || m <= a || m >= b
-    {
+    if (both - whole).abs() <= tol.max(floor) || depth >= MAX_QUADRATURE_DEPTH || m <= a || m >= b {
         return Ok(both);
     }
     let l = gl_recursive(path, a, m, left, 0.5 * tol, floor, depth + 1, hints)?;
@@ -289,8 +288,11 @@ where
     for index in 0..n {
         let t = dom.even(index, n);
         if index > 0 {
-            s += integrate(path, prev, t, arc_tolerance, &mut qh)
-                .map_err(|error| SampleError { index, t, error })?;
+            s += integrate(path, prev, t, arc_tolerance, &mut qh).map_err(|error| SampleError {
+                index,
+                t,
+                error,
+            })?;
         }
         let smp = sample_at(path, index, t, s, &mut hints)?;
         sink.put(index, &smp);
@@ -395,13 +397,12 @@ where
     let dom = path.curve().domain();
     let mut hints = Hints::default();
     let mut qh = Hints::default();
-    let total = integrate(path, dom.lo, dom.hi, arc_tolerance, &mut qh).map_err(|error| {
-        SampleError {
+    let total =
+        integrate(path, dom.lo, dom.hi, arc_tolerance, &mut qh).map_err(|error| SampleError {
             index: 0,
             t: dom.lo,
             error,
-        }
-    })?;
+        })?;
     let first = sample_at(path, 0, dom.lo, 0.0, &mut hints)?;
     sink.put(0, &first);
     let abs_tol = arc_tolerance * total;
@@ -584,13 +585,9 @@ where
             remaining
         };
         let next = loop {
-            let t1 = if dt >= remaining {
-                dom.hi
-            } else {
-                cur.t + dt
-            };
-            let ds = integrate(path, cur.t, t1, opts.arc_tolerance, &mut qh)
-                .map_err(|e| err(t1, e))?;
+            let t1 = if dt >= remaining { dom.hi } else { cur.t + dt };
+            let ds =
+                integrate(path, cur.t, t1, opts.arc_tolerance, &mut qh).map_err(|e| err(t1, e))?;
             let smp = sample_at(path, index, t1, cur.arc_length + ds, &mut hints)?;
             let (a, b) = (cur.frame.point, smp.frame.point);
             let mut e = [0.0; 3];
@@ -686,7 +683,10 @@ mod tests {
         for (rho, delta) in [(1.0, 1e-3), (10.0, 0.5), (0.2, 1e-6), (2.0, 1.5)] {
             let l = chord_length_for(1.0 / rho, delta);
             let dev = rho - (rho * rho - l * l / 4.0).sqrt();
-            assert!((dev - delta).abs() < 1e-12 * rho.max(1.0), "ρ {rho}, δ {delta}: {dev}");
+            assert!(
+                (dev - delta).abs() < 1e-12 * rho.max(1.0),
+                "ρ {rho}, δ {delta}: {dev}"
+            );
         }
         assert_eq!(chord_length_for(1.0 / 0.5, 1.0), 1.0);
         assert!(chord_length_for(0.0, 1e-3).is_infinite());

@@ -11,7 +11,9 @@
 use std::f64::consts::TAU;
 use strake::analytic::torus;
 use strake::nurbs::interpolate::{Parametrization, interpolate};
-use strake::{CurveJet, CurveOnSurface, DerivOrder, FnCurve, Hints, Interval, NurbsCurve, SpanHint};
+use strake::{
+    CurveJet, CurveOnSurface, DerivOrder, FnCurve, Hints, Interval, NurbsCurve, SpanHint,
+};
 
 /// The 9-point rational quadratic circle of radius R (The NURBS Book 2nd ed. §7.5, A7.1
 /// [memory]; shared/REFERENCES.md).
@@ -30,7 +32,9 @@ fn nurbs_circle(r: f64) -> NurbsCurve<2> {
     ];
     let pts: Vec<[f64; 2]> = xy.iter().map(|p| [r * p[0], r * p[1]]).collect();
     let w = [1.0, s, 1.0, s, 1.0, s, 1.0, s, 1.0];
-    let k = [0.0, 0.0, 0.0, 0.25, 0.25, 0.5, 0.5, 0.75, 0.75, 1.0, 1.0, 1.0];
+    let k = [
+        0.0, 0.0, 0.0, 0.25, 0.25, 0.5, 0.5, 0.75, 0.75, 1.0, 1.0, 1.0,
+    ];
     NurbsCurve::new(2, &k, &pts, Some(&w)).unwrap()
 }
 
@@ -51,7 +55,10 @@ fn circle_errors(c: &NurbsCurve<2>, r: f64) -> (f64, f64) {
 }
 
 fn sci(e: &[f64]) -> String {
-    e.iter().map(|x| format!("{x:.2e}")).collect::<Vec<_>>().join(" ")
+    e.iter()
+        .map(|x| format!("{x:.2e}"))
+        .collect::<Vec<_>>()
+        .join(" ")
 }
 
 fn orders(e: &[f64]) -> Vec<f64> {
@@ -80,8 +87,14 @@ fn circle_points_converge_at_the_predicted_orders() {
         ek.push(k);
     }
     let (op, ok) = (orders(&ep), orders(&ek));
-    eprintln!("circle, chord length: position errors {} orders {op:.2?}", sci(&ep));
-    eprintln!("circle, chord length: curvature errors {} orders {ok:.2?}", sci(&ek));
+    eprintln!(
+        "circle, chord length: position errors {} orders {op:.2?}",
+        sci(&ep)
+    );
+    eprintln!(
+        "circle, chord length: curvature errors {} orders {ok:.2?}",
+        sci(&ek)
+    );
     for o in &op[1..] {
         assert!(*o > 3.7, "position order {o}");
     }
@@ -100,7 +113,11 @@ fn circle_points_converge_at_the_predicted_orders() {
         let c = interpolate(&pts, 3, Parametrization::Centripetal, None).unwrap();
         ec.push(circle_errors(&c, r).0);
     }
-    eprintln!("circle, centripetal: position errors {} orders {:.2?}", sci(&ec), orders(&ec));
+    eprintln!(
+        "circle, centripetal: position errors {} orders {:.2?}",
+        sci(&ec),
+        orders(&ec)
+    );
 }
 
 // A torus parallel, given as points (u_k, v0) in the parameter plane, is a line there; the
@@ -120,8 +137,14 @@ fn torus_parallel_is_reproduced_to_round_off() {
         let mut h = Hints::default();
         for i in 0..=200 {
             let f = cs.frame(i as f64 / 200.0, &mut h).unwrap();
-            assert!((f.normal_curvature + f64::cos(v0) / rho).abs() < 1e-12, "{f:?}");
-            assert!((f.geodesic_curvature - f64::sin(v0) / rho).abs() < 1e-12, "{f:?}");
+            assert!(
+                (f.normal_curvature + f64::cos(v0) / rho).abs() < 1e-12,
+                "{f:?}"
+            );
+            assert!(
+                (f.geodesic_curvature - f64::sin(v0) / rho).abs() < 1e-12,
+                "{f:?}"
+            );
             assert!(f.geodesic_torsion.abs() < 1e-12, "{f:?}");
         }
     }
@@ -173,7 +196,10 @@ fn torus_curve_invariants_converge_at_second_order() {
         errs.push(e);
     }
     let o = orders(&errs);
-    eprintln!("torus UV circle: invariant errors {} orders {o:.2?}", sci(&errs));
+    eprintln!(
+        "torus UV circle: invariant errors {} orders {o:.2?}",
+        sci(&errs)
+    );
     for x in &o[1..] {
         assert!(*x > 1.8, "order {x}");
     }

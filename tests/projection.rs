@@ -11,8 +11,8 @@ use std::f64::consts::{PI, TAU};
 use strake::analytic::{cylinder, monge, plane, torus};
 use strake::projection::{FitOptions, ProjectionOptions, project_curve, project_points};
 use strake::{
-    CurveOnSurface, DerivOrder, Hints, NurbsCurve, StrakeError, SurfaceHint, SurfaceSource, UvCurve,
-    Vec3, uv_curve_through_points,
+    CurveOnSurface, DerivOrder, Hints, NurbsCurve, StrakeError, SurfaceHint, SurfaceSource,
+    UvCurve, Vec3, uv_curve_through_points,
 };
 
 fn jet<S: SurfaceSource>(s: &S, u: f64, v: f64) -> strake::SurfaceJet {
@@ -86,7 +86,10 @@ fn recovers_parameters_of_points_on_the_surface() {
     let ps: Vec<[f64; 3]> = pts.iter().map(|&(u, v)| arr(jet(&w, u, v).p)).collect();
     // As one batch: continuation from the previous foot point, restarts where needed.
     for (pr, &(u, v)) in project_points(&w, &ps, &opts).unwrap().iter().zip(&pts) {
-        assert!((pr.u - u).abs() < 1e-12 && (pr.v - v).abs() < 1e-12, "{pr:?} vs {u}, {v}");
+        assert!(
+            (pr.u - u).abs() < 1e-12 && (pr.v - v).abs() < 1e-12,
+            "{pr:?} vs {u}, {v}"
+        );
     }
 }
 
@@ -108,8 +111,16 @@ fn pushed_off_points_come_back_with_their_distance() {
         };
         let p = jet(&t, u, v).p + normal(&t, u, v) * d;
         let pr = &project_points(&t, &[arr(p)], &opts).unwrap()[0];
-        assert!((pr.distance - d.abs()).abs() < 1e-12, "{} vs {d}", pr.distance);
-        assert!((pr.signed_distance - d).abs() < 1e-12, "{} vs {d}", pr.signed_distance);
+        assert!(
+            (pr.distance - d.abs()).abs() < 1e-12,
+            "{} vs {d}",
+            pr.distance
+        );
+        assert!(
+            (pr.signed_distance - d).abs() < 1e-12,
+            "{} vs {d}",
+            pr.signed_distance
+        );
         assert!(angle_diff(pr.u, u).abs() < 1e-11 && angle_diff(pr.v, v).abs() < 1e-11);
     }
     let w = wavy();
@@ -121,7 +132,10 @@ fn pushed_off_points_come_back_with_their_distance() {
         let pr = &project_points(&w, &[arr(p)], &opts).unwrap()[0];
         assert!((pr.distance - d.abs()).abs() < 1e-12);
         assert!((pr.signed_distance - d).abs() < 1e-12);
-        assert!((pr.u - u).abs() < 1e-11 && (pr.v - v).abs() < 1e-11, "{pr:?}");
+        assert!(
+            (pr.u - u).abs() < 1e-11 && (pr.v - v).abs() < 1e-11,
+            "{pr:?}"
+        );
     }
 }
 
@@ -153,7 +167,10 @@ fn seam_of_a_torus_is_crossed_continuously() {
     for i in 0..=100 {
         let f = cs.frame(i as f64 / 100.0, &mut h).unwrap();
         assert!((f.normal_curvature + v0.cos() / rho).abs() < 1e-8, "{f:?}");
-        assert!((f.geodesic_curvature - v0.sin() / rho).abs() < 1e-8, "{f:?}");
+        assert!(
+            (f.geodesic_curvature - v0.sin() / rho).abs() < 1e-8,
+            "{f:?}"
+        );
         assert!(f.geodesic_torsion.abs() < 1e-8, "{f:?}");
         assert!((0.0..=TAU).contains(&f.u));
     }
@@ -197,7 +214,10 @@ fn paths_along_a_boundary() {
             .collect();
         let prs = project_points(&w, &pts, &opts).unwrap();
         for (pr, &u) in prs.iter().zip(&us) {
-            assert!(pr.v.abs() < 1e-12 && (pr.u - u).abs() < 1e-12, "d {d}: {pr:?}");
+            assert!(
+                pr.v.abs() < 1e-12 && (pr.u - u).abs() < 1e-12,
+                "d {d}: {pr:?}"
+            );
             assert!((pr.distance - d.abs()).abs() < 1e-12);
         }
     }
@@ -233,20 +253,30 @@ fn refusals_name_the_point() {
         matches!(&e, StrakeError::AtPoint { index: 3, error } if matches!(**error, StrakeError::TooFarFromSurface { .. })),
         "{e}"
     );
-    assert!(e.to_string().starts_with("point 3: too far from the surface"), "{e}");
+    assert!(
+        e.to_string()
+            .starts_with("point 3: too far from the surface"),
+        "{e}"
+    );
 
     let mut o1 = ProjectionOptions::new(1.0).periodic(true, true);
     o1.max_iterations = 1;
     let p = jet(&t, 1.0, 1.0).p + normal(&t, 1.0, 1.0) * 0.3;
     let e = project_points(&t, &[on(0.5, 0.5), arr(p)], &o1).unwrap_err();
     let s = e.to_string();
-    assert!(matches!(&e, StrakeError::AtPoint { index: 0 | 1, .. }), "{s}");
+    assert!(
+        matches!(&e, StrakeError::AtPoint { index: 0 | 1, .. }),
+        "{s}"
+    );
     assert!(s.contains("not converged"), "{s}");
 
     let mut bad = pts.clone();
     bad[1][1] = f64::NAN;
     let e = project_points(&t, &bad, &opts).unwrap_err();
-    assert_eq!(e.to_string(), "point 1: non-finite value in input point: y = NaN");
+    assert_eq!(
+        e.to_string(),
+        "point 1: non-finite value in input point: y = NaN"
+    );
 
     let e = project_points(&t, &pts, &ProjectionOptions::new(0.0)).unwrap_err();
     assert!(e.to_string().contains("projection tolerance = 0"), "{e}");
@@ -255,7 +285,13 @@ fn refusals_name_the_point() {
     assert!(project_points(&t, &pts, &o2).is_err());
 
     // Two points with the same foot point: the interpolation refuses the second, by index.
-    let same = [on(0.1, 0.2), on(0.2, 0.2), on(0.2, 0.2), on(0.3, 0.2), on(0.4, 0.2)];
+    let same = [
+        on(0.1, 0.2),
+        on(0.2, 0.2),
+        on(0.2, 0.2),
+        on(0.3, 0.2),
+        on(0.4, 0.2),
+    ];
     let e = uv_curve_through_points(&t, &same, &opts, &FitOptions::default()).unwrap_err();
     assert!(matches!(e, StrakeError::AtPoint { index: 2, .. }), "{e}");
     let e = uv_curve_through_points(&t, &same[..3], &opts, &FitOptions::default()).unwrap_err();
@@ -279,7 +315,9 @@ fn nurbs_circle(rho: f64, z: f64) -> NurbsCurve<3> {
     ];
     let pts: Vec<[f64; 3]> = xy.iter().map(|&(x, y)| [rho * x, rho * y, z]).collect();
     let w = [1.0, s, 1.0, s, 1.0, s, 1.0, s, 1.0];
-    let k = [0.0, 0.0, 0.0, 0.25, 0.25, 0.5, 0.5, 0.75, 0.75, 1.0, 1.0, 1.0];
+    let k = [
+        0.0, 0.0, 0.0, 0.25, 0.25, 0.5, 0.5, 0.75, 0.75, 1.0, 1.0, 1.0,
+    ];
     NurbsCurve::new(2, &k, &pts, Some(&w)).unwrap()
 }
 
@@ -312,8 +350,14 @@ fn projects_a_nurbs_circle_onto_a_torus() {
             .max((f.geodesic_curvature - f64::sin(v0) / rho).abs())
             .max((f.normal_curvature + f64::cos(v0) / rho).abs())
             .max(f.geodesic_torsion.abs());
-        assert!((f.geodesic_curvature - f64::sin(v0) / rho).abs() < 1e-3, "{f:?}");
-        assert!((f.normal_curvature + f64::cos(v0) / rho).abs() < 1e-3, "{f:?}");
+        assert!(
+            (f.geodesic_curvature - f64::sin(v0) / rho).abs() < 1e-3,
+            "{f:?}"
+        );
+        assert!(
+            (f.normal_curvature + f64::cos(v0) / rho).abs() < 1e-3,
+            "{f:?}"
+        );
         assert!(f.geodesic_torsion.abs() < 1e-3, "{f:?}");
     }
     // The midpoint test bounds the deviation between samples; allow a factor 2 for the
@@ -352,8 +396,7 @@ fn projects_a_tilted_ellipse_onto_a_cylinder() {
         .collect();
     let s = std::f64::consts::FRAC_1_SQRT_2;
     let w = [1.0, s, 1.0, s, 1.0, s, 1.0, s, 1.0];
-    let ellipse =
-        NurbsCurve::new(2, circle.knot_vector().knots(), &pts, Some(&w)).unwrap();
+    let ellipse = NurbsCurve::new(2, circle.knot_vector().knots(), &pts, Some(&w)).unwrap();
     let opts = ProjectionOptions::new(1e-9).periodic(true, false);
     let mut last_err = f64::INFINITY;
     for fit_tol in [1e-4, 1e-6] {
@@ -383,7 +426,10 @@ fn projects_a_tilted_ellipse_onto_a_cylinder() {
         // On the cylinder, the distance of a surface point from the ellipse is at most its
         // axial offset |v − aR cos u|.
         assert!(worst <= 2.0 * fit_tol, "worst deviation {worst:e}");
-        assert!(worst_inv < last_err, "invariants do not improve: {worst_inv:e}");
+        assert!(
+            worst_inv < last_err,
+            "invariants do not improve: {worst_inv:e}"
+        );
         last_err = worst_inv;
     }
     assert!(last_err < 1e-2, "{last_err:e}");

@@ -52,7 +52,10 @@ fn helix_length_matches_the_closed_form_at_each_tolerance() {
     let exact = a * (rr * rr + h * h).sqrt();
     for tol in [1e-4, 1e-8, 1e-12] {
         let l = arc_length(&path, 0.0, 1.0, tol).unwrap();
-        assert!((l - exact).abs() <= tol * exact, "tol {tol:e}: {l} vs {exact}");
+        assert!(
+            (l - exact).abs() <= tol * exact,
+            "tol {tol:e}: {l} vs {exact}"
+        );
         // Reversed limits give the negative length.
         let back = arc_length(&path, 1.0, 0.0, tol).unwrap();
         assert!((back + l).abs() <= 1e-15 * exact);
@@ -81,7 +84,10 @@ fn latitude_length_matches_the_closed_form() {
     let exact = rr * phi.sin() * du;
     for tol in [1e-6, 1e-10, 1e-13] {
         let l = arc_length(&path, 0.0, 1.0, tol).unwrap();
-        assert!((l - exact).abs() <= tol * exact, "tol {tol:e}: {l} vs {exact}");
+        assert!(
+            (l - exact).abs() <= tol * exact,
+            "tol {tol:e}: {l} vs {exact}"
+        );
     }
 }
 
@@ -114,7 +120,11 @@ fn even_samples_in_t_and_in_arc_length() {
     assert_eq!(out.len(), n);
     for (i, s) in out.iter().enumerate() {
         let target = i as f64 / (n - 1) as f64;
-        assert!((w(s.t).0 / a - target).abs() <= 4.0 * tol, "{i}: θ {}", w(s.t).0);
+        assert!(
+            (w(s.t).0 / a - target).abs() <= 4.0 * tol,
+            "{i}: θ {}",
+            w(s.t).0
+        );
         assert!((s.arc_length - target * speed * a).abs() <= 4.0 * tol * speed * a);
     }
     assert_eq!(out[n - 1].t, 1.0);
@@ -190,8 +200,14 @@ fn chordal_sampling_meets_its_tolerance_with_few_samples() {
             steps / ideal,
             worst / delta
         );
-        assert!(worst <= delta * (1.0 + 1e-9), "δ {delta:e}: worst {worst:e}");
-        assert!(steps <= 1.2 * ideal + 1.0, "δ {delta:e}: {steps} vs ideal {ideal}");
+        assert!(
+            worst <= delta * (1.0 + 1e-9),
+            "δ {delta:e}: worst {worst:e}"
+        );
+        assert!(
+            steps <= 1.2 * ideal + 1.0,
+            "δ {delta:e}: {steps} vs ideal {ideal}"
+        );
         assert_eq!(out[0].t, 0.0);
         assert_eq!(out[n - 1].t, 1.0);
         for w in out.windows(2) {
@@ -230,7 +246,10 @@ fn chordal_sampling_of_constant_curvature_curves() {
     let rho = 2.0 * 1.0_f64.sin();
     let ideal = TAU * rho / chord_length_for(1.0 / rho, delta);
     let (worst, _) = check_chords(&path, &out, 32);
-    eprintln!("latitude: {n} samples, ideal {ideal:.1}, worst/δ {:.4}", worst / delta);
+    eprintln!(
+        "latitude: {n} samples, ideal {ideal:.1}, worst/δ {:.4}",
+        worst / delta
+    );
     assert!(worst <= delta * (1.0 + 1e-9));
     assert!(((n - 1) as f64) <= 1.2 * ideal + 1.0);
 }
@@ -253,7 +272,10 @@ fn caller_buffer_reports_the_count_needed() {
     assert_eq!(exact, v);
     // The even modes do no work when the slice is too short, and say how many are needed.
     let mut short = vec![v[0]; 3];
-    assert_eq!(sample_even_arc(&path, 10, 1e-10, &mut short[..]).unwrap(), 10);
+    assert_eq!(
+        sample_even_arc(&path, 10, 1e-10, &mut short[..]).unwrap(),
+        10
+    );
     assert_eq!(short, vec![v[0]; 3]);
     // A closure sink sees the indices in order.
     let mut seen = Vec::new();
@@ -288,8 +310,8 @@ fn refusals() {
     assert!(e.to_string().contains("more than max samples = 10"), "{e}");
     // A tolerance below round-off cannot be met: refused at the sample that could not be
     // placed.
-    let e = sample_chordal(&path, &ChordalOptions::new(1e-19, f64::INFINITY), &mut out)
-        .unwrap_err();
+    let e =
+        sample_chordal(&path, &ChordalOptions::new(1e-19, f64::INFINITY), &mut out).unwrap_err();
     assert!(e.to_string().contains("cannot be met"), "{e}");
     assert_eq!(e.index, 1);
     // A curve that leaves the surface's domain: the first sample outside is named.
@@ -299,7 +321,10 @@ fn refusals() {
     let mut out = Vec::new();
     let e = sample_even_t(&path, 11, 1e-10, &mut out).unwrap_err();
     assert_eq!(e.index, 6, "{e}");
-    assert!(matches!(e.error, StrakeError::OutOfDomain { name: "u", .. }), "{e}");
+    assert!(
+        matches!(e.error, StrakeError::OutOfDomain { name: "u", .. }),
+        "{e}"
+    );
     assert_eq!(out.len(), 6);
     let _ = DEFAULT_ARC_TOLERANCE;
 }

@@ -6,7 +6,7 @@
 //! super-diagonals, and kl more for the fill that row exchanges bring into U), so the work is
 //! O(n · kl · (kl + ku)) and the memory O(n · (2 kl + ku + 1)). This is the classical band
 //! Gaussian elimination with partial pivoting (G. H. Golub, C. F. Van Loan, *Matrix
-//! Computations*, 3rd ed., §4.3 [memory]): the row exchanges are applied to the right-hand side
+//! Computations*, 3rd ed., §4.3 \[memory\]): the row exchanges are applied to the right-hand side
 //! in the same order as during the factorisation.
 
 use crate::error::{Result, StrakeError};

@@ -1,8 +1,9 @@
 //! Global interpolation of points by a non-rational B-spline curve of degree p (a C^{p−1} curve;
 //! the default p = 3 gives a C2 cubic), in D dimensions.
 //!
-//! The NURBS Book, 2nd ed. (L. Piegl, W. Tiller, 1997), §9.2.1 and A9.1 GlobalCurveInterp,
-//! pp. 364–370, with the end-derivative variant of §9.2.2 [equation numbers: memory]:
+//! The NURBS Book, 2nd ed. (L. Piegl, W. Tiller, 1997), §9.2.1 and A9.1 GlobalCurveInterp
+//! (pp. 369–370 \[memory\]), with the end-derivative variant of §9.2.2
+//! \[equation numbers: memory\]:
 //!
 //! - Parameters ū_0 = 0, ū_n = 1, ū_k = ū_{k−1} + |Q_k − Q_{k−1}|^e / d with
 //!   d = Σ |Q_k − Q_{k−1}|^e; e = 1 is the chord-length method (eqs. 9.4–9.5), e = ½ the
@@ -11,7 +12,7 @@
 //!   u_{j+p} = (1/p) Σ_{i=j}^{j+p−1} ū_i for j = 1, …, n − p.
 //! - The n + 1 control points solve the collocation system C(ū_k) = Q_k, i.e.
 //!   Σ_i N_{i,p}(ū_k) P_i = Q_k; the matrix is banded (at most p + 1 non-zeros a row about the
-//!   diagonal) and is solved by band LU with partial pivoting (see [`super::banded`]), in
+//!   diagonal) and is solved by band LU with partial pivoting (see the private module `banded`), in
 //!   O(n p²) operations, one solve for all D coordinates.
 //! - With end derivatives D_0 = C'(0), D_n = C'(1) (§9.2.2): n + 3 control points, knots
 //!   u_{j+p} = (1/p) Σ_{i=j−1}^{j+p−2} ū_i for j = 1, …, n − p + 2, and two more equations
@@ -22,7 +23,7 @@
 //! tangent times d is the natural choice). For a curve through points taken from a smooth curve
 //! at spacing h, chord-length cubic interpolation is fourth-order accurate in position and so
 //! second-order in curvature (M. S. Floater, "Chordal cubic spline interpolation is fourth
-//! order accurate", IMA J. Numer. Anal. 26 (2006) 25–33 [memory]); the centripetal and uniform
+//! order accurate", IMA J. Numer. Anal. 26 (2006) 25–33 \[memory\]); the centripetal and uniform
 //! choices are in general only second-order. The tests measure these orders.
 
 use super::banded::BandMatrix;
@@ -354,7 +355,13 @@ mod tests {
     // 14/17, 1; cubic knots by averaging {0,0,0,0, 28/51, 1,1,1,1}.
     #[test]
     fn parameters_and_knots_of_the_worked_example() {
-        let q = [[0.0, 0.0], [3.0, 4.0], [-1.0, 4.0], [-4.0, 0.0], [-4.0, -3.0]];
+        let q = [
+            [0.0, 0.0],
+            [3.0, 4.0],
+            [-1.0, 4.0],
+            [-4.0, 0.0],
+            [-4.0, -3.0],
+        ];
         let u = interpolation_parameters(&q, Parametrization::ChordLength).unwrap();
         let expect = [0.0, 5.0 / 17.0, 9.0 / 17.0, 14.0 / 17.0, 1.0];
         for (a, b) in u.iter().zip(&expect) {
@@ -381,7 +388,13 @@ mod tests {
     // curve lies in the spline space and the collocation system has a unique solution).
     #[test]
     fn reproduces_a_cubic_polynomial_with_and_without_end_derivatives() {
-        let f = |t: f64| [1.0 + 2.0 * t - t * t * t, 0.5 * t * t - 3.0 * t, 2.0 * t * t * t];
+        let f = |t: f64| {
+            [
+                1.0 + 2.0 * t - t * t * t,
+                0.5 * t * t - 3.0 * t,
+                2.0 * t * t * t,
+            ]
+        };
         let df = |t: f64| [2.0 - 3.0 * t * t, t - 3.0, 6.0 * t * t];
         let params: Vec<f64> = (0..9).map(|k| (k as f64 / 8.0).powf(1.3)).collect();
         let pts: Vec<[f64; 3]> = params.iter().map(|&t| f(t)).collect();
@@ -435,8 +448,13 @@ mod tests {
         // Chord-length parameters 0, 2/3, 1: the polygon's corner is at t = 2/3.
         let p = eval(&c, 1.0 / 3.0);
         assert!((p[0] - 1.0).abs() < 1e-15 && p[1].abs() < 1e-15);
-        let line = interpolate(&[[1.0, 1.0], [3.0, 5.0]], 1, Parametrization::ChordLength, None)
-            .unwrap();
+        let line = interpolate(
+            &[[1.0, 1.0], [3.0, 5.0]],
+            1,
+            Parametrization::ChordLength,
+            None,
+        )
+        .unwrap();
         let m = eval(&line, 0.5);
         assert!((m[0] - 2.0).abs() < 1e-15 && (m[1] - 3.0).abs() < 1e-15);
     }
@@ -446,7 +464,10 @@ mod tests {
         let q = [[0.0, 0.0], [1.0, 0.0], [1.0, 0.0], [2.0, 1.0], [3.0, 0.0]];
         let e = interpolate(&q, 3, Parametrization::ChordLength, None).unwrap_err();
         assert!(matches!(e, StrakeError::AtPoint { index: 2, .. }), "{e}");
-        assert!(e.to_string().contains("point 2 coincides with point 1"), "{e}");
+        assert!(
+            e.to_string().contains("point 2 coincides with point 1"),
+            "{e}"
+        );
 
         let mut q2 = [[0.0, 0.0], [1.0, 0.0], [2.0, 1.0], [3.0, 0.0]];
         q2[2][1] = f64::NAN;
