@@ -20,7 +20,9 @@
 //!
 //! Safeguards beyond §6.1, all of them common practice in Newton minimisation: where J is not
 //! positive definite (a point beyond a centre of curvature) the step uses the first fundamental
-//! form instead (Gauss–Newton, always a descent direction); a step that increases |r| by more
+//! form instead (Gauss–Newton, always a descent direction), and where that is singular too (a
+//! pole, a collapsed edge) steepest descent scaled by 1/(E + G); a start with no finite step
+//! fails and the next start is tried; a step that increases |r| by more
 //! than its round-off (8 ε_mach (|P|∞ + |S|∞)) is halved until it does not or becomes shorter
 //! than ε₁; on a boundary whose gradient points
 //! outward, that parameter is held and the other one is solved for alone.
@@ -48,7 +50,7 @@
 //! Nothing here allocates per point, apart from the output arrays.
 
 use crate::curve::UvCurve;
-use crate::error::{NonFiniteSource, Result, StrakeError};
+use crate::error::{Result, StrakeError};
 use crate::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 use crate::math::{Vec3, vec3};
 use crate::nurbs::interpolate::{Parametrization, check_points_finite, interpolation_parameters};
@@ -284,19 +286,20 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
                 (-gu / if h11 > 0.0 { h11 } else { e }, 0.0)
             } else {
                 let det = h11 * h22 - h12 * h12;
-                let (a, b, c, det) = if h11 > 0.0 && det > 0.0 {
-                    (h11, h12, h22, det)
+                let gram = e * g - f * f;
+                if h11 > 0.0 && det > 0.0 {
+                    ((-h22 * gu + h12 * gv) / det, (h12 * gu - h11 * gv) / det)
+                } else if gram > 1e-12 * e * g {
+                    ((-g * gu + f * gv) / gram, (f * gu - e * gv) / gram)
                 } else {
-                    (e, f, g, e * g - f * f)
-                };
-                ((-c * gu + b * gv) / det, (b * gu - a * gv) / det)
+                    // Su ∥ Sv or one of them zero (a pole): steepest descent, scaled.
+                    let s = e + g;
+                    (-gu / s, -gv / s)
+                }
             };
             if !(du.is_finite() && dv.is_finite()) {
-                return Err(StrakeError::NonFinite {
-                    source: NonFiniteSource::Result,
-                    what: "Newton step of point inversion",
-                    value: if du.is_finite() { dv } else { du },
-                });
+                // No usable step from here (e.g. a collapsed edge): this start fails.
+                return done(u, v, jet, d, it + 1, false);
             }
             // Halve the step until |r| does not grow, or until it is shorter than ε₁.
             let mut lambda = 1.0;

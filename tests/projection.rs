@@ -434,3 +434,25 @@ fn projects_a_tilted_ellipse_onto_a_cylinder() {
     }
     assert!(last_err < 1e-2, "{last_err:e}");
 }
+
+// Near a pole of the sphere (Su → 0 there): a point at colatitude 0.01 is recovered (a start at
+// a grid node on the pole must not stop the search), and the pole itself, where the normal of
+// the parametrisation is undefined, is refused as a degenerate surface point, by index.
+#[test]
+fn near_and_at_a_pole() {
+    let rr = 2.0;
+    let s = strake::analytic::sphere(rr);
+    let opts = ProjectionOptions::new(1e-9).periodic(true, false);
+    let (u, v) = (1.0_f64, 0.01_f64);
+    let p = [rr * v.sin() * u.cos(), rr * v.sin() * u.sin(), rr * v.cos()];
+    let pr = &project_points(&s, &[p], &opts).unwrap()[0];
+    assert!(
+        (pr.v - v).abs() < 1e-12 && angle_diff(pr.u, u).abs() < 1e-9,
+        "{pr:?}"
+    );
+    let e = project_points(&s, &[p, [0.0, 0.0, rr]], &opts).unwrap_err();
+    assert!(
+        matches!(&e, StrakeError::AtPoint { index: 1, error } if matches!(**error, StrakeError::DegenerateSurface { .. })),
+        "{e}"
+    );
+}

@@ -186,20 +186,28 @@ fn chordal_sampling_meets_its_tolerance_with_few_samples() {
     // A slanted line in the parameter plane: a curve whose curvature varies along it.
     let curve = uv_line(0.2, 0.3, 5.5, 5.0).unwrap();
     let path = CurveOnSurface::new(&t, &curve);
-    for delta in [1e-2, 1e-3, 1e-4, 1e-5] {
-        let opts = ChordalOptions::new(delta, f64::INFINITY);
+    // The last case has both limits active: the maximum step on the flatter stretches.
+    for (delta, max_step) in [
+        (1e-2, f64::INFINITY),
+        (1e-3, f64::INFINITY),
+        (1e-4, f64::INFINITY),
+        (1e-5, f64::INFINITY),
+        (1e-4, 0.03),
+    ] {
+        let opts = ChordalOptions::new(delta, max_step);
         let mut out = Vec::new();
         let n = sample_chordal(&path, &opts, &mut out).unwrap();
         assert_eq!(n, out.len());
-        let (worst, _) = check_chords(&path, &out, 64);
-        let ideal = ideal_steps(&path, delta, f64::INFINITY, 20_000);
+        let (worst, longest) = check_chords(&path, &out, 64);
+        let ideal = ideal_steps(&path, delta, max_step, 20_000);
         let steps = (n - 1) as f64;
         eprintln!(
-            "torus δ = {delta:e}: {n} samples, ideal steps {ideal:.1}, ratio {:.3}, worst \
-             deviation/δ {:.4}",
+            "torus δ = {delta:e}, max step {max_step}: {n} samples, ideal steps {ideal:.1}, \
+             ratio {:.3}, worst deviation/δ {:.4}",
             steps / ideal,
             worst / delta
         );
+        assert!(longest <= max_step * (1.0 + 1e-9), "longest step {longest}");
         assert!(
             worst <= delta * (1.0 + 1e-9),
             "δ {delta:e}: worst {worst:e}"
