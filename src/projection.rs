@@ -649,7 +649,8 @@ pub const MAX_CURVE_SAMPLES: usize = 100_000;
 /// parameter. Interpolation is C2 (for a cubic): a space curve with corners is best split at
 /// them by the host, since near a corner the fit converges only linearly.
 ///
-/// Errors (`index` = sample number, `t` = parameter of `curve` there): every error of
+/// Errors (`index` = sample number, or for a midpoint check the number of the sample that
+/// starts the interval; `t` = parameter of `curve` there): every error of
 /// [`Projector::project`] (`TooFarFromSurface`, `NotConverged`, …); `InvalidArgument` when the
 /// fit tolerance is not positive, or when the fit is still outside it at the sample cap;
 /// interpolation errors.
