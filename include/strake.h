@@ -104,6 +104,16 @@ enum StrakeStatus
    */
   STRAKE_STATUS_STALLED_CURVE = 22,
   /**
+   * 23: a point given in space lies farther from the surface than the host's tolerance
+   * (the message names the point's index, the distance and the foot point's (u, v)).
+   */
+  STRAKE_STATUS_TOO_FAR_FROM_SURFACE = 23,
+  /**
+   * 24: an iteration (point inversion, arc-length inversion) did not converge; the message
+   * names the point and what was left.
+   */
+  STRAKE_STATUS_NOT_CONVERGED = 24,
+  /**
    * 30: the host's surface callback returned a non-zero code; the code is in the message
    * and in `strake_last_callback_code`.
    */

@@ -14,6 +14,8 @@ pub enum NonFiniteSource {
     Parameter,
     /// A quantity computed from finite inputs that overflowed (e.g. a curvature of 1e300).
     Result,
+    /// A coordinate of an input point (a point to interpolate or to project).
+    InputPoint,
 }
 
 impl fmt::Display for NonFiniteSource {
@@ -23,6 +25,7 @@ impl fmt::Display for NonFiniteSource {
             NonFiniteSource::CurveJet => "curve jet",
             NonFiniteSource::Parameter => "parameter",
             NonFiniteSource::Result => "computed result",
+            NonFiniteSource::InputPoint => "input point",
         })
     }
 }
@@ -89,6 +92,36 @@ pub enum StrakeError {
         /// The speed figure that fell below the threshold (see [`crate::frame`]).
         speed_figure: f64,
     },
+    /// An input point of a batch (points to interpolate, points to project) was refused;
+    /// `error` says why (e.g. `NonFinite` for a coordinate, `InvalidArgument` for a point that
+    /// repeats its predecessor, `TooFarFromSurface`, `NotConverged`). The C ABI takes the status
+    /// from `error`.
+    AtPoint {
+        /// Index of the point in the caller's array.
+        index: usize,
+        /// What is wrong with it.
+        error: Box<StrakeError>,
+    },
+    /// Point inversion found a foot point, but the given point is farther from the surface than
+    /// the host's tolerance allows.
+    TooFarFromSurface {
+        /// Distance |S(u, v) − P| from the point to its foot point (host length unit).
+        distance: f64,
+        /// The host's tolerance.
+        tolerance: f64,
+        /// Surface parameter u of the foot point.
+        u: f64,
+        /// Surface parameter v of the foot point.
+        v: f64,
+    },
+    /// An iteration (Newton's method in point inversion, the search for a sample spacing) did
+    /// not meet its convergence tests within its iteration cap.
+    NotConverged {
+        /// What did not converge and how far it got.
+        what: String,
+        /// Iterations spent.
+        iterations: usize,
+    },
     /// A host callback returned a non-zero code.
     Callback {
         /// Which callback (`"surface"` or `"curve"`).
@@ -139,6 +172,20 @@ impl fmt::Display for StrakeError {
                  relative to the curve's scale (speed figure {speed_figure:e}); the tangent is \
                  undefined"
             ),
+            StrakeError::AtPoint { index, error } => write!(f, "point {index}: {error}"),
+            StrakeError::TooFarFromSurface {
+                distance,
+                tolerance,
+                u,
+                v,
+            } => write!(
+                f,
+                "too far from the surface: the nearest surface point found, at (u, v) = \
+                 ({u}, {v}), is {distance:e} away, above the tolerance {tolerance:e}"
+            ),
+            StrakeError::NotConverged { what, iterations } => {
+                write!(f, "not converged after {iterations} iterations: {what}")
+            }
             StrakeError::Callback { which, code } => {
                 write!(f, "host {which} callback failed with code {code}")
             }

@@ -20,6 +20,8 @@ pub mod nurbs;
 pub mod parallel;
 pub mod path;
 pub mod principal;
+pub mod projection;
+pub mod sampling;
 pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
@@ -29,7 +31,14 @@ pub use frame::{
 };
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
-pub use nurbs::{KnotVector, NurbsCurve, SpanHint};
+pub use nurbs::{EndDerivatives, KnotVector, NurbsCurve, Parametrization, SpanHint, interpolate};
 pub use path::{CurveOnSurface, Hints, PathSample, SampleError};
 pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
+pub use projection::{
+    FitOptions, ProjectedCurve, Projection, ProjectionOptions, Projector, SeamCurve, project_curve,
+    project_points, project_points_into, uv_curve_through_points,
+};
+pub use sampling::{
+    ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
+};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

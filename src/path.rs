@@ -72,6 +72,16 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         }
     }
 
+    /// The surface.
+    pub fn surface(&self) -> &'a S {
+        self.surface
+    }
+
+    /// The curve in the surface's parameter plane.
+    pub fn curve(&self) -> &'a C {
+        self.curve
+    }
+
     /// The scales against which degeneracy is judged.
     pub fn scales(&self) -> ParamScales {
         self.scales

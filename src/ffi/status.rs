@@ -52,6 +52,12 @@ pub enum StrakeStatus {
     /// 22: the curve stalls at the point: its parameter-plane velocity vanishes relative to
     /// the curve's scale; the tangent is undefined there.
     StalledCurve = 22,
+    /// 23: a point given in space lies farther from the surface than the host's tolerance
+    /// (the message names the point's index, the distance and the foot point's (u, v)).
+    TooFarFromSurface = 23,
+    /// 24: an iteration (point inversion, arc-length inversion) did not converge; the message
+    /// names the point and what was left.
+    NotConverged = 24,
     /// 30: the host's surface callback returned a non-zero code; the code is in the message
     /// and in `strake_last_callback_code`.
     SurfaceCallbackFailed = 30,
@@ -77,13 +83,16 @@ impl StrakeStatus {
             StrakeError::OutOfDomain { .. } => StrakeStatus::OutOfDomain,
             StrakeError::DegenerateSurface { .. } => StrakeStatus::DegenerateSurface,
             StrakeError::StalledCurve { .. } => StrakeStatus::StalledCurve,
+            StrakeError::TooFarFromSurface { .. } => StrakeStatus::TooFarFromSurface,
+            StrakeError::NotConverged { .. } => StrakeStatus::NotConverged,
+            StrakeError::AtPoint { error, .. } => StrakeStatus::of(error),
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
         }
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 14] = [
+    pub const ALL: [StrakeStatus; 16] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -95,6 +104,8 @@ impl StrakeStatus {
         StrakeStatus::OutOfDomain,
         StrakeStatus::DegenerateSurface,
         StrakeStatus::StalledCurve,
+        StrakeStatus::TooFarFromSurface,
+        StrakeStatus::NotConverged,
         StrakeStatus::SurfaceCallbackFailed,
         StrakeStatus::CurveCallbackFailed,
         StrakeStatus::InternalPanic,
@@ -114,6 +125,8 @@ impl StrakeStatus {
             StrakeStatus::OutOfDomain => c"STRAKE_STATUS_OUT_OF_DOMAIN",
             StrakeStatus::DegenerateSurface => c"STRAKE_STATUS_DEGENERATE_SURFACE",
             StrakeStatus::StalledCurve => c"STRAKE_STATUS_STALLED_CURVE",
+            StrakeStatus::TooFarFromSurface => c"STRAKE_STATUS_TOO_FAR_FROM_SURFACE",
+            StrakeStatus::NotConverged => c"STRAKE_STATUS_NOT_CONVERGED",
             StrakeStatus::SurfaceCallbackFailed => c"STRAKE_STATUS_SURFACE_CALLBACK_FAILED",
             StrakeStatus::CurveCallbackFailed => c"STRAKE_STATUS_CURVE_CALLBACK_FAILED",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
