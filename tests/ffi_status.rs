@@ -36,6 +36,8 @@ fn status_numbers_are_stable() {
         (OutOfDomain, 20),
         (DegenerateSurface, 21),
         (StalledCurve, 22),
+        (TooFarFromSurface, 23),
+        (NotConverged, 24),
         (SurfaceCallbackFailed, 30),
         (CurveCallbackFailed, 31),
         (InternalPanic, 90),
