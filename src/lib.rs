@@ -22,10 +22,12 @@ pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use error::{NonFiniteSource, Result, StrakeError};
-pub use frame::{Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature};
+pub use frame::{
+    Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
+};
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
-pub use nurbs::{KnotVector, NurbsCurve, SpanHint};
+pub use nurbs::{KnotVector, NurbsCurve, NurbsSurface, SpanHint};
 pub use path::{CurveOnSurface, Hints, SampleError};
 pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

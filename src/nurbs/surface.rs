@@ -1,0 +1,355 @@
+//! Rational and non-rational B-spline (NURBS) surfaces of any degrees, with the point and all
+//! partial derivatives up to second order.
+//!
+//! S(u, v) = Σᵢ Σⱼ N_{i,p}(u) N_{j,q}(v) w_{ij} P_{ij} / Σᵢ Σⱼ N_{i,p}(u) N_{j,q}(v) w_{ij}.
+//!
+//! Evaluation works on homogeneous coordinates: with A(u, v) = Σ N_i N_j w_{ij} P_{ij} and
+//! w(u, v) = Σ N_i N_j w_{ij}, the partials of A and w are tensor-product sums of basis-function
+//! derivatives (The NURBS Book, 2nd ed., A3.6 SurfaceDerivsAlg1, p. 111, applied to the
+//! weighted points), and the partials of S = A/w follow from the quotient rule (A4.4
+//! RatSurfaceDerivs, p. 137, eq. 4.20):
+//!
+//! - S = A/w
+//! - Su = (Au − wu S)/w, Sv = (Av − wv S)/w
+//! - Suu = (Auu − 2 wu Su − wuu S)/w
+//! - Suv = (Auv − wu Sv − wv Su − wuv S)/w
+//! - Svv = (Avv − 2 wv Sv − wvv S)/w
+//!
+//! For a non-rational surface (no weights) S = A directly. Everything lives in fixed-size stack
+//! arrays: an evaluation never allocates.
+
+use super::basis::basis_rows;
+use super::knots::KnotVector;
+use crate::error::{Result, StrakeError};
+use crate::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::math::Vec3;
+use crate::principal::Orientation;
+use crate::surface::{SurfaceHint, SurfaceSource};
+
+/// The arrays that define a NURBS surface, borrowed from the caller, as handed to
+/// [`NurbsSurface::new`].
+///
+/// Memory layout of the control net: control point P_{ij} (i the u index, 0 ≤ i < `count_u`;
+/// j the v index, 0 ≤ j < `count_v`) is `points[i * count_v + j]`, i.e. **the v index runs
+/// fastest** (row-major with one row per u index). `weights`, when given, uses the same layout.
+#[derive(Debug, Clone, Copy)]
+pub struct NurbsSurfaceData<'a> {
+    /// Degree p in u (1 ..= [`super::MAX_DEGREE`]).
+    pub degree_u: usize,
+    /// Degree q in v (1 ..= [`super::MAX_DEGREE`]).
+    pub degree_v: usize,
+    /// Number of control points in u (at least p + 1).
+    pub count_u: usize,
+    /// Number of control points in v (at least q + 1).
+    pub count_v: usize,
+    /// Knot vector in u: `count_u + degree_u + 1` non-decreasing values.
+    pub knots_u: &'a [f64],
+    /// Knot vector in v: `count_v + degree_v + 1` non-decreasing values.
+    pub knots_v: &'a [f64],
+    /// Control points `[x, y, z]`, `count_u * count_v` of them, v index fastest.
+    pub points: &'a [[f64; 3]],
+    /// Weights, one per control point in the same layout; `None` for a non-rational surface
+    /// (all weights 1).
+    pub weights: Option<&'a [f64]>,
+}
+
+/// A NURBS surface of degrees (p, q) with its knot vectors, control net and optional weights.
+///
+/// Immutable after creation, so one surface can be evaluated from many threads at once; each
+/// caller keeps its own [`SurfaceHint`]. The parameter domain is [u_p, u_{n+1}] × [v_q, v_{m+1}]
+/// (clamped or unclamped knot vectors alike). Closed and periodic surfaces are given as ordinary
+/// NURBS with wrapped control points.
+#[derive(Debug, Clone, PartialEq)]
+pub struct NurbsSurface {
+    u_knots: KnotVector,
+    v_knots: KnotVector,
+    /// Homogeneous control net [w x, w y, w z, w], index i * count_v + j (w = 1 when
+    /// non-rational).
+    net: Vec<[f64; 4]>,
+    rational: bool,
+    orientation: Orientation,
+}
+
+impl NurbsSurface {
+    /// Validates the arrays and builds the surface, with [`Orientation::Forward`] (change it
+    /// with [`Self::with_orientation`]).
+    ///
+    /// Errors, each naming the offending index and value:
+    /// - `InvalidDegree`: a degree of 0 or above [`super::MAX_DEGREE`], fewer than degree + 1
+    ///   control points in a direction, or a knot count other than count + degree + 1 (messages
+    ///   prefixed "u knots" / "v knots"; see [`KnotVector::new`]);
+    /// - `InvalidKnots`: a non-finite or decreasing knot, a knot of multiplicity above
+    ///   degree + 1, or a zero-length domain;
+    /// - `InvalidArgument`: `points.len() != count_u * count_v`, or a weight count different from
+    ///   the control-point count;
+    /// - `InvalidControlPoint`: a non-finite coordinate (index = i * count_v + j);
+    /// - `InvalidWeight`: a weight that is not positive and finite (same index).
+    pub fn new(data: &NurbsSurfaceData<'_>) -> Result<Self> {
+        let u_knots = KnotVector::new("u knots", data.knots_u, data.degree_u, data.count_u)?;
+        let v_knots = KnotVector::new("v knots", data.knots_v, data.degree_v, data.count_v)?;
+        let total = data.count_u.checked_mul(data.count_v).ok_or_else(|| {
+            StrakeError::InvalidArgument(format!(
+                "control net of {} x {} points is too large",
+                data.count_u, data.count_v
+            ))
+        })?;
+        if data.points.len() != total {
+            return Err(StrakeError::InvalidArgument(format!(
+                "control net has {} points, but count_u x count_v = {} x {} = {total}",
+                data.points.len(),
+                data.count_u,
+                data.count_v
+            )));
+        }
+        for (index, p) in data.points.iter().enumerate() {
+            if let Some(&value) = p.iter().find(|c| !c.is_finite()) {
+                return Err(StrakeError::InvalidControlPoint { index, value });
+            }
+        }
+        let net = match data.weights {
+            None => data
+                .points
+                .iter()
+                .map(|p| [p[0], p[1], p[2], 1.0])
+                .collect(),
+            Some(w) => {
+                if w.len() != total {
+                    return Err(StrakeError::InvalidArgument(format!(
+                        "{} weights given for {total} control points (count_u x count_v = {} x {})",
+                        w.len(),
+                        data.count_u,
+                        data.count_v
+                    )));
+                }
+                if let Some((index, &value)) = w
+                    .iter()
+                    .enumerate()
+                    .find(|(_, wi)| !(wi.is_finite() && **wi > 0.0))
+                {
+                    return Err(StrakeError::InvalidWeight { index, value });
+                }
+                data.points
+                    .iter()
+                    .zip(w)
+                    .map(|(p, &wi)| [p[0] * wi, p[1] * wi, p[2] * wi, wi])
+                    .collect()
+            }
+        };
+        Ok(NurbsSurface {
+            u_knots,
+            v_knots,
+            net,
+            rational: data.weights.is_some(),
+            orientation: Orientation::Forward,
+        })
+    }
+
+    /// The same surface with the given normal orientation (see [`Orientation`]).
+    pub fn with_orientation(mut self, orientation: Orientation) -> Self {
+        self.orientation = orientation;
+        self
+    }
+
+    /// The knot vector in u.
+    #[inline]
+    pub fn u_knots(&self) -> &KnotVector {
+        &self.u_knots
+    }
+
+    /// The knot vector in v.
+    #[inline]
+    pub fn v_knots(&self) -> &KnotVector {
+        &self.v_knots
+    }
+
+    /// Degree p in u.
+    #[inline]
+    pub fn degree_u(&self) -> usize {
+        self.u_knots.degree()
+    }
+
+    /// Degree q in v.
+    #[inline]
+    pub fn degree_v(&self) -> usize {
+        self.v_knots.degree()
+    }
+
+    /// Number of control points in u.
+    #[inline]
+    pub fn count_u(&self) -> usize {
+        self.u_knots.count()
+    }
+
+    /// Number of control points in v.
+    #[inline]
+    pub fn count_v(&self) -> usize {
+        self.v_knots.count()
+    }
+
+    /// True when weights were given.
+    #[inline]
+    pub fn is_rational(&self) -> bool {
+        self.rational
+    }
+
+    /// Control point P_{ij} (unweighted). Panics if `i ≥ count_u` or `j ≥ count_v`.
+    pub fn control_point(&self, i: usize, j: usize) -> [f64; 3] {
+        assert!(
+            i < self.count_u() && j < self.count_v(),
+            "control point ({i}, {j}) out of range"
+        );
+        let h = self.net[i * self.count_v() + j];
+        if self.rational {
+            [h[0] / h[3], h[1] / h[3], h[2] / h[3]]
+        } else {
+            [h[0], h[1], h[2]]
+        }
+    }
+
+    /// Weight w_{ij} (1 for a non-rational surface). Panics if `i ≥ count_u` or `j ≥ count_v`.
+    pub fn weight(&self, i: usize, j: usize) -> f64 {
+        assert!(
+            i < self.count_u() && j < self.count_v(),
+            "weight ({i}, {j}) out of range"
+        );
+        self.net[i * self.count_v() + j][3]
+    }
+
+    /// The jet at (u, v) up to `order`: checks that u and v are finite and inside the domain
+    /// (no clamping), then evaluates. Entries above `order` are zero.
+    ///
+    /// Errors: `NonFinite` for a non-finite parameter, `OutOfDomain` outside the domain.
+    /// `hint` remembers the knot spans for the next call; a wrong or stale hint costs a search,
+    /// never a wrong answer.
+    #[inline]
+    pub fn jet(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        self.u_knots.domain().check("u", u)?;
+        self.v_knots.domain().check("v", v)?;
+        Ok(self.jet_unchecked(u, v, order, hint))
+    }
+
+    /// As [`Self::jet`] for (u, v) already known to lie inside the domain (not checked again;
+    /// a parameter outside it gives the extrapolated polynomial of the nearest span).
+    #[inline]
+    pub fn jet_unchecked(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
+        match order {
+            DerivOrder::Position => self.eval::<0>(u, v, hint),
+            DerivOrder::First => self.eval::<1>(u, v, hint),
+            DerivOrder::Second => self.eval::<2>(u, v, hint),
+        }
+    }
+
+    /// Tensor-product sums on the homogeneous net (A3.6), then the quotient rule (A4.4), for
+    /// derivatives up to order K.
+    #[inline(always)]
+    fn eval<const K: usize>(&self, u: f64, v: f64, hint: &mut SurfaceHint) -> SurfaceJet {
+        let p = self.u_knots.degree();
+        let q = self.v_knots.degree();
+        let span_u = self.u_knots.find_span(u, &mut hint.u);
+        let span_v = self.v_knots.find_span(v, &mut hint.v);
+        let nu = basis_rows(self.u_knots.knots(), p, span_u, u, K);
+        let nv = basis_rows(self.v_knots.knots(), q, span_v, v, K);
+        let count_v = self.v_knots.count();
+        let first = (span_u - p) * count_v + (span_v - q);
+
+        // h[0] = A, h[1] = Au, h[2] = Av, h[3] = Auu, h[4] = Auv, h[5] = Avv, each [x, y, z, w].
+        let mut h = [[0.0f64; 4]; 6];
+        for r in 0..=p {
+            let start = first + r * count_v;
+            let row = &self.net[start..start + q + 1];
+            // t[l] = Σ_s N⁽ˡ⁾_{s}(v) Pw_{r,s}: the v-derivatives of this row.
+            let mut t = [[0.0f64; 4]; 3];
+            for (s, cp) in row.iter().enumerate() {
+                for (l, tl) in t.iter_mut().enumerate().take(K + 1) {
+                    let n = nv.d[l][s];
+                    for c in 0..4 {
+                        tl[c] += n * cp[c];
+                    }
+                }
+            }
+            let n0 = nu.d[0][r];
+            for c in 0..4 {
+                h[0][c] += n0 * t[0][c];
+            }
+            if K >= 1 {
+                let n1 = nu.d[1][r];
+                for c in 0..4 {
+                    h[1][c] += n1 * t[0][c];
+                    h[2][c] += n0 * t[1][c];
+                }
+            }
+            if K >= 2 {
+                let n1 = nu.d[1][r];
+                let n2 = nu.d[2][r];
+                for c in 0..4 {
+                    h[3][c] += n2 * t[0][c];
+                    h[4][c] += n1 * t[1][c];
+                    h[5][c] += n0 * t[2][c];
+                }
+            }
+        }
+        let v3 = |a: &[f64; 4]| Vec3::new(a[0], a[1], a[2]);
+        if !self.rational {
+            return SurfaceJet {
+                p: v3(&h[0]),
+                su: v3(&h[1]),
+                sv: v3(&h[2]),
+                suu: v3(&h[3]),
+                suv: v3(&h[4]),
+                svv: v3(&h[5]),
+            };
+        }
+        let inv_w = 1.0 / h[0][3];
+        let s = v3(&h[0]) * inv_w;
+        let mut jet = SurfaceJet {
+            p: s,
+            ..SurfaceJet::default()
+        };
+        if K >= 1 {
+            let (wu, wv) = (h[1][3], h[2][3]);
+            jet.su = (v3(&h[1]) - s * wu) * inv_w;
+            jet.sv = (v3(&h[2]) - s * wv) * inv_w;
+            if K >= 2 {
+                let (wuu, wuv, wvv) = (h[3][3], h[4][3], h[5][3]);
+                jet.suu = (v3(&h[3]) - jet.su * (2.0 * wu) - s * wuu) * inv_w;
+                jet.suv = (v3(&h[4]) - jet.sv * wu - jet.su * wv - s * wuv) * inv_w;
+                jet.svv = (v3(&h[5]) - jet.sv * (2.0 * wv) - s * wvv) * inv_w;
+            }
+        }
+        jet
+    }
+}
+
+impl SurfaceSource for NurbsSurface {
+    fn u_domain(&self) -> Interval {
+        self.u_knots.domain()
+    }
+    fn v_domain(&self) -> Interval {
+        self.v_knots.domain()
+    }
+    fn orientation(&self) -> Orientation {
+        self.orientation
+    }
+    #[inline]
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        Ok(self.jet_unchecked(u, v, order, hint))
+    }
+}
