@@ -212,13 +212,15 @@ def rational_curve(out, rng, name, p, n_ctrl, clamped):
     for t in params_in(rng, knots, p, n_ctrl, 6):
         span = find_span(knots, p, n_ctrl, t)
         N = basis_polys(knots, p, span, X)
-        W = sum(N[r] * ws[span - p + r] for r in range(p + 1))
-        vals = []
-        for d in range(3):
-            for c in range(3):
-                A = sum(N[r] * ws[span - p + r] * pts[span - p + r][c] for r in range(p + 1))
-                expr = sp.diff(A / W, X, d) if d else A / W
-                vals.append(sp.Rational(expr.subs(X, t)))
+        W = sp.expand(sum(N[r] * ws[span - p + r] for r in range(p + 1)))
+        parts = [[None] * 3 for _ in range(3)]  # C, C', C''
+        for c in range(3):
+            A = sp.expand(sum(N[r] * ws[span - p + r] * pts[span - p + r][c] for r in range(p + 1)))
+            c0 = A / W
+            c1 = sp.diff(c0, X)
+            for k, expr in enumerate([c0, c1, sp.diff(c1, X)]):
+                parts[k][c] = sp.Rational(expr.subs(X, t))
+        vals = [x for row in parts for x in row]
         out.write("eval %s %s\n" % (fmt(t), " ".join(fmt(v) for v in vals)))
     out.write("end\n")
 
@@ -252,15 +254,15 @@ def rational_surface(out, rng, name, p, q, nu, nv, clamped_u, clamped_v):
                 W += b
                 for c in range(3):
                     A[c] += b * pts[idx][c]
-        vals = []
-        for (du, dv) in [(0, 0), (1, 0), (0, 1), (2, 0), (1, 1), (0, 2)]:
-            for c in range(3):
-                expr = A[c] / W
-                if du:
-                    expr = sp.diff(expr, X, du)
-                if dv:
-                    expr = sp.diff(expr, Y, dv)
-                vals.append(sp.Rational(expr.subs({X: u, Y: v})))
+        W = sp.expand(W)
+        A = [sp.expand(a) for a in A]
+        parts = [[None] * 3 for _ in range(6)]  # S, Su, Sv, Suu, Suv, Svv
+        for c in range(3):
+            s0 = A[c] / W
+            su_, sv_ = sp.diff(s0, X), sp.diff(s0, Y)
+            for k, expr in enumerate([s0, su_, sv_, sp.diff(su_, X), sp.diff(su_, Y), sp.diff(sv_, Y)]):
+                parts[k][c] = sp.Rational(expr.subs({X: u, Y: v}))
+        vals = [x for row in parts for x in row]
         out.write("eval %s %s %s\n" % (fmt(u), fmt(v), " ".join(fmt(x) for x in vals)))
     out.write("end\n")
 
