@@ -22,7 +22,8 @@ nurbs_basis_scipy.txt
         end
 
 nurbs_rational_sympy.txt
-    Rational 3D curves and rational surfaces of mixed degrees with non-uniform weights. Every
+    Rational 3D curves and rational surfaces of mixed degrees with non-uniform weights (and one
+    curve and one surface with all weights 1, which the Rust test builds as non-rational). Every
     input (knot, coordinate, weight, parameter) is a dyadic rational, exactly representable as
     an f64, so the exact result computed by sympy is the exact answer for the f64 inputs the
     Rust test uses. The basis polynomials of the span are built symbolically (Cox-de Boor), the
@@ -200,10 +201,10 @@ def params_in(rng, knots, p, n_ctrl, count):
     return out
 
 
-def rational_curve(out, rng, name, p, n_ctrl, clamped):
+def rational_curve(out, rng, name, p, n_ctrl, clamped, unit_weights=False):
     knots = knot_vector(rng, p, n_ctrl, clamped, repeat_at=1 if clamped and n_ctrl - p - 1 > 2 else None)
     pts = [[dyadic(rng, -4, 4) for _ in range(3)] for _ in range(n_ctrl)]
-    ws = [sp.Rational(rng.randint(4, 32), 8) for _ in range(n_ctrl)]
+    ws = [sp.Integer(1) if unit_weights else sp.Rational(rng.randint(4, 32), 8) for _ in range(n_ctrl)]
     out.write("curve %s\n" % name)
     out.write("degree %d\n" % p)
     out.write("knots %s\n" % " ".join(fmt(k) for k in knots))
@@ -225,11 +226,11 @@ def rational_curve(out, rng, name, p, n_ctrl, clamped):
     out.write("end\n")
 
 
-def rational_surface(out, rng, name, p, q, nu, nv, clamped_u, clamped_v):
+def rational_surface(out, rng, name, p, q, nu, nv, clamped_u, clamped_v, unit_weights=False):
     ku = knot_vector(rng, p, nu, clamped_u, repeat_at=1 if clamped_u and nu - p - 1 > 2 else None)
     kv = knot_vector(rng, q, nv, clamped_v)
     pts = [[dyadic(rng, -4, 4) for _ in range(3)] for _ in range(nu * nv)]
-    ws = [sp.Rational(rng.randint(4, 32), 8) for _ in range(nu * nv)]
+    ws = [sp.Integer(1) if unit_weights else sp.Rational(rng.randint(4, 32), 8) for _ in range(nu * nv)]
     out.write("surface %s\n" % name)
     out.write("degree %d %d\n" % (p, q))
     out.write("count %d %d\n" % (nu, nv))
@@ -279,6 +280,9 @@ def rational_table(out):
     rational_surface(out, rng, "surf_1x2_unclamped_v", 1, 2, 4, 5, True, False)
     rational_surface(out, rng, "surf_4x2_unclamped_u", 4, 2, 6, 4, False, True)
     rational_surface(out, rng, "surf_3x3_clamped", 3, 3, 6, 6, True, True)
+    # All weights 1: the Rust test builds these as non-rational (no weights).
+    rational_curve(out, rng, "curve_deg3_nonrational", 3, 6, True, unit_weights=True)
+    rational_surface(out, rng, "surf_3x2_nonrational", 3, 2, 6, 5, True, False, unit_weights=True)
 
 
 def main():
