@@ -41,7 +41,11 @@ pub struct ParamScales {
 impl ParamScales {
     /// Fails with `InvalidArgument` unless every extent is positive and finite.
     pub fn check(&self) -> Result<()> {
-        for (name, x) in [("u_extent", self.u_extent), ("v_extent", self.v_extent), ("t_extent", self.t_extent)] {
+        for (name, x) in [
+            ("u_extent", self.u_extent),
+            ("v_extent", self.v_extent),
+            ("t_extent", self.t_extent),
+        ] {
             if !(x.is_finite() && x > 0.0) {
                 return Err(StrakeError::InvalidArgument(format!(
                     "{name} = {x}: parameter extents must be positive and finite"
@@ -114,7 +118,14 @@ pub fn darboux_frame(
 ) -> Result<DarbouxFrame> {
     scales.check()?;
     curve.check_finite()?;
-    let sp = SurfacePoint::new(surface, orientation, curve.u, curve.v, scales.u_extent, scales.v_extent)?;
+    let sp = SurfacePoint::new(
+        surface,
+        orientation,
+        curve.u,
+        curve.v,
+        scales.u_extent,
+        scales.v_extent,
+    )?;
     darboux_frame_at(surface, &sp, curve, scales, t)
 }
 
@@ -164,7 +175,10 @@ pub fn darboux_frame_at(
         geodesic_torsion: tg,
         speed,
         principal: sp.principal,
-        conditioning: Conditioning { surface: sp.conditioning, curve: speed_figure },
+        conditioning: Conditioning {
+            surface: sp.conditioning,
+            curve: speed_figure,
+        },
     };
     check_result(&frame)?;
     Ok(frame)
@@ -179,11 +193,19 @@ fn check_result(f: &DarbouxFrame) -> Result<()> {
     ];
     for (what, value) in scalars {
         if !value.is_finite() {
-            return Err(StrakeError::NonFinite { source: NonFiniteSource::Result, what, value });
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Result,
+                what,
+                value,
+            });
         }
     }
     if !(all_finite(&f.t) && all_finite(&f.b)) || f.speed == 0.0 {
-        return Err(StrakeError::NonFinite { source: NonFiniteSource::Result, what: "tangent", value: f.speed });
+        return Err(StrakeError::NonFinite {
+            source: NonFiniteSource::Result,
+            what: "tangent",
+            value: f.speed,
+        });
     }
     Ok(())
 }

@@ -50,7 +50,13 @@ pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-7;
 /// otherwise, and it tends to 0 both when Su and Sv become parallel and when one of them
 /// vanishes (a pole). c = 0 when Su = Sv = 0. Dimensionless, in [0, 1].
 #[inline]
-pub fn surface_conditioning(su: &Vec3, sv: &Vec3, cross_norm: f64, u_extent: f64, v_extent: f64) -> f64 {
+pub fn surface_conditioning(
+    su: &Vec3,
+    sv: &Vec3,
+    cross_norm: f64,
+    u_extent: f64,
+    v_extent: f64,
+) -> f64 {
     let a = su.norm() * u_extent;
     let b = sv.norm() * v_extent;
     let m = a.max(b);
@@ -152,15 +158,41 @@ impl SurfacePoint {
         // Eigenvector of k1 at angle θ from e1 with tan 2θ = 2 W12 / (W11 − W22).
         // At an umbilic (d at round-off level) every direction is principal: take e1.
         let scale = w11.abs().max(w22.abs()).max(w12.abs());
-        let theta = if d <= 4.0 * f64::EPSILON * scale { 0.0 } else { 0.5 * w12.atan2(half_diff) };
+        let theta = if d <= 4.0 * f64::EPSILON * scale {
+            0.0
+        } else {
+            0.5 * w12.atan2(half_diff)
+        };
         let e1 = su / su_len;
         let e2 = n.cross(&e1);
         let (s, c) = theta.sin_cos();
         let d1 = e1 * c + e2 * s;
         let d2 = n.cross(&d1);
-        let principal = PrincipalCurvatures { k1, k2, d1, d2, mean, gaussian: k1 * k2 };
-        let out = SurfacePoint { n, e, f, g, area, l, m, nn, principal, conditioning };
-        if !(k1.is_finite() && k2.is_finite() && all_finite(&n) && out.principal.gaussian.is_finite()) {
+        let principal = PrincipalCurvatures {
+            k1,
+            k2,
+            d1,
+            d2,
+            mean,
+            gaussian: k1 * k2,
+        };
+        let out = SurfacePoint {
+            n,
+            e,
+            f,
+            g,
+            area,
+            l,
+            m,
+            nn,
+            principal,
+            conditioning,
+        };
+        if !(k1.is_finite()
+            && k2.is_finite()
+            && all_finite(&n)
+            && out.principal.gaussian.is_finite())
+        {
             return Err(StrakeError::NonFinite {
                 source: NonFiniteSource::Result,
                 what: "principal curvature",

@@ -293,3 +293,44 @@ pub fn torus(major: f64, minor: f64, form: CircleForm) -> Result<NurbsSurface> {
     let profile = planar_curve(&unit_circle(form), |[a, b]| [major + minor * a, minor * b])?;
     revolve(&profile, form)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // Issue 3 (validation): every builder refuses bad sizes with InvalidArgument naming the value.
+    #[test]
+    fn builders_refuse_bad_input() {
+        let f = CircleForm::NinePoint;
+        let msg = |r: Result<NurbsSurface>| match r {
+            Err(StrakeError::InvalidArgument(m)) => m,
+            other => panic!("expected InvalidArgument, got {other:?}"),
+        };
+        assert!(msg(sphere(0.0, f)).contains("sphere radius = 0"));
+        assert!(msg(sphere(f64::NAN, f)).contains("sphere radius = NaN"));
+        assert!(msg(torus(2.0, -1.0, f)).contains("torus minor radius = -1"));
+        assert!(msg(torus(f64::INFINITY, 1.0, f)).contains("torus major radius = inf"));
+        assert!(msg(cylinder(1.0, 2.0, 2.0, f)).contains("z0 = 2, z1 = 2"));
+        assert!(msg(cylinder(-1.0, 0.0, 1.0, f)).contains("cylinder radius = -1"));
+        let c = circle([0.0; 3], [1.0, 0.0, 0.0], [0.0, 1.0, 0.0], 1.0, f).unwrap();
+        assert!(msg(extrude(&c, [0.0; 3])).contains("zero"));
+        let bad = circle([0.0; 3], [1.0, 0.0, 0.0], [2.0, 0.0, 0.0], 1.0, f).unwrap_err();
+        assert!(bad.to_string().contains("parallel"), "{bad}");
+        let bad = circle([0.0; 3], [0.0; 3], [0.0, 1.0, 0.0], 1.0, f).unwrap_err();
+        assert!(bad.to_string().contains("zero"), "{bad}");
+    }
+
+    // The NURBS Book §8.5 (A8.1): the weights of a surface of revolution are products w_i · w_j.
+    #[test]
+    fn revolved_weights_are_products() {
+        for form in [CircleForm::NinePoint, CircleForm::SevenPoint] {
+            let t = torus(3.0, 1.0, form).unwrap();
+            let c = unit_circle(form);
+            for i in 0..t.count_u() {
+                for j in 0..t.count_v() {
+                    assert_eq!(t.weight(i, j), c.weights[i] * c.weights[j]);
+                }
+            }
+        }
+    }
+}
