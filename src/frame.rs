@@ -140,7 +140,7 @@ pub fn darboux_frame_at(
     t: f64,
 ) -> Result<DarbouxFrame> {
     let speed_figure = curve_speed_figure(curve, scales);
-    if !(speed_figure >= STALLED_CURVE_LIMIT) {
+    if speed_figure.is_nan() || speed_figure < STALLED_CURVE_LIMIT {
         return Err(StrakeError::StalledCurve { t, speed_figure });
     }
     let (du, dv) = (curve.du, curve.dv);

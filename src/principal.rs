@@ -130,7 +130,7 @@ impl SurfacePoint {
         let cross = su.cross(sv);
         let area = cross.norm();
         let conditioning = surface_conditioning(su, sv, area, u_extent, v_extent);
-        if !(conditioning >= DEGENERATE_SURFACE_LIMIT) {
+        if conditioning.is_nan() || conditioning < DEGENERATE_SURFACE_LIMIT {
             return Err(StrakeError::DegenerateSurface { u, v, conditioning });
         }
         let sigma = orientation.sign();

@@ -47,12 +47,11 @@ fn basis_values_and_derivatives_of_the_worked_example() {
         [1.0, -2.0, 1.0],
     ];
     for (k, w) in want.iter().enumerate() {
-        for r in 0..3 {
+        for (r, &want_r) in w.iter().enumerate() {
             assert!(
-                close(rows.d[k][r], w[r]),
-                "d{k}[{r}] = {} (want {})",
-                rows.d[k][r],
-                w[r]
+                close(rows.d[k][r], want_r),
+                "d{k}[{r}] = {} (want {want_r})",
+                rows.d[k][r]
             );
         }
     }

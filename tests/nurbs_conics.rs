@@ -20,9 +20,9 @@
 //!   orientation Forward (Su × Sv, pointing outward for these builders) and the crate's sign
 //!   (a curvature is positive where the surface bends toward N), the parallels and meridians are
 //!   the lines of curvature (do Carmo §3-3, surfaces of revolution) with
-//!     k_par = −cos ψ / ρ (Meusnier's theorem, do Carmo §3-2: the parallel has curvature 1/ρ
-//!       toward the axis, whose component along N is −cos ψ),
-//!     k_mer = −1/R (sphere), −1/r (torus), 0 (cylinder).
+//!   k_par = −cos ψ / ρ (Meusnier's theorem, do Carmo §3-2: the parallel has curvature 1/ρ
+//!   toward the axis, whose component along N is −cos ψ) and
+//!   k_mer = −1/R (sphere), −1/r (torus), 0 (cylinder).
 //!   (Sphere: every point umbilic, |κn| = 1/R; torus: principal curvatures cos v/(R + r cos v)
 //!   and 1/r up to sign, K = cos v/(r(R + r cos v)); cylinder: 1/R and 0 — REFERENCES.md.)
 //! - With e_par = unit vector along increasing longitude, e_mer = N × e_par (unit meridian

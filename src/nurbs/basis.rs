@@ -26,14 +26,29 @@ pub struct BasisRows {
 /// containing u (as returned by [`super::KnotVector::find_span`]), `p ≤ MAX_DEGREE`.
 #[inline]
 pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) -> BasisRows {
-    let mut out = BasisRows {
-        d: [[0.0; MAX_ORDER]; 3],
-    };
-    let mut left = [0.0; MAX_ORDER];
-    let mut right = [0.0; MAX_ORDER];
-    let mut row = [0.0; MAX_ORDER];
-    let mut deg_p1 = [0.0; MAX_ORDER]; // degree p − 1 values
-    let mut deg_p2 = [0.0; MAX_ORDER]; // degree p − 2 values
+    BasisRows {
+        d: basis_rows_in::<MAX_ORDER>(knots, p, span, u, order),
+    }
+}
+
+/// As [`basis_rows`], with rows of `N` entries (`p < N ≤ MAX_ORDER`): the same arithmetic, so
+/// the same numbers bit for bit, in stack arrays sized for the degree at hand. Evaluators of
+/// low-degree surfaces use a small `N` so that no time goes into clearing unused entries.
+#[inline(always)]
+pub(crate) fn basis_rows_in<const N: usize>(
+    knots: &[f64],
+    p: usize,
+    span: usize,
+    u: f64,
+    order: usize,
+) -> [[f64; N]; 3] {
+    debug_assert!(p < N);
+    let mut out = [[0.0; N]; 3];
+    let mut left = [0.0; N];
+    let mut right = [0.0; N];
+    let mut deg_p1 = [0.0; N]; // degree p − 1 values
+    let mut deg_p2 = [0.0; N]; // degree p − 2 values
+    let row = &mut out[0];
     row[0] = 1.0;
     for j in 1..=p {
         if j == p {
@@ -52,14 +67,13 @@ pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) ->
         }
         row[j] = saved;
     }
-    out.d[0][..=p].copy_from_slice(&row[..=p]);
     if order >= 1 {
-        derivative_row(knots, p, span, &deg_p1, &mut out.d[1]);
+        derivative_row(knots, p, span, &deg_p1, &mut out[1]);
     }
     if order >= 2 && p >= 2 {
-        let mut der_p1 = [0.0; MAX_ORDER];
+        let mut der_p1 = [0.0; N];
         derivative_row(knots, p - 1, span, &deg_p2, &mut der_p1);
-        derivative_row(knots, p, span, &der_p1, &mut out.d[2]);
+        derivative_row(knots, p, span, &der_p1, &mut out[2]);
     }
     out
 }
@@ -68,12 +82,12 @@ pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) ->
 /// `out[r]` = p [lower[r−1]/(u_{span+r} − u_{span−p+r}) − lower[r]/(u_{span+r+1} − u_{span−p+r+1})]
 /// for r = 0..=p (terms outside 0..p are zero): the next derivative at degree p.
 #[inline(always)]
-fn derivative_row(
+fn derivative_row<const N: usize>(
     knots: &[f64],
     p: usize,
     span: usize,
-    lower: &[f64; MAX_ORDER],
-    out: &mut [f64; MAX_ORDER],
+    lower: &[f64; N],
+    out: &mut [f64; N],
 ) {
     let pf = p as f64;
     let mut carry = 0.0;

@@ -194,10 +194,11 @@ impl<const D: usize> NurbsCurve<D> {
             d1: [0.0; D],
             d2: [0.0; D],
         };
+        let [a0, a1, a2] = a;
         for c in 0..D {
-            let c0 = a[0][c] * inv_w;
-            let c1 = (a[1][c] - w[1] * c0) * inv_w;
-            let c2 = (a[2][c] - 2.0 * w[1] * c1 - w[2] * c0) * inv_w;
+            let c0 = a0[c] * inv_w;
+            let c1 = (a1[c] - w[1] * c0) * inv_w;
+            let c2 = (a2[c] - 2.0 * w[1] * c1 - w[2] * c0) * inv_w;
             out.p[c] = c0;
             if k >= 1 {
                 out.d1[c] = c1;

@@ -18,7 +18,7 @@
 //! For a non-rational surface (no weights) S = A directly. Everything lives in fixed-size stack
 //! arrays: an evaluation never allocates.
 
-use super::basis::basis_rows;
+use super::basis::{MAX_ORDER, basis_rows_in};
 use super::knots::KnotVector;
 use crate::error::{Result, StrakeError};
 use crate::jet::{DerivOrder, Interval, SurfaceJet};
@@ -244,55 +244,68 @@ impl NurbsSurface {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
-        match order {
-            DerivOrder::Position => self.eval::<0>(u, v, hint),
-            DerivOrder::First => self.eval::<1>(u, v, hint),
-            DerivOrder::Second => self.eval::<2>(u, v, hint),
+        // Stack rows sized for the degree: bicubic and lower need 4 entries, not MAX_ORDER.
+        let room = self.u_knots.degree().max(self.v_knots.degree()) + 1;
+        match (order, room) {
+            (DerivOrder::Position, ..=4) => self.eval::<0, 4>(u, v, hint),
+            (DerivOrder::First, ..=4) => self.eval::<1, 4>(u, v, hint),
+            (DerivOrder::Second, ..=4) => self.eval::<2, 4>(u, v, hint),
+            (DerivOrder::Position, ..=8) => self.eval::<0, 8>(u, v, hint),
+            (DerivOrder::First, ..=8) => self.eval::<1, 8>(u, v, hint),
+            (DerivOrder::Second, ..=8) => self.eval::<2, 8>(u, v, hint),
+            (DerivOrder::Position, _) => self.eval::<0, MAX_ORDER>(u, v, hint),
+            (DerivOrder::First, _) => self.eval::<1, MAX_ORDER>(u, v, hint),
+            (DerivOrder::Second, _) => self.eval::<2, MAX_ORDER>(u, v, hint),
         }
     }
 
     /// Tensor-product sums on the homogeneous net (A3.6), then the quotient rule (A4.4), for
-    /// derivatives up to order K.
+    /// derivatives up to order K, with basis rows of N entries (both degrees below N).
     #[inline(always)]
-    fn eval<const K: usize>(&self, u: f64, v: f64, hint: &mut SurfaceHint) -> SurfaceJet {
+    fn eval<const K: usize, const N: usize>(
+        &self,
+        u: f64,
+        v: f64,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
         let p = self.u_knots.degree();
         let q = self.v_knots.degree();
         let span_u = self.u_knots.find_span(u, &mut hint.u);
         let span_v = self.v_knots.find_span(v, &mut hint.v);
-        let nu = basis_rows(self.u_knots.knots(), p, span_u, u, K);
-        let nv = basis_rows(self.v_knots.knots(), q, span_v, v, K);
+        let nu = basis_rows_in::<N>(self.u_knots.knots(), p, span_u, u, K);
+        let nv = basis_rows_in::<N>(self.v_knots.knots(), q, span_v, v, K);
         let count_v = self.v_knots.count();
         let first = (span_u - p) * count_v + (span_v - q);
 
         // h[0] = A, h[1] = Au, h[2] = Av, h[3] = Auu, h[4] = Auv, h[5] = Avv, each [x, y, z, w].
         let mut h = [[0.0f64; 4]; 6];
-        for r in 0..=p {
-            let start = first + r * count_v;
-            let row = &self.net[start..start + q + 1];
+        // Row r of the (p + 1) × (q + 1) block starts at first + r * count_v.
+        for (r, row) in self.net[first..].chunks(count_v).take(p + 1).enumerate() {
+            let row = &row[..=q];
             // t[l] = Σ_s N⁽ˡ⁾_{s}(v) Pw_{r,s}: the v-derivatives of this row.
             let mut t = [[0.0f64; 4]; 3];
             for (s, cp) in row.iter().enumerate() {
                 for (l, tl) in t.iter_mut().enumerate().take(K + 1) {
-                    let n = nv.d[l][s];
+                    let n = nv[l][s];
                     for c in 0..4 {
                         tl[c] += n * cp[c];
                     }
                 }
             }
-            let n0 = nu.d[0][r];
+            let n0 = nu[0][r];
             for c in 0..4 {
                 h[0][c] += n0 * t[0][c];
             }
             if K >= 1 {
-                let n1 = nu.d[1][r];
+                let n1 = nu[1][r];
                 for c in 0..4 {
                     h[1][c] += n1 * t[0][c];
                     h[2][c] += n0 * t[1][c];
                 }
             }
             if K >= 2 {
-                let n1 = nu.d[1][r];
-                let n2 = nu.d[2][r];
+                let n1 = nu[1][r];
+                let n2 = nu[2][r];
                 for c in 0..4 {
                     h[3][c] += n2 * t[0][c];
                     h[4][c] += n1 * t[1][c];
