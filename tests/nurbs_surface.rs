@@ -165,12 +165,14 @@ fn control_net_layout_is_v_fastest() {
     let s = build(&ku, &kv, &pts, Some(&ws)).unwrap();
     for (i, j) in [(0, 0), (0, 7), (3, 5), (7, 0), (7, 7)] {
         let k = i * 8 + j;
-        let p = s.control_point(i, j);
+        let p = s.control_point(i, j).unwrap();
         for c in 0..3 {
             assert!((p[c] - pts[k][c]).abs() <= 1e-15 * pts[k][c].abs().max(1.0));
         }
-        assert_eq!(s.weight(i, j), ws[k]);
+        assert_eq!(s.weight(i, j), Some(ws[k]));
     }
+    assert_eq!(s.control_point(8, 0), None);
+    assert_eq!(s.weight(0, 8), None);
     // The layout shows in the surface: at the corner (u, v) = (lo, hi) of a clamped surface the
     // point is P_{0, count_v − 1} (The NURBS Book §3.4, endpoint interpolation).
     let mut h = SurfaceHint::default();

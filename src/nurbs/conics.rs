@@ -328,7 +328,7 @@ mod tests {
             let c = unit_circle(form);
             for i in 0..t.count_u() {
                 for j in 0..t.count_v() {
-                    assert_eq!(t.weight(i, j), c.weights[i] * c.weights[j]);
+                    assert_eq!(t.weight(i, j), Some(c.weights[i] * c.weights[j]));
                 }
             }
         }

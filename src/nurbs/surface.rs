@@ -16,7 +16,10 @@
 //! - Svv = (Avv − 2 wv Sv − wvv S)/w
 //!
 //! For a non-rational surface (no weights) S = A directly. Everything lives in fixed-size stack
-//! arrays: an evaluation never allocates.
+//! arrays sized for the degree: an evaluation never allocates. The reciprocals of the knot
+//! differences that the basis functions divide by are computed once per knot span at creation
+//! (p(p + 1)/2 per span and direction), so an evaluation multiplies instead of dividing; this
+//! agrees with plain division (The NURBS Book's arithmetic) to a few units in the last place.
 
 use super::basis::{
     Direct, MAX_ORDER, Reciprocals, basis_rows_in, reciprocals_per_span, span_reciprocals,
@@ -210,27 +213,27 @@ impl NurbsSurface {
         self.rational
     }
 
-    /// Control point P_{ij} (unweighted). Panics if `i ≥ count_u` or `j ≥ count_v`.
-    pub fn control_point(&self, i: usize, j: usize) -> [f64; 3] {
-        assert!(
-            i < self.count_u() && j < self.count_v(),
-            "control point ({i}, {j}) out of range"
-        );
+    /// Control point P_{ij} (unweighted, as given), or `None` if `i ≥ count_u` or
+    /// `j ≥ count_v`.
+    pub fn control_point(&self, i: usize, j: usize) -> Option<[f64; 3]> {
+        if i >= self.count_u() || j >= self.count_v() {
+            return None;
+        }
         let h = self.net[i * self.count_v() + j];
-        if self.rational {
+        Some(if self.rational {
             [h[0] / h[3], h[1] / h[3], h[2] / h[3]]
         } else {
             [h[0], h[1], h[2]]
-        }
+        })
     }
 
-    /// Weight w_{ij} (1 for a non-rational surface). Panics if `i ≥ count_u` or `j ≥ count_v`.
-    pub fn weight(&self, i: usize, j: usize) -> f64 {
-        assert!(
-            i < self.count_u() && j < self.count_v(),
-            "weight ({i}, {j}) out of range"
-        );
-        self.net[i * self.count_v() + j][3]
+    /// Weight w_{ij} (1 for a non-rational surface), or `None` if `i ≥ count_u` or
+    /// `j ≥ count_v`.
+    pub fn weight(&self, i: usize, j: usize) -> Option<f64> {
+        if i >= self.count_u() || j >= self.count_v() {
+            return None;
+        }
+        Some(self.net[i * self.count_v() + j][3])
     }
 
     /// The jet at (u, v) up to `order`: checks that u and v are finite and inside the domain
@@ -252,8 +255,9 @@ impl NurbsSurface {
         Ok(self.jet_unchecked(u, v, order, hint))
     }
 
-    /// As [`Self::jet`] for (u, v) already known to lie inside the domain (not checked again;
-    /// a parameter outside it gives the extrapolated polynomial of the nearest span).
+    /// As [`Self::jet`] for (u, v) already known to lie inside the domain (not checked again:
+    /// a parameter outside it gives the polynomial of the nearest span extrapolated, a NaN
+    /// parameter a NaN jet; never a panic).
     #[inline]
     pub fn jet_unchecked(
         &self,
