@@ -2,7 +2,7 @@
 //! the 9-point and the 7-point form, The NURBS Book 2nd ed. §7.5 and A7.1 p. 308; surfaces by
 //! extrusion §8.3 and revolution A8.1 p. 346) reproduce the closed-form curvatures of the exact
 //! surfaces (do Carmo, Differential Geometry of Curves and Surfaces, ch. 3) along iso-curves and
-//! slanted lines in the parameter plane.
+//! slanted lines in the parameter plane. (Section numbers of The NURBS Book: [memory].)
 //!
 //! The NURBS parametrisation is not proportional to angle or arc length, so expected values
 //! are derived from the geometry of the point reached and the direction of travel, not from

@@ -173,8 +173,9 @@ fn control_net_layout_is_v_fastest() {
     }
     assert_eq!(s.control_point(8, 0), None);
     assert_eq!(s.weight(0, 8), None);
-    // The layout shows in the surface: at the corner (u, v) = (lo, hi) of a clamped surface the
-    // point is P_{0, count_v − 1} (The NURBS Book §3.4, endpoint interpolation).
+    // The layout shows in the surface: at the corner (u, v) = (lo, hi) of a clamped surface
+    // the point is P_{0, count_v − 1} (The NURBS Book ch. 3, endpoint interpolation of clamped
+    // surfaces [section: memory]).
     let mut h = SurfaceHint::default();
     let corner = s.jet(0.0, 3.0, DerivOrder::Position, &mut h).unwrap().p;
     for c in 0..3 {

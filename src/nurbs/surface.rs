@@ -7,7 +7,7 @@
 //! w(u, v) = Σ N_i N_j w_{ij}, the partials of A and w are tensor-product sums of basis-function
 //! derivatives (The NURBS Book, 2nd ed., A3.6 SurfaceDerivsAlg1, p. 111, applied to the
 //! weighted points), and the partials of S = A/w follow from the quotient rule (A4.4
-//! RatSurfaceDerivs, p. 137, eq. 4.20):
+//! RatSurfaceDerivs, p. 137):
 //!
 //! - S = A/w
 //! - Su = (Au − wu S)/w, Sv = (Av − wv S)/w
