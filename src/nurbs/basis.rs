@@ -26,14 +26,88 @@ pub struct BasisRows {
 /// containing u (as returned by [`super::KnotVector::find_span`]), `p ≤ MAX_DEGREE`.
 #[inline]
 pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) -> BasisRows {
-    let mut out = BasisRows {
-        d: [[0.0; MAX_ORDER]; 3],
-    };
-    let mut left = [0.0; MAX_ORDER];
-    let mut right = [0.0; MAX_ORDER];
-    let mut row = [0.0; MAX_ORDER];
-    let mut deg_p1 = [0.0; MAX_ORDER]; // degree p − 1 values
-    let mut deg_p2 = [0.0; MAX_ORDER]; // degree p − 2 values
+    BasisRows {
+        d: basis_rows_in::<MAX_ORDER, _>(knots, p, span, u, order, &Direct),
+    }
+}
+
+/// How a basis evaluation divides by knot differences.
+///
+/// [`Direct`] divides, exactly as [`basis_rows`] always has; [`Reciprocals`] multiplies by
+/// reciprocals computed once per span (see [`span_reciprocals`]), which is faster and agrees to
+/// a few units in the last place.
+pub(crate) trait KnotDivisor {
+    /// x / (u_{span+r+1} − u_{span+r+1−j}) in the Cox–de Boor step j, whose denominator is also
+    /// `right_r1 + left_jr` = (u_{span+r+1} − u) + (u − u_{span+r+1−j}).
+    fn cox(&self, x: f64, j: usize, r: usize, right_r1: f64, left_jr: f64) -> f64;
+    /// x / (u_{span+r+1} − u_{span+r+1−p}) in the derivative formula at degree p.
+    fn deriv(&self, x: f64, knots: &[f64], span: usize, p: usize, r: usize) -> f64;
+}
+
+/// Plain division (the reference arithmetic of [`basis_rows`]).
+pub(crate) struct Direct;
+
+impl KnotDivisor for Direct {
+    #[inline(always)]
+    fn cox(&self, x: f64, _j: usize, _r: usize, right_r1: f64, left_jr: f64) -> f64 {
+        x / (right_r1 + left_jr)
+    }
+    #[inline(always)]
+    fn deriv(&self, x: f64, knots: &[f64], span: usize, p: usize, r: usize) -> f64 {
+        x / (knots[span + r + 1] - knots[span + r + 1 - p])
+    }
+}
+
+/// Multiplication by the reciprocals of one span, laid out as by [`span_reciprocals`].
+pub(crate) struct Reciprocals<'a>(pub(crate) &'a [f64]);
+
+impl KnotDivisor for Reciprocals<'_> {
+    #[inline(always)]
+    fn cox(&self, x: f64, j: usize, r: usize, _right_r1: f64, _left_jr: f64) -> f64 {
+        x * self.0[j * (j - 1) / 2 + r]
+    }
+    #[inline(always)]
+    fn deriv(&self, x: f64, _knots: &[f64], _span: usize, p: usize, r: usize) -> f64 {
+        x * self.0[p * (p - 1) / 2 + r]
+    }
+}
+
+/// Number of reciprocals one span of degree p needs: p (p + 1) / 2.
+pub(crate) fn reciprocals_per_span(p: usize) -> usize {
+    p * (p + 1) / 2
+}
+
+/// Appends the reciprocals 1/(u_{span+r+1} − u_{span+r+1−j}) for j = 1..=p, r = 0..j (index
+/// j (j − 1)/2 + r) of one span: every knot difference the basis functions and their
+/// derivatives divide by on that span. On a non-empty span none of them is zero (each
+/// difference spans the span itself); on an empty span they may be infinite and are never used.
+pub(crate) fn span_reciprocals(knots: &[f64], p: usize, span: usize, out: &mut Vec<f64>) {
+    for j in 1..=p {
+        for r in 0..j {
+            out.push(1.0 / (knots[span + r + 1] - knots[span + r + 1 - j]));
+        }
+    }
+}
+
+/// As [`basis_rows`], with rows of `N` entries (`p < N ≤ MAX_ORDER`) and the divisions done by
+/// `div`. With [`Direct`] it is the same arithmetic as [`basis_rows`], bit for bit. Evaluators
+/// of low-degree surfaces use a small `N` so that no time goes into clearing unused entries.
+#[inline(always)]
+pub(crate) fn basis_rows_in<const N: usize, D: KnotDivisor>(
+    knots: &[f64],
+    p: usize,
+    span: usize,
+    u: f64,
+    order: usize,
+    div: &D,
+) -> [[f64; N]; 3] {
+    debug_assert!(p < N);
+    let mut out = [[0.0; N]; 3];
+    let mut left = [0.0; N];
+    let mut right = [0.0; N];
+    let mut deg_p1 = [0.0; N]; // degree p − 1 values
+    let mut deg_p2 = [0.0; N]; // degree p − 2 values
+    let row = &mut out[0];
     row[0] = 1.0;
     for j in 1..=p {
         if j == p {
@@ -46,20 +120,19 @@ pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) ->
         right[j] = knots[span + j] - u;
         let mut saved = 0.0;
         for r in 0..j {
-            let temp = row[r] / (right[r + 1] + left[j - r]);
+            let temp = div.cox(row[r], j, r, right[r + 1], left[j - r]);
             row[r] = saved + right[r + 1] * temp;
             saved = left[j - r] * temp;
         }
         row[j] = saved;
     }
-    out.d[0][..=p].copy_from_slice(&row[..=p]);
     if order >= 1 {
-        derivative_row(knots, p, span, &deg_p1, &mut out.d[1]);
+        derivative_row(knots, p, span, &deg_p1, &mut out[1], div);
     }
     if order >= 2 && p >= 2 {
-        let mut der_p1 = [0.0; MAX_ORDER];
-        derivative_row(knots, p - 1, span, &deg_p2, &mut der_p1);
-        derivative_row(knots, p, span, &der_p1, &mut out.d[2]);
+        let mut der_p1 = [0.0; N];
+        derivative_row(knots, p - 1, span, &deg_p2, &mut der_p1, div);
+        derivative_row(knots, p, span, &der_p1, &mut out[2], div);
     }
     out
 }
@@ -68,19 +141,20 @@ pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) ->
 /// `out[r]` = p [lower[r−1]/(u_{span+r} − u_{span−p+r}) − lower[r]/(u_{span+r+1} − u_{span−p+r+1})]
 /// for r = 0..=p (terms outside 0..p are zero): the next derivative at degree p.
 #[inline(always)]
-fn derivative_row(
+fn derivative_row<const N: usize, D: KnotDivisor>(
     knots: &[f64],
     p: usize,
     span: usize,
-    lower: &[f64; MAX_ORDER],
-    out: &mut [f64; MAX_ORDER],
+    lower: &[f64; N],
+    out: &mut [f64; N],
+    div: &D,
 ) {
     let pf = p as f64;
     let mut carry = 0.0;
     for r in 0..p {
         // lower[r] appears with + in out[r + 1] and with − in out[r], over the same denominator
         // u_{span+r+1} − u_{span−p+r+1}.
-        let term = lower[r] / (knots[span + r + 1] - knots[span + r + 1 - p]);
+        let term = div.deriv(lower[r], knots, span, p, r);
         out[r] = pf * (carry - term);
         carry = term;
     }

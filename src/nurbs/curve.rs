@@ -114,6 +114,16 @@ impl<const D: usize> NurbsCurve<D> {
         !self.weights.is_empty()
     }
 
+    /// The weights w_i, or `None` for a non-rational curve (all weights 1).
+    #[inline]
+    pub fn weights(&self) -> Option<&[f64]> {
+        if self.weights.is_empty() {
+            None
+        } else {
+            Some(&self.weights)
+        }
+    }
+
     /// The control points P_i (unweighted).
     pub fn control_points(&self) -> Vec<[f64; D]> {
         if self.weights.is_empty() {

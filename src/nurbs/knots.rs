@@ -42,10 +42,11 @@ impl KnotVector {
                 degree + 1
             )));
         }
-        if knots.len() != count + degree + 1 {
+        // Checked: a count from the C ABI may be anything up to usize::MAX.
+        if count.checked_add(degree + 1) != Some(knots.len()) {
             return Err(StrakeError::InvalidDegree(format!(
-                "{name}: degree {degree} with {count} control points needs {} knots, got {}",
-                count + degree + 1,
+                "{name}: degree {degree} with {count} control points needs count + degree + 1 = {} knots, got {}",
+                count as u128 + degree as u128 + 1,
                 knots.len()
             )));
         }
