@@ -405,7 +405,7 @@ fn degree_and_count_mismatch() {
     expect(
         try_curve(2, &[0.0, 0.0, 0.0, 1.0, 1.0], &uv3, None),
         StrakeStatus::InvalidDegree,
-        &["needs 6 knots, got 5"],
+        &["needs count + degree + 1 = 6 knots, got 5"],
     );
     expect(
         try_curve(0, &[0.0, 0.5, 1.0], &uv3, None),
