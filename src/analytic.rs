@@ -13,9 +13,18 @@ type JetFn = Box<dyn Fn(f64, f64, DerivOrder) -> Result<SurfaceJet> + Send + Syn
 /// An analytic surface: a boxed closure behind [`FnSurface`].
 pub type AnalyticSurface = FnSurface<JetFn>;
 
-fn make(u: (f64, f64), v: (f64, f64), f: impl Fn(f64, f64) -> SurfaceJet + Send + Sync + 'static) -> AnalyticSurface {
+fn make(
+    u: (f64, f64),
+    v: (f64, f64),
+    f: impl Fn(f64, f64) -> SurfaceJet + Send + Sync + 'static,
+) -> AnalyticSurface {
     let boxed: JetFn = Box::new(move |a, b, _| Ok(f(a, b)));
-    FnSurface::new(Interval { lo: u.0, hi: u.1 }, Interval { lo: v.0, hi: v.1 }, Orientation::Forward, boxed)
+    FnSurface::new(
+        Interval { lo: u.0, hi: u.1 },
+        Interval { lo: v.0, hi: v.1 },
+        Orientation::Forward,
+        boxed,
+    )
 }
 
 /// Sphere of radius `r` centred at the origin: S(u, v) = r (sin v cos u, sin v sin u, cos v),

@@ -102,7 +102,11 @@ impl fmt::Display for StrakeError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             StrakeError::InvalidArgument(m) => write!(f, "invalid argument: {m}"),
-            StrakeError::NonFinite { source, what, value } => {
+            StrakeError::NonFinite {
+                source,
+                what,
+                value,
+            } => {
                 write!(f, "non-finite value in {source}: {what} = {value}")
             }
             StrakeError::InvalidKnots(m) => write!(f, "invalid knot vector: {m}"),
@@ -115,7 +119,12 @@ impl fmt::Display for StrakeError {
                 "invalid control point: control point {index} has non-finite coordinate {value}"
             ),
             StrakeError::InvalidDegree(m) => write!(f, "invalid degree: {m}"),
-            StrakeError::OutOfDomain { name, value, lo, hi } => write!(
+            StrakeError::OutOfDomain {
+                name,
+                value,
+                lo,
+                hi,
+            } => write!(
                 f,
                 "parameter out of domain: {name} = {value} is outside [{lo}, {hi}]"
             ),

@@ -48,8 +48,15 @@ impl SurfaceJet {
         ];
         for (name, v) in entries {
             if !all_finite(v) {
-                let value = [v.x, v.y, v.z].into_iter().find(|c| !c.is_finite()).unwrap_or(f64::NAN);
-                return Err(StrakeError::NonFinite { source: NonFiniteSource::SurfaceJet, what: name, value });
+                let value = [v.x, v.y, v.z]
+                    .into_iter()
+                    .find(|c| !c.is_finite())
+                    .unwrap_or(f64::NAN);
+                return Err(StrakeError::NonFinite {
+                    source: NonFiniteSource::SurfaceJet,
+                    what: name,
+                    value,
+                });
             }
         }
         Ok(())
@@ -87,7 +94,11 @@ impl CurveJet {
         ];
         for (name, value) in entries {
             if !value.is_finite() {
-                return Err(StrakeError::NonFinite { source: NonFiniteSource::CurveJet, what: name, value });
+                return Err(StrakeError::NonFinite {
+                    source: NonFiniteSource::CurveJet,
+                    what: name,
+                    value,
+                });
             }
         }
         Ok(())
@@ -129,10 +140,19 @@ impl Interval {
     #[inline]
     pub fn check(&self, name: &'static str, x: f64) -> Result<()> {
         if !x.is_finite() {
-            return Err(StrakeError::NonFinite { source: NonFiniteSource::Parameter, what: name, value: x });
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Parameter,
+                what: name,
+                value: x,
+            });
         }
         if x < self.lo || x > self.hi {
-            return Err(StrakeError::OutOfDomain { name, value: x, lo: self.lo, hi: self.hi });
+            return Err(StrakeError::OutOfDomain {
+                name,
+                value: x,
+                lo: self.lo,
+                hi: self.hi,
+            });
         }
         Ok(())
     }

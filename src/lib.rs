@@ -22,7 +22,9 @@ pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use error::{NonFiniteSource, Result, StrakeError};
-pub use frame::{Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature};
+pub use frame::{
+    Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
+};
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
 pub use nurbs::{KnotVector, NurbsCurve, SpanHint};

@@ -53,7 +53,11 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
             v_extent: surface.v_domain().width(),
             t_extent: curve.domain().width(),
         };
-        CurveOnSurface { surface, curve, scales }
+        CurveOnSurface {
+            surface,
+            curve,
+            scales,
+        }
     }
 
     /// The scales against which degeneracy is judged.
@@ -69,7 +73,9 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     #[inline]
     pub fn frame(&self, t: f64, hints: &mut Hints) -> Result<DarbouxFrame> {
         let cj = self.curve.checked_jet(t, &mut hints.curve)?;
-        let sj = self.surface.checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?;
+        let sj = self
+            .surface
+            .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?;
         let sp = SurfacePoint::new(
             &sj,
             self.surface.orientation(),
@@ -83,7 +89,11 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
 
     /// Frames at each of `ts`, written to `out` (same length). Stops at the first failure and
     /// reports its index; `out` is then partly written.
-    pub fn frames_at(&self, ts: &[f64], out: &mut [DarbouxFrame]) -> std::result::Result<(), SampleError> {
+    pub fn frames_at(
+        &self,
+        ts: &[f64],
+        out: &mut [DarbouxFrame],
+    ) -> std::result::Result<(), SampleError> {
         if ts.len() != out.len() {
             return Err(SampleError {
                 index: 0,
@@ -97,7 +107,9 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         }
         let mut hints = Hints::default();
         for (index, (&t, o)) in ts.iter().zip(out.iter_mut()).enumerate() {
-            *o = self.frame(t, &mut hints).map_err(|error| SampleError { index, t, error })?;
+            *o = self
+                .frame(t, &mut hints)
+                .map_err(|error| SampleError { index, t, error })?;
         }
         Ok(())
     }
@@ -110,7 +122,9 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         let mut hints = Hints::default();
         for (index, o) in out.iter_mut().enumerate() {
             let t = dom.even(index, n);
-            *o = self.frame(t, &mut hints).map_err(|error| SampleError { index, t, error })?;
+            *o = self
+                .frame(t, &mut hints)
+                .map_err(|error| SampleError { index, t, error })?;
         }
         Ok(())
     }

@@ -14,13 +14,15 @@
 #[path = "support/reference.rs"]
 mod reference;
 
-use reference::{ErrorLog, REFERENCE_TOL, ReferenceSample, load_reference, scalar_error, vector_error};
+use reference::{
+    ErrorLog, REFERENCE_TOL, ReferenceSample, load_reference, scalar_error, vector_error,
+};
 use std::process::Command;
 use strake::analytic;
 use strake::math::{arr3, vec3};
 use strake::{
-    CurveJet, CurveOnSurface, DarbouxFrame, FnCurve, Hints, Interval, Orientation, ParamScales, SurfaceJet,
-    SurfaceSource, darboux_frame,
+    CurveJet, CurveOnSurface, DarbouxFrame, FnCurve, Hints, Interval, Orientation, ParamScales,
+    SurfaceJet, SurfaceSource, darboux_frame,
 };
 
 fn surface_jet(s: &ReferenceSample) -> SurfaceJet {
@@ -36,11 +38,22 @@ fn surface_jet(s: &ReferenceSample) -> SurfaceJet {
 
 fn curve_jet(s: &ReferenceSample) -> CurveJet {
     let c = s.curve;
-    CurveJet { u: c[0], v: c[1], du: c[2], dv: c[3], ddu: c[4], ddv: c[5] }
+    CurveJet {
+        u: c[0],
+        v: c[1],
+        du: c[2],
+        dv: c[3],
+        ddu: c[4],
+        ddv: c[5],
+    }
 }
 
 fn scales(s: &ReferenceSample) -> ParamScales {
-    ParamScales { u_extent: s.u_extent, v_extent: s.v_extent, t_extent: s.t_extent }
+    ParamScales {
+        u_extent: s.u_extent,
+        v_extent: s.v_extent,
+        t_extent: s.t_extent,
+    }
 }
 
 /// Records every field of `f` against the sample `s`.
@@ -56,32 +69,70 @@ fn check_frame(log: &mut ErrorLog, s: &ReferenceSample, f: &DarbouxFrame) {
     log.record(&label, "k1", scalar_error(f.principal.k1, s.k1), tol);
     log.record(&label, "k2", scalar_error(f.principal.k2, s.k2), tol);
     log.record(&label, "H", scalar_error(f.principal.mean, s.mean), tol);
-    log.record(&label, "K", scalar_error(f.principal.gaussian, s.gaussian), tol);
-    log.record(&label, "conditioning.surface", scalar_error(f.conditioning.surface, s.cond_surface), tol);
-    log.record(&label, "conditioning.curve", scalar_error(f.conditioning.curve, s.cond_curve), tol);
+    log.record(
+        &label,
+        "K",
+        scalar_error(f.principal.gaussian, s.gaussian),
+        tol,
+    );
+    log.record(
+        &label,
+        "conditioning.surface",
+        scalar_error(f.conditioning.surface, s.cond_surface),
+        tol,
+    );
+    log.record(
+        &label,
+        "conditioning.curve",
+        scalar_error(f.conditioning.curve, s.cond_curve),
+        tol,
+    );
 }
 
 #[test]
 fn reference_covers_the_required_cases() {
     // The cases issue 4 asks for, each with slanted or curved paths besides iso-curves.
     let samples = load_reference();
-    for surface in
-        ["ellipsoid", "torus", "monge", "helicoid", "catenoid", "saddle", "cylinder", "sphere", "bicubic", "plane"]
-    {
+    for surface in [
+        "ellipsoid",
+        "torus",
+        "monge",
+        "helicoid",
+        "catenoid",
+        "saddle",
+        "cylinder",
+        "sphere",
+        "bicubic",
+        "plane",
+    ] {
         let n = samples.iter().filter(|s| s.surface == surface).count();
         assert!(n >= 8, "{surface}: only {n} reference samples");
-        let off_iso = samples.iter().any(|s| s.surface == surface && s.curve[2] != 0.0 && s.curve[3] != 0.0);
+        let off_iso = samples
+            .iter()
+            .any(|s| s.surface == surface && s.curve[2] != 0.0 && s.curve[3] != 0.0);
         assert!(off_iso, "{surface}: no slanted or curved path");
     }
-    let asymptotic = samples.iter().filter(|s| s.surface == "saddle" && s.is_asymptotic()).count();
-    assert!(asymptotic >= 5, "only {asymptotic} samples on asymptotic lines of the saddle");
+    let asymptotic = samples
+        .iter()
+        .filter(|s| s.surface == "saddle" && s.is_asymptotic())
+        .count();
+    assert!(
+        asymptotic >= 5,
+        "only {asymptotic} samples on asymptotic lines of the saddle"
+    );
 }
 
 #[test]
 fn darboux_frame_matches_reference() {
     let mut log = ErrorLog::default();
     for s in load_reference() {
-        match darboux_frame(&surface_jet(&s), &curve_jet(&s), Orientation::Forward, &scales(&s), s.t) {
+        match darboux_frame(
+            &surface_jet(&s),
+            &curve_jet(&s),
+            Orientation::Forward,
+            &scales(&s),
+            s.t,
+        ) {
             Ok(f) => check_frame(&mut log, &s, &f),
             Err(e) => log.failures.push(format!("{}: {e}", s.label())),
         }
@@ -95,11 +146,27 @@ fn reference_data_satisfies_beltrami_enneper_through_the_api() {
     // on the library's own output at the reference samples.
     let mut checked = 0;
     for s in load_reference().into_iter().filter(|s| s.is_asymptotic()) {
-        let f = darboux_frame(&surface_jet(&s), &curve_jet(&s), Orientation::Forward, &scales(&s), s.t).unwrap();
+        let f = darboux_frame(
+            &surface_jet(&s),
+            &curve_jet(&s),
+            Orientation::Forward,
+            &scales(&s),
+            s.t,
+        )
+        .unwrap();
         let tg2 = f.geodesic_torsion * f.geodesic_torsion;
         let k = -f.principal.gaussian;
-        assert!((tg2 - k).abs() <= 1e-12 * k.abs(), "{}: tg^2 = {tg2}, -K = {k}", s.label());
-        assert!(f.normal_curvature.abs() <= 1e-12, "{}: kn = {}", s.label(), f.normal_curvature);
+        assert!(
+            (tg2 - k).abs() <= 1e-12 * k.abs(),
+            "{}: tg^2 = {tg2}, -K = {k}",
+            s.label()
+        );
+        assert!(
+            f.normal_curvature.abs() <= 1e-12,
+            "{}: kn = {}",
+            s.label(),
+            f.normal_curvature
+        );
         checked += 1;
     }
     assert!(checked >= 5);
@@ -138,18 +205,30 @@ fn analytic_surfaces_and_curve_on_surface_match_reference() {
     let mut log = ErrorLog::default();
     let mut count = 0;
     for s in load_reference() {
-        let Some((_, surface)) = surfaces.iter().find(|(name, _)| *name == s.surface) else { continue };
+        let Some((_, surface)) = surfaces.iter().find(|(name, _)| *name == s.surface) else {
+            continue;
+        };
         let (u, v) = (s.curve[0], s.curve[1]);
-        let jet = surface.checked_jet(u, v, strake::DerivOrder::Second, &mut Default::default()).unwrap();
+        let jet = surface
+            .checked_jet(u, v, strake::DerivOrder::Second, &mut Default::default())
+            .unwrap();
         // Jet entries are judged against the size of the largest entry of the same order
         // (normwise rule as for vectors); 1e-13 allows the closed forms' own rounding.
         let got = [jet.p, jet.su, jet.sv, jet.suu, jet.suv, jet.svv].map(|x| arr3(&x));
         for (i, name) in ["S", "Su", "Sv", "Suu", "Suv", "Svv"].iter().enumerate() {
-            log.record(&s.label(), &format!("analytic {name}"), vector_error(got[i], s.jet[i]), 1e-13);
+            log.record(
+                &s.label(),
+                &format!("analytic {name}"),
+                vector_error(got[i], s.jet[i]),
+                1e-13,
+            );
         }
         let cj = curve_jet(&s);
         let half = 0.5 * s.t_extent;
-        let curve = FnCurve::new(Interval::new("t", s.t - half, s.t + half).unwrap(), move |_| Ok(cj));
+        let curve = FnCurve::new(
+            Interval::new("t", s.t - half, s.t + half).unwrap(),
+            move |_| Ok(cj),
+        );
         let on = CurveOnSurface::new(surface, &curve);
         match on.frame(s.t, &mut Hints::default()) {
             Ok(f) => check_frame(&mut log, &s, &f),
@@ -165,15 +244,23 @@ fn analytic_surfaces_and_curve_on_surface_match_reference() {
 /// note) when python3 with sympy and mpmath is not available: `cargo test` must not need Python.
 #[test]
 fn committed_reference_is_what_the_generator_writes() {
-    let probe = Command::new("python3").args(["-c", "import sympy, mpmath"]).output();
+    let probe = Command::new("python3")
+        .args(["-c", "import sympy, mpmath"])
+        .output();
     if !matches!(&probe, Ok(o) if o.status.success()) {
-        eprintln!("note: python3 with sympy and mpmath not available; reference regeneration check skipped");
+        eprintln!(
+            "note: python3 with sympy and mpmath not available; reference regeneration check skipped"
+        );
         return;
     }
     let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
     let script = root.join("tests/reference/gen_frames.py");
     let scratch = std::env::temp_dir().join(format!("strake-frames-{}.txt", std::process::id()));
-    let out = Command::new("python3").arg(&script).arg(&scratch).output().expect("run python3");
+    let out = Command::new("python3")
+        .arg(&script)
+        .arg(&scratch)
+        .output()
+        .expect("run python3");
     assert!(
         out.status.success(),
         "gen_frames.py failed:\n{}{}",
@@ -182,9 +269,13 @@ fn committed_reference_is_what_the_generator_writes() {
     );
     let fresh = std::fs::read_to_string(&scratch).expect("read regenerated data");
     let _ = std::fs::remove_file(&scratch);
-    let committed = std::fs::read_to_string(reference::reference_path()).expect("read committed data");
+    let committed =
+        std::fs::read_to_string(reference::reference_path()).expect("read committed data");
     if fresh != committed {
-        let first = fresh.lines().zip(committed.lines()).position(|(a, b)| a != b);
+        let first = fresh
+            .lines()
+            .zip(committed.lines())
+            .position(|(a, b)| a != b);
         panic!(
             "tests/reference/frames.txt is not what tests/reference/gen_frames.py writes (first \
              differing line: {:?}; {} vs {} lines). If the generator change is intended, refresh it \
@@ -206,9 +297,21 @@ fn parser_rejects_malformed_data() {
     let ok = format!("{columns}\n{good}\n");
     assert_eq!(reference::parse_reference(&ok).unwrap().len(), 1);
     let short = format!("{columns}\n{}\n", good.rsplit_once(' ').unwrap().0);
-    assert!(reference::parse_reference(&short).unwrap_err().contains("line 2"));
+    assert!(
+        reference::parse_reference(&short)
+            .unwrap_err()
+            .contains("line 2")
+    );
     let bad = format!("{columns}\n{}\n", good.replacen(" 0", " zero", 1));
-    assert!(reference::parse_reference(&bad).unwrap_err().contains("is not a number"));
+    assert!(
+        reference::parse_reference(&bad)
+            .unwrap_err()
+            .contains("is not a number")
+    );
     let missing = format!("{}\n{good}\n", columns.replace(" kg ", " kx "));
-    assert!(reference::parse_reference(&missing).unwrap_err().contains("`kg`"));
+    assert!(
+        reference::parse_reference(&missing)
+            .unwrap_err()
+            .contains("`kg`")
+    );
 }

@@ -35,7 +35,14 @@ impl UvCurve for NurbsCurve<2> {
     #[inline]
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
         let d = self.derivs_unchecked(t, DerivOrder::Second, hint);
-        Ok(CurveJet { u: d.p[0], v: d.p[1], du: d.d1[0], dv: d.d1[1], ddu: d.d2[0], ddv: d.d2[1] })
+        Ok(CurveJet {
+            u: d.p[0],
+            v: d.p[1],
+            du: d.d1[0],
+            dv: d.d1[1],
+            ddu: d.d2[0],
+            ddv: d.d2[1],
+        })
     }
 }
 

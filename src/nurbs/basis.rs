@@ -26,7 +26,9 @@ pub struct BasisRows {
 /// containing u (as returned by [`super::KnotVector::find_span`]), `p ≤ MAX_DEGREE`.
 #[inline]
 pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) -> BasisRows {
-    let mut out = BasisRows { d: [[0.0; MAX_ORDER]; 3] };
+    let mut out = BasisRows {
+        d: [[0.0; MAX_ORDER]; 3],
+    };
     let mut left = [0.0; MAX_ORDER];
     let mut right = [0.0; MAX_ORDER];
     let mut row = [0.0; MAX_ORDER];
@@ -66,7 +68,13 @@ pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) ->
 /// `out[r]` = p [lower[r−1]/(u_{span+r} − u_{span−p+r}) − lower[r]/(u_{span+r+1} − u_{span−p+r+1})]
 /// for r = 0..=p (terms outside 0..p are zero): the next derivative at degree p.
 #[inline(always)]
-fn derivative_row(knots: &[f64], p: usize, span: usize, lower: &[f64; MAX_ORDER], out: &mut [f64; MAX_ORDER]) {
+fn derivative_row(
+    knots: &[f64],
+    p: usize,
+    span: usize,
+    lower: &[f64; MAX_ORDER],
+    out: &mut [f64; MAX_ORDER],
+) {
     let pf = p as f64;
     let mut carry = 0.0;
     for r in 0..p {

@@ -42,11 +42,19 @@ impl<const D: usize> NurbsCurve<D> {
     /// checks; `InvalidControlPoint` for a non-finite coordinate; `InvalidWeight` for a weight
     /// that is not positive and finite; `InvalidArgument` when the weight count differs from the
     /// control-point count.
-    pub fn new(degree: usize, knots: &[f64], points: &[[f64; D]], weights: Option<&[f64]>) -> Result<Self> {
+    pub fn new(
+        degree: usize,
+        knots: &[f64],
+        points: &[[f64; D]],
+        weights: Option<&[f64]>,
+    ) -> Result<Self> {
         let kv = KnotVector::new("curve knots", knots, degree, points.len())?;
         for (i, p) in points.iter().enumerate() {
             if let Some(&bad) = p.iter().find(|c| !c.is_finite()) {
-                return Err(StrakeError::InvalidControlPoint { index: i, value: bad });
+                return Err(StrakeError::InvalidControlPoint {
+                    index: i,
+                    value: bad,
+                });
             }
         }
         let (weighted, weights) = match weights {
@@ -61,14 +69,25 @@ impl<const D: usize> NurbsCurve<D> {
                 }
                 for (i, &wi) in w.iter().enumerate() {
                     if !(wi.is_finite() && wi > 0.0) {
-                        return Err(StrakeError::InvalidWeight { index: i, value: wi });
+                        return Err(StrakeError::InvalidWeight {
+                            index: i,
+                            value: wi,
+                        });
                     }
                 }
-                let weighted = points.iter().zip(w).map(|(p, &wi)| p.map(|c| c * wi)).collect();
+                let weighted = points
+                    .iter()
+                    .zip(w)
+                    .map(|(p, &wi)| p.map(|c| c * wi))
+                    .collect();
                 (weighted, w.to_vec())
             }
         };
-        Ok(NurbsCurve { knots: kv, weighted, weights })
+        Ok(NurbsCurve {
+            knots: kv,
+            weighted,
+            weights,
+        })
     }
 
     /// The parameter domain [t_p, t_{n+1}].
@@ -100,7 +119,11 @@ impl<const D: usize> NurbsCurve<D> {
         if self.weights.is_empty() {
             return self.weighted.clone();
         }
-        self.weighted.iter().zip(&self.weights).map(|(p, &w)| p.map(|c| c / w)).collect()
+        self.weighted
+            .iter()
+            .zip(&self.weights)
+            .map(|(p, &w)| p.map(|c| c / w))
+            .collect()
     }
 
     /// The point and derivatives at `t` up to `order` (higher entries are zero).
@@ -108,14 +131,24 @@ impl<const D: usize> NurbsCurve<D> {
     /// Errors: `NonFinite` for a non-finite t, `OutOfDomain` outside [`Self::domain`].
     /// `hint` remembers the knot span for the next call.
     #[inline]
-    pub fn derivs(&self, t: f64, order: DerivOrder, hint: &mut SpanHint) -> Result<CurvePointDerivs<D>> {
+    pub fn derivs(
+        &self,
+        t: f64,
+        order: DerivOrder,
+        hint: &mut SpanHint,
+    ) -> Result<CurvePointDerivs<D>> {
         self.domain().check("t", t)?;
         Ok(self.derivs_unchecked(t, order, hint))
     }
 
     /// As [`Self::derivs`] for a `t` already known to lie in the domain.
     #[inline]
-    pub fn derivs_unchecked(&self, t: f64, order: DerivOrder, hint: &mut SpanHint) -> CurvePointDerivs<D> {
+    pub fn derivs_unchecked(
+        &self,
+        t: f64,
+        order: DerivOrder,
+        hint: &mut SpanHint,
+    ) -> CurvePointDerivs<D> {
         let p = self.degree();
         let span = self.knots.find_span(t, hint);
         let k = order as usize;
@@ -125,7 +158,11 @@ impl<const D: usize> NurbsCurve<D> {
         let mut w = [0.0; 3];
         for r in 0..=p {
             let cp = &self.weighted[first + r];
-            let wi = if self.weights.is_empty() { 1.0 } else { self.weights[first + r] };
+            let wi = if self.weights.is_empty() {
+                1.0
+            } else {
+                self.weights[first + r]
+            };
             for (kk, ak) in a.iter_mut().enumerate().take(k + 1) {
                 let n = rows.d[kk][r];
                 for (c, &x) in ak.iter_mut().zip(cp) {
@@ -135,10 +172,20 @@ impl<const D: usize> NurbsCurve<D> {
             }
         }
         if self.weights.is_empty() {
-            return CurvePointDerivs { p: a[0], d1: a[1], d2: a[2] };
+            return CurvePointDerivs {
+                p: a[0],
+                d1: a[1],
+                d2: a[2],
+            };
         }
         let inv_w = 1.0 / w[0];
-        let mut out = CurvePointDerivs { p: [0.0; D], d1: [0.0; D], d2: [0.0; D] };
+        let mut out = CurvePointDerivs {
+            p: [0.0; D],
+            d1: [0.0; D],
+            d2: [0.0; D],
+        };
+        // One index runs over a, out.p, out.d1 and out.d2 together.
+        #[allow(clippy::needless_range_loop)]
         for c in 0..D {
             let c0 = a[0][c] * inv_w;
             let c1 = (a[1][c] - w[1] * c0) * inv_w;

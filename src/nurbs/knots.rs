@@ -51,7 +51,9 @@ impl KnotVector {
         }
         for (i, &k) in knots.iter().enumerate() {
             if !k.is_finite() {
-                return Err(StrakeError::InvalidKnots(format!("{name}: knot[{i}] = {k} is not finite")));
+                return Err(StrakeError::InvalidKnots(format!(
+                    "{name}: knot[{i}] = {k} is not finite"
+                )));
             }
             if i > 0 && k < knots[i - 1] {
                 return Err(StrakeError::InvalidKnots(format!(
@@ -82,7 +84,11 @@ impl KnotVector {
                 "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] has zero length"
             )));
         }
-        Ok(KnotVector { knots: knots.to_vec(), degree, count })
+        Ok(KnotVector {
+            knots: knots.to_vec(),
+            degree,
+            count,
+        })
     }
 
     /// The knots.
@@ -106,7 +112,10 @@ impl KnotVector {
     /// The parameter domain [u_p, u_{n+1}].
     #[inline]
     pub fn domain(&self) -> Interval {
-        Interval { lo: self.knots[self.degree], hi: self.knots[self.count] }
+        Interval {
+            lo: self.knots[self.degree],
+            hi: self.knots[self.count],
+        }
     }
 
     /// The knot span index i with u_i ≤ u < u_{i+1} and u_i < u_{i+1}, p ≤ i ≤ n; at the upper

@@ -20,7 +20,12 @@ where
 {
     /// A surface on `u_domain` × `v_domain` evaluated by `f`, with the given normal orientation.
     pub fn new(u_domain: Interval, v_domain: Interval, orientation: Orientation, f: F) -> Self {
-        FnSurface { f, u: u_domain, v: v_domain, orientation }
+        FnSurface {
+            f,
+            u: u_domain,
+            v: v_domain,
+            orientation,
+        }
     }
 }
 
@@ -38,7 +43,13 @@ where
         self.orientation
     }
     #[inline]
-    fn jet_in_domain(&self, u: f64, v: f64, order: DerivOrder, _hint: &mut SurfaceHint) -> Result<SurfaceJet> {
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        _hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
         (self.f)(u, v, order)
     }
 }

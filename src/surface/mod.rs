@@ -33,14 +33,26 @@ pub trait SurfaceSource: Send + Sync {
     /// The jet at (u, v) up to `order`; entries above `order` may be left zero. Called only
     /// with (u, v) inside the domain; the result is checked for finiteness by the caller
     /// ([`SurfaceSource::checked_jet`]).
-    fn jet_in_domain(&self, u: f64, v: f64, order: DerivOrder, hint: &mut SurfaceHint) -> Result<SurfaceJet>;
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet>;
 
     /// The jet at (u, v): checks that u and v are finite and inside the domain (no clamping),
     /// evaluates, and checks that every requested entry is finite.
     ///
     /// Errors: `NonFinite` (parameter or jet), `OutOfDomain`, and whatever the source reports.
     #[inline]
-    fn checked_jet(&self, u: f64, v: f64, order: DerivOrder, hint: &mut SurfaceHint) -> Result<SurfaceJet> {
+    fn checked_jet(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
         self.u_domain().check("u", u)?;
         self.v_domain().check("v", v)?;
         let jet = self.jet_in_domain(u, v, order, hint)?;
@@ -59,7 +71,13 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
     fn orientation(&self) -> Orientation {
         (**self).orientation()
     }
-    fn jet_in_domain(&self, u: f64, v: f64, order: DerivOrder, hint: &mut SurfaceHint) -> Result<SurfaceJet> {
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
         (**self).jet_in_domain(u, v, order, hint)
     }
 }

@@ -83,29 +83,69 @@ pub fn reference_path() -> std::path::PathBuf {
 /// Reads and parses the committed reference file; panics with the reason if it cannot.
 pub fn load_reference() -> Vec<ReferenceSample> {
     let path = reference_path();
-    let text = std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("cannot read {}: {e}", path.display()));
+    let text = std::fs::read_to_string(&path)
+        .unwrap_or_else(|e| panic!("cannot read {}: {e}", path.display()));
     parse_reference(&text).unwrap_or_else(|e| panic!("{}: {e}", path.display()))
 }
 
 /// Parses the text of a reference file. Errors name the line and column that is wrong.
 pub fn parse_reference(text: &str) -> Result<Vec<ReferenceSample>, String> {
-    let mut lines = text.lines().enumerate().filter(|(_, l)| !l.trim_start().starts_with('#') && !l.trim().is_empty());
+    let mut lines = text
+        .lines()
+        .enumerate()
+        .filter(|(_, l)| !l.trim_start().starts_with('#') && !l.trim().is_empty());
     let (_, header) = lines.next().ok_or("no column header line")?;
     let columns: Vec<&str> = header.split_whitespace().collect();
     let index: HashMap<&str, usize> = columns.iter().enumerate().map(|(i, c)| (*c, i)).collect();
     if index.len() != columns.len() {
         return Err("duplicate column name in the header".into());
     }
-    let col = |name: &str| index.get(name).copied().ok_or_else(|| format!("missing column `{name}`"));
-    let vec_cols = |name: &str| -> Result<[usize; 3], String> {
-        Ok([col(&format!("{name}.x"))?, col(&format!("{name}.y"))?, col(&format!("{name}.z"))?])
+    let col = |name: &str| {
+        index
+            .get(name)
+            .copied()
+            .ok_or_else(|| format!("missing column `{name}`"))
     };
-    let jet_cols = [vec_cols("S")?, vec_cols("Su")?, vec_cols("Sv")?, vec_cols("Suu")?, vec_cols("Suv")?, vec_cols("Svv")?];
-    let curve_cols = [col("u")?, col("v")?, col("du")?, col("dv")?, col("ddu")?, col("ddv")?];
+    let vec_cols = |name: &str| -> Result<[usize; 3], String> {
+        Ok([
+            col(&format!("{name}.x"))?,
+            col(&format!("{name}.y"))?,
+            col(&format!("{name}.z"))?,
+        ])
+    };
+    let jet_cols = [
+        vec_cols("S")?,
+        vec_cols("Su")?,
+        vec_cols("Sv")?,
+        vec_cols("Suu")?,
+        vec_cols("Suv")?,
+        vec_cols("Svv")?,
+    ];
+    let curve_cols = [
+        col("u")?,
+        col("v")?,
+        col("du")?,
+        col("dv")?,
+        col("ddu")?,
+        col("ddv")?,
+    ];
     let (t_cols, b_cols, n_cols) = (vec_cols("T")?, vec_cols("B")?, vec_cols("N")?);
     let (surface_col, path_col) = (col("surface")?, col("path")?);
-    let scalar_names =
-        ["u_extent", "v_extent", "t_extent", "t", "kn", "kg", "tg", "k1", "k2", "H", "K", "cond_surface", "cond_curve"];
+    let scalar_names = [
+        "u_extent",
+        "v_extent",
+        "t_extent",
+        "t",
+        "kn",
+        "kg",
+        "tg",
+        "k1",
+        "k2",
+        "H",
+        "K",
+        "cond_surface",
+        "cond_curve",
+    ];
     let mut scalar_cols = [0usize; 13];
     for (slot, name) in scalar_cols.iter_mut().zip(scalar_names) {
         *slot = col(name)?;
@@ -115,19 +155,36 @@ pub fn parse_reference(text: &str) -> Result<Vec<ReferenceSample>, String> {
     for (lineno, line) in lines {
         let tokens: Vec<&str> = line.split_whitespace().collect();
         if tokens.len() != columns.len() {
-            return Err(format!("line {}: {} fields, expected {}", lineno + 1, tokens.len(), columns.len()));
+            return Err(format!(
+                "line {}: {} fields, expected {}",
+                lineno + 1,
+                tokens.len(),
+                columns.len()
+            ));
         }
         let num = |c: usize| -> Result<f64, String> {
-            let x: f64 = tokens[c]
-                .parse()
-                .map_err(|e| format!("line {}, column `{}`: `{}` is not a number ({e})", lineno + 1, columns[c], tokens[c]))?;
+            let x: f64 = tokens[c].parse().map_err(|e| {
+                format!(
+                    "line {}, column `{}`: `{}` is not a number ({e})",
+                    lineno + 1,
+                    columns[c],
+                    tokens[c]
+                )
+            })?;
             if x.is_finite() {
                 Ok(x)
             } else {
-                Err(format!("line {}, column `{}`: `{}` is not finite", lineno + 1, columns[c], tokens[c]))
+                Err(format!(
+                    "line {}, column `{}`: `{}` is not finite",
+                    lineno + 1,
+                    columns[c],
+                    tokens[c]
+                ))
             }
         };
-        let vec3 = |c: [usize; 3]| -> Result<[f64; 3], String> { Ok([num(c[0])?, num(c[1])?, num(c[2])?]) };
+        let vec3 = |c: [usize; 3]| -> Result<[f64; 3], String> {
+            Ok([num(c[0])?, num(c[1])?, num(c[2])?])
+        };
         let mut jet = [[0.0; 3]; 6];
         for (slot, c) in jet.iter_mut().zip(jet_cols) {
             *slot = vec3(c)?;
@@ -201,12 +258,13 @@ impl ErrorLog {
     /// Records the error `err` of field `field` at sample `label`; a failure when above `tol`
     /// or NaN.
     pub fn record(&mut self, label: &str, field: &str, err: f64, tol: f64) {
-        if !(err <= tol) {
-            self.failures.push(format!("{label}: {field} error {err:.3e} > {tol:.0e}"));
+        if err.is_nan() || err > tol {
+            self.failures
+                .push(format!("{label}: {field} error {err:.3e} > {tol:.0e}"));
         }
         match self.worst.iter_mut().find(|(f, _, _)| f == field) {
             Some(entry) => {
-                if !(err <= entry.1) {
+                if err.is_nan() || err > entry.1 {
                     *entry = (field.to_string(), err, label.to_string());
                 }
             }
@@ -219,6 +277,11 @@ impl ErrorLog {
         for (field, err, label) in &self.worst {
             println!("{what}: worst {field} error {err:.2e} at {label}");
         }
-        assert!(self.failures.is_empty(), "{what}: {} failures:\n{}", self.failures.len(), self.failures.join("\n"));
+        assert!(
+            self.failures.is_empty(),
+            "{what}: {} failures:\n{}",
+            self.failures.len(),
+            self.failures.join("\n")
+        );
     }
 }
