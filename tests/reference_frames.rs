@@ -240,51 +240,74 @@ fn analytic_surfaces_and_curve_on_surface_match_reference() {
     assert!(count >= 40, "only {count} samples on analytic surfaces");
 }
 
-/// Runs the generator into a scratch file and fails if the committed data differs. Skips (with a
-/// note) when python3 with sympy and mpmath is not available: `cargo test` must not need Python.
-#[test]
-fn committed_reference_is_what_the_generator_writes() {
+/// Runs `script` (relative to the crate root) with a scratch output path and returns what it
+/// wrote, or None (with a note) when python3 with sympy and mpmath is not available: `cargo test`
+/// must not need Python.
+fn regenerate(script: &str) -> Option<String> {
     let probe = Command::new("python3")
         .args(["-c", "import sympy, mpmath"])
         .output();
     if !matches!(&probe, Ok(o) if o.status.success()) {
         eprintln!(
-            "note: python3 with sympy and mpmath not available; reference regeneration check skipped"
+            "note: python3 with sympy and mpmath not available; regeneration check of {script} skipped"
         );
-        return;
+        return None;
     }
     let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
-    let script = root.join("tests/reference/gen_frames.py");
-    let scratch = std::env::temp_dir().join(format!("strake-frames-{}.txt", std::process::id()));
+    let name = script.rsplit('/').next().unwrap_or(script);
+    let scratch = std::env::temp_dir().join(format!("strake-{}-{name}.txt", std::process::id()));
     let out = Command::new("python3")
-        .arg(&script)
+        .arg(root.join(script))
         .arg(&scratch)
         .output()
         .expect("run python3");
     assert!(
         out.status.success(),
-        "gen_frames.py failed:\n{}{}",
+        "{script} failed:\n{}{}",
         String::from_utf8_lossy(&out.stdout),
         String::from_utf8_lossy(&out.stderr)
     );
     let fresh = std::fs::read_to_string(&scratch).expect("read regenerated data");
     let _ = std::fs::remove_file(&scratch);
-    let committed =
-        std::fs::read_to_string(reference::reference_path()).expect("read committed data");
-    if fresh != committed {
-        let first = fresh
-            .lines()
-            .zip(committed.lines())
-            .position(|(a, b)| a != b);
+    Some(fresh)
+}
+
+/// Fails, saying how to refresh, when `committed` (a path relative to the crate root) differs
+/// from what its generator writes now.
+fn assert_current(script: &str, committed: &str) {
+    let Some(fresh) = regenerate(script) else {
+        return;
+    };
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(committed);
+    let old = std::fs::read_to_string(&path).expect("read committed data");
+    if fresh != old {
+        let first = fresh.lines().zip(old.lines()).position(|(a, b)| a != b);
         panic!(
-            "tests/reference/frames.txt is not what tests/reference/gen_frames.py writes (first \
-             differing line: {:?}; {} vs {} lines). If the generator change is intended, refresh it \
-             with:\n    python3 tests/reference/gen_frames.py\nand commit both files.",
+            "{committed} is not what {script} writes (first differing line: {:?}; {} vs {} lines). \
+             If the generator change is intended, refresh it with:\n    python3 {script}\nand commit \
+             both files.",
             first.map(|i| i + 1),
             fresh.lines().count(),
-            committed.lines().count()
+            old.lines().count()
         );
     }
+}
+
+#[test]
+fn committed_reference_is_what_the_generator_writes() {
+    assert_current(
+        "tests/reference/gen_frames.py",
+        "tests/reference/frames.txt",
+    );
+}
+
+#[test]
+fn committed_sweep_data_is_what_its_script_writes() {
+    // The exact answers behind docs/accuracy.md (examples/conditioning_sweep.rs).
+    assert_current(
+        "examples/data/conditioning_sweep.py",
+        "examples/data/conditioning_sweep.txt",
+    );
 }
 
 #[test]
