@@ -37,10 +37,16 @@ impl Orientation {
     }
 }
 
-/// Below this surface conditioning figure (see [`surface_conditioning`]) a point is refused as
-/// degenerate. The error of the normal grows like ε/c and that of the curvatures like ε/c²
-/// (ε = 2.2e-16); DEVELOPERS.md (accuracy) records the measurement behind the value.
-pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-7;
+/// Below this surface conditioning figure c (see [`surface_conditioning`]) a point is refused as
+/// degenerate ([`StrakeError::DegenerateSurface`]).
+///
+/// Measured (`examples/conditioning_sweep.rs`, tables in `docs/accuracy.md`): with surface jets
+/// that carry the rounding error of an ordinary evaluator (ε = 2.2e-16 times the size of each
+/// derivative order), the relative error of κn, τg, k1 and k2 grows like 7 ε/c² near a pole and
+/// where Su and Sv turn parallel (fitted exponent 2.0), and reaches 1e-6 at c ≈ 4e-5. At this
+/// limit the worst measured error is about 2e-7; above it, below 1e-6 with a margin of five for
+/// noisier host evaluators.
+pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-4;
 
 /// The conditioning figure of a surface point: how far it is from a degenerate one.
 ///
@@ -125,13 +131,39 @@ impl SurfacePoint {
         u_extent: f64,
         v_extent: f64,
     ) -> Result<Self> {
+        Self::new_with_limit(
+            jet,
+            orientation,
+            u,
+            v,
+            u_extent,
+            v_extent,
+            DEGENERATE_SURFACE_LIMIT,
+        )
+    }
+
+    /// As [`SurfacePoint::new`], refusing below `limit` instead of [`DEGENERATE_SURFACE_LIMIT`].
+    ///
+    /// For measuring accuracy next to degenerate points (`examples/conditioning_sweep.rs`) and
+    /// for callers that want a stricter limit. Below the default limit the results carry the
+    /// errors documented in `docs/accuracy.md`; a `limit` of 0 refuses only a point where
+    /// |Su × Sv| is exactly 0 (reported as `NonFinite`, since nothing can be divided by it).
+    pub fn new_with_limit(
+        jet: &SurfaceJet,
+        orientation: Orientation,
+        u: f64,
+        v: f64,
+        u_extent: f64,
+        v_extent: f64,
+        limit: f64,
+    ) -> Result<Self> {
         jet.check_finite()?;
         let su = &jet.su;
         let sv = &jet.sv;
         let cross = su.cross(sv);
         let area = cross.norm();
         let conditioning = surface_conditioning(su, sv, area, u_extent, v_extent);
-        if conditioning.is_nan() || conditioning < DEGENERATE_SURFACE_LIMIT {
+        if conditioning.is_nan() || limit.is_nan() || conditioning < limit {
             return Err(StrakeError::DegenerateSurface { u, v, conditioning });
         }
         let sigma = orientation.sign();
