@@ -352,6 +352,59 @@ typedef struct StrakeParamScales {
 } StrakeParamScales;
 
 /**
+ * The description of a NURBS surface, as the host's arrays.
+ *
+ * Control point (i, j), i = 0..count_u − 1 along u and j = 0..count_v − 1 along v, is
+ * `points[3 (i count_v + j) + 0..3]` (x, y, z): the v index runs fastest. Weights, when given,
+ * use the same layout (`weights[i count_v + j]`). The surface is
+ * S(u, v) = Σ N_i,p(u) N_j,q(v) w_ij P_ij / Σ N_i,p(u) N_j,q(v) w_ij over the domain
+ * [knots_u[degree_u], knots_u[count_u]] × [knots_v[degree_v], knots_v[count_v]] (The NURBS
+ * Book, 2nd ed., eq. 4.15 [memory: equation number]).
+ */
+typedef struct StrakeNurbsSurfaceData {
+  /**
+   * Degree p in u, 1 to 24.
+   */
+  uint32_t degree_u;
+  /**
+   * Degree q in v, 1 to 24.
+   */
+  uint32_t degree_v;
+  /**
+   * Number of control points along u (at least degree_u + 1).
+   */
+  size_t count_u;
+  /**
+   * Number of control points along v (at least degree_v + 1).
+   */
+  size_t count_v;
+  /**
+   * `knot_count_u` = count_u + degree_u + 1 non-decreasing finite knots in u.
+   */
+  const double *knots_u;
+  /**
+   * Number of knots in u.
+   */
+  size_t knot_count_u;
+  /**
+   * `knot_count_v` = count_v + degree_v + 1 non-decreasing finite knots in v.
+   */
+  const double *knots_v;
+  /**
+   * Number of knots in v.
+   */
+  size_t knot_count_v;
+  /**
+   * 3 count_u count_v coordinates (layout above).
+   */
+  const double *points;
+  /**
+   * NULL for a non-rational surface, else count_u count_v positive finite weights.
+   */
+  const double *weights;
+} StrakeNurbsSurfaceData;
+
+/**
  * A host surface evaluator.
  *
  * Called with the host's `user_data`, a point (u, v) inside the domain given at creation,
@@ -531,6 +584,27 @@ size_t strake_last_error_message(char *buf,
  * no callback has failed on this thread. Not cleared by later calls.
  */
 int32_t strake_last_callback_code(void);
+
+/**
+ * Creates a NURBS surface evaluated by strake itself (exact derivatives to second order,
+ * no allocation per evaluation). `flip_normal` = 0 takes N along Su × Sv, 1 the reverse.
+ *
+ * The arrays are copied; they may be freed after the call. Returns `STRAKE_STATUS_OK` and
+ * writes a new handle to `*out` (free it with `strake_surface_free`; it is used exactly like a
+ * callback surface); otherwise `*out` is left untouched. Errors: NULL_POINTER (`data`, any of
+ * its arrays but `weights`, `out`), INVALID_ARGUMENT (a count of 0 or too large, `flip_normal`
+ * not 0 or 1), INVALID_DEGREE (degree 0 or above 24, too few control points, knot count
+ * mismatch), INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty
+ * domain), INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive
+ * and finite). The message names the direction (u or v), index and value.
+ *
+ * # Safety
+ * `data` must be NULL or point to a valid description whose arrays hold the stated number of
+ * elements; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
+                                      int32_t flip_normal,
+                                      struct StrakeSurface **out);
 
 /**
  * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",

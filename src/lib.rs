@@ -32,7 +32,8 @@ pub use frame::{
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
 pub use nurbs::{
-    EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, Parametrization, SpanHint, interpolate,
+    EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
+    SpanHint, interpolate,
 };
 pub use path::{CurveOnSurface, Hints, PathSample, SampleError};
 pub use principal::{Orientation, PrincipalCurvatures, SurfacePoint};

@@ -154,6 +154,7 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_last_error_message",
         "strake_status_name",
         "strake_surface_free",
+        "strake_surface_new_nurbs",
         "strake_surface_from_callback",
         "strake_version",
     ];

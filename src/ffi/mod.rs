@@ -30,6 +30,7 @@ pub(crate) mod guard;
 pub mod curve;
 pub mod evaluate;
 pub mod message;
+pub mod nurbs_surface;
 pub mod status;
 pub mod surface;
 pub mod types;
@@ -41,6 +42,7 @@ pub use curve::{
 };
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
 pub use message::{strake_last_callback_code, strake_last_error_message};
+pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
 pub use status::{StrakeStatus, strake_status_name};
 pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
