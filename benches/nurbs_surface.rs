@@ -2,59 +2,17 @@
 //! non-uniform knots and weights): the point and all partials to second order, at random
 //! points (a fresh span search each time) and marching along a path with a carried span hint.
 //!
-//! Each benchmark evaluates `POINTS` points per iteration; criterion's throughput figure gives
-//! points per second, and time / `POINTS` the time per point.
+//! The surface is `common::wing_skin`. Each benchmark evaluates `POINTS` points per iteration;
+//! criterion's throughput figure gives points per second, and time / `POINTS` the time per
+//! point.
 
+#[path = "common/mod.rs"]
+mod common;
+
+use common::{Lcg, POINTS, wing_skin};
 use criterion::{Criterion, Throughput, black_box, criterion_group, criterion_main};
 use strake::jet::DerivOrder;
-use strake::nurbs::{NurbsSurface, NurbsSurfaceData};
 use strake::surface::SurfaceHint;
-
-const POINTS: usize = 1024;
-
-/// 64-bit LCG (Knuth's MMIX constants) for reproducible inputs without a crate.
-struct Lcg(u64);
-
-impl Lcg {
-    fn next(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (self.0 >> 11) as f64 / (1u64 << 53) as f64
-    }
-}
-
-/// A bicubic 8 × 8 "wing skin": non-uniform knots, weights in [0.5, 2] (or none).
-fn wing_skin(rational: bool) -> NurbsSurface {
-    let ku = [0.0, 0.0, 0.0, 0.0, 0.1, 0.3, 0.45, 0.8, 1.0, 1.0, 1.0, 1.0];
-    let kv = [0.0, 0.0, 0.0, 0.0, 0.2, 0.35, 0.6, 0.7, 1.0, 1.0, 1.0, 1.0];
-    let mut rng = Lcg(42);
-    let mut pts = Vec::new();
-    let mut ws = Vec::new();
-    for i in 0..8 {
-        for j in 0..8 {
-            let (x, y) = (i as f64, 0.7 * j as f64);
-            pts.push([
-                x + 0.2 * rng.next(),
-                y + 0.2 * rng.next(),
-                (0.9 * x).sin() * (0.6 * y).cos() + 0.3 * rng.next(),
-            ]);
-            ws.push(0.5 + 1.5 * rng.next());
-        }
-    }
-    NurbsSurface::new(&NurbsSurfaceData {
-        degree_u: 3,
-        degree_v: 3,
-        count_u: 8,
-        count_v: 8,
-        knots_u: &ku,
-        knots_v: &kv,
-        points: &pts,
-        weights: if rational { Some(&ws) } else { None },
-    })
-    .unwrap()
-}
 
 fn bench(c: &mut Criterion) {
     let mut rng = Lcg(7);

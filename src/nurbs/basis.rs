@@ -8,7 +8,7 @@
 //! `MAX_DEGREE + 1` entries on the stack instead of a square table. Within a non-empty span
 //! every denominator is at least the span's length, so none is zero.
 
-use super::knots::MAX_DEGREE;
+use super::knots::{KnotVector, MAX_DEGREE};
 
 /// Room for the non-zero basis functions of one span.
 pub const MAX_ORDER: usize = MAX_DEGREE + 1;
@@ -27,7 +27,7 @@ pub struct BasisRows {
 #[inline]
 pub fn basis_rows(knots: &[f64], p: usize, span: usize, u: f64, order: usize) -> BasisRows {
     BasisRows {
-        d: basis_rows_in::<MAX_ORDER, _>(knots, p, span, u, order, &Direct),
+        d: basis_rows_in::<MAX_ORDER, 0, _>(knots, p, span, u, order, &Direct),
     }
 }
 
@@ -89,11 +89,26 @@ pub(crate) fn span_reciprocals(knots: &[f64], p: usize, span: usize, out: &mut V
     }
 }
 
+/// The reciprocal tables of every span p ..= n of a knot vector, `reciprocals_per_span(p)` per
+/// span in span order (see [`span_reciprocals`]).
+pub(crate) fn reciprocal_table(kv: &KnotVector) -> Vec<f64> {
+    let p = kv.degree();
+    let mut out = Vec::with_capacity((kv.count() - p) * reciprocals_per_span(p));
+    for span in p..kv.count() {
+        span_reciprocals(kv.knots(), p, span, &mut out);
+    }
+    out
+}
+
 /// As [`basis_rows`], with rows of `N` entries (`p < N ≤ MAX_ORDER`) and the divisions done by
 /// `div`. With [`Direct`] it is the same arithmetic as [`basis_rows`], bit for bit. Evaluators
 /// of low-degree surfaces use a small `N` so that no time goes into clearing unused entries.
+///
+/// `P` > 0 states the degree at compile time (then `p` must equal it): every loop has a
+/// constant trip count, is unrolled, and the rows stay in registers. `P` = 0 takes the degree
+/// `p` at run time. Both give the same bits.
 #[inline(always)]
-pub(crate) fn basis_rows_in<const N: usize, D: KnotDivisor>(
+pub(crate) fn basis_rows_in<const N: usize, const P: usize, D: KnotDivisor>(
     knots: &[f64],
     p: usize,
     span: usize,
@@ -101,23 +116,31 @@ pub(crate) fn basis_rows_in<const N: usize, D: KnotDivisor>(
     order: usize,
     div: &D,
 ) -> [[f64; N]; 3] {
+    debug_assert!(P == 0 || P == p);
+    let p = if P > 0 { P } else { p };
     debug_assert!(p < N);
     let mut out = [[0.0; N]; 3];
     let mut left = [0.0; N];
     let mut right = [0.0; N];
-    let mut deg_p1 = [0.0; N]; // degree p − 1 values
-    let mut deg_p2 = [0.0; N]; // degree p − 2 values
+    let mut deg_p1 = [0.0; N]; // degree p − 1 values (entries 0..p)
+    let mut deg_p2 = [0.0; N]; // degree p − 2 values (entries 0..p − 1)
+    // The 2p knots u_{span+1−p} ..= u_{span+p} the recursion reads: u_{span+1−j} = kw[p − j],
+    // u_{span+j} = kw[p − 1 + j]. One slice, so that the loops carry no bounds checks.
+    let kw = &knots[span + 1 - p..span + p + 1];
     let row = &mut out[0];
     row[0] = 1.0;
-    for j in 1..=p {
+    // Exclusive ranges: a `1..=p` loop is not unrolled as reliably.
+    for j in 1..p + 1 {
+        // Whole-array copies (entries j.. of the row are still zero here): a copy of the used
+        // part only has a variable length and becomes a call to memcpy.
         if j == p {
-            deg_p1[..p].copy_from_slice(&row[..p]);
+            deg_p1 = *row;
         }
         if j + 1 == p {
-            deg_p2[..p - 1].copy_from_slice(&row[..p - 1]);
+            deg_p2 = *row;
         }
-        left[j] = u - knots[span + 1 - j];
-        right[j] = knots[span + j] - u;
+        left[j] = u - kw[p - j];
+        right[j] = kw[p - 1 + j] - u;
         let mut saved = 0.0;
         for r in 0..j {
             let temp = div.cox(row[r], j, r, right[r + 1], left[j - r]);

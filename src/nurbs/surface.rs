@@ -22,7 +22,7 @@
 //! agrees with plain division (The NURBS Book's arithmetic) to a few units in the last place.
 
 use super::basis::{
-    Direct, MAX_ORDER, Reciprocals, basis_rows_in, reciprocals_per_span, span_reciprocals,
+    Direct, MAX_ORDER, Reciprocals, basis_rows_in, reciprocal_table, reciprocals_per_span,
 };
 use super::knots::KnotVector;
 use crate::error::{Result, StrakeError};
@@ -77,16 +77,6 @@ pub struct NurbsSurface {
     v_recip: Vec<f64>,
     rational: bool,
     orientation: Orientation,
-}
-
-/// The reciprocal tables of every span p ..= n of a knot vector.
-fn reciprocal_table(kv: &KnotVector) -> Vec<f64> {
-    let p = kv.degree();
-    let mut out = Vec::with_capacity((kv.count() - p) * reciprocals_per_span(p));
-    for span in p..kv.count() {
-        span_reciprocals(kv.knots(), p, span, &mut out);
-    }
-    out
 }
 
 impl NurbsSurface {
@@ -266,35 +256,49 @@ impl NurbsSurface {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
-        // Stack rows sized for the degree: bicubic and lower need 4 entries, not MAX_ORDER.
-        let room = self.u_knots.degree().max(self.v_knots.degree()) + 1;
-        match (order, room) {
-            (DerivOrder::Position, ..=4) => self.eval::<0, 4, true>(u, v, hint),
-            (DerivOrder::First, ..=4) => self.eval::<1, 4, true>(u, v, hint),
-            (DerivOrder::Second, ..=4) => self.eval::<2, 4, true>(u, v, hint),
-            (DerivOrder::Position, ..=8) => self.eval::<0, 8, true>(u, v, hint),
-            (DerivOrder::First, ..=8) => self.eval::<1, 8, true>(u, v, hint),
-            (DerivOrder::Second, ..=8) => self.eval::<2, 8, true>(u, v, hint),
-            (DerivOrder::Position, _) => self.eval::<0, MAX_ORDER, true>(u, v, hint),
-            (DerivOrder::First, _) => self.eval::<1, MAX_ORDER, true>(u, v, hint),
-            (DerivOrder::Second, _) => self.eval::<2, MAX_ORDER, true>(u, v, hint),
+        // Stack rows sized for the degree; the common degrees (bicubic, cubic by lower,
+        // biquadratic, quadratic by linear, bilinear) known at compile time, so that the basis
+        // recursion is unrolled and stays in registers.
+        match order {
+            DerivOrder::Position => self.eval_order::<0>(u, v, hint),
+            DerivOrder::First => self.eval_order::<1>(u, v, hint),
+            DerivOrder::Second => self.eval_order::<2>(u, v, hint),
+        }
+    }
+
+    /// [`Self::eval`] for derivative order K, dispatched on the degrees.
+    #[inline(always)]
+    fn eval_order<const K: usize>(&self, u: f64, v: f64, hint: &mut SurfaceHint) -> SurfaceJet {
+        match (self.u_knots.degree(), self.v_knots.degree()) {
+            (3, 3) => self.eval::<K, 4, 3, 3, true>(u, v, hint),
+            (3, q) if q < 3 => self.eval::<K, 4, 3, 0, true>(u, v, hint),
+            (p, 3) if p < 3 => self.eval::<K, 4, 0, 3, true>(u, v, hint),
+            (2, 2) => self.eval::<K, 3, 2, 2, true>(u, v, hint),
+            (2, 1) => self.eval::<K, 3, 2, 1, true>(u, v, hint),
+            (1, 2) => self.eval::<K, 3, 1, 2, true>(u, v, hint),
+            (1, 1) => self.eval::<K, 2, 1, 1, true>(u, v, hint),
+            (p, q) if p.max(q) < 8 => self.eval::<K, 8, 0, 0, true>(u, v, hint),
+            _ => self.eval::<K, MAX_ORDER, 0, 0, true>(u, v, hint),
         }
     }
 
     /// Tensor-product sums on the homogeneous net (A3.6), then the quotient rule (A4.4), for
-    /// derivatives up to order K, with basis rows of N entries (both degrees below N). With
-    /// `TABLE` the basis functions multiply by the per-span reciprocals of the knot differences
-    /// instead of dividing (the same values to a few units in the last place; the tests compare
-    /// both).
+    /// derivatives up to order K, with basis rows of N entries (both degrees below N; `P`,
+    /// `Q` > 0 are the degrees known at compile time, 0 takes them at run time, see
+    /// `basis_rows_in`). With `TABLE` the basis functions multiply by the per-span reciprocals
+    /// of the knot differences instead of dividing (the same values to a few units in the last
+    /// place; the tests compare both).
     #[inline(always)]
-    fn eval<const K: usize, const N: usize, const TABLE: bool>(
+    fn eval<const K: usize, const N: usize, const P: usize, const Q: usize, const TABLE: bool>(
         &self,
         u: f64,
         v: f64,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
-        let p = self.u_knots.degree();
-        let q = self.v_knots.degree();
+        debug_assert!(P == 0 || P == self.u_knots.degree());
+        debug_assert!(Q == 0 || Q == self.v_knots.degree());
+        let p = if P > 0 { P } else { self.u_knots.degree() };
+        let q = if Q > 0 { Q } else { self.v_knots.degree() };
         let span_u = self.u_knots.find_span(u, &mut hint.u);
         let span_v = self.v_knots.find_span(v, &mut hint.v);
         let (nu, nv) = if TABLE {
@@ -302,13 +306,13 @@ impl NurbsSurface {
             let ru = Reciprocals(&self.u_recip[(span_u - p) * tu..][..tu]);
             let rv = Reciprocals(&self.v_recip[(span_v - q) * tv..][..tv]);
             (
-                basis_rows_in::<N, _>(self.u_knots.knots(), p, span_u, u, K, &ru),
-                basis_rows_in::<N, _>(self.v_knots.knots(), q, span_v, v, K, &rv),
+                basis_rows_in::<N, P, _>(self.u_knots.knots(), p, span_u, u, K, &ru),
+                basis_rows_in::<N, Q, _>(self.v_knots.knots(), q, span_v, v, K, &rv),
             )
         } else {
             (
-                basis_rows_in::<N, _>(self.u_knots.knots(), p, span_u, u, K, &Direct),
-                basis_rows_in::<N, _>(self.v_knots.knots(), q, span_v, v, K, &Direct),
+                basis_rows_in::<N, P, _>(self.u_knots.knots(), p, span_u, u, K, &Direct),
+                basis_rows_in::<N, Q, _>(self.v_knots.knots(), q, span_v, v, K, &Direct),
             )
         };
         let count_v = self.v_knots.count();
@@ -416,12 +420,26 @@ mod tests {
 
     // Common practice: multiplying by per-span reciprocals of the knot differences gives the
     // same jets as dividing (the reference arithmetic of `basis_rows`) to 1e-13 relative, for
-    // degrees 1..=5 and 7 in each direction, clamped and unclamped, with a double interior knot.
+    // degrees 1..=5, 7 and 9 in each direction, clamped and unclamped, with a double interior
+    // knot; and the degree-sized rows give the same bits as rows of MAX_ORDER entries.
     #[test]
     fn reciprocal_tables_agree_with_division() {
         let mut st = 99u64;
         let mut worst = 0.0f64;
-        for (p, q) in [(1, 1), (2, 3), (3, 3), (4, 2), (5, 1), (7, 3), (3, 7)] {
+        for (p, q) in [
+            (1, 1),
+            (1, 2),
+            (2, 1),
+            (2, 2),
+            (2, 3),
+            (3, 1),
+            (3, 3),
+            (4, 2),
+            (5, 1),
+            (7, 3),
+            (3, 7),
+            (9, 2),
+        ] {
             let (nu, nv) = (p + 4, q + 5);
             let knots = |deg: usize, n: usize, st: &mut u64| -> Vec<f64> {
                 let mut k: Vec<f64> = Vec::new();
@@ -457,8 +475,10 @@ mod tests {
             for i in 0..200 {
                 let u = du.lo + du.width() * if i % 10 == 0 { 0.0 } else { lcg(&mut st) };
                 let v = dv.lo + dv.width() * if i % 7 == 0 { 1.0 } else { lcg(&mut st) };
-                let a = s.eval::<2, MAX_ORDER, true>(u, v, &mut h);
-                let b = s.eval::<2, MAX_ORDER, false>(u, v, &mut h);
+                let a = s.jet_unchecked(u, v, DerivOrder::Second, &mut h);
+                let b = s.eval::<2, MAX_ORDER, 0, 0, false>(u, v, &mut h);
+                let full = s.eval::<2, MAX_ORDER, 0, 0, true>(u, v, &mut h);
+                assert_eq!(a, full, "degrees ({p}, {q}): sized rows vs MAX_ORDER rows");
                 let scale = a.su.norm().max(a.sv.norm()).max(1.0);
                 for (x, y) in [
                     (a.p, b.p),

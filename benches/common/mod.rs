@@ -1,0 +1,246 @@
+//! Shared setup of the benchmarks and of `examples/speed_report.rs` (each includes this file with
+//! `#[path]`): the bicubic rational test surface, the path on it, a host callback that evaluates
+//! the surface as a host's own kernel would, and the finite-difference baseline a host
+//! programmer would write instead of strake.
+
+#![allow(dead_code)]
+
+use std::ffi::c_void;
+use strake::ffi::StrakeSurfaceJet;
+use strake::frame::{ParamScales, darboux_frame};
+use strake::jet::{CurveJet, DerivOrder, SurfaceJet};
+use strake::nurbs::{NurbsCurve, NurbsSurface, NurbsSurfaceData, SpanHint};
+use strake::surface::SurfaceHint;
+use strake::{DarbouxFrame, Orientation, Result, UvCurve};
+
+/// Points per benchmark iteration (criterion's throughput is per point).
+pub const POINTS: usize = 1024;
+
+/// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
+pub struct Lcg(pub u64);
+
+impl Lcg {
+    /// A uniform value in [0, 1).
+    pub fn next(&mut self) -> f64 {
+        self.0 = self
+            .0
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (self.0 >> 11) as f64 / (1u64 << 53) as f64
+    }
+}
+
+/// Knots of the test surface in u and v: clamped cubic, non-uniform interior knots.
+pub const KNOTS_U: [f64; 12] = [0.0, 0.0, 0.0, 0.0, 0.1, 0.3, 0.45, 0.8, 1.0, 1.0, 1.0, 1.0];
+/// See [`KNOTS_U`].
+pub const KNOTS_V: [f64; 12] = [0.0, 0.0, 0.0, 0.0, 0.2, 0.35, 0.6, 0.7, 1.0, 1.0, 1.0, 1.0];
+
+/// A bicubic 8 × 8 "wing skin" over [0, 1]²: non-uniform knots, a wavy control net, weights in
+/// [0.5, 2] (or none).
+pub fn wing_skin(rational: bool) -> NurbsSurface {
+    let mut rng = Lcg(42);
+    let mut pts = Vec::new();
+    let mut ws = Vec::new();
+    for i in 0..8 {
+        for j in 0..8 {
+            let (x, y) = (i as f64, 0.7 * j as f64);
+            pts.push([
+                x + 0.2 * rng.next(),
+                y + 0.2 * rng.next(),
+                (0.9 * x).sin() * (0.6 * y).cos() + 0.3 * rng.next(),
+            ]);
+            ws.push(0.5 + 1.5 * rng.next());
+        }
+    }
+    NurbsSurface::new(&NurbsSurfaceData {
+        degree_u: 3,
+        degree_v: 3,
+        count_u: 8,
+        count_v: 8,
+        knots_u: &KNOTS_U,
+        knots_v: &KNOTS_V,
+        points: &pts,
+        weights: if rational { Some(&ws) } else { None },
+    })
+    .unwrap()
+}
+
+/// The path: a rational cubic curve in the parameter plane over t ∈ [0, 1] that sweeps across
+/// the surface (crossing every knot line in u and several in v), staying at least 0.02 inside
+/// the domain so that the finite-difference stencil never leaves it.
+pub fn wing_path() -> NurbsCurve<2> {
+    let knots = [0.0, 0.0, 0.0, 0.0, 0.25, 0.5, 0.75, 1.0, 1.0, 1.0, 1.0];
+    let pts = [
+        [0.03, 0.9],
+        [0.2, 0.75],
+        [0.35, 0.9],
+        [0.5, 0.4],
+        [0.7, 0.15],
+        [0.85, 0.5],
+        [0.97, 0.3],
+    ];
+    let w = [1.0, 0.8, 1.2, 1.0, 0.9, 1.1, 1.0];
+    NurbsCurve::new(3, &knots, &pts, Some(&w)).unwrap()
+}
+
+/// `n` evenly spaced curve parameters over [0, 1], both ends included.
+pub fn path_ts(n: usize) -> Vec<f64> {
+    (0..n).map(|i| i as f64 / (n - 1) as f64).collect()
+}
+
+/// `n` random curve parameters in [0, 1) (no order: a fresh span search each time).
+pub fn random_ts(n: usize, seed: u64) -> Vec<f64> {
+    let mut rng = Lcg(seed);
+    (0..n).map(|_| rng.next()).collect()
+}
+
+/// The (u, v) points of the path at `ts`.
+pub fn path_uv(curve: &NurbsCurve<2>, ts: &[f64]) -> (Vec<f64>, Vec<f64>) {
+    let mut h = SpanHint::default();
+    ts.iter()
+        .map(|&t| {
+            let j = curve.checked_jet(t, &mut h).unwrap();
+            (j.u, j.v)
+        })
+        .unzip()
+}
+
+/// The scales of the path on the surface (both domains are [0, 1]).
+pub const SCALES: ParamScales = ParamScales {
+    u_extent: 1.0,
+    v_extent: 1.0,
+    t_extent: 1.0,
+};
+
+// ---------------------------------------------------------------------------------------------
+// The host's own evaluator, handed to strake as a C callback.
+
+/// A host surface callback: `user_data` is a `*const NurbsSurface`, evaluated with strake's own
+/// NURBS code as a stand-in for the host's kernel (a bicubic rational evaluation of S and all
+/// partials to second order, the cost a host pays for its own surface).
+///
+/// # Safety
+/// `user_data` must point to a live `NurbsSurface`, `out` to a writable jet.
+pub unsafe extern "C" fn host_surface(
+    user_data: *mut c_void,
+    u: f64,
+    v: f64,
+    order: i32,
+    out: *mut StrakeSurfaceJet,
+) -> i32 {
+    // SAFETY: the contract above.
+    let (s, out) = unsafe { (&*(user_data as *const NurbsSurface), &mut *out) };
+    let order = match order {
+        0 => DerivOrder::Position,
+        1 => DerivOrder::First,
+        _ => DerivOrder::Second,
+    };
+    match s.jet(u, v, order, &mut SurfaceHint::default()) {
+        Ok(j) => {
+            *out = to_c(&j);
+            0
+        }
+        Err(_) => 1,
+    }
+}
+
+/// The batch form of [`host_surface`]: `count` points at once, one span hint carried through
+/// the block (as a host marching along a path would).
+///
+/// # Safety
+/// `user_data` as for [`host_surface`]; `u`, `v` point to `count` values, `out` to room for
+/// `count` jets.
+pub unsafe extern "C" fn host_surface_batch(
+    user_data: *mut c_void,
+    u: *const f64,
+    v: *const f64,
+    count: usize,
+    order: i32,
+    out: *mut StrakeSurfaceJet,
+) -> i32 {
+    // SAFETY: the contract above.
+    let (s, u, v, out) = unsafe {
+        (
+            &*(user_data as *const NurbsSurface),
+            std::slice::from_raw_parts(u, count),
+            std::slice::from_raw_parts(v, count),
+            std::slice::from_raw_parts_mut(out, count),
+        )
+    };
+    let order = match order {
+        0 => DerivOrder::Position,
+        1 => DerivOrder::First,
+        _ => DerivOrder::Second,
+    };
+    let mut hint = SurfaceHint::default();
+    for ((&u, &v), o) in u.iter().zip(v).zip(out) {
+        match s.jet(u, v, order, &mut hint) {
+            Ok(j) => *o = to_c(&j),
+            Err(_) => return 1,
+        }
+    }
+    0
+}
+
+/// The C jet of a Rust jet.
+pub fn to_c(j: &SurfaceJet) -> StrakeSurfaceJet {
+    let a = |v: &strake::Vec3| [v.x, v.y, v.z];
+    StrakeSurfaceJet {
+        p: a(&j.p),
+        su: a(&j.su),
+        sv: a(&j.sv),
+        suu: a(&j.suu),
+        suv: a(&j.suv),
+        svv: a(&j.svv),
+    }
+}
+
+// ---------------------------------------------------------------------------------------------
+// The finite-difference baseline.
+
+/// The step of the finite-difference baseline, in parameter units: 1e-4 of the parameter range
+/// (both ranges are 1). This is the textbook choice for a second central difference,
+/// h ≈ ε^(1/4) ≈ 1.2e-4 times the scale (truncation error O(h²) against round-off O(ε/h²));
+/// a host that needs Su, Suu and Suv from one 3 × 3 stencil takes one h for all of them, and
+/// the one for the second derivatives is the one that matters (ε^(1/3) ≈ 6e-6, the optimum for
+/// a first difference, would give second differences with round-off of ε/h² ≈ 6e-6 relative).
+pub const FD_STEP: f64 = 1e-4;
+
+/// A surface jet from central differences of a position-only evaluator: S at the nine points
+/// (u + a h, v + b h), a, b ∈ {−1, 0, 1}, then
+/// Su = (S₊₀ − S₋₀)/2h, Suu = (S₊₀ − 2S₀₀ + S₋₀)/h², Suv = (S₊₊ − S₊₋ − S₋₊ + S₋₋)/4h² and
+/// likewise in v. (u ± h, v ± h) must lie inside the domain.
+#[inline(never)]
+pub fn fd_jet(s: &NurbsSurface, u: f64, v: f64, h: f64, hint: &mut SurfaceHint) -> SurfaceJet {
+    let mut p = [[strake::Vec3::zeros(); 3]; 3];
+    for (a, row) in p.iter_mut().enumerate() {
+        for (b, x) in row.iter_mut().enumerate() {
+            let (uu, vv) = (u + (a as f64 - 1.0) * h, v + (b as f64 - 1.0) * h);
+            *x = s.jet(uu, vv, DerivOrder::Position, hint).unwrap().p;
+        }
+    }
+    let (i2h, ih2, i4h2) = (0.5 / h, 1.0 / (h * h), 0.25 / (h * h));
+    SurfaceJet {
+        p: p[1][1],
+        su: (p[2][1] - p[0][1]) * i2h,
+        sv: (p[1][2] - p[1][0]) * i2h,
+        suu: (p[2][1] - p[1][1] * 2.0 + p[0][1]) * ih2,
+        suv: (p[2][2] - p[2][0] - p[0][2] + p[0][0]) * i4h2,
+        svv: (p[1][2] - p[1][1] * 2.0 + p[1][0]) * ih2,
+    }
+}
+
+/// The frame the finite-difference host computes at t: the curve's own jet, the surface jet by
+/// [`fd_jet`], then strake's frame from the two jets.
+#[inline(never)]
+pub fn fd_frame(
+    s: &NurbsSurface,
+    c: &NurbsCurve<2>,
+    t: f64,
+    hint_s: &mut SurfaceHint,
+    hint_c: &mut SpanHint,
+) -> Result<DarbouxFrame> {
+    let cj: CurveJet = c.checked_jet(t, hint_c)?;
+    let sj = fd_jet(s, cj.u, cj.v, FD_STEP, hint_s);
+    darboux_frame(&sj, &cj, Orientation::Forward, &SCALES, t)
+}
