@@ -39,12 +39,12 @@ impl SurfaceJet {
     /// Fails with [`StrakeError::NonFinite`] naming the first non-finite entry.
     #[inline]
     pub fn check_finite(&self) -> Result<()> {
-        // x − x is 0 for every finite x and NaN otherwise: one branch for the common case.
-        let mut zero = 0.0;
+        // Non-short-circuit `&`: one branch for the common case.
+        let mut finite = true;
         for v in [&self.p, &self.su, &self.sv, &self.suu, &self.suv, &self.svv] {
-            zero += (v.x - v.x) + (v.y - v.y) + (v.z - v.z);
+            finite &= v.x.is_finite() & v.y.is_finite() & v.z.is_finite();
         }
-        if zero == 0.0 {
+        if finite {
             return Ok(());
         }
         self.non_finite_entry()
@@ -100,14 +100,14 @@ impl CurveJet {
     /// Fails with [`StrakeError::NonFinite`] naming the first non-finite entry.
     #[inline]
     pub fn check_finite(&self) -> Result<()> {
-        // As for `SurfaceJet::check_finite`: x − x is 0 exactly when x is finite.
-        let zero = (self.u - self.u)
-            + (self.v - self.v)
-            + (self.du - self.du)
-            + (self.dv - self.dv)
-            + (self.ddu - self.ddu)
-            + (self.ddv - self.ddv);
-        if zero == 0.0 {
+        // Non-short-circuit `&`: one branch for the common case.
+        let finite = self.u.is_finite()
+            & self.v.is_finite()
+            & self.du.is_finite()
+            & self.dv.is_finite()
+            & self.ddu.is_finite()
+            & self.ddv.is_finite();
+        if finite {
             return Ok(());
         }
         self.non_finite_entry()

@@ -9,11 +9,13 @@
 #![warn(missing_docs)]
 
 pub mod analytic;
+mod batch;
 pub mod checks;
 pub mod curve;
 pub mod error;
 pub mod ffi;
 pub mod frame;
+mod frame_block;
 pub mod jet;
 pub mod math;
 pub mod nurbs;
@@ -29,6 +31,7 @@ pub use error::{NonFiniteSource, Result, StrakeError};
 pub use frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
+pub use frame_block::{BLOCK, darboux_frames};
 pub use jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use math::Vec3;
 pub use nurbs::{

@@ -13,7 +13,8 @@ use crate::surface::SurfaceSource;
 pub const MIN_SAMPLES_PER_THREAD: usize = 256;
 
 /// Frames at each of `ts` into `out` (same length), split into contiguous chunks over at most
-/// `threads` scoped threads (each with its own span hints). `threads` = 0 is refused; 1 runs
+/// `threads` scoped threads (each with its own span hints), each chunk evaluated like
+/// [`CurveOnSurface::frames_at`] (the same bits as one point at a time). `threads` = 0 is refused; 1 runs
 /// on the calling thread. A panic in a worker (e.g. in a Rust closure surface) is resumed on
 /// the calling thread. On failure the error of the lowest failing index is returned; `out`
 /// is then partly written.
@@ -51,15 +52,17 @@ where
             .enumerate()
             .map(|(k, (tc, oc))| {
                 scope.spawn(move || {
-                    let mut hints = Hints::default();
-                    for (i, (&t, o)) in tc.iter().zip(oc.iter_mut()).enumerate() {
-                        *o = cs.frame(t, &mut hints).map_err(|error| SampleError {
-                            index: k * chunk + i,
-                            t,
-                            error,
-                        })?;
-                    }
-                    Ok(())
+                    crate::batch::frames_blocked(
+                        cs,
+                        tc.len(),
+                        &mut Hints::default(),
+                        |i| tc[i],
+                        |i, _, f| oc[i] = *f,
+                    )
+                    .map_err(|e| SampleError {
+                        index: k * chunk + e.index,
+                        ..e
+                    })
                 })
             })
             .collect();

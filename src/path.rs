@@ -110,7 +110,12 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     }
 
     /// Frames at each of `ts`, written to `out` (same length). Stops at the first failure and
-    /// reports its index; `out` is then partly written.
+    /// reports its index; `out` is then partly written (every sample before the failing one).
+    ///
+    /// Evaluated a block of points at a time (the frame math of a block in
+    /// structure-of-arrays form, so that the square roots and divisions of several points
+    /// overlap); the results and errors are those of [`Self::frame`] at each parameter, bit for
+    /// bit, and nothing is allocated.
     pub fn frames_at(
         &self,
         ts: &[f64],
@@ -127,27 +132,27 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
                 )),
             });
         }
-        let mut hints = Hints::default();
-        for (index, (&t, o)) in ts.iter().zip(out.iter_mut()).enumerate() {
-            *o = self
-                .frame(t, &mut hints)
-                .map_err(|error| SampleError { index, t, error })?;
-        }
-        Ok(())
+        crate::batch::frames_blocked(
+            self,
+            ts.len(),
+            &mut Hints::default(),
+            |i| ts[i],
+            |i, _, f| out[i] = *f,
+        )
     }
 
     /// Frames at `out.len()` evenly spaced parameters from the start to the end of the curve's
-    /// domain (both ends included; a single frame is at the start).
+    /// domain (both ends included; a single frame is at the start), t_i as by
+    /// [`crate::Interval::even`]. Evaluated like [`Self::frames_at`].
     pub fn frames_even(&self, out: &mut [DarbouxFrame]) -> std::result::Result<(), SampleError> {
         let n = out.len();
         let dom = self.curve.domain();
-        let mut hints = Hints::default();
-        for (index, o) in out.iter_mut().enumerate() {
-            let t = dom.even(index, n);
-            *o = self
-                .frame(t, &mut hints)
-                .map_err(|error| SampleError { index, t, error })?;
-        }
-        Ok(())
+        crate::batch::frames_blocked(
+            self,
+            n,
+            &mut Hints::default(),
+            |i| dom.even(i, n),
+            |i, _, f| out[i] = *f,
+        )
     }
 }

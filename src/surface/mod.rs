@@ -5,7 +5,7 @@ mod closure;
 
 pub use closure::FnSurface;
 
-use crate::error::Result;
+use crate::error::{Result, StrakeError};
 use crate::jet::{DerivOrder, Interval, SurfaceJet};
 use crate::nurbs::SpanHint;
 use crate::principal::Orientation;
@@ -40,6 +40,34 @@ pub trait SurfaceSource: Send + Sync {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> Result<SurfaceJet>;
+
+    /// The jets at the points (u\[i\], v\[i\]), i = 0..u.len(), into `out[i]` (`u`, `v` and
+    /// `out` have the same length), all called with points inside the domain; batch entry
+    /// points call it once per block of points.
+    ///
+    /// The default evaluates one point after the other by [`SurfaceSource::jet_in_domain`],
+    /// carrying the hint. A failure at point i is returned as
+    /// `StrakeError::AtPoint { index: i, error }` with `out[..i]` written. A source that
+    /// evaluates the block as a whole (a host's batch callback) may instead fail for the whole
+    /// block with any other error. Results are checked for finiteness by the caller.
+    fn jets_in_domain_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) -> Result<()> {
+        for (index, ((&u, &v), o)) in u.iter().zip(v).zip(out.iter_mut()).enumerate() {
+            *o = self
+                .jet_in_domain(u, v, order, hint)
+                .map_err(|error| StrakeError::AtPoint {
+                    index,
+                    error: Box::new(error),
+                })?;
+        }
+        Ok(())
+    }
 
     /// The jet at (u, v): checks that u and v are finite and inside the domain (no clamping),
     /// evaluates, and checks that every requested entry is finite.
@@ -79,5 +107,15 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
         hint: &mut SurfaceHint,
     ) -> Result<SurfaceJet> {
         (**self).jet_in_domain(u, v, order, hint)
+    }
+    fn jets_in_domain_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) -> Result<()> {
+        (**self).jets_in_domain_block(u, v, order, hint, out)
     }
 }

@@ -1,0 +1,164 @@
+//! Frames along a path a block of points at a time: the engine behind every batch entry point
+//! ([`CurveOnSurface::frames_at`], [`CurveOnSurface::frames_even`], the parallel batch and the C
+//! batch calls).
+//!
+//! For each block of up to [`BLOCK`] samples: the curve jets one after the other (span hint
+//! carried), the surface jets of the block in one call ([`SurfaceSource::jets_in_domain_block`],
+//! which a host's batch callback answers in one call too), then the frame math of the whole
+//! block in structure-of-arrays form ([`crate::frame_block`]). The results are the bits of the
+//! one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the block kernel
+//! flags is evaluated again by the one-point path from the same jets, and samples are reported
+//! in order, so the first failing sample and its error are those of a point-by-point loop.
+//! Only a failure of a host's batch callback as a whole has no point-by-point counterpart; it
+//! is reported at the first sample of its block.
+//!
+//! Nothing is allocated: the block's jets live on the stack.
+
+use crate::curve::UvCurve;
+use crate::error::StrakeError;
+use crate::frame::{DarbouxFrame, darboux_frame_at};
+use crate::frame_block::{BLOCK, BlockInput, frames_of_block};
+use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
+use crate::path::{CurveOnSurface, Hints, SampleError};
+use crate::principal::SurfacePoint;
+use crate::surface::SurfaceSource;
+
+/// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
+/// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been
+/// emitted) and returns its index, parameter and error. `hints` is carried through and left
+/// where the last sample put it.
+pub(crate) fn frames_blocked<S, C>(
+    cs: &CurveOnSurface<'_, S, C>,
+    count: usize,
+    hints: &mut Hints,
+    t_of: impl Fn(usize) -> f64,
+    mut emit: impl FnMut(usize, f64, &DarbouxFrame),
+) -> Result<(), SampleError>
+where
+    S: SurfaceSource + ?Sized,
+    C: UvCurve + ?Sized,
+{
+    let surface = cs.surface();
+    let curve = cs.curve();
+    let scales = cs.scales();
+    let orientation = surface.orientation();
+    let (ud, vd) = (surface.u_domain(), surface.v_domain());
+    let mut ts = [0.0; BLOCK];
+    let mut us = [0.0; BLOCK];
+    let mut vs = [0.0; BLOCK];
+    let mut cj = [CurveJet::default(); BLOCK];
+    let mut sj = [SurfaceJet::default(); BLOCK];
+    let mut base = 0;
+    while base < count {
+        let len = BLOCK.min(count - base);
+        // Lanes 0..good are fine so far; `pending` is the failure of lane `good`, if any.
+        let mut good = len;
+        let mut pending = None;
+        for i in 0..len {
+            let t = t_of(base + i);
+            ts[i] = t;
+            let jet = curve.checked_jet(t, &mut hints.curve).and_then(|c| {
+                ud.check("u", c.u)?;
+                vd.check("v", c.v)?;
+                Ok(c)
+            });
+            match jet {
+                Ok(c) => {
+                    cj[i] = c;
+                    us[i] = c.u;
+                    vs[i] = c.v;
+                }
+                Err(e) => {
+                    good = i;
+                    pending = Some(e);
+                    break;
+                }
+            }
+        }
+        if good > 0 {
+            let block = surface.jets_in_domain_block(
+                &us[..good],
+                &vs[..good],
+                DerivOrder::Second,
+                &mut hints.surface,
+                &mut sj[..good],
+            );
+            match block {
+                Ok(()) => {}
+                Err(StrakeError::AtPoint { index, error }) if index < good => {
+                    good = index;
+                    pending = Some(*error);
+                }
+                Err(error) => {
+                    return Err(SampleError {
+                        index: base,
+                        t: ts[0],
+                        error,
+                    });
+                }
+            }
+        }
+        let non_finite = sj[..good]
+            .iter()
+            .enumerate()
+            .find_map(|(i, j)| j.check_finite().err().map(|e| (i, e)));
+        if let Some((i, e)) = non_finite {
+            good = i;
+            pending = Some(e);
+        }
+        if good > 0 {
+            let out = frames_of_block(
+                &BlockInput::gather(&sj[..good], &cj[..good]),
+                orientation,
+                &scales,
+            );
+            for i in 0..good {
+                let frame = if out.ok(i) {
+                    out.frame(i, &sj[i], &cj[i])
+                } else {
+                    one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
+                        index: base + i,
+                        t: ts[i],
+                        error,
+                    })?
+                };
+                emit(base + i, ts[i], &frame);
+            }
+        }
+        if let Some(error) = pending {
+            return Err(SampleError {
+                index: base + good,
+                t: ts[good],
+                error,
+            });
+        }
+        base += len;
+    }
+    Ok(())
+}
+
+/// The one-point path from given jets (what [`CurveOnSurface::frame`] does after evaluating
+/// them): the exact error of a lane the block kernel flagged.
+#[cold]
+#[inline(never)]
+fn one_point<S, C>(
+    cs: &CurveOnSurface<'_, S, C>,
+    sj: &SurfaceJet,
+    cj: &CurveJet,
+    t: f64,
+) -> crate::error::Result<DarbouxFrame>
+where
+    S: SurfaceSource + ?Sized,
+    C: UvCurve + ?Sized,
+{
+    let scales = cs.scales();
+    let sp = SurfacePoint::new(
+        sj,
+        cs.surface().orientation(),
+        cj.u,
+        cj.v,
+        scales.u_extent,
+        scales.v_extent,
+    )?;
+    darboux_frame_at(sj, &sp, cj, &scales, t)
+}
