@@ -155,6 +155,64 @@ typedef struct StrakeCurve StrakeCurve;
 typedef struct StrakeSurface StrakeSurface;
 
 /**
+ * A surface point S(u, v) with its partial derivatives, filled by a host surface callback
+ * (or passed to `strake_frame_from_jets`). Each entry is an (x, y, z) triple in the host's
+ * length unit per power of the surface parameters. strake sets every entry to zero before it
+ * calls the host, so entries above the requested order may be left alone.
+ */
+typedef struct StrakeSurfaceJet {
+  /**
+   * The point S(u, v).
+   */
+  double p[3];
+  /**
+   * dS/du (needed for order >= 1).
+   */
+  double su[3];
+  /**
+   * dS/dv (needed for order >= 1).
+   */
+  double sv[3];
+  /**
+   * d2S/du2 (needed for order 2).
+   */
+  double suu[3];
+  /**
+   * d2S/dudv (needed for order 2).
+   */
+  double suv[3];
+  /**
+   * d2S/dv2 (needed for order 2).
+   */
+  double svv[3];
+} StrakeSurfaceJet;
+
+/**
+ * A host surface evaluator for many points at once.
+ *
+ * Called with the host's `user_data`, `count` points (u\[i\], v\[i\]) inside the domain given at
+ * creation (`u` and `v` point to `count` doubles each), the highest derivative order needed
+ * (0: point; 1: also su, sv; 2: also suu, suv, svv) and `count` jets at `out` that strake has
+ * set to zero: fill `out[i]` for the point (u\[i\], v\[i\]) up to `order` and return 0. Return
+ * any non-zero code to report a failure of the call: strake then returns
+ * `STRAKE_STATUS_SURFACE_CALLBACK_FAILED` and passes the code back (message and
+ * `strake_last_callback_code`); the message names the first sample of the block that was
+ * being evaluated. Entries must be finite: a NaN or infinity gives `STRAKE_STATUS_NON_FINITE`
+ * naming the sample's index and the entry.
+ *
+ * The batch entry points (`strake_frames_at`, `strake_frames_even`,
+ * `strake_frames_at_parallel`) call it with blocks of up to 64 points, in the order of the
+ * path; `strake_frame_at` calls it with `count` = 1. The arrays are strake's and valid only
+ * during the call. The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
+ */
+typedef int32_t (*StrakeSurfaceBatchFn)(void *user_data,
+                                        const double *u,
+                                        const double *v,
+                                        size_t count,
+                                        int32_t order,
+                                        struct StrakeSurfaceJet *out);
+
+/**
  * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
  * derivatives with respect to the curve parameter t; filled by a host curve callback (or
  * passed to `strake_frame_from_jets`). strake zeroes it before calling the host.
@@ -298,39 +356,6 @@ typedef struct StrakeFrame {
 } StrakeFrame;
 
 /**
- * A surface point S(u, v) with its partial derivatives, filled by a host surface callback
- * (or passed to `strake_frame_from_jets`). Each entry is an (x, y, z) triple in the host's
- * length unit per power of the surface parameters. strake sets every entry to zero before it
- * calls the host, so entries above the requested order may be left alone.
- */
-typedef struct StrakeSurfaceJet {
-  /**
-   * The point S(u, v).
-   */
-  double p[3];
-  /**
-   * dS/du (needed for order >= 1).
-   */
-  double su[3];
-  /**
-   * dS/dv (needed for order >= 1).
-   */
-  double sv[3];
-  /**
-   * d2S/du2 (needed for order 2).
-   */
-  double suu[3];
-  /**
-   * d2S/dudv (needed for order 2).
-   */
-  double suv[3];
-  /**
-   * d2S/dv2 (needed for order 2).
-   */
-  double svv[3];
-} StrakeSurfaceJet;
-
-/**
  * The widths of the parameter domains, for `strake_frame_from_jets`: degeneracy is judged
  * relative to them (a surface point is degenerate when |Su x Sv| is small against |Su| u_extent
  * and |Sv| v_extent; a curve stalls when (du/u_extent, dv/v_extent) t_extent is small). Each
@@ -428,6 +453,34 @@ typedef int32_t (*StrakeSurfaceFn)(void *user_data,
 #ifdef __cplusplus
 extern "C" {
 #endif // __cplusplus
+
+/**
+ * Creates a surface evaluated by the host's batch callback `f` (many points per call) over
+ * [u_min, u_max] x [v_min, v_max]; used exactly like a surface from
+ * `strake_surface_from_callback`, with the same results when both callbacks compute the same
+ * jets.
+ *
+ * `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv|. `user_data` is
+ * handed back to `f` unchanged and may be NULL. strake calls `f` only with points inside the
+ * domain; a curve that leaves the domain gives `STRAKE_STATUS_OUT_OF_DOMAIN` (no clamping).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+ * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (an empty or reversed range,
+ * `flip_normal` not 0 or 1).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeSurfaceBatchFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_from_batch_callback(StrakeSurfaceBatchFn f,
+                                                void *user_data,
+                                                double u_min,
+                                                double u_max,
+                                                double v_min,
+                                                double v_max,
+                                                int32_t flip_normal,
+                                                struct StrakeSurface **out);
 
 /**
  * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
@@ -605,6 +658,34 @@ int32_t strake_last_callback_code(void);
 StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
                                       int32_t flip_normal,
                                       struct StrakeSurface **out);
+
+/**
+ * As `strake_frames_at`, with the samples split into `threads` contiguous chunks evaluated at
+ * once on `threads` threads: the calling thread and `threads - 1` threads started for this
+ * call and joined before it returns (no thread pool, nothing left running). `threads` = 1 is
+ * the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
+ * threads are started when there are fewer than 256 samples per thread (starting a thread
+ * costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
+ * whatever the number of threads.
+ *
+ * Host callbacks (surface or curve) are then called from several threads at once: the
+ * callback and its `user_data` must allow that. A panic in a worker is reported as
+ * STRAKE_STATUS_INTERNAL_PANIC.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample with the lowest index, and its t. Errors: those of
+ * `strake_frames_at`, plus INVALID_ARGUMENT for `threads` = 0.
+ *
+ * # Safety
+ * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
+ * two must not overlap; handles as in `strake_frame_at`.
+ */
+StrakeStatus strake_frames_at_parallel(const struct StrakeSurface *surface,
+                                       const struct StrakeCurve *curve,
+                                       const double *ts,
+                                       size_t count,
+                                       uint32_t threads,
+                                       struct StrakeFrame *out);
 
 /**
  * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",

@@ -2,17 +2,17 @@
 //! ([`CurveOnSurface::frames_at`], [`CurveOnSurface::frames_even`], the parallel batch and the C
 //! batch calls).
 //!
-//! For each block of up to [`BLOCK`] samples: the curve jets one after the other (span hint
-//! carried), the surface jets of the block in one call ([`SurfaceSource::jets_in_domain_block`],
-//! which a host's batch callback answers in one call too), then the frame math of the whole
-//! block in structure-of-arrays form ([`crate::frame_block`]). The results are the bits of the
+//! For each chunk of up to [`CHUNK`] samples: the curve jets one after the other (span hint
+//! carried), the surface jets of the chunk in one call ([`SurfaceSource::jets_in_domain_block`],
+//! which a host's batch callback answers in one call too), then the frame math a block of
+//! [`BLOCK`] points at a time in structure-of-arrays form ([`crate::frame_block`]). The results are the bits of the
 //! one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the block kernel
 //! flags is evaluated again by the one-point path from the same jets, and samples are reported
 //! in order, so the first failing sample and its error are those of a point-by-point loop.
 //! Only a failure of a host's batch callback as a whole has no point-by-point counterpart; it
-//! is reported at the first sample of its block.
+//! is reported at the first sample of its chunk.
 //!
-//! Nothing is allocated: the block's jets live on the stack.
+//! Nothing is allocated: the chunk's jets live on the stack (about 13 KiB).
 
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
@@ -22,6 +22,10 @@ use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::principal::SurfacePoint;
 use crate::surface::SurfaceSource;
+
+/// Samples per call of [`SurfaceSource::jets_in_domain_block`] (so a host's batch callback gets
+/// up to this many points per call): eight blocks of the frame kernel.
+pub(crate) const CHUNK: usize = 8 * BLOCK;
 
 /// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
 /// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been
@@ -43,14 +47,14 @@ where
     let scales = cs.scales();
     let orientation = surface.orientation();
     let (ud, vd) = (surface.u_domain(), surface.v_domain());
-    let mut ts = [0.0; BLOCK];
-    let mut us = [0.0; BLOCK];
-    let mut vs = [0.0; BLOCK];
-    let mut cj = [CurveJet::default(); BLOCK];
-    let mut sj = [SurfaceJet::default(); BLOCK];
+    let mut ts = [0.0; CHUNK];
+    let mut us = [0.0; CHUNK];
+    let mut vs = [0.0; CHUNK];
+    let mut cj = [CurveJet::default(); CHUNK];
+    let mut sj = [SurfaceJet::default(); CHUNK];
     let mut base = 0;
     while base < count {
-        let len = BLOCK.min(count - base);
+        let len = CHUNK.min(count - base);
         // Lanes 0..good are fine so far; `pending` is the failure of lane `good`, if any.
         let mut good = len;
         let mut pending = None;
@@ -106,15 +110,16 @@ where
             good = i;
             pending = Some(e);
         }
-        if good > 0 {
+        for start in (0..good).step_by(BLOCK) {
+            let end = good.min(start + BLOCK);
             let out = frames_of_block(
-                &BlockInput::gather(&sj[..good], &cj[..good]),
+                &BlockInput::gather(&sj[start..end], &cj[start..end]),
                 orientation,
                 &scales,
             );
-            for i in 0..good {
-                let frame = if out.ok(i) {
-                    out.frame(i, &sj[i], &cj[i])
+            for i in start..end {
+                let frame = if out.ok(i - start) {
+                    out.frame(i - start, &sj[i], &cj[i])
                 } else {
                     one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
                         index: base + i,

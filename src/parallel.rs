@@ -1,6 +1,8 @@
 //! Batch evaluation over several threads, on the host's terms: the host chooses the number of
-//! threads (1 = serial, no thread is started); strake starts scoped threads for the call and
-//! joins them before returning, so no global thread pool is ever created.
+//! threads (1 = serial, no thread is started); strake starts scoped threads for the call (the
+//! calling thread works on the first chunk) and joins them before returning, so no global
+//! thread pool is ever created. Starting a thread costs tens of microseconds and one
+//! allocation (its handle), per call, not per point.
 
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
@@ -14,10 +16,11 @@ pub const MIN_SAMPLES_PER_THREAD: usize = 256;
 
 /// Frames at each of `ts` into `out` (same length), split into contiguous chunks over at most
 /// `threads` scoped threads (each with its own span hints), each chunk evaluated like
-/// [`CurveOnSurface::frames_at`] (the same bits as one point at a time). `threads` = 0 is refused; 1 runs
-/// on the calling thread. A panic in a worker (e.g. in a Rust closure surface) is resumed on
-/// the calling thread. On failure the error of the lowest failing index is returned; `out`
-/// is then partly written.
+/// [`CurveOnSurface::frames_at`] (the same bits as one point at a time). `threads` = 0 is
+/// refused; 1 runs on the calling thread. Fewer threads are started when there are fewer than
+/// [`MIN_SAMPLES_PER_THREAD`] samples per thread. A panic in a worker (e.g. in a Rust closure
+/// surface) is resumed on the calling thread. On failure the error of the lowest failing index
+/// is returned; `out` is then partly written.
 pub fn frames_at_parallel<S, C>(
     cs: &CurveOnSurface<'_, S, C>,
     ts: &[f64],
@@ -39,38 +42,62 @@ where
             )),
         });
     }
-    let n = ts.len();
+    frames_parallel_with(cs, threads, |i| ts[i], out, |o, _, f| *o = *f)
+}
+
+/// The engine of the parallel batches: sample i has parameter `t_of(i)` and its frame goes to
+/// `out[i]` through `write(&mut out[i], t, frame)`, i < `out.len()`; `threads` ≥ 1 (capped as
+/// in [`frames_at_parallel`]). Contiguous chunks, one per scoped thread; the first chunk runs on
+/// the calling thread. Errors as in [`frames_at_parallel`].
+pub(crate) fn frames_parallel_with<S, C, T, F, W>(
+    cs: &CurveOnSurface<'_, S, C>,
+    threads: usize,
+    t_of: F,
+    out: &mut [T],
+    write: W,
+) -> Result<(), SampleError>
+where
+    S: SurfaceSource + ?Sized,
+    C: UvCurve + ?Sized,
+    T: Send,
+    F: Fn(usize) -> f64 + Sync,
+    W: Fn(&mut T, f64, &DarbouxFrame) + Sync,
+{
+    let n = out.len();
     let threads = threads.min(n.div_ceil(MIN_SAMPLES_PER_THREAD)).max(1);
+    let chunk = n.div_ceil(threads).max(1);
+    let (t_of, write) = (&t_of, &write);
+    let run = move |k: usize, oc: &mut [T]| {
+        let first = k * chunk;
+        crate::batch::frames_blocked(
+            cs,
+            oc.len(),
+            &mut Hints::default(),
+            |i| t_of(first + i),
+            |i, t, f| write(&mut oc[i], t, f),
+        )
+        .map_err(|e| SampleError {
+            index: first + e.index,
+            ..e
+        })
+    };
     if threads == 1 {
-        return cs.frames_at(ts, out);
+        return run(0, out);
     }
-    let chunk = n.div_ceil(threads);
-    let results: Vec<Result<(), SampleError>> = std::thread::scope(|scope| {
-        let handles: Vec<_> = ts
-            .chunks(chunk)
-            .zip(out.chunks_mut(chunk))
-            .enumerate()
-            .map(|(k, (tc, oc))| {
-                scope.spawn(move || {
-                    crate::batch::frames_blocked(
-                        cs,
-                        tc.len(),
-                        &mut Hints::default(),
-                        |i| tc[i],
-                        |i, _, f| oc[i] = *f,
-                    )
-                    .map_err(|e| SampleError {
-                        index: k * chunk + e.index,
-                        ..e
-                    })
-                })
-            })
+    std::thread::scope(|scope| {
+        let mut chunks = out.chunks_mut(chunk).enumerate();
+        let Some((_, own)) = chunks.next() else {
+            return Ok(());
+        };
+        let handles: Vec<_> = chunks
+            .map(|(k, oc)| scope.spawn(move || run(k, oc)))
             .collect();
-        handles
+        let mine = run(0, own);
+        let theirs: Vec<Result<(), SampleError>> = handles
             .into_iter()
             .map(|h| h.join().unwrap_or_else(|p| std::panic::resume_unwind(p)))
-            .collect()
-    });
-    // Chunks are in index order, so the first error is the lowest failing index.
-    results.into_iter().collect()
+            .collect();
+        // Chunks are in index order, so the first error is the lowest failing index.
+        std::iter::once(mine).chain(theirs).collect()
+    })
 }

@@ -312,8 +312,10 @@ fn batch_errors_are_those_of_the_one_point_path() {
     // Parameters that hit each faulty band at every position inside a block.
     for band in [0.405, 0.605, 0.805] {
         let t_bad = (band - 0.05) / 0.9;
-        for pos in 0..17 {
-            let mut ts: Vec<f64> = (0..40).map(|i| 0.01 * i as f64).collect();
+        // Positions inside the first blocks and around the end of the first chunk of 64.
+        for pos in (0..17).chain([62, 63, 64, 65, 100]) {
+            // Regular samples at u < 0.37, clear of the faulty bands.
+            let mut ts: Vec<f64> = (0..140).map(|i| 0.0025 * i as f64).collect();
             ts[pos] = t_bad;
             ts[pos + 5] = t_bad; // a second failure later must not win
             let m = fails(&cs, &ts);

@@ -3,7 +3,9 @@
 //!
 //! Outputs are written only on success. The batch calls evaluate into one scratch buffer
 //! allocated per call (never per point), and copy it to the host's array once every sample has
-//! succeeded; a failure names the sample's index and parameter.
+//! succeeded; a failure names the sample's index and parameter. They evaluate a block of points
+//! at a time (the frame math of a block in structure-of-arrays form) with the results of
+//! `strake_frame_at` at each parameter, bit for bit.
 
 use super::curve::StrakeCurve;
 use super::guard::{Failure, check_count, guard, input, input_slice, output};
@@ -13,7 +15,7 @@ use super::types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurface
 use crate::error::StrakeError;
 use crate::frame::{ParamScales, darboux_frame};
 use crate::jet::{CurveJet, SurfaceJet};
-use crate::path::{CurveOnSurface, Hints, SampleError};
+use crate::path::{CurveOnSurface, Hints};
 use std::mem::MaybeUninit;
 
 /// Computes the frame at curve parameter `t` of `curve` lying on `surface`.
@@ -48,8 +50,33 @@ pub unsafe extern "C" fn strake_frame_at(
     })
 }
 
-/// Evaluates `count` samples with parameters `t_of(i)` into a scratch buffer, then copies them
-/// to `out`.
+/// A scratch buffer of `count` frames for a batch call (one allocation per call, never per
+/// point): outputs are written to the host's array only once every sample has succeeded.
+pub(crate) fn scratch(count: usize) -> Result<Vec<MaybeUninit<StrakeFrame>>, Failure> {
+    let mut v: Vec<MaybeUninit<StrakeFrame>> = Vec::new();
+    v.try_reserve_exact(count).map_err(|_| {
+        Failure::invalid(format!("cannot allocate scratch space for {count} frames"))
+    })?;
+    // SAFETY: the capacity is at least `count` and `MaybeUninit` needs no initialisation.
+    unsafe { v.set_len(count) };
+    Ok(v)
+}
+
+/// Copies a fully written scratch buffer to the host's array.
+///
+/// # Safety
+/// Every element of `scratch` must have been written; `out` must have room for
+/// `scratch.len()` frames (non-null, aligned, checked by `check_count`) and not overlap it.
+pub(crate) unsafe fn publish_frames(
+    scratch: &[MaybeUninit<StrakeFrame>],
+    out: std::ptr::NonNull<MaybeUninit<StrakeFrame>>,
+) {
+    // SAFETY: the caller's contract.
+    unsafe { std::ptr::copy_nonoverlapping(scratch.as_ptr(), out.as_ptr(), scratch.len()) };
+}
+
+/// Evaluates `count` samples with parameters `t_of(i)` into a scratch buffer (a block of
+/// points at a time, see `crate::batch`), then copies them to `out`.
 fn batch(
     surface: &StrakeSurface,
     curve: &StrakeCurve,
@@ -58,23 +85,14 @@ fn batch(
     t_of: impl Fn(usize) -> f64,
 ) -> Result<(), Failure> {
     let pair = CurveOnSurface::new(surface.source(), curve.curve());
-    let mut scratch: Vec<StrakeFrame> = Vec::new();
-    scratch.try_reserve_exact(count).map_err(|_| {
-        Failure::invalid(format!("cannot allocate scratch space for {count} frames"))
+    let mut scratch = scratch(count)?;
+    crate::batch::frames_blocked(&pair, count, &mut Hints::default(), t_of, |i, t, f| {
+        scratch[i] = MaybeUninit::new(StrakeFrame::new(t, f));
     })?;
-    let mut hints = Hints::default();
-    for index in 0..count {
-        let t = t_of(index);
-        let frame = pair
-            .frame(t, &mut hints)
-            .map_err(|error| SampleError { index, t, error })?;
-        scratch.push(StrakeFrame::new(t, &frame));
-    }
-    // SAFETY: the caller provides room for `count` frames at `out` (non-null, aligned, size
-    // checked by `check_count`); `scratch` is our own buffer and cannot overlap it.
-    unsafe {
-        std::ptr::copy_nonoverlapping(scratch.as_ptr(), out.as_ptr().cast::<StrakeFrame>(), count)
-    };
+    // SAFETY: every sample succeeded, so every element was written; the caller provides room
+    // for `count` frames at `out` (non-null, aligned, size checked by `check_count`), and
+    // `scratch` is our own buffer.
+    unsafe { publish_frames(&scratch, out) };
     Ok(())
 }
 

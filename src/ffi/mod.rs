@@ -27,15 +27,18 @@
 
 pub(crate) mod guard;
 
+pub mod batch_callback;
 pub mod curve;
 pub mod evaluate;
 pub mod message;
 pub mod nurbs_surface;
+pub mod parallel;
 pub mod status;
 pub mod surface;
 pub mod types;
 pub mod version;
 
+pub use batch_callback::{StrakeSurfaceBatchFn, strake_surface_from_batch_callback};
 pub use curve::{
     StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
     strake_curve_new_nurbs,
@@ -43,6 +46,7 @@ pub use curve::{
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
 pub use message::{strake_last_callback_code, strake_last_error_message};
 pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
+pub use parallel::strake_frames_at_parallel;
 pub use status::{StrakeStatus, strake_status_name};
 pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
