@@ -25,7 +25,7 @@ use crate::surface::SurfaceSource;
 
 /// Samples per call of [`SurfaceSource::jets_in_domain_block`] (so a host's batch callback gets
 /// up to this many points per call): eight blocks of the frame kernel.
-pub(crate) const CHUNK: usize = 8 * BLOCK;
+pub(crate) const CHUNK: usize = 64;
 
 /// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
 /// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been

@@ -17,6 +17,10 @@
 //! Costs, per point, from the formulas (counted by hand): about 250 additions and
 //! multiplications, 4 square roots and 9 divisions; no allocation.
 
+// Index loops over the lanes on purpose: iterators over arrays by value are not unrolled and
+// vectorised as reliably.
+#![allow(clippy::needless_range_loop)]
+
 use crate::error::StrakeError;
 use crate::frame::{Conditioning, DarbouxFrame, ParamScales, STALLED_CURVE_LIMIT, darboux_frame};
 use crate::jet::{CurveJet, SurfaceJet};
@@ -27,47 +31,181 @@ use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvature
 /// Number of points the kernel processes together: four vectors of two lanes with SSE2 (the
 /// portable x86-64 baseline), two of four with AVX2. Measured: 8 and 16 are within noise of
 /// each other; 4 leaves latency exposed (`examples/speed_report.rs`).
-pub const BLOCK: usize = 8;
+pub const BLOCK: usize = 16;
 
-type Lanes = [f64; BLOCK];
+/// One f64 per lane: the kernel's arithmetic type. Every operation is a loop over the lanes,
+/// which the compiler vectorises; each step of the formulas is done for all lanes before the
+/// next, so that the latencies of the lanes overlap.
+#[derive(Clone, Copy)]
+struct W([f64; BLOCK]);
 
-/// A 3-vector per lane: `v[k][i]` is component k (x, y, z) of lane i.
-type Lanes3 = [Lanes; 3];
+/// One flag per lane.
+#[derive(Clone, Copy)]
+struct Mask([bool; BLOCK]);
+
+/// A vector in space per lane.
+type W3 = [W; 3];
+
+impl W {
+    #[inline(always)]
+    fn map(self, f: impl Fn(f64) -> f64) -> W {
+        let mut r = [0.0; BLOCK];
+        for i in 0..BLOCK {
+            r[i] = f(self.0[i]);
+        }
+        W(r)
+    }
+    #[inline(always)]
+    fn zip(self, o: W, f: impl Fn(f64, f64) -> f64) -> W {
+        let mut r = [0.0; BLOCK];
+        for i in 0..BLOCK {
+            r[i] = f(self.0[i], o.0[i]);
+        }
+        W(r)
+    }
+    #[inline(always)]
+    fn test(self, o: W, f: impl Fn(f64, f64) -> bool) -> Mask {
+        let mut r = [false; BLOCK];
+        for i in 0..BLOCK {
+            r[i] = f(self.0[i], o.0[i]);
+        }
+        Mask(r)
+    }
+    #[inline(always)]
+    fn splat(x: f64) -> W {
+        W([x; BLOCK])
+    }
+    #[inline(always)]
+    fn sqrt(self) -> W {
+        self.map(f64::sqrt)
+    }
+    #[inline(always)]
+    fn abs(self) -> W {
+        self.map(f64::abs)
+    }
+    /// `f64::max` per lane (a NaN loses).
+    #[inline(always)]
+    fn max(self, o: W) -> W {
+        self.zip(o, f64::max)
+    }
+    #[inline(always)]
+    fn finite(self) -> Mask {
+        self.test(self, |x, _| x.is_finite())
+    }
+}
+
+macro_rules! arith {
+    ($tr:ident, $f:ident, $op:tt) => {
+        impl std::ops::$tr for W {
+            type Output = W;
+            #[inline(always)]
+            fn $f(self, o: W) -> W {
+                self.zip(o, |x, y| x $op y)
+            }
+        }
+        impl std::ops::$tr<f64> for W {
+            type Output = W;
+            #[inline(always)]
+            fn $f(self, o: f64) -> W {
+                self.map(|x| x $op o)
+            }
+        }
+        impl std::ops::$tr<W> for f64 {
+            type Output = W;
+            #[inline(always)]
+            fn $f(self, o: W) -> W {
+                o.map(|y| self $op y)
+            }
+        }
+    };
+}
+arith!(Add, add, +);
+arith!(Sub, sub, -);
+arith!(Mul, mul, *);
+arith!(Div, div, /);
+
+impl std::ops::BitAnd for Mask {
+    type Output = Mask;
+    #[inline(always)]
+    fn bitand(self, o: Mask) -> Mask {
+        let mut r = [false; BLOCK];
+        for i in 0..BLOCK {
+            r[i] = self.0[i] & o.0[i];
+        }
+        Mask(r)
+    }
+}
+
+/// `a` where `m` holds, else `b`, per lane.
+#[inline(always)]
+fn select(m: Mask, a: W, b: W) -> W {
+    let mut r = [0.0; BLOCK];
+    for i in 0..BLOCK {
+        r[i] = if m.0[i] { a.0[i] } else { b.0[i] };
+    }
+    W(r)
+}
+
+#[inline(always)]
+fn dot(a: W3, b: W3) -> W {
+    // nalgebra's order for 3-vectors: (a0 b0 + a1 b1) + a2 b2.
+    a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
+}
+
+#[inline(always)]
+fn cross(a: W3, b: W3) -> W3 {
+    [
+        a[1] * b[2] - a[2] * b[1],
+        a[2] * b[0] - a[0] * b[2],
+        a[0] * b[1] - a[1] * b[0],
+    ]
+}
+
+#[inline(always)]
+fn scale(a: W3, s: W) -> W3 {
+    [a[0] * s, a[1] * s, a[2] * s]
+}
+
+/// `SurfacePoint::second_form(x, y)` = L x0 y0 + M (x0 y1 + x1 y0) + Nn x1 y1.
+#[inline(always)]
+fn second_form(l: W, m: W, nn: W, x0: W, x1: W, y0: W, y1: W) -> W {
+    l * x0 * y0 + m * (x0 * y1 + x1 * y0) + nn * x1 * y1
+}
 
 /// The inputs of a block in structure-of-arrays form.
 #[derive(Clone, Copy)]
 pub(crate) struct BlockInput {
-    su: Lanes3,
-    sv: Lanes3,
-    suu: Lanes3,
-    suv: Lanes3,
-    svv: Lanes3,
-    du: Lanes,
-    dv: Lanes,
-    ddu: Lanes,
-    ddv: Lanes,
+    su: W3,
+    sv: W3,
+    suu: W3,
+    suv: W3,
+    svv: W3,
+    du: W,
+    dv: W,
+    ddu: W,
+    ddv: W,
 }
 
 /// The outputs of a block in structure-of-arrays form, with a flag per lane.
 #[derive(Clone, Copy)]
 pub(crate) struct BlockOutput {
-    n: Lanes3,
-    t: Lanes3,
-    b: Lanes3,
-    d1: Lanes3,
-    d2: Lanes3,
-    kn: Lanes,
-    kg: Lanes,
-    tg: Lanes,
-    speed: Lanes,
-    k1: Lanes,
-    k2: Lanes,
-    mean: Lanes,
-    gaussian: Lanes,
-    conditioning: Lanes,
-    speed_figure: Lanes,
-    /// 1.0 where every check of the one-point path passes, 0.0 where one fails.
-    ok: Lanes,
+    n: W3,
+    t: W3,
+    b: W3,
+    d1: W3,
+    d2: W3,
+    kn: W,
+    kg: W,
+    tg: W,
+    speed: W,
+    k1: W,
+    k2: W,
+    mean: W,
+    gaussian: W,
+    conditioning: W,
+    speed_figure: W,
+    /// Where every check of the one-point path passes.
+    ok: Mask,
 }
 
 impl BlockInput {
@@ -76,32 +214,32 @@ impl BlockInput {
     pub(crate) fn gather(surface: &[SurfaceJet], curve: &[CurveJet]) -> Self {
         let len = surface.len().min(curve.len());
         debug_assert!((1..=BLOCK).contains(&len));
-        let z = [[0.0; BLOCK]; 3];
+        let z = W([0.0; BLOCK]);
         let mut x = BlockInput {
-            su: z,
-            sv: z,
-            suu: z,
-            suv: z,
-            svv: z,
-            du: [0.0; BLOCK],
-            dv: [0.0; BLOCK],
-            ddu: [0.0; BLOCK],
-            ddv: [0.0; BLOCK],
+            su: [z; 3],
+            sv: [z; 3],
+            suu: [z; 3],
+            suv: [z; 3],
+            svv: [z; 3],
+            du: z,
+            dv: z,
+            ddu: z,
+            ddv: z,
         };
         for i in 0..BLOCK {
             let k = if i < len { i } else { 0 };
             let (s, c) = (&surface[k], &curve[k]);
             for a in 0..3 {
-                x.su[a][i] = s.su[a];
-                x.sv[a][i] = s.sv[a];
-                x.suu[a][i] = s.suu[a];
-                x.suv[a][i] = s.suv[a];
-                x.svv[a][i] = s.svv[a];
+                x.su[a].0[i] = s.su[a];
+                x.sv[a].0[i] = s.sv[a];
+                x.suu[a].0[i] = s.suu[a];
+                x.suv[a].0[i] = s.suv[a];
+                x.svv[a].0[i] = s.svv[a];
             }
-            x.du[i] = c.du;
-            x.dv[i] = c.dv;
-            x.ddu[i] = c.ddu;
-            x.ddv[i] = c.ddv;
+            x.du.0[i] = c.du;
+            x.dv.0[i] = c.dv;
+            x.ddu.0[i] = c.ddu;
+            x.ddv.0[i] = c.ddv;
         }
         x
     }
@@ -111,14 +249,14 @@ impl BlockOutput {
     /// True when lane `i` passed every check.
     #[inline]
     pub(crate) fn ok(&self, i: usize) -> bool {
-        self.ok[i] != 0.0
+        self.ok.0[i]
     }
 
     /// The frame of lane `i` (meaningful when [`Self::ok`]); (u, v) and the point come from
     /// the jets.
     #[inline]
     pub(crate) fn frame(&self, i: usize, surface: &SurfaceJet, curve: &CurveJet) -> DarbouxFrame {
-        let v = |a: &Lanes3| Vec3::new(a[0][i], a[1][i], a[2][i]);
+        let v = |a: &W3| Vec3::new(a[0].0[i], a[1].0[i], a[2].0[i]);
         DarbouxFrame {
             u: curve.u,
             v: curve.v,
@@ -126,58 +264,72 @@ impl BlockOutput {
             t: v(&self.t),
             b: v(&self.b),
             n: v(&self.n),
-            normal_curvature: self.kn[i],
-            geodesic_curvature: self.kg[i],
-            geodesic_torsion: self.tg[i],
-            speed: self.speed[i],
+            normal_curvature: self.kn.0[i],
+            geodesic_curvature: self.kg.0[i],
+            geodesic_torsion: self.tg.0[i],
+            speed: self.speed.0[i],
             principal: PrincipalCurvatures {
-                k1: self.k1[i],
-                k2: self.k2[i],
+                k1: self.k1.0[i],
+                k2: self.k2.0[i],
                 d1: v(&self.d1),
                 d2: v(&self.d2),
-                mean: self.mean[i],
-                gaussian: self.gaussian[i],
+                mean: self.mean.0[i],
+                gaussian: self.gaussian.0[i],
             },
             conditioning: Conditioning {
-                surface: self.conditioning[i],
-                curve: self.speed_figure[i],
+                surface: self.conditioning.0[i],
+                curve: self.speed_figure.0[i],
             },
         }
     }
 }
 
-#[inline(always)]
-fn dot(a: [f64; 3], b: [f64; 3]) -> f64 {
-    // nalgebra's order for 3-vectors: (a0 b0 + a1 b1) + a2 b2.
-    a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
+/// The frame math over all lanes of a block: the formulas of `SurfacePoint::new_with_limit`
+/// and `darboux_frame_at`, operation for operation. `scales` must be valid (positive, finite).
+///
+/// On x86-64 processors with AVX2 (detected at run time, once) the same code runs compiled for
+/// AVX2: four lanes per instruction and three-operand forms instead of SSE2's two lanes and
+/// register copies. Only additions, subtractions, multiplications, divisions, square roots,
+/// compares and selects are used, which round identically in every instruction set (no fused
+/// multiply-add is enabled), so both give the same bits.
+#[inline(never)]
+pub(crate) fn frames_of_block(
+    x: &BlockInput,
+    orientation: Orientation,
+    s: &ParamScales,
+) -> BlockOutput {
+    #[cfg(target_arch = "x86_64")]
+    if std::arch::is_x86_feature_detected!("avx2") {
+        // SAFETY: the processor supports AVX2 (checked just above).
+        return unsafe { frames_of_block_avx2(x, orientation, s) };
+    }
+    frames_of_block_portable(x, orientation, s)
 }
 
-#[inline(always)]
-fn cross(a: [f64; 3], b: [f64; 3]) -> [f64; 3] {
-    [
-        a[1] * b[2] - a[2] * b[1],
-        a[2] * b[0] - a[0] * b[2],
-        a[0] * b[1] - a[1] * b[0],
-    ]
+/// [`frames_of_block_portable`] compiled for AVX2.
+///
+/// # Safety
+/// The processor must support AVX2.
+#[cfg(target_arch = "x86_64")]
+#[target_feature(enable = "avx2")]
+unsafe fn frames_of_block_avx2(
+    x: &BlockInput,
+    orientation: Orientation,
+    s: &ParamScales,
+) -> BlockOutput {
+    frames_of_block_portable(x, orientation, s)
 }
 
+/// The kernel in the baseline instruction set.
 #[inline(always)]
-fn scale(a: [f64; 3], s: f64) -> [f64; 3] {
-    [a[0] * s, a[1] * s, a[2] * s]
-}
-
-#[inline(always)]
-fn finite(x: f64) -> bool {
-    // |x| < ∞: a mask and a compare, which vectorise.
-    x.is_finite()
-}
-
-/// The frame math of one lane: the body of the loop over lanes.
-#[inline(always)]
-fn lane(x: &BlockInput, i: usize, sigma: f64, s: &ParamScales, y: &mut BlockOutput) {
-    let g3 = |a: &Lanes3| [a[0][i], a[1][i], a[2][i]];
-    let (su, sv, suu, suv, svv) = (g3(&x.su), g3(&x.sv), g3(&x.suu), g3(&x.suv), g3(&x.svv));
-    let (du, dv, ddu, ddv) = (x.du[i], x.dv[i], x.ddu[i], x.ddv[i]);
+pub(crate) fn frames_of_block_portable(
+    x: &BlockInput,
+    orientation: Orientation,
+    s: &ParamScales,
+) -> BlockOutput {
+    let sigma = orientation.sign();
+    let (su, sv, suu, suv, svv) = (x.su, x.sv, x.suu, x.suv, x.svv);
+    let (du, dv, ddu, ddv) = (x.du, x.dv, x.ddu, x.ddv);
 
     // --- SurfacePoint::new_with_limit ---
     let cr = cross(su, sv);
@@ -187,12 +339,10 @@ fn lane(x: &BlockInput, i: usize, sigma: f64, s: &ParamScales, y: &mut BlockOutp
     let eb = dot(sv, sv) * (s.v_extent * s.v_extent);
     let mx = ea.max(eb);
     let cond_raw = (area * s.u_extent * s.v_extent) / mx;
-    let conditioning = if mx == 0.0 || !finite(mx) {
-        0.0
-    } else {
-        cond_raw
-    };
-    let mut ok = conditioning >= DEGENERATE_SURFACE_LIMIT;
+    let zero = W::splat(0.0);
+    let degenerate = Mask(mx.test(zero, |m, _| m == 0.0 || !m.is_finite()).0);
+    let conditioning = select(degenerate, zero, cond_raw);
+    let mut ok = conditioning.test(zero, |c, _| c >= DEGENERATE_SURFACE_LIMIT);
     let n = scale(cr, sigma / area);
     let e = dot(su, su);
     let f = dot(su, sv);
@@ -214,22 +364,10 @@ fn lane(x: &BlockInput, i: usize, sigma: f64, s: &ParamScales, y: &mut BlockOutp
     let k1 = mean + d;
     let k2 = mean - d;
     let sc = w11.abs().max(w22.abs()).max(w12.abs());
-    let umbilic = d <= 4.0 * f64::EPSILON * sc;
-    let forward = half_diff >= 0.0;
-    let ex = if umbilic {
-        1.0
-    } else if forward {
-        d + half_diff
-    } else {
-        w12
-    };
-    let ey = if umbilic {
-        0.0
-    } else if forward {
-        w12
-    } else {
-        d - half_diff
-    };
+    let umbilic = d.test(4.0 * f64::EPSILON * sc, |d, lim| d <= lim);
+    let forward = half_diff.test(zero, |h, _| h >= 0.0);
+    let ex = select(umbilic, W::splat(1.0), select(forward, d + half_diff, w12));
+    let ey = select(umbilic, zero, select(forward, w12, d - half_diff));
     let inv = 1.0 / (ex * ex + ey * ey).sqrt();
     let e1 = scale(su, inv_su);
     let e2 = cross(n, e1);
@@ -241,13 +379,13 @@ fn lane(x: &BlockInput, i: usize, sigma: f64, s: &ParamScales, y: &mut BlockOutp
     ];
     let d2 = cross(n, d1);
     let gaussian = k1 * k2;
-    ok &= finite(k1) & finite(k2) & finite(n[0]) & finite(n[1]) & finite(n[2]);
-    ok &= finite(gaussian);
+    ok = ok & k1.finite() & k2.finite() & n[0].finite() & n[1].finite() & n[2].finite();
+    ok = ok & gaussian.finite();
 
     // --- darboux_frame_at ---
     let (a, b_) = (du / s.u_extent, dv / s.v_extent);
     let speed_figure = (a * a + b_ * b_).sqrt() * s.t_extent;
-    ok &= speed_figure >= STALLED_CURVE_LIMIT;
+    ok = ok & speed_figure.test(zero, |f, _| f >= STALLED_CURVE_LIMIT);
     let c1 = [
         su[0] * du + sv[0] * dv,
         su[1] * du + sv[1] * dv,
@@ -265,9 +403,7 @@ fn lane(x: &BlockInput, i: usize, sigma: f64, s: &ParamScales, y: &mut BlockOutp
     let tan = scale(c1, inv_speed);
     let b = cross(n, tan);
     let inv_speed2 = 1.0 / speed2;
-    // SurfacePoint::second_form(x, y) = L x0 y0 + M (x0 y1 + x1 y0) + Nn x1 y1.
-    let form =
-        |x0: f64, x1: f64, y0: f64, y1: f64| l * x0 * y0 + m * (x0 * y1 + x1 * y0) + nn * x1 * y1;
+    let form = |x0, x1, y0, y1| second_form(l, m, nn, x0, x1, y0, y1);
     let kn = form(du, dv, du, dv) * inv_speed2;
     let kg = dot(c2, b) * inv_speed2;
     let (tc0, tc1) = (du * inv_speed, dv * inv_speed);
@@ -276,62 +412,29 @@ fn lane(x: &BlockInput, i: usize, sigma: f64, s: &ParamScales, y: &mut BlockOutp
     let det = area * area;
     let (bc0, bc1) = ((g * xs - f * xv) / det, (e * xv - f * xs) / det);
     let tg = form(tc0, tc1, bc0, bc1);
-    ok &= finite(kn) & finite(kg) & finite(tg) & finite(speed);
-    ok &= finite(tan[0]) & finite(tan[1]) & finite(tan[2]);
-    ok &= finite(b[0]) & finite(b[1]) & finite(b[2]) & (speed != 0.0);
+    ok = ok & kn.finite() & kg.finite() & tg.finite() & speed.finite();
+    ok = ok & tan[0].finite() & tan[1].finite() & tan[2].finite();
+    ok = ok & b[0].finite() & b[1].finite() & b[2].finite();
+    ok = ok & speed.test(zero, |v, _| v != 0.0);
 
-    for k in 0..3 {
-        y.n[k][i] = n[k];
-        y.t[k][i] = tan[k];
-        y.b[k][i] = b[k];
-        y.d1[k][i] = d1[k];
-        y.d2[k][i] = d2[k];
+    BlockOutput {
+        n,
+        t: tan,
+        b,
+        d1,
+        d2,
+        kn,
+        kg,
+        tg,
+        speed,
+        k1,
+        k2,
+        mean,
+        gaussian,
+        conditioning,
+        speed_figure,
+        ok,
     }
-    y.kn[i] = kn;
-    y.kg[i] = kg;
-    y.tg[i] = tg;
-    y.speed[i] = speed;
-    y.k1[i] = k1;
-    y.k2[i] = k2;
-    y.mean[i] = mean;
-    y.gaussian[i] = gaussian;
-    y.conditioning[i] = conditioning;
-    y.speed_figure[i] = speed_figure;
-    y.ok[i] = if ok { 1.0 } else { 0.0 };
-}
-
-/// The frame math over all lanes of a block. `scales` must be valid (positive, finite).
-#[inline(never)]
-pub(crate) fn frames_of_block(
-    x: &BlockInput,
-    orientation: Orientation,
-    scales: &ParamScales,
-) -> BlockOutput {
-    let z = [[0.0; BLOCK]; 3];
-    let o = [0.0; BLOCK];
-    let mut y = BlockOutput {
-        n: z,
-        t: z,
-        b: z,
-        d1: z,
-        d2: z,
-        kn: o,
-        kg: o,
-        tg: o,
-        speed: o,
-        k1: o,
-        k2: o,
-        mean: o,
-        gaussian: o,
-        conditioning: o,
-        speed_figure: o,
-        ok: o,
-    };
-    let sigma = orientation.sign();
-    for i in 0..BLOCK {
-        lane(x, i, sigma, scales, &mut y);
-    }
-    y
 }
 
 /// Frames from jets the caller has evaluated, many at once: `out[i]` is

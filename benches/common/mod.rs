@@ -6,7 +6,11 @@
 #![allow(dead_code)]
 
 use std::ffi::c_void;
-use strake::ffi::StrakeSurfaceJet;
+use strake::ffi::{
+    StrakeCurve, StrakeFrame, StrakeNurbsSurfaceData, StrakeStatus, StrakeSurface,
+    StrakeSurfaceJet, strake_curve_new_nurbs, strake_frames_at, strake_frames_at_parallel,
+    strake_surface_from_batch_callback, strake_surface_from_callback, strake_surface_new_nurbs,
+};
 use strake::frame::{ParamScales, darboux_frame};
 use strake::jet::{CurveJet, DerivOrder, SurfaceJet};
 use strake::nurbs::{NurbsCurve, NurbsSurface, NurbsSurfaceData, SpanHint};
@@ -35,9 +39,9 @@ pub const KNOTS_U: [f64; 12] = [0.0, 0.0, 0.0, 0.0, 0.1, 0.3, 0.45, 0.8, 1.0, 1.
 /// See [`KNOTS_U`].
 pub const KNOTS_V: [f64; 12] = [0.0, 0.0, 0.0, 0.0, 0.2, 0.35, 0.6, 0.7, 1.0, 1.0, 1.0, 1.0];
 
-/// A bicubic 8 × 8 "wing skin" over [0, 1]²: non-uniform knots, a wavy control net, weights in
-/// [0.5, 2] (or none).
-pub fn wing_skin(rational: bool) -> NurbsSurface {
+/// The control net of the test surface: 8 × 8 points (v index fastest) of a wavy sheet and
+/// weights in [0.5, 2].
+pub fn wing_net() -> (Vec<[f64; 3]>, Vec<f64>) {
     let mut rng = Lcg(42);
     let mut pts = Vec::new();
     let mut ws = Vec::new();
@@ -52,6 +56,13 @@ pub fn wing_skin(rational: bool) -> NurbsSurface {
             ws.push(0.5 + 1.5 * rng.next());
         }
     }
+    (pts, ws)
+}
+
+/// A bicubic 8 × 8 "wing skin" over [0, 1]²: non-uniform knots, the net of [`wing_net`],
+/// rational (its weights) or not.
+pub fn wing_skin(rational: bool) -> NurbsSurface {
+    let (pts, ws) = wing_net();
     NurbsSurface::new(&NurbsSurfaceData {
         degree_u: 3,
         degree_v: 3,
@@ -65,22 +76,26 @@ pub fn wing_skin(rational: bool) -> NurbsSurface {
     .unwrap()
 }
 
+/// Knots of the path (a clamped cubic with three interior knots).
+pub const PATH_KNOTS: [f64; 11] = [0.0, 0.0, 0.0, 0.0, 0.25, 0.5, 0.75, 1.0, 1.0, 1.0, 1.0];
+/// Control points (u, v) of the path.
+pub const PATH_POINTS: [[f64; 2]; 7] = [
+    [0.03, 0.9],
+    [0.2, 0.75],
+    [0.35, 0.9],
+    [0.5, 0.4],
+    [0.7, 0.15],
+    [0.85, 0.5],
+    [0.97, 0.3],
+];
+/// Weights of the path.
+pub const PATH_WEIGHTS: [f64; 7] = [1.0, 0.8, 1.2, 1.0, 0.9, 1.1, 1.0];
+
 /// The path: a rational cubic curve in the parameter plane over t ∈ [0, 1] that sweeps across
 /// the surface (crossing every knot line in u and several in v), staying at least 0.02 inside
 /// the domain so that the finite-difference stencil never leaves it.
 pub fn wing_path() -> NurbsCurve<2> {
-    let knots = [0.0, 0.0, 0.0, 0.0, 0.25, 0.5, 0.75, 1.0, 1.0, 1.0, 1.0];
-    let pts = [
-        [0.03, 0.9],
-        [0.2, 0.75],
-        [0.35, 0.9],
-        [0.5, 0.4],
-        [0.7, 0.15],
-        [0.85, 0.5],
-        [0.97, 0.3],
-    ];
-    let w = [1.0, 0.8, 1.2, 1.0, 0.9, 1.1, 1.0];
-    NurbsCurve::new(3, &knots, &pts, Some(&w)).unwrap()
+    NurbsCurve::new(3, &PATH_KNOTS, &PATH_POINTS, Some(&PATH_WEIGHTS)).unwrap()
 }
 
 /// `n` evenly spaced curve parameters over [0, 1], both ends included.
@@ -243,4 +258,108 @@ pub fn fd_frame(
     let cj: CurveJet = c.checked_jet(t, hint_c)?;
     let sj = fd_jet(s, cj.u, cj.v, FD_STEP, hint_s);
     darboux_frame(&sj, &cj, Orientation::Forward, &SCALES, t)
+}
+
+// ---------------------------------------------------------------------------------------------
+// Handles of the C ABI for the same surface and path.
+
+/// The test surface (rational) as a native C handle (`strake_surface_new_nurbs`).
+pub fn c_native_surface() -> *mut StrakeSurface {
+    let (pts, ws) = wing_net();
+    let data = StrakeNurbsSurfaceData {
+        degree_u: 3,
+        degree_v: 3,
+        count_u: 8,
+        count_v: 8,
+        knots_u: KNOTS_U.as_ptr(),
+        knot_count_u: KNOTS_U.len(),
+        knots_v: KNOTS_V.as_ptr(),
+        knot_count_v: KNOTS_V.len(),
+        points: pts.as_ptr().cast(),
+        weights: ws.as_ptr(),
+    };
+    let mut out = std::ptr::null_mut();
+    // SAFETY: valid data (copied by the call) and output slot.
+    let st = unsafe { strake_surface_new_nurbs(&data, 0, &mut out) };
+    assert_eq!(st, StrakeStatus::Ok);
+    out
+}
+
+/// The test surface behind a host callback: `host` must outlive the handle.
+pub fn c_callback_surface(host: &NurbsSurface) -> *mut StrakeSurface {
+    let mut out = std::ptr::null_mut();
+    let ud = host as *const NurbsSurface as *mut c_void;
+    // SAFETY: a callback honouring its contract and a valid output slot.
+    let st = unsafe {
+        strake_surface_from_callback(Some(host_surface), ud, 0.0, 1.0, 0.0, 1.0, 0, &mut out)
+    };
+    assert_eq!(st, StrakeStatus::Ok);
+    out
+}
+
+/// The test surface behind a host batch callback: `host` must outlive the handle.
+pub fn c_batch_callback_surface(host: &NurbsSurface) -> *mut StrakeSurface {
+    let mut out = std::ptr::null_mut();
+    let ud = host as *const NurbsSurface as *mut c_void;
+    // SAFETY: as above.
+    let st = unsafe {
+        strake_surface_from_batch_callback(
+            Some(host_surface_batch),
+            ud,
+            0.0,
+            1.0,
+            0.0,
+            1.0,
+            0,
+            &mut out,
+        )
+    };
+    assert_eq!(st, StrakeStatus::Ok);
+    out
+}
+
+/// The path as a C handle (`strake_curve_new_nurbs`).
+pub fn c_path() -> *mut StrakeCurve {
+    let mut out = std::ptr::null_mut();
+    // SAFETY: valid arrays (copied by the call) and output slot.
+    let st = unsafe {
+        strake_curve_new_nurbs(
+            3,
+            PATH_KNOTS.as_ptr(),
+            PATH_KNOTS.len(),
+            PATH_POINTS.as_ptr().cast(),
+            PATH_POINTS.len(),
+            PATH_WEIGHTS.as_ptr(),
+            &mut out,
+        )
+    };
+    assert_eq!(st, StrakeStatus::Ok);
+    out
+}
+
+/// `strake_frames_at` into `out`, asserting success.
+pub fn c_frames_at(
+    s: *const StrakeSurface,
+    c: *const StrakeCurve,
+    ts: &[f64],
+    out: &mut [StrakeFrame],
+) {
+    // SAFETY: live handles, `ts.len()` parameters and room for as many frames.
+    let st = unsafe { strake_frames_at(s, c, ts.as_ptr(), ts.len(), out.as_mut_ptr()) };
+    assert_eq!(st, StrakeStatus::Ok);
+}
+
+/// `strake_frames_at_parallel` into `out`, asserting success.
+pub fn c_frames_at_parallel(
+    s: *const StrakeSurface,
+    c: *const StrakeCurve,
+    ts: &[f64],
+    threads: u32,
+    out: &mut [StrakeFrame],
+) {
+    // SAFETY: as above.
+    let st = unsafe {
+        strake_frames_at_parallel(s, c, ts.as_ptr(), ts.len(), threads, out.as_mut_ptr())
+    };
+    assert_eq!(st, StrakeStatus::Ok);
 }

@@ -7,6 +7,7 @@ pub mod conics;
 pub mod curve;
 pub mod interpolate;
 pub mod knots;
+mod quad;
 pub mod surface;
 
 pub use basis::{BasisRows, basis_rows};

@@ -25,6 +25,11 @@ use super::basis::{
     Direct, MAX_ORDER, Reciprocals, basis_rows_in, reciprocal_table, reciprocals_per_span,
 };
 use super::knots::KnotVector;
+#[cfg(not(target_arch = "x86_64"))]
+use super::quad::Scalar as Sse2;
+#[cfg(target_arch = "x86_64")]
+use super::quad::{Avx, Sse2};
+use super::quad::{Quad, QuadOps};
 use crate::error::{Result, StrakeError};
 use crate::jet::{DerivOrder, Interval, SurfaceJet};
 use crate::math::Vec3;
@@ -70,7 +75,7 @@ pub struct NurbsSurface {
     v_knots: KnotVector,
     /// Homogeneous control net [w x, w y, w z, w], index i * count_v + j (w = 1 when
     /// non-rational).
-    net: Vec<[f64; 4]>,
+    net: Vec<Quad>,
     /// Per-span reciprocals of the knot differences in u (see [`span_reciprocals`]), spans
     /// p ..= n, `reciprocals_per_span(p)` each; likewise in v.
     u_recip: Vec<f64>,
@@ -119,7 +124,7 @@ impl NurbsSurface {
             None => data
                 .points
                 .iter()
-                .map(|p| [p[0], p[1], p[2], 1.0])
+                .map(|p| Quad([p[0], p[1], p[2], 1.0]))
                 .collect(),
             Some(w) => {
                 if w.len() != total {
@@ -140,7 +145,7 @@ impl NurbsSurface {
                 data.points
                     .iter()
                     .zip(w)
-                    .map(|(p, &wi)| [p[0] * wi, p[1] * wi, p[2] * wi, wi])
+                    .map(|(p, &wi)| Quad([p[0] * wi, p[1] * wi, p[2] * wi, wi]))
                     .collect()
             }
         };
@@ -209,7 +214,7 @@ impl NurbsSurface {
         if i >= self.count_u() || j >= self.count_v() {
             return None;
         }
-        let h = self.net[i * self.count_v() + j];
+        let h = self.net[i * self.count_v() + j].0;
         Some(if self.rational {
             [h[0] / h[3], h[1] / h[3], h[2] / h[3]]
         } else {
@@ -223,7 +228,7 @@ impl NurbsSurface {
         if i >= self.count_u() || j >= self.count_v() {
             return None;
         }
-        Some(self.net[i * self.count_v() + j][3])
+        Some(self.net[i * self.count_v() + j].0[3])
     }
 
     /// The jet at (u, v) up to `order`: checks that u and v are finite and inside the domain
@@ -256,29 +261,81 @@ impl NurbsSurface {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
+        #[cfg(target_arch = "x86_64")]
+        if std::arch::is_x86_feature_detected!("avx2") {
+            // SAFETY: the processor supports AVX2 (checked just above).
+            return unsafe { self.jet_avx2(u, v, order, hint) };
+        }
+        self.jet_portable(u, v, order, hint)
+    }
+
+    /// [`Self::jet_with`] compiled for AVX2, with the tensor sums on one 256-bit vector per
+    /// homogeneous point. The same operations (no fused multiply-add), so the same bits.
+    ///
+    /// # Safety
+    /// The processor must support AVX2.
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    unsafe fn jet_avx2(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
+        self.jet_with::<Avx>(u, v, order, hint)
+    }
+
+    /// The evaluation in the baseline instruction set (SSE2 on x86-64).
+    #[inline(always)]
+    fn jet_portable(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
+        self.jet_with::<Sse2>(u, v, order, hint)
+    }
+
+    /// The evaluation with the vector arithmetic `M` (see `quad`), dispatched on the order.
+    /// `M` must be usable on this processor (`Avx` only with AVX2).
+    #[inline(always)]
+    fn jet_with<M: QuadOps>(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
         // Stack rows sized for the degree; the common degrees (bicubic, cubic by lower,
         // biquadratic, quadratic by linear, bilinear) known at compile time, so that the basis
         // recursion is unrolled and stays in registers.
         match order {
-            DerivOrder::Position => self.eval_order::<0>(u, v, hint),
-            DerivOrder::First => self.eval_order::<1>(u, v, hint),
-            DerivOrder::Second => self.eval_order::<2>(u, v, hint),
+            DerivOrder::Position => self.eval_order::<0, M>(u, v, hint),
+            DerivOrder::First => self.eval_order::<1, M>(u, v, hint),
+            DerivOrder::Second => self.eval_order::<2, M>(u, v, hint),
         }
     }
 
     /// [`Self::eval`] for derivative order K, dispatched on the degrees.
     #[inline(always)]
-    fn eval_order<const K: usize>(&self, u: f64, v: f64, hint: &mut SurfaceHint) -> SurfaceJet {
+    fn eval_order<const K: usize, M: QuadOps>(
+        &self,
+        u: f64,
+        v: f64,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
         match (self.u_knots.degree(), self.v_knots.degree()) {
-            (3, 3) => self.eval::<K, 4, 3, 3, true>(u, v, hint),
-            (3, q) if q < 3 => self.eval::<K, 4, 3, 0, true>(u, v, hint),
-            (p, 3) if p < 3 => self.eval::<K, 4, 0, 3, true>(u, v, hint),
-            (2, 2) => self.eval::<K, 3, 2, 2, true>(u, v, hint),
-            (2, 1) => self.eval::<K, 3, 2, 1, true>(u, v, hint),
-            (1, 2) => self.eval::<K, 3, 1, 2, true>(u, v, hint),
-            (1, 1) => self.eval::<K, 2, 1, 1, true>(u, v, hint),
-            (p, q) if p.max(q) < 8 => self.eval::<K, 8, 0, 0, true>(u, v, hint),
-            _ => self.eval::<K, MAX_ORDER, 0, 0, true>(u, v, hint),
+            (3, 3) => self.eval::<K, 4, 3, 3, true, M>(u, v, hint),
+            (3, q) if q < 3 => self.eval::<K, 4, 3, 0, true, M>(u, v, hint),
+            (p, 3) if p < 3 => self.eval::<K, 4, 0, 3, true, M>(u, v, hint),
+            (2, 2) => self.eval::<K, 3, 2, 2, true, M>(u, v, hint),
+            (2, 1) => self.eval::<K, 3, 2, 1, true, M>(u, v, hint),
+            (1, 2) => self.eval::<K, 3, 1, 2, true, M>(u, v, hint),
+            (1, 1) => self.eval::<K, 2, 1, 1, true, M>(u, v, hint),
+            (p, q) if p.max(q) < 8 => self.eval::<K, 8, 0, 0, true, M>(u, v, hint),
+            _ => self.eval::<K, MAX_ORDER, 0, 0, true, M>(u, v, hint),
         }
     }
 
@@ -287,9 +344,17 @@ impl NurbsSurface {
     /// `Q` > 0 are the degrees known at compile time, 0 takes them at run time, see
     /// `basis_rows_in`). With `TABLE` the basis functions multiply by the per-span reciprocals
     /// of the knot differences instead of dividing (the same values to a few units in the last
-    /// place; the tests compare both).
+    /// place; the tests compare both). `M` is the vector arithmetic of the tensor sums (see
+    /// `quad`); it must be usable on this processor (`Avx` only with AVX2).
     #[inline(always)]
-    fn eval<const K: usize, const N: usize, const P: usize, const Q: usize, const TABLE: bool>(
+    fn eval<
+        const K: usize,
+        const N: usize,
+        const P: usize,
+        const Q: usize,
+        const TABLE: bool,
+        M: QuadOps,
+    >(
         &self,
         u: f64,
         v: f64,
@@ -318,40 +383,43 @@ impl NurbsSurface {
         let count_v = self.v_knots.count();
         let first = (span_u - p) * count_v + (span_v - q);
 
-        // h[0] = A, h[1] = Au, h[2] = Av, h[3] = Auu, h[4] = Auv, h[5] = Avv, each [x, y, z, w].
-        let mut h = [[0.0f64; 4]; 6];
-        // Row r of the (p + 1) × (q + 1) block starts at first + r * count_v. Zipped iterators
-        // (no indexing) so that the loops carry no bounds checks.
-        let rows = self.net[first..].chunks(count_v).take(p + 1);
-        for (row, ((&n0, &n1), &n2)) in rows.zip(nu[0].iter().zip(&nu[1]).zip(&nu[2])) {
+        // h[0] = A, h[1] = Au, h[2] = Av, h[3] = Auu, h[4] = Auv, h[5] = Avv, each [x, y, z, w]
+        // in one vector value of `M` (see `quad`). Row r of the (p + 1) × (q + 1) block starts
+        // at first + r * count_v; exclusive ranges, so that the loops unroll for known degrees.
+        // SAFETY (every `M::` call): the caller chose `M` for this processor (`eval`'s contract).
+        let z = unsafe { M::zero() };
+        let mut h = [z; 6];
+        let block = &self.net[first..];
+        for r in 0..p + 1 {
+            let row = &block[r * count_v..][..q + 1];
             // t_l = Σ_s N⁽ˡ⁾_s(v) Pw_{r,s}: the v-derivatives of this row.
-            let (mut t0, mut t1, mut t2) = ([0.0f64; 4], [0.0f64; 4], [0.0f64; 4]);
-            for (cp, ((&m0, &m1), &m2)) in
-                row[..=q].iter().zip(nv[0].iter().zip(&nv[1]).zip(&nv[2]))
-            {
-                for c in 0..4 {
-                    t0[c] += m0 * cp[c];
-                    if K >= 1 {
-                        t1[c] += m1 * cp[c];
-                    }
-                    if K >= 2 {
-                        t2[c] += m2 * cp[c];
-                    }
-                }
-            }
-            for c in 0..4 {
-                h[0][c] += n0 * t0[c];
+            let (mut t0, mut t1, mut t2) = (z, z, z);
+            for (s, cp) in row.iter().enumerate() {
+                let cp = unsafe { M::load(cp) };
+                t0 = unsafe { M::madd(t0, nv[0][s], cp) };
                 if K >= 1 {
-                    h[1][c] += n1 * t0[c];
-                    h[2][c] += n0 * t1[c];
+                    t1 = unsafe { M::madd(t1, nv[1][s], cp) };
                 }
                 if K >= 2 {
-                    h[3][c] += n2 * t0[c];
-                    h[4][c] += n1 * t1[c];
-                    h[5][c] += n0 * t2[c];
+                    t2 = unsafe { M::madd(t2, nv[2][s], cp) };
                 }
             }
+            h[0] = unsafe { M::madd(h[0], nu[0][r], t0) };
+            if K >= 1 {
+                h[1] = unsafe { M::madd(h[1], nu[1][r], t0) };
+                h[2] = unsafe { M::madd(h[2], nu[0][r], t1) };
+            }
+            if K >= 2 {
+                h[3] = unsafe { M::madd(h[3], nu[2][r], t0) };
+                h[4] = unsafe { M::madd(h[4], nu[1][r], t1) };
+                h[5] = unsafe { M::madd(h[5], nu[0][r], t2) };
+            }
         }
+        let mut hs = [[0.0f64; 4]; 6];
+        for (o, &x) in hs.iter_mut().zip(&h).take(if K == 0 { 1 } else { 3 * K }) {
+            *o = unsafe { M::store(x) };
+        }
+        let h = hs;
         let v3 = |a: &[f64; 4]| Vec3::new(a[0], a[1], a[2]);
         if !self.rational {
             return SurfaceJet {
@@ -408,6 +476,7 @@ impl SurfaceSource for NurbsSurface {
 
 #[cfg(test)]
 mod tests {
+    use super::super::quad::Scalar;
     use super::*;
 
     /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
@@ -476,9 +545,16 @@ mod tests {
                 let u = du.lo + du.width() * if i % 10 == 0 { 0.0 } else { lcg(&mut st) };
                 let v = dv.lo + dv.width() * if i % 7 == 0 { 1.0 } else { lcg(&mut st) };
                 let a = s.jet_unchecked(u, v, DerivOrder::Second, &mut h);
-                let b = s.eval::<2, MAX_ORDER, 0, 0, false>(u, v, &mut h);
-                let full = s.eval::<2, MAX_ORDER, 0, 0, true>(u, v, &mut h);
+                let b = s.eval::<2, MAX_ORDER, 0, 0, false, Scalar>(u, v, &mut h);
+                let full = s.eval::<2, MAX_ORDER, 0, 0, true, Scalar>(u, v, &mut h);
                 assert_eq!(a, full, "degrees ({p}, {q}): sized rows vs MAX_ORDER rows");
+                // Every vector arithmetic gives the same bits (see `quad`).
+                for order in [DerivOrder::Position, DerivOrder::First, DerivOrder::Second] {
+                    let want = s.jet_with::<Scalar>(u, v, order, &mut h);
+                    assert_eq!(s.jet_unchecked(u, v, order, &mut h), want);
+                    #[cfg(target_arch = "x86_64")]
+                    assert_eq!(s.jet_with::<Sse2>(u, v, order, &mut h), want);
+                }
                 let scale = a.su.norm().max(a.sv.norm()).max(1.0);
                 for (x, y) in [
                     (a.p, b.p),

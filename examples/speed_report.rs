@@ -1,0 +1,725 @@
+//! Speed report: every hot path of strake timed in one process, side by side, and the ratios
+//! the project's speed targets are stated in, with the arithmetic floor of each kernel and the
+//! accuracy of the finite-difference code a host would write instead.
+//!
+//! ```text
+//! cargo run --release --example speed_report
+//! ```
+//!
+//! Method: every case processes the same path (a rational cubic in the parameter plane of a
+//! bicubic rational 8 × 8 NURBS surface, `benches/common`) and is timed as the median over
+//! `ROUNDS` rounds; within a round the cases run one after the other, so that a change in the
+//! machine's load touches all of them alike and the ratios stay meaningful on a shared machine.
+//! `benches/README.md` explains every line of the output.
+
+#[path = "../benches/common/mod.rs"]
+mod common;
+
+use common::*;
+use std::cell::RefCell;
+use std::hint::black_box;
+use std::time::Instant;
+use strake::ffi::{StrakeFrame, StrakeSurfaceJet, strake_curve_free, strake_surface_free};
+use strake::jet::{CurveJet, DerivOrder, SurfaceJet};
+use strake::nurbs::SpanHint;
+use strake::parallel::frames_at_parallel;
+use strake::surface::SurfaceHint;
+use strake::{
+    CurveOnSurface, DarbouxFrame, Hints, Orientation, UvCurve, darboux_frame, darboux_frames,
+};
+
+/// Points of the path in the per-point cases (their jets and frames stay in the L2 cache).
+const N: usize = 4096;
+/// Points of the path in the parallel cases (enough work to amortise starting a thread).
+const N_PARALLEL: usize = 65536;
+/// Rounds; each case reports its median.
+const ROUNDS: usize = 31;
+/// Each timed sample lasts at least this long (repetitions of the case).
+const SAMPLE_NS: f64 = 2e6;
+
+struct Case<'a> {
+    name: &'static str,
+    points: usize,
+    run: Box<dyn FnMut() + 'a>,
+    reps: usize,
+    samples: Vec<f64>,
+}
+
+impl<'a> Case<'a> {
+    fn new(name: &'static str, points: usize, run: impl FnMut() + 'a) -> Self {
+        Case {
+            name,
+            points,
+            run: Box::new(run),
+            reps: 1,
+            samples: Vec::new(),
+        }
+    }
+    fn median(&self) -> f64 {
+        let mut s = self.samples.clone();
+        s.sort_by(f64::total_cmp);
+        s[s.len() / 2]
+    }
+    fn spread(&self) -> (f64, f64) {
+        let mut s = self.samples.clone();
+        s.sort_by(f64::total_cmp);
+        (s[s.len() / 4], s[3 * s.len() / 4])
+    }
+}
+
+/// Runs every case `ROUNDS` times, interleaved, and records ns per point.
+fn measure(cases: &mut [Case]) {
+    for c in cases.iter_mut() {
+        // Warm up, then calibrate the repetitions to reach SAMPLE_NS per sample.
+        (c.run)();
+        let t = Instant::now();
+        (c.run)();
+        let once = t.elapsed().as_nanos().max(1) as f64;
+        c.reps = ((SAMPLE_NS / once).ceil() as usize).max(1);
+    }
+    for _ in 0..ROUNDS {
+        for c in cases.iter_mut() {
+            let t = Instant::now();
+            for _ in 0..c.reps {
+                (c.run)();
+            }
+            let ns = t.elapsed().as_nanos() as f64;
+            c.samples.push(ns / (c.reps * c.points) as f64);
+        }
+    }
+}
+
+fn get(cases: &[Case], name: &str) -> f64 {
+    cases
+        .iter()
+        .find(|c| c.name == name)
+        .unwrap_or_else(|| panic!("no case {name}"))
+        .median()
+}
+
+// ---------------------------------------------------------------------------------------------
+// The machine's own rates, for the arithmetic floors.
+
+/// Dependent additions per ns (a chain: one addition's latency each).
+fn add_chain_rate() -> f64 {
+    let n = 50_000_000u64;
+    let y = black_box(1e-9);
+    let mut best = f64::INFINITY;
+    for _ in 0..3 {
+        let mut x = 1.0f64;
+        let t = Instant::now();
+        for _ in 0..n {
+            x += y;
+        }
+        black_box(x);
+        best = best.min(t.elapsed().as_nanos() as f64);
+    }
+    n as f64 / best
+}
+
+/// Independent additions and multiplications per ns, as the compiler vectorises them in a
+/// portable build (SSE2: two lanes): 24 independent multiply-add chains.
+fn flop_rate() -> f64 {
+    const L: usize = 24;
+    let n = 2_000_000usize;
+    let (x, y) = (black_box(0.999_999_9), black_box(1e-7));
+    let mut best = f64::INFINITY;
+    for _ in 0..3 {
+        let mut a = [1.0f64; L];
+        let t = Instant::now();
+        for _ in 0..n {
+            for v in a.iter_mut() {
+                *v = *v * x + y;
+            }
+        }
+        black_box(a);
+        best = best.min(t.elapsed().as_nanos() as f64);
+    }
+    (2 * L * n) as f64 / best
+}
+
+/// Independent divisions (or square roots) per ns, vectorised as the compiler does.
+fn div_sqrt_rates() -> (f64, f64) {
+    const M: usize = 1024;
+    let a: Vec<f64> = (0..M).map(|i| 1.0 + i as f64 * 1e-3).collect();
+    let b: Vec<f64> = (0..M).map(|i| 3.0 - i as f64 * 1e-3).collect();
+    let mut o = vec![0.0; M];
+    let reps = 3000;
+    let mut best = (f64::INFINITY, f64::INFINITY);
+    for _ in 0..3 {
+        let t = Instant::now();
+        for _ in 0..reps {
+            for ((o, x), y) in o.iter_mut().zip(black_box(&a)).zip(black_box(&b)) {
+                *o = x / y;
+            }
+            black_box(&mut o);
+        }
+        best.0 = best.0.min(t.elapsed().as_nanos() as f64);
+        let t = Instant::now();
+        for _ in 0..reps {
+            for (o, x) in o.iter_mut().zip(black_box(&a)) {
+                *o = x.sqrt();
+            }
+            black_box(&mut o);
+        }
+        best.1 = best.1.min(t.elapsed().as_nanos() as f64);
+    }
+    ((M * reps) as f64 / best.0, (M * reps) as f64 / best.1)
+}
+
+/// Operation counts per point of a kernel (additions, multiplications, compares and selects;
+/// divisions; square roots), counted from the formulas of the code.
+#[derive(Clone, Copy)]
+struct Ops {
+    flops: f64,
+    divs: f64,
+    sqrts: f64,
+}
+
+impl std::ops::Add for Ops {
+    type Output = Ops;
+    fn add(self, o: Ops) -> Ops {
+        Ops {
+            flops: self.flops + o.flops,
+            divs: self.divs + o.divs,
+            sqrts: self.sqrts + o.sqrts,
+        }
+    }
+}
+
+impl std::ops::Mul<Ops> for f64 {
+    type Output = Ops;
+    fn mul(self, o: Ops) -> Ops {
+        Ops {
+            flops: self * o.flops,
+            divs: self * o.divs,
+            sqrts: self * o.sqrts,
+        }
+    }
+}
+
+/// Basis functions of degree p on one span and their derivatives to `order` (Cox–de Boor with
+/// reciprocals; The NURBS Book A2.2, derivatives by eq. 2.7): 2p differences, 2p(p + 1) for the
+/// triangle, 3p + 1 for the first derivative row, 6p − 1 more for the second.
+fn basis_ops(p: f64, order: u32) -> f64 {
+    let mut f = 2.0 * p + 2.0 * p * (p + 1.0);
+    if order >= 1 {
+        f += 3.0 * p + 1.0;
+    }
+    if order >= 2 {
+        f += 6.0 * p - 1.0;
+    }
+    f
+}
+
+/// A rational surface jet of degrees (p, q) to `order`: both basis rows, the tensor sums on
+/// [x, y, z, w] (per control point and v-derivative a multiply and an add per component, then
+/// per row and output a multiply and an add per component), and the quotient rule.
+fn surface_ops(p: f64, q: f64, order: u32) -> Ops {
+    let (tv, outs, quotient) = match order {
+        0 => (1.0, 1.0, 3.0),
+        1 => (2.0, 3.0, 21.0),
+        _ => (3.0, 6.0, 74.0),
+    };
+    Ops {
+        flops: basis_ops(p, order)
+            + basis_ops(q, order)
+            + 8.0 * tv * (p + 1.0) * (q + 1.0)
+            + 8.0 * outs * (p + 1.0)
+            + quotient,
+        divs: 1.0,
+        sqrts: 0.0,
+    }
+}
+
+/// A rational curve jet of degree p in the plane to second order: basis, sums on [u, v, w]
+/// (3 derivatives × 3 components × multiply and add per control point), quotient rule.
+fn curve_ops(p: f64) -> Ops {
+    Ops {
+        flops: basis_ops(p, 2) + 18.0 * (p + 1.0) + 20.0,
+        divs: 1.0,
+        sqrts: 0.0,
+    }
+}
+
+/// The frame and invariants from the jets (`src/frame_block.rs`, counted line by line):
+/// 157 operations for the normal, fundamental forms and principal curvatures, 129 for the
+/// frame, κn, κg, τg and the checks; 11 divisions, 6 square roots.
+const FRAME: Ops = Ops {
+    flops: 286.0,
+    divs: 11.0,
+    sqrts: 6.0,
+};
+
+/// The finite-difference jet from nine positions: 12 for Su, Sv, 24 for Suu, Svv, 12 for Suv,
+/// 4 for the step constants, plus one division.
+const FD_COMBINE: Ops = Ops {
+    flops: 52.0,
+    divs: 1.0,
+    sqrts: 0.0,
+};
+
+struct Rates {
+    flops: f64,
+    divs: f64,
+    sqrts: f64,
+}
+
+/// The floor in ns per point: every operation at the machine's measured independent rate, the
+/// add/multiply pipes and the divide/square-root unit busy at once (the larger of the two).
+fn floor_ns(o: Ops, r: &Rates) -> f64 {
+    (o.flops / r.flops).max(o.divs / r.divs + o.sqrts / r.sqrts)
+}
+
+// ---------------------------------------------------------------------------------------------
+// Finite-difference accuracy.
+
+struct FdErrors {
+    /// Worst relative error per quantity: kn, kg, tg, k1, k2.
+    worst: [f64; 5],
+    /// Sample of the worst error per quantity.
+    at: [usize; 5],
+    /// Worst error (any quantity) where the stencil straddles a knot line, and elsewhere.
+    near: f64,
+    far: f64,
+    /// Median over samples of the worst error of each sample.
+    median: f64,
+}
+
+/// Distance from x to the nearest interior knot.
+fn knot_distance(x: f64, knots: &[f64]) -> f64 {
+    knots
+        .iter()
+        .filter(|&&k| k > 0.0 && k < 1.0)
+        .map(|&k| (x - k).abs())
+        .fold(f64::INFINITY, f64::min)
+}
+
+fn knot_gap(f: &DarbouxFrame) -> f64 {
+    knot_distance(f.u, &KNOTS_U).min(knot_distance(f.v, &KNOTS_V))
+}
+
+/// Errors of κn, τg, k1, k2 relative to the curvature scale max(|k1|, |k2|), of κg relative to
+/// the space curvature √(κn² + κg²) (as in docs/accuracy.md).
+fn fd_errors(exact: &[DarbouxFrame], fd: &[DarbouxFrame], h: f64) -> FdErrors {
+    let mut e = FdErrors {
+        worst: [0.0; 5],
+        at: [0; 5],
+        near: 0.0,
+        far: 0.0,
+        median: 0.0,
+    };
+    let mut per_sample = Vec::new();
+    for (i, (x, y)) in exact.iter().zip(fd).enumerate() {
+        let scale = x.principal.k1.abs().max(x.principal.k2.abs());
+        let kappa = x.normal_curvature.hypot(x.geodesic_curvature);
+        let errs = [
+            (y.normal_curvature - x.normal_curvature).abs() / scale,
+            (y.geodesic_curvature - x.geodesic_curvature).abs() / kappa,
+            (y.geodesic_torsion - x.geodesic_torsion).abs() / scale,
+            (y.principal.k1 - x.principal.k1).abs() / scale,
+            (y.principal.k2 - x.principal.k2).abs() / scale,
+        ];
+        let mut w: f64 = 0.0;
+        for (k, &err) in errs.iter().enumerate() {
+            if err > e.worst[k] {
+                e.worst[k] = err;
+                e.at[k] = i;
+            }
+            w = w.max(err);
+        }
+        if knot_gap(x) < h {
+            e.near = e.near.max(w);
+        } else {
+            e.far = e.far.max(w);
+        }
+        per_sample.push(w);
+    }
+    per_sample.sort_by(f64::total_cmp);
+    e.median = per_sample[per_sample.len() / 2];
+    e
+}
+
+fn fd_frames(
+    s: &strake::NurbsSurface,
+    c: &strake::NurbsCurve<2>,
+    ts: &[f64],
+    h: f64,
+) -> Vec<DarbouxFrame> {
+    let (mut hs, mut hc) = (SurfaceHint::default(), SpanHint::default());
+    ts.iter()
+        .map(|&t| {
+            let cj = c.checked_jet(t, &mut hc).unwrap();
+            let sj = fd_jet(s, cj.u, cj.v, h, &mut hs);
+            darboux_frame(&sj, &cj, Orientation::Forward, &SCALES, t).unwrap()
+        })
+        .collect()
+}
+
+fn load_average() -> String {
+    std::fs::read_to_string("/proc/loadavg")
+        .map(|s| s.split_whitespace().take(3).collect::<Vec<_>>().join(" "))
+        .unwrap_or_else(|_| "n/a".into())
+}
+
+fn main() {
+    let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
+    println!("strake speed report (portable build, no target-cpu flags)");
+    println!(
+        "machine: {threads} hardware threads; load average before: {}",
+        load_average()
+    );
+    #[cfg(target_arch = "x86_64")]
+    println!(
+        "CPU features present (not used by this build): avx2 {}, fma {}",
+        std::arch::is_x86_feature_detected!("avx2"),
+        std::arch::is_x86_feature_detected!("fma")
+    );
+
+    let surface = wing_skin(true);
+    let curve = wing_path();
+    let ts = path_ts(N);
+    let ts_random = random_ts(N, 11);
+    let (us, vs) = path_uv(&curve, &ts);
+    let mut rng = Lcg(7);
+    let random_uv: Vec<(f64, f64)> = (0..N).map(|_| (rng.next(), rng.next())).collect();
+    let cs = CurveOnSurface::new(&surface, &curve);
+    let exact: Vec<DarbouxFrame> = {
+        let mut h = Hints::default();
+        ts.iter().map(|&t| cs.frame(t, &mut h).unwrap()).collect()
+    };
+    let surface_jets: Vec<SurfaceJet> = us
+        .iter()
+        .zip(&vs)
+        .map(|(&u, &v)| {
+            surface
+                .jet(u, v, DerivOrder::Second, &mut SurfaceHint::default())
+                .unwrap()
+        })
+        .collect();
+    let curve_jets: Vec<CurveJet> = ts
+        .iter()
+        .map(|&t| curve.checked_jet(t, &mut SpanHint::default()).unwrap())
+        .collect();
+
+    // C handles.
+    let c_native = c_native_surface();
+    let c_callback = c_callback_surface(&surface);
+    let c_batch = c_batch_callback_surface(&surface);
+    let c_curve = c_path();
+    let ts_par = path_ts(N_PARALLEL);
+
+    // Output buffers shared by several cases (one case runs at a time).
+    let out = RefCell::new(vec![exact[0]; N]);
+    let out_c = RefCell::new(vec![StrakeFrame::default(); N]);
+    let out_par = RefCell::new(vec![exact[0]; N_PARALLEL]);
+    let out_par_c = RefCell::new(vec![StrakeFrame::default(); N_PARALLEL]);
+    let ud = &surface as *const strake::NurbsSurface as *mut std::ffi::c_void;
+    let jets_c = RefCell::new(vec![StrakeSurfaceJet::default(); N]);
+
+    let mut cases = vec![
+        Case::new("surface jet, marching", N, || {
+            let mut h = SurfaceHint::default();
+            for (&u, &v) in us.iter().zip(&vs) {
+                black_box(surface.jet(u, v, DerivOrder::Second, &mut h).unwrap());
+            }
+        }),
+        Case::new("surface jet, random", N, || {
+            for &(u, v) in &random_uv {
+                let mut h = SurfaceHint::default();
+                black_box(surface.jet(u, v, DerivOrder::Second, &mut h).unwrap());
+            }
+        }),
+        Case::new("surface position, marching", N, || {
+            let mut h = SurfaceHint::default();
+            for (&u, &v) in us.iter().zip(&vs) {
+                black_box(surface.jet(u, v, DerivOrder::Position, &mut h).unwrap());
+            }
+        }),
+        Case::new("curve jet, marching", N, || {
+            let mut h = SpanHint::default();
+            for &t in &ts {
+                black_box(curve.checked_jet(t, &mut h).unwrap());
+            }
+        }),
+        Case::new("curve jet, random", N, || {
+            for &t in &ts_random {
+                black_box(curve.checked_jet(t, &mut SpanHint::default()).unwrap());
+            }
+        }),
+        Case::new("frame from jets, one at a time", N, || {
+            for ((s, c), &t) in surface_jets.iter().zip(&curve_jets).zip(&ts) {
+                black_box(darboux_frame(s, c, Orientation::Forward, &SCALES, t).unwrap());
+            }
+        }),
+        Case::new("frame from jets, batch", N, || {
+            darboux_frames(
+                &surface_jets,
+                &curve_jets,
+                &ts,
+                Orientation::Forward,
+                &SCALES,
+                &mut out.borrow_mut(),
+            )
+            .unwrap();
+        }),
+        Case::new("path point, one at a time", N, || {
+            let mut h = Hints::default();
+            for &t in &ts {
+                black_box(cs.frame(t, &mut h).unwrap());
+            }
+        }),
+        Case::new("path point, batch", N, || {
+            cs.frames_at(&ts, &mut out.borrow_mut()).unwrap();
+        }),
+        Case::new("path point, batch, random order", N, || {
+            cs.frames_at(&ts_random, &mut out.borrow_mut()).unwrap();
+        }),
+        Case::new("finite differences", N, || {
+            let (mut hs, mut hc) = (SurfaceHint::default(), SpanHint::default());
+            for &t in &ts {
+                black_box(fd_frame(&surface, &curve, t, &mut hs, &mut hc).unwrap());
+            }
+        }),
+        Case::new("C: host callback alone", N, || {
+            for (j, (&u, &v)) in jets_c.borrow_mut().iter_mut().zip(us.iter().zip(&vs)) {
+                // SAFETY: the callback's contract: live surface, valid jet.
+                let st = unsafe { host_surface(ud, black_box(u), black_box(v), 2, j) };
+                assert_eq!(st, 0);
+            }
+        }),
+        Case::new("C: host batch callback alone", N, || {
+            for (j, (u, v)) in jets_c
+                .borrow_mut()
+                .chunks_mut(64)
+                .zip(us.chunks(64).zip(vs.chunks(64)))
+            {
+                // SAFETY: as above, `u.len()` points and jets.
+                let st = unsafe {
+                    host_surface_batch(ud, u.as_ptr(), v.as_ptr(), u.len(), 2, j.as_mut_ptr())
+                };
+                assert_eq!(st, 0);
+            }
+        }),
+        Case::new("C: strake_frames_at, callback", N, || {
+            c_frames_at(c_callback, c_curve, &ts, &mut out_c.borrow_mut())
+        }),
+        Case::new("C: strake_frames_at, batch callback", N, || {
+            c_frames_at(c_batch, c_curve, &ts, &mut out_c.borrow_mut())
+        }),
+        Case::new("C: strake_frames_at, native", N, || {
+            c_frames_at(c_native, c_curve, &ts, &mut out_c.borrow_mut())
+        }),
+        Case::new("parallel: frames_at_parallel, 1 thread", N_PARALLEL, || {
+            frames_at_parallel(&cs, &ts_par, &mut out_par.borrow_mut(), 1).unwrap();
+        }),
+        Case::new(
+            "parallel: frames_at_parallel, 2 threads",
+            N_PARALLEL,
+            || {
+                frames_at_parallel(&cs, &ts_par, &mut out_par.borrow_mut(), 2).unwrap();
+            },
+        ),
+        Case::new("parallel: C, native, 1 thread", N_PARALLEL, || {
+            c_frames_at_parallel(c_native, c_curve, &ts_par, 1, &mut out_par_c.borrow_mut())
+        }),
+        Case::new("parallel: C, native, 2 threads", N_PARALLEL, || {
+            c_frames_at_parallel(c_native, c_curve, &ts_par, 2, &mut out_par_c.borrow_mut())
+        }),
+    ];
+    let wall = Instant::now();
+    measure(&mut cases);
+    let wall = wall.elapsed().as_secs_f64();
+
+    println!(
+        "\n{N} path points per case ({N_PARALLEL} in the parallel cases); median of {ROUNDS} interleaved rounds, quartiles in brackets; {wall:.1} s"
+    );
+    println!("{:<44} {:>10}", "case", "ns/point");
+    for c in &cases {
+        let (q1, q3) = c.spread();
+        println!(
+            "{:<44} {:>10.1}   [{:.1} .. {:.1}]",
+            c.name,
+            c.median(),
+            q1,
+            q3
+        );
+    }
+
+    let g = |n: &str| get(&cases, n);
+    let ratio = |what: &str, a: f64, b: f64, target: &str| {
+        println!("{what:<62} {:>6.3}   {target}", a / b);
+    };
+    println!("\nratios (same run)");
+    ratio(
+        "native path point (batch) / finite differences",
+        g("path point, batch"),
+        g("finite differences"),
+        "target <= 0.15",
+    );
+    ratio(
+        "native path point (one at a time) / finite differences",
+        g("path point, one at a time"),
+        g("finite differences"),
+        "",
+    );
+    ratio(
+        "(callback + frame) / callback alone, batch callback",
+        g("C: strake_frames_at, batch callback"),
+        g("C: host batch callback alone"),
+        "target <= 1.15",
+    );
+    ratio(
+        "(callback + frame) / callback alone, per-point callback",
+        g("C: strake_frames_at, callback"),
+        g("C: host callback alone"),
+        "target <= 1.15",
+    );
+    ratio(
+        "parallel speed-up, frames_at_parallel 2 threads vs 1",
+        g("parallel: frames_at_parallel, 1 thread"),
+        g("parallel: frames_at_parallel, 2 threads"),
+        "target >= 1.8",
+    );
+    ratio(
+        "parallel speed-up, C strake_frames_at_parallel 2 vs 1",
+        g("parallel: C, native, 1 thread"),
+        g("parallel: C, native, 2 threads"),
+        "target >= 1.8",
+    );
+    ratio(
+        "marching / random, surface jet",
+        g("surface jet, marching"),
+        g("surface jet, random"),
+        "",
+    );
+    ratio(
+        "marching / random, curve jet",
+        g("curve jet, marching"),
+        g("curve jet, random"),
+        "",
+    );
+    ratio(
+        "marching / random, path point (batch)",
+        g("path point, batch"),
+        g("path point, batch, random order"),
+        "",
+    );
+    ratio(
+        "frame from jets: batch / one at a time",
+        g("frame from jets, batch"),
+        g("frame from jets, one at a time"),
+        "",
+    );
+    ratio(
+        "path point: batch / one at a time",
+        g("path point, batch"),
+        g("path point, one at a time"),
+        "",
+    );
+    ratio(
+        "C native strake_frames_at / Rust frames_at",
+        g("C: strake_frames_at, native"),
+        g("path point, batch"),
+        "",
+    );
+
+    // Floors.
+    let chain = add_chain_rate();
+    let flops = flop_rate();
+    let (divs, sqrts) = div_sqrt_rates();
+    let rates = Rates { flops, divs, sqrts };
+    println!("\narithmetic floors");
+    println!(
+        "machine rates measured here: {flops:.1} independent adds/multiplies per ns (SSE2 vectors), {divs:.2} divisions and {sqrts:.2} square roots per ns (vectorised), {chain:.2} dependent additions per ns"
+    );
+    println!(
+        "assumptions: every operation of the formulas at these independent rates, perfectly vectorised and scheduled, add/multiply pipes and divide/sqrt unit busy at once; loads, stores, span searches, branches and conversions free"
+    );
+    let surf = surface_ops(3.0, 3.0, 2);
+    let pos = surface_ops(3.0, 3.0, 0);
+    let crv = curve_ops(3.0);
+    let fd = 9.0 * pos + FD_COMBINE + crv + FRAME;
+    let native = surf + crv + FRAME;
+    println!(
+        "{:<40} {:>7} {:>5} {:>5} {:>11} {:>11} {:>9}",
+        "kernel", "ops", "div", "sqrt", "floor ns", "measured", "x floor"
+    );
+    let row = |name: &str, o: Ops, measured: f64| {
+        let f = floor_ns(o, &rates);
+        println!(
+            "{name:<40} {:>7.0} {:>5.0} {:>5.0} {:>11.1} {:>11.1} {:>9.1}",
+            o.flops,
+            o.divs,
+            o.sqrts,
+            f,
+            measured,
+            measured / f
+        );
+    };
+    row(
+        "surface jet (bicubic rational, 2nd)",
+        surf,
+        g("surface jet, marching"),
+    );
+    row(
+        "surface position (bicubic rational)",
+        pos,
+        g("surface position, marching"),
+    );
+    row(
+        "curve jet (cubic rational, 2nd)",
+        crv,
+        g("curve jet, marching"),
+    );
+    row("frame from jets", FRAME, g("frame from jets, batch"));
+    row("native path point", native, g("path point, batch"));
+    row("finite-difference path point", fd, g("finite differences"));
+    println!(
+        "native / finite differences at the floors: {:.3}",
+        floor_ns(native, &rates) / floor_ns(fd, &rates)
+    );
+
+    // Accuracy of the finite-difference baseline.
+    println!(
+        "\nfinite-difference baseline accuracy over the {N} path points (errors of kn, tg, k1, k2 relative to max(|k1|, |k2|), of kg relative to the space curvature)"
+    );
+    let names = ["kn", "kg", "tg", "k1", "k2"];
+    let eps = f64::EPSILON;
+    for (label, h) in [
+        ("1e-4 (the baseline; ~ eps^(1/4))", FD_STEP),
+        ("1e-3", 1e-3),
+        ("eps^(1/3) = 6.1e-6", eps.cbrt()),
+        ("1e-6", 1e-6),
+    ] {
+        let fd = fd_frames(&surface, &curve, &ts, h);
+        let e = fd_errors(&exact, &fd, h);
+        let worst = e.worst.iter().cloned().fold(0.0, f64::max);
+        println!(
+            "h = {label:<34} worst {worst:.1e}, median {:.1e}; stencil across a knot line: worst {:.1e}, elsewhere {:.1e}",
+            e.median, e.near, e.far
+        );
+        if h == FD_STEP {
+            for (k, name) in names.iter().enumerate() {
+                let x = &exact[e.at[k]];
+                println!(
+                    "    {:<3} worst {:.2e} at t = {:.4} (u, v) = ({:.4}, {:.4}), {:.1} h from the nearest knot line",
+                    name,
+                    e.worst[k],
+                    ts[e.at[k]],
+                    x.u,
+                    x.v,
+                    knot_gap(x) / h
+                );
+            }
+        }
+    }
+    println!("\nload average after: {}", load_average());
+    // SAFETY: handles made above, freed once.
+    unsafe {
+        strake_surface_free(c_native);
+        strake_surface_free(c_callback);
+        strake_surface_free(c_batch);
+        strake_curve_free(c_curve);
+    }
+}
