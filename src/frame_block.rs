@@ -24,127 +24,16 @@
 use crate::error::StrakeError;
 use crate::frame::{Conditioning, DarbouxFrame, ParamScales, STALLED_CURVE_LIMIT, darboux_frame};
 use crate::jet::{CurveJet, SurfaceJet};
+use crate::lanes::{LANES, Mask, W, W3, select};
 use crate::math::Vec3;
 use crate::path::SampleError;
 use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
 
-/// Number of points the kernel processes together: four vectors of two lanes with SSE2 (the
-/// portable x86-64 baseline), two of four with AVX2. Measured: 8 and 16 are within noise of
-/// each other; 4 leaves latency exposed (`examples/speed_report.rs`).
-pub const BLOCK: usize = 16;
-
-/// One f64 per lane: the kernel's arithmetic type. Every operation is a loop over the lanes,
-/// which the compiler vectorises; each step of the formulas is done for all lanes before the
-/// next, so that the latencies of the lanes overlap.
-#[derive(Clone, Copy)]
-struct W([f64; BLOCK]);
-
-/// One flag per lane.
-#[derive(Clone, Copy)]
-struct Mask([bool; BLOCK]);
-
-/// A vector in space per lane.
-type W3 = [W; 3];
-
-impl W {
-    #[inline(always)]
-    fn map(self, f: impl Fn(f64) -> f64) -> W {
-        let mut r = [0.0; BLOCK];
-        for i in 0..BLOCK {
-            r[i] = f(self.0[i]);
-        }
-        W(r)
-    }
-    #[inline(always)]
-    fn zip(self, o: W, f: impl Fn(f64, f64) -> f64) -> W {
-        let mut r = [0.0; BLOCK];
-        for i in 0..BLOCK {
-            r[i] = f(self.0[i], o.0[i]);
-        }
-        W(r)
-    }
-    #[inline(always)]
-    fn test(self, o: W, f: impl Fn(f64, f64) -> bool) -> Mask {
-        let mut r = [false; BLOCK];
-        for i in 0..BLOCK {
-            r[i] = f(self.0[i], o.0[i]);
-        }
-        Mask(r)
-    }
-    #[inline(always)]
-    fn splat(x: f64) -> W {
-        W([x; BLOCK])
-    }
-    #[inline(always)]
-    fn sqrt(self) -> W {
-        self.map(f64::sqrt)
-    }
-    #[inline(always)]
-    fn abs(self) -> W {
-        self.map(f64::abs)
-    }
-    /// `f64::max` per lane (a NaN loses).
-    #[inline(always)]
-    fn max(self, o: W) -> W {
-        self.zip(o, f64::max)
-    }
-    #[inline(always)]
-    fn finite(self) -> Mask {
-        self.test(self, |x, _| x.is_finite())
-    }
-}
-
-macro_rules! arith {
-    ($tr:ident, $f:ident, $op:tt) => {
-        impl std::ops::$tr for W {
-            type Output = W;
-            #[inline(always)]
-            fn $f(self, o: W) -> W {
-                self.zip(o, |x, y| x $op y)
-            }
-        }
-        impl std::ops::$tr<f64> for W {
-            type Output = W;
-            #[inline(always)]
-            fn $f(self, o: f64) -> W {
-                self.map(|x| x $op o)
-            }
-        }
-        impl std::ops::$tr<W> for f64 {
-            type Output = W;
-            #[inline(always)]
-            fn $f(self, o: W) -> W {
-                o.map(|y| self $op y)
-            }
-        }
-    };
-}
-arith!(Add, add, +);
-arith!(Sub, sub, -);
-arith!(Mul, mul, *);
-arith!(Div, div, /);
-
-impl std::ops::BitAnd for Mask {
-    type Output = Mask;
-    #[inline(always)]
-    fn bitand(self, o: Mask) -> Mask {
-        let mut r = [false; BLOCK];
-        for i in 0..BLOCK {
-            r[i] = self.0[i] & o.0[i];
-        }
-        Mask(r)
-    }
-}
-
-/// `a` where `m` holds, else `b`, per lane.
-#[inline(always)]
-fn select(m: Mask, a: W, b: W) -> W {
-    let mut r = [0.0; BLOCK];
-    for i in 0..BLOCK {
-        r[i] = if m.0[i] { a.0[i] } else { b.0[i] };
-    }
-    W(r)
-}
+/// Number of points the block kernel processes together (16): a multiple of the vector widths
+/// (2 lanes with SSE2, 4 with AVX2), large enough to hide the latency of the frame's square
+/// roots and divisions (8 leave some exposed; 32 spill too much; measured with
+/// `examples/speed_report.rs`).
+pub const BLOCK: usize = LANES;
 
 #[inline(always)]
 fn dot(a: W3, b: W3) -> W {
@@ -226,20 +115,34 @@ impl BlockInput {
             ddu: z,
             ddv: z,
         };
-        for i in 0..BLOCK {
-            let k = if i < len { i } else { 0 };
-            let (s, c) = (&surface[k], &curve[k]);
-            for a in 0..3 {
-                x.su[a].0[i] = s.su[a];
-                x.sv[a].0[i] = s.sv[a];
-                x.suu[a].0[i] = s.suu[a];
-                x.suv[a].0[i] = s.suv[a];
-                x.svv[a].0[i] = s.svv[a];
-            }
+        #[inline(always)]
+        fn put(w: &mut W3, i: usize, v: &Vec3) {
+            w[0].0[i] = v.x;
+            w[1].0[i] = v.y;
+            w[2].0[i] = v.z;
+        }
+        for (i, (s, c)) in surface.iter().zip(curve).enumerate().take(BLOCK) {
+            put(&mut x.su, i, &s.su);
+            put(&mut x.sv, i, &s.sv);
+            put(&mut x.suu, i, &s.suu);
+            put(&mut x.suv, i, &s.suv);
+            put(&mut x.svv, i, &s.svv);
             x.du.0[i] = c.du;
             x.dv.0[i] = c.dv;
             x.ddu.0[i] = c.ddu;
             x.ddv.0[i] = c.ddv;
+        }
+        if len < BLOCK {
+            for w in [&mut x.su, &mut x.sv, &mut x.suu, &mut x.suv, &mut x.svv] {
+                for c in w.iter_mut() {
+                    let first = c.0[0];
+                    c.0[len..].fill(first);
+                }
+            }
+            for c in [&mut x.du, &mut x.dv, &mut x.ddu, &mut x.ddv] {
+                let first = c.0[0];
+                c.0[len..].fill(first);
+            }
         }
         x
     }

@@ -17,6 +17,7 @@ pub mod ffi;
 pub mod frame;
 mod frame_block;
 pub mod jet;
+mod lanes;
 pub mod math;
 pub mod nurbs;
 pub mod parallel;
