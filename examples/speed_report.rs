@@ -118,9 +118,25 @@ fn add_chain_rate() -> f64 {
 }
 
 /// Independent additions and multiplications per ns, as the compiler vectorises them in a
-/// portable build (SSE2: two lanes): 24 independent multiply-add chains.
+/// portable build (SSE2: two lanes).
 fn flop_rate() -> f64 {
-    const L: usize = 24;
+    flop_rate_body::<24>()
+}
+
+/// As [`flop_rate`] compiled for AVX2 (four lanes), as strake's kernels run where AVX2 is
+/// present.
+///
+/// # Safety
+/// The processor must support AVX2.
+#[cfg(target_arch = "x86_64")]
+#[target_feature(enable = "avx2")]
+unsafe fn flop_rate_avx2() -> f64 {
+    flop_rate_body::<48>()
+}
+
+/// `L` independent multiply-add chains (enough to cover the latency with 12 vector registers).
+#[inline(always)]
+fn flop_rate_body<const L: usize>() -> f64 {
     let n = 2_000_000usize;
     let (x, y) = (black_box(0.999_999_9), black_box(1e-7));
     let mut best = f64::INFINITY;
@@ -140,6 +156,21 @@ fn flop_rate() -> f64 {
 
 /// Independent divisions (or square roots) per ns, vectorised as the compiler does.
 fn div_sqrt_rates() -> (f64, f64) {
+    div_sqrt_body()
+}
+
+/// As [`div_sqrt_rates`] compiled for AVX2.
+///
+/// # Safety
+/// The processor must support AVX2.
+#[cfg(target_arch = "x86_64")]
+#[target_feature(enable = "avx2")]
+unsafe fn div_sqrt_rates_avx2() -> (f64, f64) {
+    div_sqrt_body()
+}
+
+#[inline(always)]
+fn div_sqrt_body() -> (f64, f64) {
     const M: usize = 1024;
     let a: Vec<f64> = (0..M).map(|i| 1.0 + i as f64 * 1e-3).collect();
     let b: Vec<f64> = (0..M).map(|i| 3.0 - i as f64 * 1e-3).collect();
@@ -279,9 +310,10 @@ struct FdErrors {
     worst: [f64; 5],
     /// Sample of the worst error per quantity.
     at: [usize; 5],
-    /// Worst error (any quantity) where the stencil straddles a knot line, and elsewhere.
-    near: f64,
-    far: f64,
+    /// Worst error (any quantity) where the stencil straddles a knot line, and elsewhere, with
+    /// the number of such samples.
+    near: (f64, usize),
+    far: (f64, usize),
     /// Median over samples of the worst error of each sample.
     median: f64,
 }
@@ -305,8 +337,8 @@ fn fd_errors(exact: &[DarbouxFrame], fd: &[DarbouxFrame], h: f64) -> FdErrors {
     let mut e = FdErrors {
         worst: [0.0; 5],
         at: [0; 5],
-        near: 0.0,
-        far: 0.0,
+        near: (0.0, 0),
+        far: (0.0, 0),
         median: 0.0,
     };
     let mut per_sample = Vec::new();
@@ -328,11 +360,12 @@ fn fd_errors(exact: &[DarbouxFrame], fd: &[DarbouxFrame], h: f64) -> FdErrors {
             }
             w = w.max(err);
         }
-        if knot_gap(x) < h {
-            e.near = e.near.max(w);
+        let slot = if knot_gap(x) < h {
+            &mut e.near
         } else {
-            e.far = e.far.max(w);
-        }
+            &mut e.far
+        };
+        *slot = (slot.0.max(w), slot.1 + 1);
         per_sample.push(w);
     }
     per_sample.sort_by(f64::total_cmp);
@@ -626,15 +659,43 @@ fn main() {
 
     // Floors.
     let chain = add_chain_rate();
-    let flops = flop_rate();
-    let (divs, sqrts) = div_sqrt_rates();
-    let rates = Rates { flops, divs, sqrts };
+    let portable = {
+        let (divs, sqrts) = div_sqrt_rates();
+        Rates {
+            flops: flop_rate(),
+            divs,
+            sqrts,
+        }
+    };
+    #[cfg(target_arch = "x86_64")]
+    let avx2 = std::arch::is_x86_feature_detected!("avx2").then(|| {
+        // SAFETY: AVX2 is present (checked just above).
+        let (divs, sqrts) = unsafe { div_sqrt_rates_avx2() };
+        Rates {
+            // SAFETY: as above.
+            flops: unsafe { flop_rate_avx2() },
+            divs,
+            sqrts,
+        }
+    });
+    #[cfg(not(target_arch = "x86_64"))]
+    let avx2: Option<Rates> = None;
     println!("\narithmetic floors");
+    let show = |name: &str, r: &Rates| {
+        println!(
+            "machine rates, {name}: {:.1} independent adds/multiplies per ns, {:.2} divisions and {:.2} square roots per ns",
+            r.flops, r.divs, r.sqrts
+        )
+    };
+    show("baseline build (SSE2, 2 lanes)", &portable);
+    if let Some(r) = &avx2 {
+        show("AVX2 (4 lanes; what strake's kernels use here)", r);
+    }
+    println!("dependent additions: {chain:.2} per ns (one addition's latency each)");
+    let rates = avx2.as_ref().unwrap_or(&portable);
     println!(
-        "machine rates measured here: {flops:.1} independent adds/multiplies per ns (SSE2 vectors), {divs:.2} divisions and {sqrts:.2} square roots per ns (vectorised), {chain:.2} dependent additions per ns"
-    );
-    println!(
-        "assumptions: every operation of the formulas at these independent rates, perfectly vectorised and scheduled, add/multiply pipes and divide/sqrt unit busy at once; loads, stores, span searches, branches and conversions free"
+        "floor = the larger of (operations / add-multiply rate) and (divisions / division rate + square roots / square-root rate), at the {} rates: every operation of the formulas perfectly vectorised and scheduled, the add/multiply pipes and the divide/sqrt unit busy at once; loads, stores, transposes, span searches, branches and conversions free",
+        if avx2.is_some() { "AVX2" } else { "baseline" }
     );
     let surf = surface_ops(3.0, 3.0, 2);
     let pos = surface_ops(3.0, 3.0, 0);
@@ -646,7 +707,7 @@ fn main() {
         "kernel", "ops", "div", "sqrt", "floor ns", "measured", "x floor"
     );
     let row = |name: &str, o: Ops, measured: f64| {
-        let f = floor_ns(o, &rates);
+        let f = floor_ns(o, rates);
         println!(
             "{name:<40} {:>7.0} {:>5.0} {:>5.0} {:>11.1} {:>11.1} {:>9.1}",
             o.flops,
@@ -677,7 +738,7 @@ fn main() {
     row("finite-difference path point", fd, g("finite differences"));
     println!(
         "native / finite differences at the floors: {:.3}",
-        floor_ns(native, &rates) / floor_ns(fd, &rates)
+        floor_ns(native, rates) / floor_ns(fd, rates)
     );
 
     // Accuracy of the finite-difference baseline.
@@ -695,9 +756,18 @@ fn main() {
         let fd = fd_frames(&surface, &curve, &ts, h);
         let e = fd_errors(&exact, &fd, h);
         let worst = e.worst.iter().cloned().fold(0.0, f64::max);
+        let part = |(w, n): (f64, usize)| {
+            if n == 0 {
+                "no sample".to_string()
+            } else {
+                format!("worst {w:.1e} ({n} samples)")
+            }
+        };
         println!(
-            "h = {label:<34} worst {worst:.1e}, median {:.1e}; stencil across a knot line: worst {:.1e}, elsewhere {:.1e}",
-            e.median, e.near, e.far
+            "h = {label:<34} worst {worst:.1e}, median {:.1e}; stencil across a knot line: {}; elsewhere: {}",
+            e.median,
+            part(e.near),
+            part(e.far)
         );
         if h == FD_STEP {
             for (k, name) in names.iter().enumerate() {

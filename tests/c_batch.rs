@@ -9,7 +9,10 @@ use std::process::Command;
 
 fn build_and_run(name: &str, extra: &[&str]) {
     let exe = c_build::build_dir().unwrap().join(name);
-    let src = c_build::root().join("tests").join("c").join("batch_check.c");
+    let src = c_build::root()
+        .join("tests")
+        .join("c")
+        .join("batch_check.c");
     c_build::compile(&[src], &exe, extra).unwrap_or_else(|e| panic!("{e}"));
     let out = Command::new(&exe).output().expect("run batch_check");
     let text = String::from_utf8_lossy(&out.stdout);

@@ -26,6 +26,7 @@ pub struct StrakeSurfaceJet {
 }
 
 impl From<&StrakeSurfaceJet> for SurfaceJet {
+    #[inline]
     fn from(j: &StrakeSurfaceJet) -> Self {
         SurfaceJet {
             p: vec3(j.p),
@@ -158,6 +159,7 @@ pub struct StrakeFrame {
 
 impl StrakeFrame {
     /// The C frame for a frame computed at curve parameter `t`.
+    #[inline]
     pub fn new(t: f64, f: &DarbouxFrame) -> Self {
         StrakeFrame {
             curve_param: t,
