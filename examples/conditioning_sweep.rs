@@ -210,6 +210,25 @@ fn fit(points: &[(f64, f64)]) -> Option<(f64, usize)> {
     Some((-sxy / sxx, pts.len()))
 }
 
+/// The fitted exponent and the largest figure at which the error exceeds the target, as table
+/// cells.
+fn fit_row(s: &[(f64, f64)]) -> (String, String) {
+    let p = fit(s).map_or("no growth above round-off".to_string(), |(p, n)| {
+        format!("p = {p:.2} ({n} points)")
+    });
+    let cross = s
+        .iter()
+        .filter(|(_, e)| e.is_nan() || *e > TARGET)
+        .map(|(c, _)| *c)
+        .fold(0.0, f64::max);
+    let cross = if cross > 0.0 {
+        format!("{cross:.1e}")
+    } else {
+        "never".to_string()
+    };
+    (p, cross)
+}
+
 const NAMES: [&str; 5] = ["kn", "kg", "tg", "k1", "k2"];
 
 fn main() {
@@ -306,20 +325,7 @@ fn main() {
                 "host-noise jets"
             };
             let name = NAMES[i % 5];
-            let p = fit(s).map_or("no growth above round-off".to_string(), |(p, n)| {
-                format!("p = {p:.2} ({n} points)")
-            });
-            // Largest figure at which the error exceeds the target.
-            let cross = s
-                .iter()
-                .filter(|(_, e)| e.is_nan() || *e > TARGET)
-                .map(|(c, _)| *c)
-                .fold(0.0, f64::max);
-            let cross = if cross > 0.0 {
-                format!("{cross:.1e}")
-            } else {
-                "never".to_string()
-            };
+            let (p, cross) = fit_row(s);
             summary.push(format!("| {case} | {model} | {name} | {p} | {cross} |"));
         }
     }
@@ -428,19 +434,7 @@ fn nurbs_sphere_pole(summary: &mut Vec<String>) {
         }
         println!();
         for (q, s) in series.iter().enumerate() {
-            let p = fit(s).map_or("no growth above round-off".to_string(), |(p, n)| {
-                format!("p = {p:.2} ({n} points)")
-            });
-            let cross = s
-                .iter()
-                .filter(|(_, e)| e.is_nan() || *e > TARGET)
-                .map(|(c, _)| *c)
-                .fold(0.0, f64::max);
-            let cross = if cross > 0.0 {
-                format!("{cross:.1e}")
-            } else {
-                "never".to_string()
-            };
+            let (p, cross) = fit_row(s);
             summary.push(format!(
                 "| nurbs-sphere-pole ({name}) | NURBS evaluator | {} | {p} | {cross} |",
                 NAMES[q]
