@@ -1184,3 +1184,162 @@ fn sampling_passes_callback_failures_back() {
     assert!(buf.iter().all(|s| *s == sample_sentinel()));
     free(s, c);
 }
+
+// The sphere's poles: Sv = 0 at v = 0, so the normal, and with it the signed distance, is
+// undefined there (do Carmo §2-2: the parametrisation is not regular at the poles). A point
+// whose foot point is a pole is refused by index; so is a host callback's failure.
+#[test]
+fn projection_at_a_pole_and_callback_failures() {
+    let r = 2.0;
+    let sh = own_surface(sphere_surface(r));
+    let (_, mut pts) = sphere_points(r, 6);
+    pts[3] = [0.0, 0.0, r + 0.1]; // above the north pole (v = 0)
+    let mut out = vec![projection_sentinel(); 6];
+    let o = options(1.0);
+    // SAFETY: 6 points, room for 6 projections.
+    let st =
+        unsafe { strake_surface_project_points(sh, pts.as_ptr().cast(), 6, &o, out.as_mut_ptr()) };
+    expect(
+        st,
+        StrakeStatus::DegenerateSurface,
+        &["point 3", "degenerate surface point"],
+    );
+    assert!(out.iter().all(|p| *p == projection_sentinel()));
+    let (st, _, _) = through_space(sh, &pts, &o, 3);
+    expect(st, StrakeStatus::DegenerateSurface, &["point 3"]);
+    free_surface(sh);
+
+    let failing = surface(
+        Some(failing_beyond_one),
+        ptr::null_mut(),
+        (0.0, 2.0),
+        (0.0, 2.0),
+        0,
+    );
+    let pts = [
+        [0.2, 0.2, 0.0],
+        [0.6, 0.4, 0.0],
+        [1.4, 0.6, 0.0],
+        [1.8, 0.8, 0.0],
+    ];
+    let (st, _, _) = through_space(failing, &pts, &o, 3);
+    expect(
+        st,
+        StrakeStatus::SurfaceCallbackFailed,
+        &["host surface callback failed with code 99"],
+    );
+    // SAFETY: 4 points, room for 4 projections.
+    let st = unsafe {
+        strake_surface_project_points(failing, pts.as_ptr().cast(), 4, &o, out.as_mut_ptr())
+    };
+    expect(st, StrakeStatus::SurfaceCallbackFailed, &["code 99"]);
+    free_surface(failing);
+}
+
+#[test]
+fn projected_nurbs_degree_and_convergence() {
+    let sh = own_surface(sphere_surface(2.0));
+    let (knots, pts, w) = latitude_quarter(2.0, 1.1);
+    let mut out = bogus();
+    // SAFETY: arrays of the documented sizes.
+    let st = unsafe {
+        strake_curve_project_nurbs(
+            sh,
+            0,
+            knots.as_ptr(),
+            knots.len(),
+            pts.as_ptr().cast(),
+            3,
+            w.as_ptr(),
+            &options(1e-9),
+            1e-7,
+            &mut out,
+        )
+    };
+    expect(st, StrakeStatus::InvalidDegree, &["degree 0"]);
+    let mut one = options(1e-9);
+    one.max_iterations = 1;
+    let (st, _) = project_nurbs(sh, &knots, &pts, Some(&w), &one, 1e-7);
+    expect(
+        st,
+        StrakeStatus::NotConverged,
+        &["sample 0 (t = 0)", "not converged"],
+    );
+    assert_eq!(out, bogus());
+    free_surface(sh);
+}
+
+// Every pointer of every sampling function, NULL in turn: refused by name, nothing written.
+#[test]
+fn sampling_null_pointers() {
+    let sh = own_surface(torus(5.0, 1.5));
+    let c = uv_line([0.5, 1.0], [1.0, 2.0]);
+    let mut buf = vec![sample_sentinel(); 4];
+    let mut n = 4242usize;
+    let (b, np, nc) = (
+        buf.as_mut_ptr(),
+        ptr::null_mut::<StrakeSample>(),
+        ptr::null_mut::<usize>(),
+    );
+    let (ns, ncv) = (ptr::null::<StrakeSurface>(), ptr::null::<StrakeCurve>());
+    // SAFETY: valid pointers but for the NULL under test.
+    unsafe {
+        type F = unsafe extern "C" fn(
+            *const StrakeSurface,
+            *const StrakeCurve,
+            usize,
+            f64,
+            *mut StrakeSample,
+            usize,
+            *mut usize,
+        ) -> StrakeStatus;
+        for (name, f) in [
+            ("strake_sample_even_t", strake_sample_even_t as F),
+            ("strake_sample_even_arc", strake_sample_even_arc as F),
+        ] {
+            expect(f(ns, c, 3, 1e-10, b, 4, &mut n), NP, &[name, "`surface`"]);
+            expect(f(sh, ncv, 3, 1e-10, b, 4, &mut n), NP, &[name, "`curve`"]);
+            expect(f(sh, c, 3, 1e-10, np, 4, &mut n), NP, &[name, "`buf`"]);
+            expect(f(sh, c, 3, 1e-10, b, 4, nc), NP, &[name, "`count`"]);
+        }
+        let chordal = |s, cv, bb, cnt| strake_sample_chordal(s, cv, 1e-3, 1.0, 1e-10, bb, 4, cnt);
+        expect(chordal(ns, c, b, &mut n), NP, &["`surface`"]);
+        expect(chordal(sh, ncv, b, &mut n), NP, &["`curve`"]);
+        expect(chordal(sh, c, np, &mut n), NP, &["`buf`"]);
+        expect(chordal(sh, c, b, nc), NP, &["`count`"]);
+        let mut len = -1.0;
+        expect(
+            strake_arc_length(sh, ncv, 0.0, 1.0, 1e-10, &mut len),
+            NP,
+            &["`curve`"],
+        );
+        assert_eq!(len, -1.0);
+    }
+    assert_eq!(n, 4242);
+    assert!(buf.iter().all(|s| *s == sample_sentinel()));
+    free(sh, c);
+}
+
+// A quadratic B-spline whose first two control points coincide stalls at t = 0 (C'(0) =
+// 2 (P1 - P0)/u_3 = 0, The NURBS Book 2nd ed. §3.3 [memory]): sampling names sample 0.
+#[test]
+fn sampling_a_stalled_curve() {
+    let s = own_surface(plane_surface((0.0, 1.0), (0.0, 1.0)));
+    let c = nurbs(
+        2,
+        &[0.0, 0.0, 0.0, 1.0, 1.0, 1.0],
+        &[[0.3, 0.3], [0.3, 0.3], [0.9, 0.6]],
+        None,
+    );
+    let mut buf = vec![sample_sentinel(); 8];
+    let mut n = 4242usize;
+    // SAFETY: room for 8 samples.
+    let st = unsafe { strake_sample_chordal(s, c, 1e-3, 1.0, 1e-10, buf.as_mut_ptr(), 8, &mut n) };
+    expect(
+        st,
+        StrakeStatus::StalledCurve,
+        &["sample 0 (t = 0)", "stalled curve"],
+    );
+    assert_eq!(n, 4242);
+    free(s, c);
+}
