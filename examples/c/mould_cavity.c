@@ -138,7 +138,7 @@ static void make_pass(const BsplinePatch *patch, double *points)
 /* ----------------------------------------------------------------------------------------- */
 /* The wing skin and the fibre course (invented).                                             */
 
-static const WingSkin WING = {2400.0, 900.0, 90.0, 0.35, 0.12};
+static const WingSkin WING = {2400.0, 900.0, 90.0, 0.35, 0.12}; /* span, chord, crown, taper, twist */
 
 /* The course: a clamped cubic B-spline whose control points the host placed over the skin. */
 #define COURSE_COUNT 9
@@ -180,26 +180,27 @@ static void print_numbers(const char *key, const double *x, size_t n)
     printf("\n");
 }
 
-/* Samples a curve to the chord tolerance. The number of samples is known only once the curve
- * has been sampled, so the host offers the buffer it has; when strake answers
- * STRAKE_STATUS_BUFFER_TOO_SMALL, *count holds the number needed, and a second call with that
- * much room gives exactly those samples. *first_guess tells how much room was offered first. */
-static StrakeStatus sample_chordal(const StrakeSurface *surface, const StrakeCurve *curve, StrakeSample **out,
-                                   size_t *count, size_t *first_guess)
+/* Samples a curve to the chord tolerance into a new array (*out, *count; free it). The number
+ * of samples is known only once the curve has been sampled, so the host offers the buffer it
+ * has; when strake answers STRAKE_STATUS_BUFFER_TOO_SMALL, *count holds the number needed, and
+ * a second call with that much room gives exactly those samples. *first_guess tells how much
+ * room was offered first. Returns 0, or 1 after printing what failed. */
+static int sample_chordal(const StrakeSurface *surface, const StrakeCurve *curve, StrakeSample **out, size_t *count,
+                          size_t *first_guess)
 {
     size_t capacity = 64;
     StrakeSample *buf = malloc(capacity * sizeof *buf);
     StrakeStatus status;
     *first_guess = capacity;
     if (buf == NULL) {
-        return STRAKE_STATUS_INTERNAL_PANIC;
+        return out_of_memory();
     }
     status = strake_sample_chordal(surface, curve, CHORD_TOLERANCE, MAX_STEP, ARC_TOLERANCE, buf, capacity, count);
     if (status == STRAKE_STATUS_BUFFER_TOO_SMALL) {
         StrakeSample *bigger = realloc(buf, *count * sizeof *buf);
         if (bigger == NULL) {
             free(buf);
-            return STRAKE_STATUS_INTERNAL_PANIC;
+            return out_of_memory();
         }
         buf = bigger;
         capacity = *count;
@@ -208,10 +209,10 @@ static StrakeStatus sample_chordal(const StrakeSurface *surface, const StrakeCur
     }
     if (status != STRAKE_STATUS_OK) {
         free(buf);
-        return status;
+        return fail("strake_sample_chordal", status);
     }
     *out = buf;
-    return STRAKE_STATUS_OK;
+    return 0;
 }
 
 /* How a limit is shown: the quantity checked is `values` (strake flags values above `limit`);
@@ -335,8 +336,8 @@ static int report_frames(int raw, const StrakeSample *s, size_t n)
     printf("\nThe frame along the pass, every %.2f mm of arc length:\n\n", s[n - 1].arc_length / (double)(n - 1));
     printf("%6s %5s %6s %6s | %8s %8s %8s | %10s %10s %10s | %10s %10s | %7s %7s\n", "s", "t", "u", "v", "x", "y",
            "z", "kn", "kg", "tg", "k1", "k2", "T.z", "N.z");
-    printf("-------------------------------------------------------------------------------------------"
-           "------------------------------------\n");
+    printf("---------------------------------------------------------------------------------------------"
+           "---------------------------------------\n");
     for (i = 0; i < n; i++) {
         const StrakeFrame *f = &s[i].frame;
         printf("%6.2f %5.3f %6.4f %6.4f | %8.3f %8.3f %8.3f | %10.6f %10.6f %10.6f | %10.6f %10.6f | %7.4f %7.4f\n",
@@ -368,9 +369,8 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
     char gouge_label[64], scallop_label[64], feed_label[64];
     int bad = 0;
 
-    status = sample_chordal(surface, pass, &s, &n, &first_guess);
-    if (status != STRAKE_STATUS_OK) {
-        return fail("strake_sample_chordal", status);
+    if (sample_chordal(surface, pass, &s, &n, &first_guess) != 0) {
+        return 1;
     }
     concave = malloc(n * sizeof *concave);
     scallop = malloc(n * sizeof *scallop);
@@ -465,6 +465,7 @@ done:
 
 static int check_course(int raw)
 {
+    WingSkin wing = WING; /* the callback's user_data */
     StrakeSurface *skin = NULL;
     StrakeCurve *course = NULL;
     StrakeSample *s = NULL;
@@ -481,12 +482,12 @@ static int check_course(int raw)
      * lies close to, not on, the skin, and strake projects it. */
     for (i = 0; i < COURSE_COUNT; i++) {
         double d[6];
-        wing_height(&WING, COURSE_XY[2 * i], COURSE_XY[2 * i + 1], d);
+        wing_height(&wing, COURSE_XY[2 * i], COURSE_XY[2 * i + 1], d);
         points[3 * i + 0] = COURSE_XY[2 * i];
         points[3 * i + 1] = COURSE_XY[2 * i + 1];
         points[3 * i + 2] = d[0];
     }
-    status = strake_surface_from_callback(wing_surface, (void *)&WING, 0.0, WING.span, 0.0, WING.chord, 0, &skin);
+    status = strake_surface_from_callback(wing_surface, &wing, 0.0, wing.span, 0.0, wing.chord, 0, &skin);
     if (status != STRAKE_STATUS_OK) {
         return fail("strake_surface_from_callback (wing skin)", status);
     }
@@ -538,7 +539,7 @@ static int check_course(int raw)
         goto done;
     }
     if (raw) {
-        printf("wing %.17g %.17g %.17g %.17g %.17g\n", WING.span, WING.chord, WING.crown, WING.taper, WING.twist);
+        printf("wing %.17g %.17g %.17g %.17g %.17g\n", wing.span, wing.chord, wing.crown, wing.taper, wing.twist);
         print_numbers("course_knots", COURSE_KNOTS, COURSE_COUNT + 4);
         print_numbers("course_points", points, 3 * COURSE_COUNT);
         printf("course_setup %.17g %.17g %.17g %.17g %.17g %.17g\n", COURSE_TOLERANCE, COURSE_FIT_TOLERANCE,
@@ -546,7 +547,7 @@ static int check_course(int raw)
     } else {
         printf("\nFibre course on a wing skin (%.0f x %.0f mm panel, crown %.0f mm at the root and %.0f %% less at the "
                "tip,\n  chord line turned by %.2f rad at the tip)\n",
-               WING.span, WING.chord, WING.crown, 100.0 * WING.taper, WING.twist);
+               wing.span, wing.chord, wing.crown, 100.0 * wing.taper, wing.twist);
         printf("  the course: a cubic B-spline of %d control points lifted onto the skin, projected by strake\n"
                "  (fitted within %.2f mm): %.1f mm long, %zu samples every %.2f mm\n",
                COURSE_COUNT, COURSE_FIT_TOLERANCE, length, n, length / (double)(n - 1));
@@ -641,7 +642,7 @@ int main(int argc, char **argv)
         return fail("strake_curve_through_space_points", status);
     }
     for (i = 0; i < PASS_POINTS; i++) {
-        farthest = fabs(feet[i].distance) > farthest ? fabs(feet[i].distance) : farthest;
+        farthest = feet[i].distance > farthest ? feet[i].distance : farthest;
     }
     status = strake_sample_even_arc(surface, pass, FRAME_SAMPLES, ARC_TOLERANCE, frames, FRAME_SAMPLES, &count);
     if (status != STRAKE_STATUS_OK) {
