@@ -210,6 +210,25 @@ fn fit(points: &[(f64, f64)]) -> Option<(f64, usize)> {
     Some((-sxy / sxx, pts.len()))
 }
 
+/// The fitted exponent and the largest figure at which the error exceeds the target, as table
+/// cells.
+fn fit_row(s: &[(f64, f64)]) -> (String, String) {
+    let p = fit(s).map_or("no growth above round-off".to_string(), |(p, n)| {
+        format!("p = {p:.2} ({n} points)")
+    });
+    let cross = s
+        .iter()
+        .filter(|(_, e)| e.is_nan() || *e > TARGET)
+        .map(|(c, _)| *c)
+        .fold(0.0, f64::max);
+    let cross = if cross > 0.0 {
+        format!("{cross:.1e}")
+    } else {
+        "never".to_string()
+    };
+    (p, cross)
+}
+
 const NAMES: [&str; 5] = ["kn", "kg", "tg", "k1", "k2"];
 
 fn main() {
@@ -306,23 +325,11 @@ fn main() {
                 "host-noise jets"
             };
             let name = NAMES[i % 5];
-            let p = fit(s).map_or("no growth above round-off".to_string(), |(p, n)| {
-                format!("p = {p:.2} ({n} points)")
-            });
-            // Largest figure at which the error exceeds the target.
-            let cross = s
-                .iter()
-                .filter(|(_, e)| e.is_nan() || *e > TARGET)
-                .map(|(c, _)| *c)
-                .fold(0.0, f64::max);
-            let cross = if cross > 0.0 {
-                format!("{cross:.1e}")
-            } else {
-                "never".to_string()
-            };
+            let (p, cross) = fit_row(s);
             summary.push(format!("| {case} | {model} | {name} | {p} | {cross} |"));
         }
     }
+    nurbs_sphere_pole(&mut summary);
     println!(
         "## Fitted growth: error ≈ C ε / figure^p; largest figure with error > {TARGET:.0e}\n"
     );
@@ -330,5 +337,108 @@ fn main() {
     println!("|---|---|---|---|---|");
     for line in summary {
         println!("{line}");
+    }
+}
+
+/// The pole of a NURBS sphere (radius 1, rational quadratic circles revolved, The NURBS Book
+/// ch. 8, both circle forms): here the jets come from strake's own NURBS evaluator, so its
+/// rounding is the host noise. Exact answers need no table: on a unit sphere with the outward
+/// normal κn = k1 = k2 = −1 and τg = 0 for every curve, and a meridian (u = const, a great
+/// circle) has κg = 0 (do Carmo ch. 3). Curves: the meridian, the parallel and two slanted
+/// directions; κg is checked on the meridian only.
+fn nurbs_sphere_pole(summary: &mut Vec<String>) {
+    use strake::nurbs::conics::{CircleForm, sphere};
+    for (form, name) in [
+        (CircleForm::NinePoint, "9-point"),
+        (CircleForm::SevenPoint, "7-point"),
+    ] {
+        let s = sphere(1.0, form).unwrap();
+        let (ud, vd) = (s.u_domain(), s.v_domain());
+        let scales = ParamScales {
+            u_extent: ud.width(),
+            v_extent: vd.width(),
+            t_extent: 1e30,
+        };
+        println!("## NURBS sphere pole ({name} circle, jets from strake's NURBS evaluator)\n");
+        println!("| surface figure | kn | kg (meridian) | tg | k1 | k2 |");
+        println!("|---|---|---|---|---|---|");
+        let mut series: Vec<Vec<(f64, f64)>> = vec![Vec::new(); 5];
+        for k in 1..=28 {
+            let dv = 10f64.powf(-0.5 * k as f64);
+            let mut worst = [0.0f64; 5];
+            let mut figure = f64::INFINITY;
+            for &v in &[vd.lo + dv * vd.width(), vd.hi - dv * vd.width()] {
+                for &u in &[0.13 * ud.width(), 0.61 * ud.width()] {
+                    let jet = s
+                        .checked_jet(u, v, DerivOrder::Second, &mut Default::default())
+                        .unwrap();
+                    let cross = jet.su.cross(&jet.sv).norm();
+                    let fig = surface_conditioning(
+                        &jet.su,
+                        &jet.sv,
+                        cross,
+                        scales.u_extent,
+                        scales.v_extent,
+                    );
+                    figure = figure.min(fig);
+                    let Ok(sp) = SurfacePoint::new_with_limit(
+                        &jet,
+                        Orientation::Forward,
+                        u,
+                        v,
+                        scales.u_extent,
+                        scales.v_extent,
+                        0.0,
+                    ) else {
+                        continue;
+                    };
+                    for (i, &(du, dvv)) in [(0.0, 1.0), (1.0, 0.0), (1.0, 1.0), (1.0, -0.3)]
+                        .iter()
+                        .enumerate()
+                    {
+                        let cj = CurveJet {
+                            u,
+                            v,
+                            du,
+                            dv: dvv,
+                            ddu: 0.0,
+                            ddv: 0.0,
+                        };
+                        let Ok(f) = darboux_frame_at(&jet, &sp, &cj, &scales, 0.0) else {
+                            continue;
+                        };
+                        let e = [
+                            (f.normal_curvature + 1.0).abs(),
+                            if i == 0 {
+                                f.geodesic_curvature.abs()
+                            } else {
+                                0.0
+                            },
+                            f.geodesic_torsion.abs(),
+                            (f.principal.k1 + 1.0).abs(),
+                            (f.principal.k2 + 1.0).abs(),
+                        ];
+                        (0..5).for_each(|q| worst[q] = worst[q].max(e[q]));
+                    }
+                }
+            }
+            let cells: Vec<String> = worst.iter().map(|e| format!("{e:.1e}")).collect();
+            println!("| {figure:.1e} | {} |", cells.join(" | "));
+            // Below ~1e-7 the errors saturate (and at times come out small by luck of the
+            // rounding); the fit uses the regime above.
+            if figure >= 1e-7 {
+                for q in 0..5 {
+                    series[q].push((figure, worst[q]));
+                }
+            }
+        }
+        println!();
+        for (q, s) in series.iter().enumerate() {
+            let (p, cross) = fit_row(s);
+            summary.push(format!(
+                "| nurbs-sphere-pole ({name}) | NURBS evaluator | {} | {p} | {cross} |",
+                NAMES[q]
+            ));
+        }
     }
 }

@@ -6,6 +6,10 @@
  * - Every function that can fail returns a StrakeStatus; STRAKE_STATUS_OK is 0. Outputs are
  *   written only on success. strake_last_error_message() tells, per thread, what the last
  *   failure was (which argument, index, value or sample).
+ * - Functions that fill a caller buffer take (buf, capacity, count): on success *count elements
+ *   were written; STRAKE_STATUS_BUFFER_TOO_SMALL sets *count to the number needed (the one
+ *   output written on a failure) and writes nothing to buf. Allocate that many and call again:
+ *   the result is deterministic. buf may be NULL when capacity is 0.
  * - Inputs are const pointers, outputs non-const. Arrays are copied at creation.
  * - Handles (StrakeSurface, StrakeCurve) are created by strake_*_new_* / strake_*_from_* and
  *   released by the matching strake_*_free; passing NULL to a free function does nothing.
@@ -38,9 +42,7 @@
  * area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 90-99
  * internal). New values take the next free number of their group; a retired value stays listed
  * here as a comment and its number is never given to anything else. Hosts should treat an
- * unknown non-zero value as a failure (a newer library may add values). Number 4 is reserved
- * (a "buffer too small" status that this version never returns: the message function reports
- * the size it needs instead).
+ * unknown non-zero value as a failure (a newer library may add values).
  *
  * In C the type is a `uint32_t`; the values are the `STRAKE_STATUS_...` constants.
  */
@@ -70,6 +72,16 @@ enum StrakeStatus
    * or "ddv"), or a result that overflowed.
    */
   STRAKE_STATUS_NON_FINITE = 3,
+  /**
+   * 4: the caller's buffer is too small for the result. The one failure that writes an
+   * output: the function's `*count` is set to the number of elements needed, and nothing
+   * is written to the buffer, so the caller can allocate that many and call again (the
+   * result is deterministic: the retry gives exactly what a large enough first call would
+   * have). Returned by the functions that fill a caller buffer (`buf`, `capacity`,
+   * `count`): sampling and violation intervals. (The message function reports its size
+   * through its return value instead.)
+   */
+  STRAKE_STATUS_BUFFER_TOO_SMALL = 4,
   /**
    * 10: degree, control-point count and knot count do not fit together (degree 0, too few
    * points, knot count other than points + degree + 1).
@@ -138,8 +150,94 @@ typedef uint32_t StrakeStatus;
 #endif // __cplusplus
 
 /**
- * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs` or
- * `strake_curve_from_callback`, released by `strake_curve_free`. Immutable after creation, so
+ * How interpolation places the curve parameters of the points: the values of the
+ * `parametrization` argument of the interpolating constructors.
+ */
+enum StrakeParametrization
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: chord length, parameter steps proportional to the distances between consecutive
+   * points (The NURBS Book eq. 9.5); the accurate choice for smooth data.
+   */
+  STRAKE_PARAMETRIZATION_CHORD_LENGTH = 0,
+  /**
+   * 1: centripetal, steps proportional to the square roots of the distances (eq. 9.6);
+   * gentler on sharp turns of the data.
+   */
+  STRAKE_PARAMETRIZATION_CENTRIPETAL = 1,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeParametrization StrakeParametrization;
+#else
+typedef uint32_t StrakeParametrization;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * The side of the surface the tool is on: the values of the `tool_side` argument of the
+ * checks.
+ */
+enum StrakeToolSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: on the side the surface normal N points to.
+   */
+  STRAKE_TOOL_SIDE_ALONG_NORMAL = 0,
+  /**
+   * 1: on the side opposite to N.
+   */
+  STRAKE_TOOL_SIDE_AGAINST_NORMAL = 1,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeToolSide StrakeToolSide;
+#else
+typedef uint32_t StrakeToolSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * The kinds of milling cutter: the values of `StrakeCutter.kind`.
+ */
+enum StrakeCutterKind
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: ball-end mill of radius `radius`.
+   */
+  STRAKE_CUTTER_KIND_BALL = 0,
+  /**
+   * 1: flat-end mill of radius `radius`.
+   */
+  STRAKE_CUTTER_KIND_FLAT = 1,
+  /**
+   * 2: toroidal (bull-nose) mill of radius `radius` (axis to the outermost point of the
+   * cutting edge) and corner radius `corner_radius`.
+   */
+  STRAKE_CUTTER_KIND_TOROIDAL = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeCutterKind StrakeCutterKind;
+#else
+typedef uint32_t StrakeCutterKind;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
+ * `strake_curve_from_callback`, `strake_curve_through_uv_points`,
+ * `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
+ * `strake_curve_free`. Immutable after creation, so
  * one handle may be evaluated from many threads at once, and used with any surface.
  */
 typedef struct StrakeCurve StrakeCurve;
@@ -211,51 +309,6 @@ typedef int32_t (*StrakeSurfaceBatchFn)(void *user_data,
                                         size_t count,
                                         int32_t order,
                                         struct StrakeSurfaceJet *out);
-
-/**
- * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
- * derivatives with respect to the curve parameter t; filled by a host curve callback (or
- * passed to `strake_frame_from_jets`). strake zeroes it before calling the host.
- */
-typedef struct StrakeCurveJet {
-  /**
-   * u(t).
-   */
-  double u;
-  /**
-   * v(t).
-   */
-  double v;
-  /**
-   * du/dt.
-   */
-  double du;
-  /**
-   * dv/dt.
-   */
-  double dv;
-  /**
-   * d2u/dt2.
-   */
-  double ddu;
-  /**
-   * d2v/dt2.
-   */
-  double ddv;
-} StrakeCurveJet;
-
-/**
- * A host curve evaluator: t -> (u(t), v(t)) in the surface's parameter plane.
- *
- * Called with the host's `user_data`, a parameter t inside the domain given at creation and a
- * jet that strake has set to zero; fill u, v and their first and second derivatives with
- * respect to t and return 0, or return a non-zero code to report a failure (strake returns
- * `STRAKE_STATUS_CURVE_CALLBACK_FAILED` and passes the code back). Entries must be finite.
- * The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
- */
-typedef int32_t (*StrakeCurveFn)(void *user_data,
-                                 double t,
-                                 struct StrakeCurveJet *out);
 
 /**
  * The Darboux frame of the curve on the surface at one point, its invariants, and the
@@ -356,6 +409,351 @@ typedef struct StrakeFrame {
 } StrakeFrame;
 
 /**
+ * A milling cutter's shape (host length unit). Every cutter is a torus swept about the tool
+ * axis: a corner circle of radius r whose centre lies at R from the axis (ball: R = 0,
+ * r = radius; flat: R = radius, r = 0; toroidal: R = radius - corner_radius,
+ * r = corner_radius).
+ */
+typedef struct StrakeCutter {
+  /**
+   * One of the `STRAKE_CUTTER_KIND_...` values.
+   */
+  uint32_t kind;
+  /**
+   * Tool radius, positive and finite.
+   */
+  double radius;
+  /**
+   * Corner radius of a toroidal cutter, 0 < corner_radius <= radius; ignored for ball and
+   * flat cutters.
+   */
+  double corner_radius;
+} StrakeCutter;
+
+/**
+ * Lead and tilt angles of the tool axis (radians, each strictly inside (-pi/2, pi/2)).
+ *
+ * The axis a (from the cutter tip toward the spindle) is
+ * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, with n_t = N when the
+ * tool is on the N side and -N otherwise: lead leans the axis from the tool-side normal toward
+ * the feed direction T, tilt then toward B. Both 0: the axis along the tool-side normal.
+ */
+typedef struct StrakeToolAngles {
+  /**
+   * Lead angle (radians): toward the feed direction T.
+   */
+  double lead;
+  /**
+   * Tilt angle (radians): toward the side direction B.
+   */
+  double tilt;
+} StrakeToolAngles;
+
+/**
+ * The local gouge situation of a cutter at one sample (second-order contact). Curvatures in
+ * 1/length, radii in the host's length unit; "concave" means bending toward the tool.
+ */
+typedef struct StrakeGougeState {
+  /**
+   * Largest curvature of the surface concave toward the tool, max(s k1, s k2) with s = +1
+   * for a tool on the N side, -1 otherwise; <= 0 where the surface bends away from the tool
+   * in every direction.
+   */
+  double concave_curvature;
+  /**
+   * Smallest concave radius of curvature 1/concave_curvature: the largest ball-end radius
+   * free of local gouging. INFINITY when concave_curvature <= 0.
+   */
+  double concave_radius;
+  /**
+   * Effective cutting radius across the direction in which the axis is inclined by beta
+   * from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
+   * INFINITY for a flat or toroidal cutter with its axis along the normal).
+   */
+  double effective_radius_cross;
+  /**
+   * Effective cutting radius along the inclination: the corner radius r (0 for a flat-end
+   * mill).
+   */
+  double effective_radius_along;
+  /**
+   * Smallest eigenvalue of (cutter curvature - surface curvature toward the tool) over the
+   * tangent directions (1/length); negative means local gouging.
+   */
+  double margin;
+  /**
+   * 1 when the cutter gouges locally (margin below zero beyond round-off), else 0.
+   */
+  int32_t gouges;
+  /**
+   * 1 when some lead angle in [0, pi/2) avoids local gouging at the given tilt; 0 when none
+   * does (the cutter is too large for the concavity whatever its inclination).
+   */
+  int32_t has_min_lead;
+  /**
+   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise.
+   */
+  double min_lead;
+} StrakeGougeState;
+
+/**
+ * Scallop height left between adjacent passes of a cutter at one sample.
+ */
+typedef struct StrakeScallop {
+  /**
+   * Curvature of the surface across the path, concave toward the tool:
+   * kappa = s kn(B) (1/length; positive where the surface bends toward the tool).
+   */
+  double cross_curvature;
+  /**
+   * Exact scallop height (circle geometry in the plane across the path; host length unit).
+   */
+  double height;
+  /**
+   * The approximation (w^2/8)(1/r - kappa).
+   */
+  double height_approx;
+} StrakeScallop;
+
+/**
+ * The largest step-over for a target scallop height at one sample.
+ */
+typedef struct StrakeStepOver {
+  /**
+   * Curvature across the path, concave toward the tool (as in `StrakeScallop`).
+   */
+  double cross_curvature;
+  /**
+   * The largest step-over (arc length across the path) keeping the exact scallop height at
+   * or below the target.
+   */
+  double step_over;
+  /**
+   * The approximation sqrt(8 h / (1/r - kappa)).
+   */
+  double step_over_approx;
+} StrakeStepOver;
+
+/**
+ * Machine limits of the curvature-limited feed, in one consistent set of units (e.g. mm, s:
+ * feed in mm/s, acceleration in mm/s^2, jerk in mm/s^3).
+ */
+typedef struct StrakeFeedLimits {
+  /**
+   * Programmed (largest) feed; positive and finite.
+   */
+  double feed;
+  /**
+   * Largest acceleration normal to the path; positive and finite.
+   */
+  double max_acceleration;
+  /**
+   * Largest jerk; positive and finite, or 0 for none (jerk not limited).
+   */
+  double max_jerk;
+} StrakeFeedLimits;
+
+/**
+ * Limits of a fibre course (host length unit).
+ */
+typedef struct StrakeFibreLimits {
+  /**
+   * Tow (or tape) width; positive and finite.
+   */
+  double tow_width;
+  /**
+   * Smallest admissible steering radius; positive and finite.
+   */
+  double min_steering_radius;
+  /**
+   * Largest admissible twist rate |tg| (radians per length); positive and finite.
+   */
+  double max_twist_rate;
+} StrakeFibreLimits;
+
+/**
+ * Steering and twist of a fibre course at one sample.
+ */
+typedef struct StrakeFibreState {
+  /**
+   * Steering curvature |kg| (1/length): the in-plane bending of the tow.
+   */
+  double steering_curvature;
+  /**
+   * Steering radius 1/|kg| (INFINITY along a geodesic, the unsteered path).
+   */
+  double steering_radius;
+  /**
+   * Tow-edge strain (w/2)|kg| (dimensionless): one edge stretched, the other compressed.
+   */
+  double edge_strain;
+  /**
+   * Twist rate tg (radians per length, signed): how fast the tangent plane turns about the
+   * course.
+   */
+  double twist_rate;
+  /**
+   * 1 when the steering radius is below the minimum, else 0.
+   */
+  int32_t steering_violated;
+  /**
+   * 1 when |tg| exceeds the largest twist rate, else 0.
+   */
+  int32_t twist_violated;
+} StrakeFibreState;
+
+/**
+ * The tool axis at one sample (unit vector from the cutter tip toward the spindle).
+ */
+typedef struct StrakeToolAxis {
+  /**
+   * Components along (T, B, N) of the sample's frame (along N, not the tool-side normal).
+   */
+  double darboux[3];
+  /**
+   * The axis in space: the three components above times T, B and N, summed.
+   */
+  double space[3];
+} StrakeToolAxis;
+
+/**
+ * One sample of a path, from the sampling functions (`strake_sample_even_t`,
+ * `strake_sample_even_arc`, `strake_sample_chordal`): the frame (whose `curve_param` is the
+ * sample's t) and the arc length along the curve on the surface from the start of the
+ * curve's domain to the sample (host length unit).
+ */
+typedef struct StrakeSample {
+  /**
+   * The frame at the sample; `frame.curve_param` is its curve parameter t.
+   */
+  struct StrakeFrame frame;
+  /**
+   * Arc length from the start of the curve to this sample (host length unit).
+   */
+  double arc_length;
+} StrakeSample;
+
+/**
+ * Where a per-sample quantity is smallest and largest along a path (the first sample on
+ * ties).
+ */
+typedef struct StrakeExtremes {
+  /**
+   * Smallest value.
+   */
+  double min;
+  /**
+   * Index of the sample where it occurs.
+   */
+  size_t min_index;
+  /**
+   * Arc length there.
+   */
+  double min_arc_length;
+  /**
+   * Curve parameter there.
+   */
+  double min_t;
+  /**
+   * Largest value.
+   */
+  double max;
+  /**
+   * Index of the sample where it occurs.
+   */
+  size_t max_index;
+  /**
+   * Arc length there.
+   */
+  double max_arc_length;
+  /**
+   * Curve parameter there.
+   */
+  double max_t;
+} StrakeExtremes;
+
+/**
+ * An interval along a path where a per-sample quantity exceeds its limit. Its ends are the
+ * crossings of the limit, placed by linear interpolation between the samples on either side
+ * (or the first/last sample when the path starts/ends in violation).
+ */
+typedef struct StrakeViolation {
+  /**
+   * Arc length where the violation starts.
+   */
+  double start_arc_length;
+  /**
+   * Arc length where it ends.
+   */
+  double end_arc_length;
+  /**
+   * Curve parameter where it starts.
+   */
+  double start_t;
+  /**
+   * Curve parameter where it ends.
+   */
+  double end_t;
+  /**
+   * Index of the first violating sample.
+   */
+  size_t first_index;
+  /**
+   * Index of the last violating sample.
+   */
+  size_t last_index;
+  /**
+   * Largest value inside the interval.
+   */
+  double worst;
+} StrakeViolation;
+
+/**
+ * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
+ * derivatives with respect to the curve parameter t; filled by a host curve callback (or
+ * passed to `strake_frame_from_jets`). strake zeroes it before calling the host.
+ */
+typedef struct StrakeCurveJet {
+  /**
+   * u(t).
+   */
+  double u;
+  /**
+   * v(t).
+   */
+  double v;
+  /**
+   * du/dt.
+   */
+  double du;
+  /**
+   * dv/dt.
+   */
+  double dv;
+  /**
+   * d2u/dt2.
+   */
+  double ddu;
+  /**
+   * d2v/dt2.
+   */
+  double ddv;
+} StrakeCurveJet;
+
+/**
+ * A host curve evaluator: t -> (u(t), v(t)) in the surface's parameter plane.
+ *
+ * Called with the host's `user_data`, a parameter t inside the domain given at creation and a
+ * jet that strake has set to zero; fill u, v and their first and second derivatives with
+ * respect to t and return 0, or return a non-zero code to report a failure (strake returns
+ * `STRAKE_STATUS_CURVE_CALLBACK_FAILED` and passes the code back). Entries must be finite.
+ * The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
+ */
+typedef int32_t (*StrakeCurveFn)(void *user_data,
+                                 double t,
+                                 struct StrakeCurveJet *out);
+
+/**
  * The widths of the parameter domains, for `strake_frame_from_jets`: degeneracy is judged
  * relative to them (a surface point is degenerate when |Su x Sv| is small against |Su| u_extent
  * and |Sv| v_extent; a curve stalls when (du/u_extent, dv/v_extent) t_extent is small). Each
@@ -383,8 +781,8 @@ typedef struct StrakeParamScales {
  * `points[3 (i count_v + j) + 0..3]` (x, y, z): the v index runs fastest. Weights, when given,
  * use the same layout (`weights[i count_v + j]`). The surface is
  * S(u, v) = Σ N_i,p(u) N_j,q(v) w_ij P_ij / Σ N_i,p(u) N_j,q(v) w_ij over the domain
- * [knots_u[degree_u], knots_u[count_u]] × [knots_v[degree_v], knots_v[count_v]] (The NURBS
- * Book, 2nd ed., eq. 4.15 [memory: equation number]).
+ * `[knots_u[degree_u], knots_u[count_u]] × [knots_v[degree_v], knots_v[count_v]]` (The NURBS
+ * Book, 2nd ed., eq. 4.15, equation number from memory).
  */
 typedef struct StrakeNurbsSurfaceData {
   /**
@@ -428,6 +826,63 @@ typedef struct StrakeNurbsSurfaceData {
    */
   const double *weights;
 } StrakeNurbsSurfaceData;
+
+/**
+ * Options of point projection (point inversion onto a surface), for the functions that take
+ * points in space.
+ */
+typedef struct StrakeProjectionOptions {
+  /**
+   * The largest accepted distance from a point to the surface (host length unit); positive,
+   * or INFINITY to accept any distance. A point farther away gives
+   * `STRAKE_STATUS_TOO_FAR_FROM_SURFACE`.
+   */
+  double tolerance;
+  /**
+   * 1 when the surface closes across u = u_min / u_max (a seam, e.g. around a cylinder), so
+   * that a path may cross it; 0 otherwise.
+   */
+  int32_t periodic_u;
+  /**
+   * 1 when the surface closes across v = v_min / v_max; 0 otherwise.
+   */
+  int32_t periodic_v;
+  /**
+   * Cells per direction of the coarse search grid that finds the first foot point: 0 for the
+   * default (16), else 2 to 1000.
+   */
+  uint32_t grid;
+  /**
+   * Newton iterations per start: 0 for the default (40), else 1 to 1000.
+   */
+  uint32_t max_iterations;
+} StrakeProjectionOptions;
+
+/**
+ * Where a point in space lands on the surface.
+ */
+typedef struct StrakeProjection {
+  /**
+   * Surface parameter u of the foot point (inside the u domain).
+   */
+  double u;
+  /**
+   * Surface parameter v of the foot point.
+   */
+  double v;
+  /**
+   * The foot point S(u, v).
+   */
+  double foot[3];
+  /**
+   * Distance |S(u, v) - P| from the point to its foot point (host length unit).
+   */
+  double distance;
+  /**
+   * Signed distance (P - S).N: positive when the point lies on the side N points to.
+   */
+  double signed_distance;
+} StrakeProjection;
 
 /**
  * A host surface evaluator.
@@ -481,6 +936,185 @@ StrakeStatus strake_surface_from_batch_callback(StrakeSurfaceBatchFn f,
                                                 double v_max,
                                                 int32_t flip_normal,
                                                 struct StrakeSurface **out);
+
+/**
+ * The local gouge state of `cutter` at the sample `frame` (from strake), with the tool on
+ * `tool_side` and its axis set by `angles` (lead toward T, tilt toward B, see
+ * `StrakeToolAngles`).
+ *
+ * Second-order contact: the cutter does not cut into the surface near the contact point when,
+ * in every tangent direction, it bends away from the surface at least as fast as the surface
+ * bends toward it. For a ball-end mill of radius r this is r max(s k1, s k2) <= 1: the largest
+ * ball free of local gouging has the radius `out->concave_radius`. For flat and toroidal
+ * cutters the effective radius across the inclination is R/sin(beta) + r (beta the axis's
+ * inclination from the tool-side normal), and `out->min_lead` is the smallest lead angle (at
+ * the given tilt) that avoids local gouging.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field, named);
+ * INVALID_ARGUMENT (a frame vector that is not unit length, `tool_side` not 0 or 1, an unknown
+ * `cutter->kind`, a radius not positive and finite, a corner radius above the radius, an angle
+ * outside (-pi/2, pi/2); the message names the field). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_gouge(const struct StrakeFrame *frame,
+                                uint32_t tool_side,
+                                const struct StrakeCutter *cutter,
+                                const struct StrakeToolAngles *angles,
+                                struct StrakeGougeState *out);
+
+/**
+ * The scallop height left at the sample `frame` between this pass and an adjacent one a
+ * step-over `step_over` away (arc length across the path), for a cutter of radius
+ * `cutter_radius` across the path (the ball radius of a ball-end mill; for flat and toroidal
+ * cutters their effective radius across the path, a common approximation), with the tool on
+ * `tool_side`.
+ *
+ * In the plane across the path the surface is its osculating circle of curvature
+ * kappa = s kn(B) (`out->cross_curvature`, concave toward the tool when positive). Exact
+ * circle geometry gives `out->height`; on a plane it is r - sqrt(r^2 - w^2/4).
+ * `out->height_approx` = (w^2/8)(1/r - kappa). Host length unit.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a frame vector
+ * not unit length, `tool_side` not 0 or 1, `cutter_radius` or `step_over` not positive and
+ * finite, a cutter that does not fit the concave curvature (kappa r >= 1: it gouges), a
+ * step-over so wide that adjacent passes do not overlap). Thread-safe.
+ *
+ * # Safety
+ * `frame` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_check_scallop(const struct StrakeFrame *frame,
+                                  uint32_t tool_side,
+                                  double cutter_radius,
+                                  double step_over,
+                                  struct StrakeScallop *out);
+
+/**
+ * The largest step-over (arc length across the path) that keeps the scallop height at the
+ * sample `frame` at or below `scallop_height`, for a cutter of radius `cutter_radius` across
+ * the path, with the tool on `tool_side`: the inverse of `strake_check_scallop` (on a plane
+ * w = 2 sqrt(h (2r - h))). `out->step_over_approx` = sqrt(8 h / (1/r - kappa)).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
+ * `strake_check_scallop`, with `scallop_height` required positive and finite and reachable
+ * (not above what the geometry allows). Thread-safe.
+ *
+ * # Safety
+ * `frame` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_check_step_over(const struct StrakeFrame *frame,
+                                    uint32_t tool_side,
+                                    double cutter_radius,
+                                    double scallop_height,
+                                    struct StrakeStepOver *out);
+
+/**
+ * The highest feed at the sample `frame`: min(feed, sqrt(a_max/k), (j_max/k^2)^(1/3)) with k
+ * = sqrt(kn^2 + kg^2) the path's space curvature (normal acceleration v^2 k, and at constant
+ * speed on the osculating circle jerk v^3 k^2); the programmed feed where k = 0. Writes it to
+ * `*out` in the units of `limits` (e.g. mm/s with mm/s^2 and mm/s^3). Changes of curvature
+ * along the path add jerk this local rule does not see: the machine's look-ahead must still
+ * handle them.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+ * frame vector not unit length; `limits->feed` or `limits->max_acceleration` not positive and
+ * finite; `limits->max_jerk` negative, NaN or infinite (0 means no jerk limit)). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_feed(const struct StrakeFrame *frame,
+                               const struct StrakeFeedLimits *limits,
+                               double *out);
+
+/**
+ * Steering and twist of a fibre course at the sample `frame`: steering curvature |kg| and
+ * radius 1/|kg| (INFINITY along a geodesic), tow-edge strain (w/2)|kg| for the tow width w,
+ * twist rate tg (radians per length: the tangent plane turns about the course at that rate,
+ * and the tow or the compaction roller with it), and whether the limits are exceeded.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+ * frame vector not unit length, a limit not positive and finite, named). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_fibre(const struct StrakeFrame *frame,
+                                const struct StrakeFibreLimits *limits,
+                                struct StrakeFibreState *out);
+
+/**
+ * The tool axis at the sample `frame` for lead and tilt `angles` with the tool on `tool_side`:
+ * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, n_t = N on the N side and
+ * -N otherwise (unit vector from the cutter tip toward the spindle).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `angles`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+ * frame vector not unit length, `tool_side` not 0 or 1, an angle outside (-pi/2, pi/2)).
+ * Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_tool_axis(const struct StrakeFrame *frame,
+                              uint32_t tool_side,
+                              const struct StrakeToolAngles *angles,
+                              struct StrakeToolAxis *out);
+
+/**
+ * Where a per-sample quantity is smallest and largest along a path: `values[i]` is the
+ * quantity at `samples[i]` (samples as the sampling functions return them; only their
+ * `frame.curve_param` and `arc_length` are read). Values may be infinite; ties give the first
+ * sample.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`samples`, `values`, `out`); INVALID_ARGUMENT (`sample_count` of 0 or too
+ * large, a NaN value, a sample whose t or arc length is not finite; the message names the
+ * index). Thread-safe.
+ *
+ * # Safety
+ * `samples` and `values` NULL or `sample_count` valid elements; `out` NULL or writable.
+ */
+StrakeStatus strake_path_extremes(const struct StrakeSample *samples,
+                                  const double *values,
+                                  size_t sample_count,
+                                  struct StrakeExtremes *out);
+
+/**
+ * Every interval along a path where a per-sample quantity exceeds `limit`: each maximal run of
+ * samples with `values[i] > limit`, its ends placed where the quantity crosses the limit
+ * (linear interpolation in arc length and t between the samples on either side, or the
+ * first/last sample when the path starts/ends in violation), in path order. A quantity that
+ * must stay above a limit is checked through its negation or inverse (e.g. a steering
+ * curvature |kg| against 1/(smallest radius)). Their accuracy is that of the sampling.
+ *
+ * Buffer (the pattern of the sampling functions): `buf` with room for `capacity` intervals
+ * (NULL when `capacity` is 0); on success `*count` intervals are written (0 when the limit is
+ * never exceeded). When more are found than fit, returns `STRAKE_STATUS_BUFFER_TOO_SMALL`
+ * with `*count` = the number found and nothing written to `buf`; call again with that
+ * capacity for the same intervals.
+ *
+ * Errors: NULL_POINTER (`samples`, `values`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`sample_count` of 0 or too large, `capacity` too large, a NaN value or
+ * limit, a sample whose t or arc length is not finite); BUFFER_TOO_SMALL. On any failure but
+ * BUFFER_TOO_SMALL nothing is written. Thread-safe.
+ *
+ * # Safety
+ * `samples` and `values` NULL or `sample_count` valid elements; `buf` NULL or room for
+ * `capacity` intervals; `count` NULL or a writable size_t.
+ */
+StrakeStatus strake_path_violations(const struct StrakeSample *samples,
+                                    const double *values,
+                                    size_t sample_count,
+                                    double limit,
+                                    struct StrakeViolation *buf,
+                                    size_t capacity,
+                                    size_t *count);
 
 /**
  * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
@@ -686,6 +1320,229 @@ StrakeStatus strake_frames_at_parallel(const struct StrakeSurface *surface,
                                        size_t count,
                                        uint32_t threads,
                                        struct StrakeFrame *out);
+
+/**
+ * Creates a curve in the surface's parameter plane through `point_count` points
+ * (u0, v0, u1, v1, ...): the B-spline of degree `degree` (3: a C2 cubic) interpolating them,
+ * on t in [0, 1] (The NURBS Book A9.1: parameters by `parametrization`, knots by averaging).
+ *
+ * `start_derivative` and `end_derivative` are NULL (free ends) or both point to 2 doubles
+ * (du/dt, dv/dt) the curve must have at t = 0 and t = 1; with the chord-length
+ * parametrization a derivative of about the length of the point polygon (in the parameter
+ * plane) keeps the speed even. The data are copied.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_curve_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER
+ * (`uv_points`, `out`); INVALID_ARGUMENT (`point_count` of 0, too few points for the degree
+ * (degree + 1, or degree - 1 and at least 2 with end derivatives), two consecutive points
+ * that coincide (the message names the point's index), only one of the two derivatives
+ * given, `parametrization` not 0 or 1); INVALID_DEGREE (degree 0 or above 24, end
+ * derivatives with degree 1); NON_FINITE (a coordinate, naming the point's index, or an end
+ * derivative).
+ *
+ * # Safety
+ * `uv_points` must be NULL or point to `2 * point_count` doubles; each derivative NULL or 2
+ * doubles; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_through_uv_points(const double *uv_points,
+                                            size_t point_count,
+                                            uint32_t degree,
+                                            uint32_t parametrization,
+                                            const double *start_derivative,
+                                            const double *end_derivative,
+                                            struct StrakeCurve **out);
+
+/**
+ * Creates a curve on `surface` through `point_count` points in space (x0, y0, z0, x1, ...),
+ * given in path order, e.g. contact points a host computed on its own copy of the surface:
+ * each point is projected onto the surface (point inversion, continuing from the previous foot
+ * point, across a seam declared periodic in `options`), and the foot points' (u, v) are
+ * interpolated by a B-spline of degree `degree` (3: a C2 cubic) in the parameter plane, on t
+ * in [0, 1], with parameters by `parametrization`. A path across a declared seam stays
+ * continuous; the curve's (u, v) are wrapped back into the domain when evaluated.
+ *
+ * `projections` is NULL, or an array of `point_count` that receives, on success, each point's
+ * foot point, (u, v) and distances (to see how far the host's points were from the surface).
+ *
+ * Returns `STRAKE_STATUS_OK`, writes `projections` (if given) and a new handle to `*out` (free
+ * it with `strake_curve_free`); otherwise nothing is written. Errors (the message names the
+ * point's index): NULL_POINTER (`surface`, `points`, `options`, `out`); INVALID_ARGUMENT
+ * (`point_count` of 0 or too few for the degree, a bad option, two consecutive points with
+ * the same foot point, `parametrization` not 0 or 1); INVALID_DEGREE; NON_FINITE (a
+ * coordinate); TOO_FAR_FROM_SURFACE (a point farther than `options->tolerance`, with its
+ * distance and foot point); NOT_CONVERGED (point inversion found no foot point);
+ * DEGENERATE_SURFACE (a foot point where the normal is undefined); the surface's own errors
+ * (SURFACE_CALLBACK_FAILED, OUT_OF_DOMAIN ...).
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
+ * or valid; `projections` NULL or room for `point_count` projections; `out` NULL or writable.
+ */
+StrakeStatus strake_curve_through_space_points(const struct StrakeSurface *surface,
+                                               const double *points,
+                                               size_t point_count,
+                                               const struct StrakeProjectionOptions *options,
+                                               uint32_t degree,
+                                               uint32_t parametrization,
+                                               struct StrakeProjection *projections,
+                                               struct StrakeCurve **out);
+
+/**
+ * Creates a curve on `surface` from a curve in space, a NURBS curve of degree `degree` given
+ * as for `strake_curve_new_nurbs` but with points in space (`points`: x, y, z per control
+ * point; `weights` NULL for a non-rational curve), projected onto the surface: the curve is
+ * sampled (max(4, 2 degree) samples per knot span), the samples are projected, their foot
+ * points interpolated by a C2 cubic in the parameter plane (chord length, t in [0, 1], not the
+ * space curve's parameter), and intervals whose midpoint lies farther than `fit_tolerance`
+ * (host length unit) from the fitted curve are halved until none does. Split a space curve
+ * with corners at its corners first: near a corner the fit converges slowly.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
+ * untouched. Errors: those of `strake_curve_new_nurbs` for the NURBS data; those of
+ * `strake_curve_through_space_points` for the projection, the message naming the sample's
+ * index and its parameter on the space curve; INVALID_ARGUMENT also for a `fit_tolerance`
+ * that is not positive, or not met at 100000 samples.
+ *
+ * # Safety
+ * As for `strake_curve_new_nurbs` (with 3 doubles per point), plus `surface` NULL or a live
+ * handle and `options` NULL or valid.
+ */
+StrakeStatus strake_curve_project_nurbs(const struct StrakeSurface *surface,
+                                        uint32_t degree,
+                                        const double *knots,
+                                        size_t knot_count,
+                                        const double *points,
+                                        size_t point_count,
+                                        const double *weights,
+                                        const struct StrakeProjectionOptions *options,
+                                        double fit_tolerance,
+                                        struct StrakeCurve **out);
+
+/**
+ * Projects `point_count` points in space (x, y, z each) onto `surface`, in order: each from
+ * the previous foot point (so points along a path are fast and stay continuous across a seam
+ * declared periodic in `options`), the first from a coarse search. `out[i]` receives point
+ * i's foot point, (u, v) (inside the domain) and distances.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..point_count]`; otherwise `out` is untouched.
+ * Errors (the message names the point's index): NULL_POINTER (`surface`, `points`,
+ * `options`, `out`); INVALID_ARGUMENT (`point_count` of 0 or too large, a bad option);
+ * NON_FINITE; TOO_FAR_FROM_SURFACE; NOT_CONVERGED; DEGENERATE_SURFACE; the surface's own
+ * errors.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
+ * or valid; `out` NULL or room for `point_count` projections, not overlapping `points`.
+ */
+StrakeStatus strake_surface_project_points(const struct StrakeSurface *surface,
+                                           const double *points,
+                                           size_t point_count,
+                                           const struct StrakeProjectionOptions *options,
+                                           struct StrakeProjection *out);
+
+/**
+ * Samples `curve` on `surface` at `n` evenly spaced curve parameters from the start to the
+ * end of the curve's domain, both included (`n` = 1 gives the start), each with its arc length
+ * from the start (adaptive Gauss-Legendre quadrature to the relative tolerance
+ * `arc_tolerance`, e.g. 1e-10).
+ *
+ * Buffer: `buf` with room for `capacity` samples (NULL when `capacity` is 0); on success
+ * `*count` = `n` samples are written. When `capacity` < `n`, returns
+ * `STRAKE_STATUS_BUFFER_TOO_SMALL` with `*count` = `n` and nothing written to `buf`, without
+ * evaluating anything.
+ *
+ * Errors: NULL_POINTER (`surface`, `curve`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`n` of 0, `arc_tolerance` not positive and finite, `capacity` too
+ * large); BUFFER_TOO_SMALL; and every error of `strake_frame_at` at a sample, the message
+ * naming the sample's index and t. On any failure but BUFFER_TOO_SMALL nothing is written,
+ * `*count` included. Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `buf` NULL or room for `capacity` samples; `count`
+ * NULL or a writable size_t.
+ */
+StrakeStatus strake_sample_even_t(const struct StrakeSurface *surface,
+                                  const struct StrakeCurve *curve,
+                                  size_t n,
+                                  double arc_tolerance,
+                                  struct StrakeSample *buf,
+                                  size_t capacity,
+                                  size_t *count);
+
+/**
+ * Samples `curve` on `surface` at `n` points evenly spaced in arc length from the start to the
+ * end of the curve, both included (`n` = 1 gives the start): sample i lies at arc length
+ * i L/(n - 1), L the curve's length, to the relative tolerance `arc_tolerance` (e.g. 1e-10) of
+ * L (quadrature, then Newton's method on s(t) for each sample).
+ *
+ * Buffer, errors and safety as for `strake_sample_even_t`, plus NOT_CONVERGED when the
+ * arc-length inversion fails (it does not on a curve whose speed stays positive).
+ *
+ * # Safety
+ * As for `strake_sample_even_t`.
+ */
+StrakeStatus strake_sample_even_arc(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *curve,
+                                    size_t n,
+                                    double arc_tolerance,
+                                    struct StrakeSample *buf,
+                                    size_t capacity,
+                                    size_t *count);
+
+/**
+ * Samples `curve` on `surface` adaptively: the chord between consecutive samples stays within
+ * `chord_tolerance` (host length unit) of the curve, and their arc-length spacing within
+ * `max_step` (0 or INFINITY: no limit). Steps follow the space curvature
+ * k = sqrt(kn^2 + kg^2): a chord of length L on radius 1/k deviates by
+ * 1/k - sqrt(1/k^2 - L^2/4), so L <= 2 sqrt(2 d/k - d^2) for tolerance d; each step is then
+ * verified by measuring the deviation at its quarters and shrunk if needed. The first sample
+ * is at the start of the curve's domain, the last at its end; arc lengths to the relative
+ * tolerance `arc_tolerance` (e.g. 1e-10).
+ *
+ * Buffer: as for `strake_sample_even_t`, except that the number of samples is known only
+ * after sampling: when it exceeds `capacity`, the whole path is still sampled to count them,
+ * `*count` receives the number needed, nothing is written to `buf`, and the call returns
+ * `STRAKE_STATUS_BUFFER_TOO_SMALL`. The result is deterministic: calling again with
+ * `capacity` >= `*count` writes exactly those samples. (A size query with `buf` = NULL,
+ * `capacity` = 0 costs one full sampling.)
+ *
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`chord_tolerance` not positive and finite,
+ * `max_step` negative or NaN, `arc_tolerance` not positive and finite, a tolerance below
+ * round-off so that steps shrink below 1e-13 of the domain, more than 10 million samples
+ * needed: the message names the sample that could not be placed); BUFFER_TOO_SMALL; and every
+ * error of `strake_frame_at` at a sample, naming its index and t. Thread-safe.
+ *
+ * # Safety
+ * As for `strake_sample_even_t`.
+ */
+StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
+                                   const struct StrakeCurve *curve,
+                                   double chord_tolerance,
+                                   double max_step,
+                                   double arc_tolerance,
+                                   struct StrakeSample *buf,
+                                   size_t capacity,
+                                   size_t *count);
+
+/**
+ * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
+ * (signed: negative when t1 < t0), in the host's length unit, to the relative tolerance
+ * `rel_tol` (e.g. 1e-10): s = integral of |c'(t)| dt by adaptive Gauss-Legendre quadrature.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t0`, `t1`); INVALID_ARGUMENT
+ * (`rel_tol` not positive and finite); OUT_OF_DOMAIN (a parameter outside the curve's domain);
+ * and the evaluation errors of `strake_frame_at`. Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `out` NULL or a writable double.
+ */
+StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               double t0,
+                               double t1,
+                               double rel_tol,
+                               double *out);
 
 /**
  * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",

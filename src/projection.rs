@@ -544,6 +544,9 @@ impl UvCurve for SeamCurve {
     fn domain(&self) -> Interval {
         self.curve.domain()
     }
+    fn breakpoints(&self) -> &[f64] {
+        self.curve.breakpoints()
+    }
     #[inline]
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
         let mut j = self.curve.jet_in_domain(t, hint)?;

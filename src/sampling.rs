@@ -11,7 +11,13 @@
 //! interval's length estimate, at most [`MAX_QUADRATURE_DEPTH`] levels). The sum of the halves
 //! is returned; its error is far below the difference used to accept it (the rule's error falls
 //! by 2¹⁰ per halving on a smooth integrand), so the stated tolerance is a bound in practice:
-//! the relative tolerance `arc_tolerance` applies to each interval's length.
+//! the relative tolerance `arc_tolerance` applies to each interval's length. The integral is
+//! first split at the curve's breakpoints ([`UvCurve::breakpoints`], a spline's interior knots),
+//! where the speed is not smooth: a kink inside an interval can fool the halving estimate
+//! (regression test `tests/regression_arc_length_across_knots.rs`). Knot lines of the *surface*
+//! crossed by the curve are not split at; on surfaces of degree ≥ 3 with simple knots the speed
+//! stays C² there, but on surfaces with repeated knots (e.g. rational quadratic conics, C¹ only)
+//! the achieved accuracy can fall short of a very tight tolerance near such crossings.
 //!
 //! **Inverse** t(s): safeguarded Newton's method on f(t) = s(t) − s_target, f' = |c'(t)|, inside
 //! a bracket [lo, hi] with f(lo) < 0 ≤ f(hi) that every iterate narrows; a Newton iterate that
@@ -206,10 +212,23 @@ fn integrate<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     } else {
         (t1, t0, -1.0)
     };
-    let whole = gl5(path, a, b, hints)?;
-    let tol = rel_tol * whole.abs();
-    let floor = 16.0 * f64::EPSILON * whole.abs();
-    Ok(sign * gl_recursive(path, a, b, whole, tol, floor, 0, hints)?)
+    // Split at the curve's breakpoints: across a knot the speed is only C^(p−2) or so, and a
+    // kink between an interval's end and its first node fools the halving error estimate
+    // (both halves then make the same error). Each piece gets the relative tolerance, so the
+    // sum has it too.
+    let breaks = path.curve().breakpoints();
+    let first = breaks.partition_point(|&k| k <= a);
+    let last = breaks.partition_point(|&k| k < b);
+    let mut total = 0.0;
+    let mut lo = a;
+    for &k in breaks[first..last].iter().chain(std::iter::once(&b)) {
+        let whole = gl5(path, lo, k, hints)?;
+        let tol = rel_tol * whole.abs();
+        let floor = 16.0 * f64::EPSILON * whole.abs();
+        total += gl_recursive(path, lo, k, whole, tol, floor, 0, hints)?;
+        lo = k;
+    }
+    Ok(sign * total)
 }
 
 /// The arc length of the curve on the surface between parameters `t0` and `t1` (signed:

@@ -2,7 +2,7 @@
 //! Each check names its source beside it.
 
 use std::f64::consts::{FRAC_PI_2, PI};
-use strake::analytic::{plane, sphere, torus};
+use strake::analytic::{cylinder, plane, sphere, torus};
 use strake::checks::*;
 use strake::{CurveOnSurface, Hints, PathSample, Vec3, uv_line};
 
@@ -369,6 +369,31 @@ fn cutter_and_angle_validation_names_the_field() {
     );
 }
 
+// ---------------------------------------------------------------- curvature across the path
+
+// Cylinder of radius R, helix at angle α from the circumferential direction: κn = −cos²α/R
+// along the path with the outward normal (REFERENCES.md closed forms), so across it, at α + 90°,
+// Euler's formula gives κn(B) = −sin²α/R (do Carmo §3-2). The tool outside (on the N side) sees
+// it convex (negative); from inside it is concave (positive).
+#[test]
+fn cross_path_curvature_on_a_cylinder_helix() {
+    let rr = 4.0;
+    let s = cylinder(rr, -5.0, 5.0);
+    for (a, b) in [(1.0, 0.0), (1.0, 2.0), (0.5, -3.0), (1e-9, 2.0)] {
+        let f = CurveOnSurface::new(&s, &uv_line(0.3, -1.0, 0.3 + a, -1.0 + b).unwrap())
+            .frame(0.4, &mut Hints::default())
+            .unwrap();
+        let alpha = (b / (rr * a)).atan();
+        let want = -alpha.sin().powi(2) / rr;
+        let got = cross_path_curvature(&f, ToolSide::AlongNormal);
+        assert!((got - want).abs() < 1e-15, "a {a}, b {b}: {got} vs {want}");
+        assert_eq!(cross_path_curvature(&f, ToolSide::AgainstNormal), -got);
+        // κn(T) + κn(B) = k1 + k2 (do Carmo §3-2).
+        let sum = f.normal_curvature + got;
+        assert!((sum - (f.principal.k1 + f.principal.k2)).abs() < 1e-15);
+    }
+}
+
 // ---------------------------------------------------------------- tool axis
 
 #[test]
@@ -546,7 +571,7 @@ fn violation_interval_on_a_torus_meridian() {
 
 #[test]
 fn summaries_refuse_bad_input() {
-    assert!(extremes(&[], &[]).is_err());
+    assert!(extremes::<PathSample>(&[], &[]).is_err());
     let s = plane((-1.0, 1.0), (-1.0, 1.0));
     let f = CurveOnSurface::new(&s, &uv_line(0.0, 0.0, 0.5, 0.5).unwrap())
         .frame(0.0, &mut Hints::default())
@@ -559,4 +584,9 @@ fn summaries_refuse_bad_input() {
     let e = extremes(&samples, &[f64::NAN]).unwrap_err().to_string();
     assert!(e.contains("value[0]"), "{e}");
     assert!(violations(&samples, &[1.0, 2.0], 0.0, &mut Vec::new()).is_err());
+    // A sample whose arc length is not finite is refused by index.
+    let mut bad = [samples[0], samples[0]];
+    bad[1].arc_length = f64::INFINITY;
+    let e = extremes(&bad, &[1.0, 2.0]).unwrap_err().to_string();
+    assert!(e.contains("sample[1] has arc length = inf"), "{e}");
 }

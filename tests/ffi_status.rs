@@ -29,6 +29,7 @@ fn status_numbers_are_stable() {
         (NullPointer, 1),
         (InvalidArgument, 2),
         (NonFinite, 3),
+        (BufferTooSmall, 4),
         (InvalidDegree, 10),
         (InvalidKnots, 11),
         (InvalidControlPoint, 12),
@@ -52,7 +53,7 @@ fn status_numbers_are_stable() {
         assert_eq!(name, s.c_name().to_str().unwrap());
         assert!(name.starts_with("STRAKE_STATUS_"));
     }
-    for unknown in [4, 9, 14, 32, 89, 91, u32::MAX] {
+    for unknown in [5, 9, 14, 25, 32, 89, 91, u32::MAX] {
         // SAFETY: as above.
         let name = unsafe { CStr::from_ptr(strake_status_name(unknown)) };
         assert_eq!(name.to_str().unwrap(), "STRAKE_STATUS_UNKNOWN");

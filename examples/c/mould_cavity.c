@@ -1,20 +1,31 @@
 /*
- * mould_cavity: a finishing pass across a mould cavity, seen through strake.
+ * mould_cavity: a host program that uses strake to check a milling pass across a mould cavity
+ * and a fibre course on a wing skin. Both scenarios are invented.
  *
- * The scenario (invented): a shallow injection-mould pocket, 160 mm x 100 mm and about 12 mm
- * deep, with a gently raised island in its floor, is finished with a ball-end mill along one
- * S-shaped pass drawn in the surface's parameter plane. The host (this program) owns the
- * surface: a bicubic B-spline patch evaluated by its own code (bspline_patch.h) and handed to
- * strake as a callback. The pass is a cubic B-spline curve in (u, v). strake returns, along the
- * pass, the Darboux frame (T, B, N), the normal curvature kn, geodesic curvature kg, geodesic
- * torsion tg and the principal curvatures k1 >= k2 of the cavity.
+ * 1. The mould cavity. A 160 mm x 100 mm injection-mould pocket, about 12 mm deep with
+ *    filleted walls and a raised island in its floor, is a bicubic B-spline patch that the host
+ *    (this program) evaluates with its own code (bspline_patch.h) and hands to strake as a
+ *    callback. The host's finishing pass is what a CAM host has: contact points it computed on
+ *    its own surface, here under an S-shaped drive curve in the XY plane. strake projects them
+ *    onto the surface and interpolates a curve through them, then gives the Darboux frame along
+ *    it (T, B, N, normal curvature kn, geodesic curvature kg, geodesic torsion tg, principal
+ *    curvatures k1 >= k2), samples the pass to a chord tolerance, and checks it for a ball-end
+ *    mill: local gouging, scallop height for the step-over, and the feed the machine's
+ *    acceleration and jerk allow on the path's curvature.
+ *    N = Su x Sv / |Su x Sv| points up, out of the cavity, toward the tool; a curvature is
+ *    positive where the surface bends toward N, i.e. where it is concave as the tool sees it.
  *
- * N = Su x Sv / |Su x Sv| points up, out of the cavity, toward the spindle. A curvature is
- * positive where the surface bends toward N, i.e. where it is concave as the tool sees it.
- * Lengths in mm, curvatures in 1/mm, torsion in rad/mm.
+ * 2. The wing skin. The upper skin of a wing panel in closed form (wing_skin.h). A fibre
+ *    course designed by the host as a cubic B-spline in space is projected onto the skin by
+ *    strake and checked for automated fibre placement: steering radius, tow-edge strain and
+ *    twist rate against the process's limits.
  *
- * Usage: mould_cavity          prints the table and a summary
- *        mould_cavity --raw    prints the data and every frame field at full precision
+ * The limits below are invented so that some of them are exceeded; real ones come from the
+ * machine builder and the material supplier, and paths planned with these local checks must
+ * still be verified by simulation. Lengths in mm, curvatures in 1/mm, torsion in rad/mm.
+ *
+ * Usage: mould_cavity          prints tables and summaries
+ *        mould_cavity --raw    prints the data and results at full precision
  *                              (read by tests/c_demo.rs)
  */
 #include <math.h>
@@ -24,32 +35,32 @@
 
 #include "strake.h"
 #include "bspline_patch.h"
+#include "wing_skin.h"
 
-#define COUNT_U 7
-#define COUNT_V 6
-#define SAMPLES 25
+/* ----------------------------------------------------------------------------------------- */
+/* The mould cavity: the host's bicubic B-spline patch over [0, 1]^2, x = 160 u, y = 100 v.   */
 
-/* Clamped uniform cubic knot vectors on [0, 1]. */
-static const double KNOTS_U[COUNT_U + 4] = {0, 0, 0, 0, 0.25, 0.5, 0.75, 1, 1, 1, 1};
-static const double KNOTS_V[COUNT_V + 4] = {0, 0, 0, 0, 1.0 / 3.0, 2.0 / 3.0, 1, 1, 1, 1};
+#define COUNT_U 11
+#define COUNT_V 9
 
-/* Depth of each control point (mm): the rim at z = 0, the floor 11-14.5 mm down and deepest
- * toward +x, with a raised island around the middle row. Row i is the u index (along x). */
+/* Clamped cubic knot vectors, dense near the walls so that the fillets are tight. */
+static const double KNOTS_U[COUNT_U + 4] = {0, 0, 0, 0, 0.025, 0.07, 0.22, 0.5, 0.78, 0.93, 0.975, 1, 1, 1, 1};
+static const double KNOTS_V[COUNT_V + 4] = {0, 0, 0, 0, 0.06, 0.2, 0.5, 0.8, 0.94, 1, 1, 1, 1};
+
+/* Depth of each control point (mm): the rim at z = 0, steep walls, a floor 11-15 mm down and
+ * deepest toward +x, with a raised island in the middle. Row i is the u index (along x). */
 static const double DEPTH[COUNT_U][COUNT_V] = {
-    {0.0, 0.0, 0.0, 0.0, 0.0, 0.0},
-    {0.0, -6.0, -8.0, -8.0, -5.5, 0.0},
-    {0.0, -9.0, -12.0, -12.5, -9.0, 0.0},
-    {0.0, -9.5, -11.0, -11.5, -10.0, 0.0},
-    {0.0, -10.0, -13.5, -14.5, -11.0, 0.0},
-    {0.0, -7.0, -9.5, -10.0, -7.5, 0.0},
-    {0.0, 0.0, 0.0, 0.0, 0.0, 0.0},
-};
-
-/* The pass: a cubic B-spline in the parameter plane, (u, v) per control point. */
-#define PATH_COUNT 5
-static const double PATH_KNOTS[PATH_COUNT + 4] = {0, 0, 0, 0, 0.5, 1, 1, 1, 1};
-static const double PATH_UV[2 * PATH_COUNT] = {
-    0.03, 0.15, 0.30, 0.75, 0.55, 0.25, 0.75, 0.80, 0.97, 0.55,
+    {0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0},
+    {0.0, -5.0, -6.0, -6.0, -6.0, -6.0, -6.0, -5.0, 0.0},
+    {0.0, -6.0, -11.0, -11.5, -11.5, -11.5, -11.0, -6.0, 0.0},
+    {0.0, -6.0, -11.5, -13.0, -13.0, -13.0, -11.5, -6.0, 0.0},
+    {0.0, -6.0, -11.5, -13.0, -12.0, -12.5, -11.5, -6.0, 0.0},
+    {0.0, -6.0, -11.5, -11.0, -7.5, -11.0, -11.5, -6.0, 0.0},
+    {0.0, -6.0, -11.5, -13.5, -13.0, -14.0, -12.0, -6.0, 0.0},
+    {0.0, -6.0, -12.0, -14.5, -15.0, -14.5, -12.0, -6.0, 0.0},
+    {0.0, -6.0, -11.5, -12.0, -12.0, -12.0, -11.5, -6.0, 0.0},
+    {0.0, -5.0, -6.0, -6.0, -6.0, -6.0, -6.0, -5.0, 0.0},
+    {0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0},
 };
 
 /* Greville abscissae of a clamped cubic knot vector: control points placed there make x and y
@@ -92,6 +103,59 @@ static int32_t cavity_surface(void *user_data, double u, double v, int32_t order
     return 0;
 }
 
+/* The pass: contact points under the drive curve y = 50 + 22 sin(2 pi (x - 4)/152), x from 4 to
+ * 156 mm. The host finds each point on its own surface (x = 160 u, y = 100 v). */
+#define PASS_POINTS 41
+#define PASS_TOLERANCE 1e-6 /* mm: the points are on the surface; anything farther is a bug */
+
+static void make_pass(const BsplinePatch *patch, double *points)
+{
+    const double pi = 3.14159265358979323846;
+    int i;
+    for (i = 0; i < PASS_POINTS; i++) {
+        double x = 4.0 + 152.0 * i / (PASS_POINTS - 1);
+        double y = 50.0 + 22.0 * sin(2.0 * pi * (x - 4.0) / 152.0);
+        double d[3][3][3];
+        patch_derivs(patch, x / 160.0, y / 100.0, 0, d);
+        points[3 * i + 0] = d[0][0][0];
+        points[3 * i + 1] = d[0][0][1];
+        points[3 * i + 2] = d[0][0][2];
+    }
+}
+
+/* The milling set-up (invented): a 20 mm ball-end mill planned for a fast floor finish. */
+#define BALL_RADIUS 10.0      /* mm */
+#define STEP_OVER 1.25        /* mm between adjacent passes */
+#define SCALLOP_LIMIT 0.020   /* mm */
+#define FEED_MM_MIN 15000.0   /* programmed feed, mm/min */
+#define MAX_ACCELERATION 2000 /* mm/s^2 (2 m/s^2) */
+#define MAX_JERK 20000        /* mm/s^3 (20 m/s^3) */
+#define CHORD_TOLERANCE 0.005 /* mm */
+#define MAX_STEP 5.0          /* mm */
+#define ARC_TOLERANCE 1e-10   /* relative */
+#define FRAME_SAMPLES 13
+
+/* ----------------------------------------------------------------------------------------- */
+/* The wing skin and the fibre course (invented).                                             */
+
+static const WingSkin WING = {2400.0, 900.0, 90.0, 0.35, 0.12}; /* span, chord, crown, taper, twist */
+
+/* The course: a clamped cubic B-spline whose control points the host placed over the skin. */
+#define COURSE_COUNT 9
+static const double COURSE_KNOTS[COURSE_COUNT + 4] = {0, 0, 0, 0, 1.0 / 6, 2.0 / 6, 3.0 / 6, 4.0 / 6, 5.0 / 6, 1, 1, 1, 1};
+static const double COURSE_XY[2 * COURSE_COUNT] = {
+    20.0, 450.0, 300.0, 450.0, 600.0, 450.0, 900.0, 440.0, 1200.0, 520.0,
+    1500.0, 600.0, 1800.0, 590.0, 2100.0, 590.0, 2380.0, 590.0,
+};
+#define COURSE_TOLERANCE 5.0      /* mm: the spline may lie this far off the skin */
+#define COURSE_FIT_TOLERANCE 0.01 /* mm */
+#define COURSE_SPACING 20.0       /* mm between samples */
+
+/* The placement limits (invented): 6.35 mm (1/4 in) tows. */
+static const StrakeFibreLimits FIBRE = {6.35, 1350.0, 1.0e-4}; /* width, radius (mm), rad/mm */
+
+/* ----------------------------------------------------------------------------------------- */
+
 static int fail(const char *what, StrakeStatus status)
 {
     char message[512];
@@ -100,119 +164,456 @@ static int fail(const char *what, StrakeStatus status)
     return 1;
 }
 
-/* Index of the smallest (sign -1: largest) value of field `f` over the samples. */
+static int out_of_memory(void)
+{
+    fprintf(stderr, "mould_cavity: out of memory\n");
+    return 1;
+}
+
+static void print_numbers(const char *key, const double *x, size_t n)
+{
+    size_t i;
+    printf("%s", key);
+    for (i = 0; i < n; i++) {
+        printf(" %.17g", x[i]);
+    }
+    printf("\n");
+}
+
+/* Samples a curve to the chord tolerance into a new array (*out, *count; free it). The number
+ * of samples is known only once the curve has been sampled, so the host offers the buffer it
+ * has; when strake answers STRAKE_STATUS_BUFFER_TOO_SMALL, *count holds the number needed, and
+ * a second call with that much room gives exactly those samples. *first_guess tells how much
+ * room was offered first. Returns 0, or 1 after printing what failed. */
+static int sample_chordal(const StrakeSurface *surface, const StrakeCurve *curve, StrakeSample **out, size_t *count,
+                          size_t *first_guess)
+{
+    size_t capacity = 64;
+    StrakeSample *buf = malloc(capacity * sizeof *buf);
+    StrakeStatus status;
+    *first_guess = capacity;
+    if (buf == NULL) {
+        return out_of_memory();
+    }
+    status = strake_sample_chordal(surface, curve, CHORD_TOLERANCE, MAX_STEP, ARC_TOLERANCE, buf, capacity, count);
+    if (status == STRAKE_STATUS_BUFFER_TOO_SMALL) {
+        StrakeSample *bigger = realloc(buf, *count * sizeof *buf);
+        if (bigger == NULL) {
+            free(buf);
+            return out_of_memory();
+        }
+        buf = bigger;
+        capacity = *count;
+        status = strake_sample_chordal(surface, curve, CHORD_TOLERANCE, MAX_STEP, ARC_TOLERANCE, buf, capacity,
+                                       count);
+    }
+    if (status != STRAKE_STATUS_OK) {
+        free(buf);
+        return fail("strake_sample_chordal", status);
+    }
+    *out = buf;
+    return 0;
+}
+
+/* How a limit is shown: the quantity checked is `values` (strake flags values above `limit`);
+ * `show` turns a value into what a person reads (e.g. a curvature into a radius). */
+typedef double (*ShowFn)(double);
+static double as_is(double x) { return x; }
+static double inverse(double x) { return 1.0 / x; }
+static double feed_drop(double x) { return FEED_MM_MIN - 60.0 * x; }
+static double per_metre(double x) { return 1000.0 * x; }
+
+/* Finds and prints the intervals along the path where values exceed limit. A small buffer
+ * first; a larger one if strake says it is too small (the same protocol as sampling). */
+static int report_violations(int raw, const char *key, const char *label, const char *worst_label, ShowFn show,
+                             int decimals, const char *unit, const StrakeSample *samples, const double *values,
+                             size_t n, double limit)
+{
+    StrakeViolation small[2];
+    StrakeViolation *found = small;
+    size_t count = 0, i;
+    StrakeStatus status = strake_path_violations(samples, values, n, limit, small, 2, &count);
+    if (status == STRAKE_STATUS_BUFFER_TOO_SMALL) {
+        found = malloc(count * sizeof *found);
+        if (found == NULL) {
+            return out_of_memory();
+        }
+        status = strake_path_violations(samples, values, n, limit, found, count, &count);
+    }
+    if (status != STRAKE_STATUS_OK) {
+        if (found != small) {
+            free(found);
+        }
+        return fail("strake_path_violations", status);
+    }
+    if (!raw && count == 0) {
+        printf("    %-32s nowhere\n", label);
+    }
+    for (i = 0; i < count; i++) {
+        const StrakeViolation *v = &found[i];
+        if (raw) {
+            printf("violation %s %.17g %.17g %.17g %.17g %zu %zu %.17g\n", key, v->start_arc_length,
+                   v->end_arc_length, v->start_t, v->end_t, v->first_index, v->last_index, v->worst);
+        } else {
+            printf("    %-32s s = %7.1f .. %7.1f   %s %.*f %s\n", i == 0 ? label : "", v->start_arc_length,
+                   v->end_arc_length, worst_label, decimals, show(v->worst), unit);
+        }
+    }
+    if (found != small) {
+        free(found);
+    }
+    return 0;
+}
+
+/* Extremes of a quantity along sampled samples: strake_path_extremes. */
+static int extremes(const StrakeSample *samples, const double *values, size_t n, StrakeExtremes *out)
+{
+    StrakeStatus status = strake_path_extremes(samples, values, n, out);
+    return status == STRAKE_STATUS_OK ? 0 : fail("strake_path_extremes", status);
+}
+
+/* ----------------------------------------------------------------------------------------- */
+/* The frames along the pass.                                                                */
+
 typedef double (*FieldFn)(const StrakeFrame *);
 static double f_kn(const StrakeFrame *f) { return f->normal_curvature; }
 static double f_kg(const StrakeFrame *f) { return f->geodesic_curvature; }
 static double f_tg(const StrakeFrame *f) { return f->geodesic_torsion; }
 static double f_k1(const StrakeFrame *f) { return f->k1; }
 
-static size_t extreme(const StrakeFrame *frames, size_t n, FieldFn f, int sign)
-{
-    size_t i, best = 0;
-    for (i = 1; i < n; i++) {
-        if (sign * f(&frames[i]) > sign * f(&frames[best])) {
-            best = i;
-        }
-    }
-    return best;
-}
-
 static const struct {
     const char *name;
     const char *label;
     FieldFn f;
 } FIELDS[4] = {
-    {"kn", "normal curvature kn  ", f_kn},
+    {"kn", "normal curvature kn", f_kn},
     {"kg", "geodesic curvature kg", f_kg},
-    {"tg", "geodesic torsion tg  ", f_tg},
+    {"tg", "geodesic torsion tg", f_tg},
     {"k1", "principal curvature k1", f_k1},
 };
 
-static void print_raw(const double *net, const StrakeFrame *frames, size_t n)
+static void print_frame_raw(size_t i, const StrakeSample *s)
 {
-    int i, k;
-    size_t s;
-    printf("surface_degree 3 3\nsurface_count %d %d\n", COUNT_U, COUNT_V);
-    printf("knots_u");
-    for (i = 0; i < COUNT_U + 4; i++) printf(" %.17g", KNOTS_U[i]);
-    printf("\nknots_v");
-    for (i = 0; i < COUNT_V + 4; i++) printf(" %.17g", KNOTS_V[i]);
-    printf("\nnet");
-    for (i = 0; i < 3 * COUNT_U * COUNT_V; i++) printf(" %.17g", net[i]);
-    printf("\npath_degree 3\npath_knots");
-    for (i = 0; i < PATH_COUNT + 4; i++) printf(" %.17g", PATH_KNOTS[i]);
-    printf("\npath_uv");
-    for (i = 0; i < 2 * PATH_COUNT; i++) printf(" %.17g", PATH_UV[i]);
-    printf("\n");
-    for (s = 0; s < n; s++) {
-        const StrakeFrame *f = &frames[s];
-        printf("frame %zu %.17g %.17g %.17g", s, f->curve_param, f->u, f->v);
-        for (k = 0; k < 3; k++) printf(" %.17g", f->point[k]);
-        for (k = 0; k < 3; k++) printf(" %.17g", f->tangent[k]);
-        for (k = 0; k < 3; k++) printf(" %.17g", f->side[k]);
-        for (k = 0; k < 3; k++) printf(" %.17g", f->normal[k]);
-        printf(" %.17g %.17g %.17g %.17g %.17g %.17g", f->normal_curvature, f->geodesic_curvature,
-               f->geodesic_torsion, f->speed, f->k1, f->k2);
-        for (k = 0; k < 3; k++) printf(" %.17g", f->dir1[k]);
-        for (k = 0; k < 3; k++) printf(" %.17g", f->dir2[k]);
-        printf(" %.17g %.17g %.17g %.17g\n", f->mean_curvature, f->gaussian_curvature, f->surface_conditioning,
-               f->curve_speed_figure);
-    }
-    for (k = 0; k < 4; k++) {
-        printf("extreme %s min %zu\n", FIELDS[k].name, extreme(frames, n, FIELDS[k].f, -1));
-        printf("extreme %s max %zu\n", FIELDS[k].name, extreme(frames, n, FIELDS[k].f, 1));
-    }
+    const StrakeFrame *f = &s->frame;
+    int k;
+    printf("frame %zu %.17g %.17g %.17g", i, f->curve_param, f->u, f->v);
+    for (k = 0; k < 3; k++) printf(" %.17g", f->point[k]);
+    for (k = 0; k < 3; k++) printf(" %.17g", f->tangent[k]);
+    for (k = 0; k < 3; k++) printf(" %.17g", f->side[k]);
+    for (k = 0; k < 3; k++) printf(" %.17g", f->normal[k]);
+    printf(" %.17g %.17g %.17g %.17g %.17g %.17g", f->normal_curvature, f->geodesic_curvature, f->geodesic_torsion,
+           f->speed, f->k1, f->k2);
+    for (k = 0; k < 3; k++) printf(" %.17g", f->dir1[k]);
+    for (k = 0; k < 3; k++) printf(" %.17g", f->dir2[k]);
+    printf(" %.17g %.17g %.17g %.17g %.17g\n", f->mean_curvature, f->gaussian_curvature, f->surface_conditioning,
+           f->curve_speed_figure, s->arc_length);
 }
 
-static void print_table(const StrakeFrame *frames, size_t n)
+static int report_frames(int raw, const StrakeSample *s, size_t n)
 {
-    size_t s;
+    double values[FRAME_SAMPLES];
+    StrakeExtremes e[4];
+    size_t i;
     int k;
-    printf("Finishing pass across a mould cavity (160 x 100 mm pocket, bicubic B-spline floor)\n");
-    printf("N points out of the cavity toward the tool; curvature > 0 = concave as the tool sees it.\n");
-    printf("Lengths in mm, curvatures in 1/mm, torsion in rad/mm.\n\n");
-    printf("%5s %6s %6s | %8s %8s %8s | %10s %10s %10s | %10s %10s | %7s %7s\n", "t", "u", "v", "x", "y", "z",
-           "kn", "kg", "tg", "k1", "k2", "T.z", "N.z");
-    printf("------------------------------------------------------------------------------------------"
-           "------------------------------\n");
-    for (s = 0; s < n; s++) {
-        const StrakeFrame *f = &frames[s];
-        printf("%5.3f %6.4f %6.4f | %8.3f %8.3f %8.3f | %10.6f %10.6f %10.6f | %10.6f %10.6f | %7.4f %7.4f\n",
-               f->curve_param, f->u, f->v, f->point[0], f->point[1], f->point[2], f->normal_curvature,
-               f->geodesic_curvature, f->geodesic_torsion, f->k1, f->k2, f->tangent[2], f->normal[2]);
-    }
-    printf("\nSummary over %zu samples (value, then where: t and the point in mm)\n", n);
     for (k = 0; k < 4; k++) {
-        size_t lo = extreme(frames, n, FIELDS[k].f, -1);
-        size_t hi = extreme(frames, n, FIELDS[k].f, 1);
-        printf("  %-22s min %10.6f at t = %5.3f (%7.2f, %7.2f, %7.2f)\n", FIELDS[k].label, FIELDS[k].f(&frames[lo]),
-               frames[lo].curve_param, frames[lo].point[0], frames[lo].point[1], frames[lo].point[2]);
-        printf("  %-22s max %10.6f at t = %5.3f (%7.2f, %7.2f, %7.2f)\n", "", FIELDS[k].f(&frames[hi]),
-               frames[hi].curve_param, frames[hi].point[0], frames[hi].point[1], frames[hi].point[2]);
-    }
-    {
-        /* A ball-end mill of radius r is free of local gouging where r k <= 1 for the largest
-         * curvature that is concave toward the tool (common practice). */
-        size_t hi = extreme(frames, n, f_k1, 1);
-        if (frames[hi].k1 > 0.0) {
-            printf("  largest ball-end radius free of local gouging at these samples: %.2f mm (at t = %5.3f)\n",
-                   1.0 / frames[hi].k1, frames[hi].curve_param);
-        } else {
-            printf("  the floor is nowhere concave toward the tool at these samples\n");
+        for (i = 0; i < n; i++) {
+            values[i] = FIELDS[k].f(&s[i].frame);
+        }
+        if (extremes(s, values, n, &e[k]) != 0) {
+            return 1;
         }
     }
+    if (raw) {
+        for (i = 0; i < n; i++) {
+            print_frame_raw(i, &s[i]);
+        }
+        for (k = 0; k < 4; k++) {
+            printf("extreme %s min %zu\nextreme %s max %zu\n", FIELDS[k].name, e[k].min_index, FIELDS[k].name,
+                   e[k].max_index);
+        }
+        return 0;
+    }
+    printf("\nThe frame along the pass, every %.2f mm of arc length:\n\n", s[n - 1].arc_length / (double)(n - 1));
+    printf("%6s %5s %6s %6s | %8s %8s %8s | %10s %10s %10s | %10s %10s | %7s %7s\n", "s", "t", "u", "v", "x", "y",
+           "z", "kn", "kg", "tg", "k1", "k2", "T.z", "N.z");
+    printf("---------------------------------------------------------------------------------------------"
+           "---------------------------------------\n");
+    for (i = 0; i < n; i++) {
+        const StrakeFrame *f = &s[i].frame;
+        printf("%6.2f %5.3f %6.4f %6.4f | %8.3f %8.3f %8.3f | %10.6f %10.6f %10.6f | %10.6f %10.6f | %7.4f %7.4f\n",
+               s[i].arc_length, f->curve_param, f->u, f->v, f->point[0], f->point[1], f->point[2],
+               f->normal_curvature, f->geodesic_curvature, f->geodesic_torsion, f->k1, f->k2, f->tangent[2],
+               f->normal[2]);
+    }
+    printf("\n  %-24s %10s  %9s   %10s  %9s\n", "extremes", "min", "at s (mm)", "max", "at s (mm)");
+    for (k = 0; k < 4; k++) {
+        printf("  %-24s %10.6f  %9.2f   %10.6f  %9.2f\n", FIELDS[k].label, e[k].min, e[k].min_arc_length, e[k].max,
+               e[k].max_arc_length);
+    }
+    return 0;
+}
+
+/* ----------------------------------------------------------------------------------------- */
+/* The milling checks along the pass.                                                        */
+
+static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurve *pass)
+{
+    const StrakeCutter ball = {STRAKE_CUTTER_KIND_BALL, BALL_RADIUS, 0.0};
+    const StrakeToolAngles upright = {0.0, 0.0};
+    const StrakeFeedLimits machine = {FEED_MM_MIN / 60.0, MAX_ACCELERATION, MAX_JERK};
+    StrakeSample *s = NULL;
+    double *concave = NULL, *scallop = NULL, *feed = NULL, *feed_cut = NULL;
+    size_t n = 0, first_guess = 0, i;
+    StrakeExtremes e_concave, e_scallop, e_feed;
+    StrakeStatus status;
+    char gouge_label[64], scallop_label[64], feed_label[64];
+    int bad = 0;
+
+    if (sample_chordal(surface, pass, &s, &n, &first_guess) != 0) {
+        return 1;
+    }
+    concave = malloc(n * sizeof *concave);
+    scallop = malloc(n * sizeof *scallop);
+    feed = malloc(n * sizeof *feed);
+    feed_cut = malloc(n * sizeof *feed_cut);
+    if (concave == NULL || scallop == NULL || feed == NULL || feed_cut == NULL) {
+        bad = out_of_memory();
+        goto done;
+    }
+    for (i = 0; i < n && !bad; i++) {
+        StrakeGougeState g;
+        StrakeScallop h;
+        const StrakeFrame *f = &s[i].frame;
+        /* The tool is above the floor, on the side N points to. */
+        status = strake_check_gouge(f, STRAKE_TOOL_SIDE_ALONG_NORMAL, &ball, &upright, &g);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_check_gouge", status);
+            break;
+        }
+        concave[i] = g.concave_curvature;
+        status = strake_check_scallop(f, STRAKE_TOOL_SIDE_ALONG_NORMAL, BALL_RADIUS, STEP_OVER, &h);
+        if (status == STRAKE_STATUS_OK) {
+            scallop[i] = h.height;
+        } else if (g.gouges) {
+            scallop[i] = HUGE_VAL; /* the ball does not fit across the path: it gouges there */
+        } else {
+            bad = fail("strake_check_scallop", status);
+            break;
+        }
+        status = strake_check_feed(f, &machine, &feed[i]);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_check_feed", status);
+            break;
+        }
+        feed_cut[i] = machine.feed - feed[i]; /* mm/s below the programmed feed */
+    }
+    if (bad || extremes(s, concave, n, &e_concave) || extremes(s, scallop, n, &e_scallop) ||
+        extremes(s, feed, n, &e_feed)) {
+        bad = 1;
+        goto done;
+    }
+    if (raw) {
+        printf("mill_setup %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g\n", BALL_RADIUS, STEP_OVER,
+               SCALLOP_LIMIT, machine.feed, machine.max_acceleration, machine.max_jerk, CHORD_TOLERANCE, MAX_STEP,
+               ARC_TOLERANCE);
+        for (i = 0; i < n; i++) {
+            printf("mill_sample %zu %.17g %.17g %.17g %.17g %.17g\n", i, s[i].frame.curve_param, s[i].arc_length,
+                   concave[i], scallop[i], feed[i]);
+        }
+    } else {
+        printf("\nMilling pass: %.0f mm ball-end mill (r = %.0f mm), step-over %.2f mm, feed %.0f mm/min,\n"
+               "  machine limits %.0f m/s^2 and %.0f m/s^3\n",
+               2.0 * BALL_RADIUS, BALL_RADIUS, STEP_OVER, FEED_MM_MIN, MAX_ACCELERATION / 1000.0, MAX_JERK / 1000.0);
+        printf("  sampled to a chord tolerance of %.3f mm with steps up to %.0f mm: %zu samples over %.2f mm\n",
+               CHORD_TOLERANCE, MAX_STEP, n, s[n - 1].arc_length);
+        if (n > first_guess) {
+            printf("  (the first buffer of %zu samples was too small: strake asked for %zu, and the second call "
+                   "filled them)\n",
+                   first_guess, n);
+        }
+        printf("\n  %-28s %10s  %9s   %10s  %9s\n", "along the pass", "lowest", "at s (mm)", "highest", "at s (mm)");
+        printf("  %-28s %10.2f  %9.2f   %10s  %9s\n", "concave radius (mm)", 1.0 / e_concave.max,
+               e_concave.max_arc_length, "-", "-");
+        printf("  %-28s %10.4f  %9.2f   %10.4f  %9.2f\n", "scallop height (mm)", e_scallop.min, e_scallop.min_arc_length,
+               e_scallop.max, e_scallop.max_arc_length);
+        printf("  %-28s %10.0f  %9.2f   %10.0f  %9.2f\n", "feed limit (mm/min)", 60.0 * e_feed.min,
+               e_feed.min_arc_length, 60.0 * e_feed.max, e_feed.max_arc_length);
+        printf("\n  largest ball-end radius free of local gouging along the pass: %.2f mm (at s = %.2f mm)\n",
+               1.0 / e_concave.max, e_concave.max_arc_length);
+        printf("\n  Where the plan fails (arc length along the pass, mm):\n");
+    }
+    snprintf(gouge_label, sizeof gouge_label, "r = %.0f mm ball gouges", BALL_RADIUS);
+    snprintf(scallop_label, sizeof scallop_label, "scallop above %.3f mm", SCALLOP_LIMIT);
+    snprintf(feed_label, sizeof feed_label, "feed held below %.0f mm/min", FEED_MM_MIN);
+    if (report_violations(raw, "gouge", gouge_label, "concave radius down to", inverse, 2, "mm", s, concave, n,
+                          1.0 / BALL_RADIUS) ||
+        report_violations(raw, "scallop", scallop_label, "up to", as_is, 4, "mm", s, scallop, n, SCALLOP_LIMIT) ||
+        report_violations(raw, "feed", feed_label, "down to", feed_drop, 0, "mm/min", s, feed_cut, n, 0.0)) {
+        bad = 1;
+    }
+done:
+    free(feed_cut);
+    free(feed);
+    free(scallop);
+    free(concave);
+    free(s);
+    return bad;
+}
+
+/* ----------------------------------------------------------------------------------------- */
+/* The fibre course on the wing skin.                                                        */
+
+static int check_course(int raw)
+{
+    WingSkin wing = WING; /* the callback's user_data */
+    StrakeSurface *skin = NULL;
+    StrakeCurve *course = NULL;
+    StrakeSample *s = NULL;
+    double *steer = NULL, *twist = NULL;
+    double points[3 * COURSE_COUNT], length = 0.0, max_strain = 0.0, at_strain = 0.0;
+    size_t n = 0, count = 0, i;
+    StrakeExtremes e_steer, e_twist;
+    StrakeProjectionOptions options = {COURSE_TOLERANCE, 0, 0, 0, 0};
+    StrakeStatus status;
+    char steer_label[64], twist_label[64];
+    int bad = 0;
+
+    /* The host lifts its course's control points onto its skin; the spline between them then
+     * lies close to, not on, the skin, and strake projects it. */
+    for (i = 0; i < COURSE_COUNT; i++) {
+        double d[6];
+        wing_height(&wing, COURSE_XY[2 * i], COURSE_XY[2 * i + 1], d);
+        points[3 * i + 0] = COURSE_XY[2 * i];
+        points[3 * i + 1] = COURSE_XY[2 * i + 1];
+        points[3 * i + 2] = d[0];
+    }
+    status = strake_surface_from_callback(wing_surface, &wing, 0.0, wing.span, 0.0, wing.chord, 0, &skin);
+    if (status != STRAKE_STATUS_OK) {
+        return fail("strake_surface_from_callback (wing skin)", status);
+    }
+    status = strake_curve_project_nurbs(skin, 3, COURSE_KNOTS, COURSE_COUNT + 4, points, COURSE_COUNT, NULL,
+                                        &options, COURSE_FIT_TOLERANCE, &course);
+    if (status != STRAKE_STATUS_OK) {
+        bad = fail("strake_curve_project_nurbs", status);
+        goto done;
+    }
+    status = strake_arc_length(skin, course, 0.0, 1.0, ARC_TOLERANCE, &length);
+    if (status != STRAKE_STATUS_OK) {
+        bad = fail("strake_arc_length", status);
+        goto done;
+    }
+    /* Evenly in arc length: the number of samples is the host's choice, so it sizes the buffer. */
+    n = (size_t)ceil(length / COURSE_SPACING) + 1;
+    s = malloc(n * sizeof *s);
+    steer = malloc(n * sizeof *steer);
+    twist = malloc(n * sizeof *twist);
+    if (s == NULL || steer == NULL || twist == NULL) {
+        bad = out_of_memory();
+        goto done;
+    }
+    status = strake_sample_even_arc(skin, course, n, ARC_TOLERANCE, s, n, &count);
+    if (status != STRAKE_STATUS_OK) {
+        bad = fail("strake_sample_even_arc", status);
+        goto done;
+    }
+    for (i = 0; i < n; i++) {
+        StrakeFibreState f;
+        status = strake_check_fibre(&s[i].frame, &FIBRE, &f);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_check_fibre", status);
+            goto done;
+        }
+        steer[i] = f.steering_curvature;
+        twist[i] = fabs(f.twist_rate);
+        if (f.edge_strain > max_strain) {
+            max_strain = f.edge_strain;
+            at_strain = s[i].arc_length;
+        }
+        if (raw) {
+            printf("course_sample %zu %.17g %.17g %.17g %.17g %.17g\n", i, s[i].frame.curve_param, s[i].arc_length,
+                   f.steering_curvature, f.edge_strain, f.twist_rate);
+        }
+    }
+    if (extremes(s, steer, n, &e_steer) || extremes(s, twist, n, &e_twist)) {
+        bad = 1;
+        goto done;
+    }
+    if (raw) {
+        printf("wing %.17g %.17g %.17g %.17g %.17g\n", wing.span, wing.chord, wing.crown, wing.taper, wing.twist);
+        print_numbers("course_knots", COURSE_KNOTS, COURSE_COUNT + 4);
+        print_numbers("course_points", points, 3 * COURSE_COUNT);
+        printf("course_setup %.17g %.17g %.17g %.17g %.17g %.17g\n", COURSE_TOLERANCE, COURSE_FIT_TOLERANCE,
+               length, FIBRE.tow_width, FIBRE.min_steering_radius, FIBRE.max_twist_rate);
+    } else {
+        printf("\nFibre course on a wing skin (%.0f x %.0f mm panel, crown %.0f mm at the root and %.0f %% less at the "
+               "tip,\n  chord line turned by %.2f rad at the tip)\n",
+               wing.span, wing.chord, wing.crown, 100.0 * wing.taper, wing.twist);
+        printf("  the course: a cubic B-spline of %d control points lifted onto the skin, projected by strake\n"
+               "  (fitted within %.2f mm): %.1f mm long, %zu samples every %.2f mm\n",
+               COURSE_COUNT, COURSE_FIT_TOLERANCE, length, n, length / (double)(n - 1));
+        printf("  %.2f mm tows; smallest steering radius %.0f mm; largest twist rate %.3f rad/m\n\n", FIBRE.tow_width,
+               FIBRE.min_steering_radius, 1000.0 * FIBRE.max_twist_rate);
+        printf("  %-28s %10.0f mm      at s = %7.1f mm\n", "smallest steering radius", 1.0 / e_steer.max,
+               e_steer.max_arc_length);
+        printf("  %-28s %10.3f %%       at s = %7.1f mm\n", "largest tow-edge strain", 100.0 * max_strain, at_strain);
+        printf("  %-28s %10.4f rad/m   at s = %7.1f mm\n", "largest twist rate |tg|", 1000.0 * e_twist.max,
+               e_twist.max_arc_length);
+        printf("\n  Where the limits are exceeded (arc length along the course, mm):\n");
+    }
+    snprintf(steer_label, sizeof steer_label, "steering radius below %.0f mm", FIBRE.min_steering_radius);
+    snprintf(twist_label, sizeof twist_label, "twist rate above %.3f rad/m", 1000.0 * FIBRE.max_twist_rate);
+    if (report_violations(raw, "steering", steer_label, "down to", inverse, 0, "mm", s, steer, n,
+                          1.0 / FIBRE.min_steering_radius) ||
+        report_violations(raw, "twist", twist_label, "up to", per_metre, 4, "rad/m", s, twist, n,
+                          FIBRE.max_twist_rate)) {
+        bad = 1;
+    }
+done:
+    free(twist);
+    free(steer);
+    free(s);
+    strake_curve_free(course);
+    strake_surface_free(skin);
+    return bad;
+}
+
+/* ----------------------------------------------------------------------------------------- */
+
+/* What mistakes look like: a parameter past the end, and a contact point off the surface. */
+static void show_refusals(const StrakeSurface *surface, const StrakeCurve *pass, const double *points)
+{
+    double moved[3 * PASS_POINTS];
+    StrakeFrame beyond;
+    StrakeCurve *never = NULL;
+    StrakeProjectionOptions options = {PASS_TOLERANCE, 0, 0, 0, 0};
+    char message[256];
+    StrakeStatus status = strake_frame_at(surface, pass, 1.25, &beyond);
+    strake_last_error_message(message, sizeof message);
+    printf("\nAsking for t = 1.25 (past the end of the pass) gives %s:\n  %s\n", strake_status_name(status), message);
+    memcpy(moved, points, sizeof moved);
+    moved[3 * 17 + 2] += 0.5; /* contact point 17 lifted 0.5 mm off the floor */
+    status = strake_curve_through_space_points(surface, moved, PASS_POINTS, &options, 3,
+                                               STRAKE_PARAMETRIZATION_CHORD_LENGTH, NULL, &never);
+    strake_last_error_message(message, sizeof message);
+    printf("A contact point lifted 0.5 mm off the surface gives %s:\n  %s\n", strake_status_name(status), message);
+    strake_curve_free(never); /* still NULL: nothing was created */
 }
 
 int main(int argc, char **argv)
 {
     double net[3 * COUNT_U * COUNT_V];
+    double points[3 * PASS_POINTS];
+    StrakeProjection feet[PASS_POINTS];
+    StrakeProjectionOptions options = {PASS_TOLERANCE, 0, 0, 0, 0};
+    StrakeSample frames[FRAME_SAMPLES];
     BsplinePatch patch;
     StrakeSurface *surface = NULL;
-    StrakeCurve *path = NULL;
-    StrakeFrame frames[SAMPLES];
+    StrakeCurve *pass = NULL;
     StrakeStatus status;
+    size_t count = 0, i;
+    double farthest = 0.0;
     int raw = argc > 1 && strcmp(argv[1], "--raw") == 0;
+    int bad = 0;
 
     if (strcmp(strake_version(), STRAKE_VERSION_STRING) != 0) {
         fprintf(stderr, "mould_cavity: header %s but library %s\n", STRAKE_VERSION_STRING, strake_version());
@@ -226,36 +627,52 @@ int main(int argc, char **argv)
     patch.knots_u = KNOTS_U;
     patch.knots_v = KNOTS_V;
     patch.net = net;
+    make_pass(&patch, points);
 
     status = strake_surface_from_callback(cavity_surface, &patch, 0.0, 1.0, 0.0, 1.0, 0, &surface);
     if (status != STRAKE_STATUS_OK) {
         return fail("strake_surface_from_callback", status);
     }
-    status = strake_curve_new_nurbs(3, PATH_KNOTS, PATH_COUNT + 4, PATH_UV, PATH_COUNT, NULL, &path);
+    /* The pass as strake sees it: the contact points projected onto the surface and joined by a
+     * C2 cubic in the surface's parameter plane. */
+    status = strake_curve_through_space_points(surface, points, PASS_POINTS, &options, 3,
+                                               STRAKE_PARAMETRIZATION_CHORD_LENGTH, feet, &pass);
     if (status != STRAKE_STATUS_OK) {
         strake_surface_free(surface);
-        return fail("strake_curve_new_nurbs", status);
+        return fail("strake_curve_through_space_points", status);
     }
-    status = strake_frames_even(surface, path, SAMPLES, frames);
+    for (i = 0; i < PASS_POINTS; i++) {
+        farthest = feet[i].distance > farthest ? feet[i].distance : farthest;
+    }
+    status = strake_sample_even_arc(surface, pass, FRAME_SAMPLES, ARC_TOLERANCE, frames, FRAME_SAMPLES, &count);
     if (status != STRAKE_STATUS_OK) {
-        strake_curve_free(path);
-        strake_surface_free(surface);
-        return fail("strake_frames_even", status);
+        bad = fail("strake_sample_even_arc", status);
     }
 
-    if (raw) {
-        print_raw(net, frames, SAMPLES);
-    } else {
-        StrakeFrame beyond;
-        char message[256];
-        print_table(frames, SAMPLES);
-        /* What a mistake looks like: a parameter past the end of the pass is refused. */
-        status = strake_frame_at(surface, path, 1.25, &beyond);
-        strake_last_error_message(message, sizeof message);
-        printf("\nAsking for t = 1.25 (past the end of the pass) gives %s:\n  %s\n", strake_status_name(status),
-               message);
+    if (!bad && raw) {
+        printf("surface_degree 3 3\nsurface_count %d %d\n", COUNT_U, COUNT_V);
+        print_numbers("knots_u", KNOTS_U, COUNT_U + 4);
+        print_numbers("knots_v", KNOTS_V, COUNT_V + 4);
+        print_numbers("net", net, 3 * COUNT_U * COUNT_V);
+        print_numbers("pass_points", points, 3 * PASS_POINTS);
+        printf("pass_tolerance %.17g\n", PASS_TOLERANCE);
+        for (i = 0; i < PASS_POINTS; i++) {
+            printf("pass_foot %zu %.17g %.17g %.17g %.17g\n", i, feet[i].u, feet[i].v, feet[i].distance,
+                   feet[i].signed_distance);
+        }
+    } else if (!bad) {
+        printf("Finishing pass across a mould cavity (160 x 100 mm pocket, bicubic B-spline floor)\n");
+        printf("N points out of the cavity toward the tool; curvature > 0 = concave as the tool sees it.\n");
+        printf("Lengths in mm, curvatures in 1/mm, torsion in rad/mm.\n\n");
+        printf("The host's pass: %d contact points on its own surface, made a curve by strake\n", PASS_POINTS);
+        printf("  (projected, the farthest %.1e mm from the surface, and interpolated in (u, v)): %.2f mm long\n",
+               farthest, frames[FRAME_SAMPLES - 1].arc_length);
     }
-    strake_curve_free(path);
+    bad = bad || report_frames(raw, frames, FRAME_SAMPLES) || check_milling(raw, surface, pass) || check_course(raw);
+    if (!bad && !raw) {
+        show_refusals(surface, pass, points);
+    }
+    strake_curve_free(pass);
     strake_surface_free(surface);
-    return 0;
+    return bad;
 }

@@ -53,7 +53,7 @@ pub struct GougeState {
 }
 
 /// The local gouge state of `cutter` at frame `f`, with the tool on `side` and its axis set by
-/// `angles` (see [`super::tool_axis`] for the conventions).
+/// `angles` (see [`mod@super::tool_axis`] for the conventions).
 ///
 /// Errors: `InvalidArgument` for an invalid cutter or angles.
 pub fn gouge_state(

@@ -24,7 +24,8 @@ pub use feed::{FeedLimits, curvature_limited_feed};
 pub use fibre::{FibreLimits, FibreState, fibre_state};
 pub use gouge::{GougeState, gouge_state};
 pub use scallop::{
-    scallop_height, scallop_height_approx, step_over_for_scallop, step_over_for_scallop_approx,
+    cross_path_curvature, scallop_height, scallop_height_approx, step_over_for_scallop,
+    step_over_for_scallop_approx,
 };
-pub use summary::{Extremes, Violation, extremes, violations};
+pub use summary::{Extremes, PathPosition, Violation, extremes, violations};
 pub use tool_axis::{ToolAngles, tool_axis};

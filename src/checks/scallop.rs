@@ -20,7 +20,22 @@
 //! (see [`super::Cutter::effective_radius`]) as `r`: a common approximation.
 //! Lengths in the host's unit.
 
+use super::cutter::ToolSide;
 use crate::error::{Result, StrakeError};
+use crate::frame::DarbouxFrame;
+
+/// The curvature across the path, concave toward the tool: κ = s κn(B), the normal curvature
+/// in the direction B = N × T (across the path, in the tangent plane) times the tool-side sign
+/// s of [`ToolSide::sign`] (1/length; positive where the surface bends toward the tool). This is
+/// the `kappa` the scallop functions below take.
+///
+/// By Euler's formula κn(B) = k1 (B·d1)² + k2 (B·d2)² (do Carmo §3-2), which equals
+/// k1 + k2 − κn(T). Every finite frame gives a finite value.
+pub fn cross_path_curvature(f: &DarbouxFrame, side: ToolSide) -> f64 {
+    let p = &f.principal;
+    let (c, s) = (f.b.dot(&p.d1), f.b.dot(&p.d2));
+    side.sign() * (p.k1 * c * c + p.k2 * s * s)
+}
 
 fn check(name: &str, x: f64, positive: bool) -> Result<()> {
     let ok = x.is_finite() && if positive { x > 0.0 } else { true };

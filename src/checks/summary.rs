@@ -10,6 +10,26 @@
 use crate::error::{Result, StrakeError};
 use crate::path::PathSample;
 
+/// Where a sample lies along a path: what the summaries need of it. Implemented by
+/// [`PathSample`] (and by the C ABI's sample struct).
+pub trait PathPosition {
+    /// Curve parameter t.
+    fn t(&self) -> f64;
+    /// Arc length from the start of the path (host length unit).
+    fn arc_length(&self) -> f64;
+}
+
+impl PathPosition for PathSample {
+    #[inline]
+    fn t(&self) -> f64 {
+        self.t
+    }
+    #[inline]
+    fn arc_length(&self) -> f64 {
+        self.arc_length
+    }
+}
+
 /// Where a quantity is smallest and largest along a path.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Extremes {
@@ -50,7 +70,7 @@ pub struct Violation {
     pub worst: f64,
 }
 
-fn check_lengths(samples: &[PathSample], values: &[f64]) -> Result<()> {
+fn check_lengths<P: PathPosition>(samples: &[P], values: &[f64]) -> Result<()> {
     if samples.is_empty() || samples.len() != values.len() {
         return Err(StrakeError::InvalidArgument(format!(
             "{} samples and {} values: need the same, non-zero count",
@@ -61,12 +81,22 @@ fn check_lengths(samples: &[PathSample], values: &[f64]) -> Result<()> {
     if let Some(i) = values.iter().position(|v| v.is_nan()) {
         return Err(StrakeError::InvalidArgument(format!("value[{i}] is NaN")));
     }
+    for (i, p) in samples.iter().enumerate() {
+        for (what, x) in [("t", p.t()), ("arc length", p.arc_length())] {
+            if !x.is_finite() {
+                return Err(StrakeError::InvalidArgument(format!(
+                    "sample[{i}] has {what} = {x}; it must be finite"
+                )));
+            }
+        }
+    }
     Ok(())
 }
 
-/// The extremes of `values[i]` (the quantity at `samples[i]`). Errors: `InvalidArgument` for
-/// empty or mismatched arrays, or a NaN value (naming its index).
-pub fn extremes(samples: &[PathSample], values: &[f64]) -> Result<Extremes> {
+/// The extremes of `values[i]` (the quantity at `samples[i]`). Values may be infinite (e.g. a
+/// steering radius along a geodesic). Errors: `InvalidArgument` for empty or mismatched
+/// arrays, a NaN value, or a sample whose t or arc length is not finite (naming its index).
+pub fn extremes<P: PathPosition>(samples: &[P], values: &[f64]) -> Result<Extremes> {
     check_lengths(samples, values)?;
     let (mut lo, mut hi) = (0, 0);
     for (i, &v) in values.iter().enumerate() {
@@ -80,32 +110,32 @@ pub fn extremes(samples: &[PathSample], values: &[f64]) -> Result<Extremes> {
     Ok(Extremes {
         min: values[lo],
         min_index: lo,
-        min_arc_length: samples[lo].arc_length,
-        min_t: samples[lo].t,
+        min_arc_length: samples[lo].arc_length(),
+        min_t: samples[lo].t(),
         max: values[hi],
         max_index: hi,
-        max_arc_length: samples[hi].arc_length,
-        max_t: samples[hi].t,
+        max_arc_length: samples[hi].arc_length(),
+        max_t: samples[hi].t(),
     })
 }
 
 /// Where the crossing of `limit` lies between samples a and b, as (arc length, t).
-fn crossing(a: &PathSample, va: f64, b: &PathSample, vb: f64, limit: f64) -> (f64, f64) {
+fn crossing<P: PathPosition>(a: &P, va: f64, b: &P, vb: f64, limit: f64) -> (f64, f64) {
     let f = (limit - va) / (vb - va);
     if !f.is_finite() {
-        return (b.arc_length, b.t);
+        return (b.arc_length(), b.t());
     }
     let f = f.clamp(0.0, 1.0);
     (
-        a.arc_length + f * (b.arc_length - a.arc_length),
-        a.t + f * (b.t - a.t),
+        a.arc_length() + f * (b.arc_length() - a.arc_length()),
+        a.t() + f * (b.t() - a.t()),
     )
 }
 
 /// Every maximal run of samples with `values[i] > limit`, with interpolated ends, appended to
 /// `out` in path order. Errors as for [`extremes`], and for a NaN limit.
-pub fn violations(
-    samples: &[PathSample],
+pub fn violations<P: PathPosition>(
+    samples: &[P],
     values: &[f64],
     limit: f64,
     out: &mut Vec<Violation>,
@@ -129,7 +159,7 @@ pub fn violations(
         }
         let last = i;
         let (s0, t0) = if first == 0 {
-            (samples[0].arc_length, samples[0].t)
+            (samples[0].arc_length(), samples[0].t())
         } else {
             crossing(
                 &samples[first - 1],
@@ -140,7 +170,7 @@ pub fn violations(
             )
         };
         let (s1, t1) = if last + 1 == n {
-            (samples[last].arc_length, samples[last].t)
+            (samples[last].arc_length(), samples[last].t())
         } else {
             crossing(
                 &samples[last],

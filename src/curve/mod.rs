@@ -17,6 +17,14 @@ pub trait UvCurve: Send + Sync {
     /// ([`UvCurve::checked_jet`]).
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet>;
 
+    /// Parameters strictly inside the domain, ascending, where the curve's derivatives may be
+    /// discontinuous (a spline's interior knots). Arc-length quadrature splits there, since an
+    /// integrand that is not smooth inside an interval defeats its error estimate. None by
+    /// default.
+    fn breakpoints(&self) -> &[f64] {
+        &[]
+    }
+
     /// The jet at t: checks that t is finite and inside the domain, evaluates, and checks that
     /// the jet is finite. Errors: `NonFinite`, `OutOfDomain`, and whatever the source reports.
     #[inline]
@@ -31,6 +39,9 @@ pub trait UvCurve: Send + Sync {
 impl UvCurve for NurbsCurve<2> {
     fn domain(&self) -> Interval {
         NurbsCurve::domain(self)
+    }
+    fn breakpoints(&self) -> &[f64] {
+        self.knot_vector().interior_breaks()
     }
     #[inline]
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
@@ -81,6 +92,9 @@ impl<C: UvCurve + ?Sized> UvCurve for &C {
     }
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
         (**self).jet_in_domain(t, hint)
+    }
+    fn breakpoints(&self) -> &[f64] {
+        (**self).breakpoints()
     }
 }
 

@@ -22,8 +22,10 @@ use std::ffi::c_void;
 pub type StrakeCurveFn =
     Option<unsafe extern "C" fn(user_data: *mut c_void, t: f64, out: *mut StrakeCurveJet) -> i32>;
 
-/// An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs` or
-/// `strake_curve_from_callback`, released by `strake_curve_free`. Immutable after creation, so
+/// An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
+/// `strake_curve_from_callback`, `strake_curve_through_uv_points`,
+/// `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
+/// `strake_curve_free`. Immutable after creation, so
 /// one handle may be evaluated from many threads at once, and used with any surface.
 pub struct StrakeCurve {
     curve: Box<dyn UvCurve>,
@@ -41,7 +43,10 @@ impl StrakeCurve {
     }
 }
 
-fn publish(curve: StrakeCurve, out: *mut *mut StrakeCurve) -> std::result::Result<(), Failure> {
+pub(crate) fn publish(
+    curve: StrakeCurve,
+    out: *mut *mut StrakeCurve,
+) -> std::result::Result<(), Failure> {
     let slot = output(out, "out")?;
     // SAFETY: `out` was checked non-null and aligned; the caller provides a writable slot.
     unsafe {

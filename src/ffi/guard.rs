@@ -72,7 +72,12 @@ impl From<SampleError> for Failure {
     fn from(e: SampleError) -> Self {
         Failure {
             status: StrakeStatus::of(&e.error),
-            message: e.to_string(),
+            // A failure of the whole call (bad options) carries no sample: t is NaN then.
+            message: if e.t.is_nan() {
+                e.error.to_string()
+            } else {
+                e.to_string()
+            },
             callback_code: callback_code(&e.error),
         }
     }
@@ -181,6 +186,78 @@ pub(crate) unsafe fn input_slice<'a, T>(
 /// An output slot (NULL and alignment checked). Only written once everything has succeeded.
 pub(crate) fn output<T>(p: *mut T, name: &str) -> Result<NonNull<MaybeUninit<T>>, Failure> {
     Ok(non_null(p.cast_const(), name)?.cast())
+}
+
+/// A caller buffer of the one buffer pattern of the ABI: `T *buf, size_t capacity,
+/// size_t *count`. On success the result is copied to `buf` and `*count` is its length; when
+/// the result does not fit, `*count` is set to the length needed, nothing is written to `buf`,
+/// and the call fails with `STRAKE_STATUS_BUFFER_TOO_SMALL`. `buf` may be NULL when
+/// `capacity` is 0 (a size query).
+pub(crate) struct OutBuffer<T> {
+    buf: *mut T,
+    capacity: usize,
+    count: NonNull<MaybeUninit<usize>>,
+}
+
+/// Checks a caller buffer: `count` must not be NULL; when `capacity` > 0, `buf` must not be
+/// NULL, must be aligned, and `capacity` elements must fit in memory. Writes nothing.
+pub(crate) fn out_buffer<T>(
+    buf: *mut T,
+    capacity: usize,
+    count: *mut usize,
+) -> Result<OutBuffer<T>, Failure> {
+    let count = output(count, "count")?;
+    if capacity > 0 {
+        non_null(buf.cast_const(), "buf")?;
+        check_count::<T>(capacity, "capacity")?;
+    }
+    Ok(OutBuffer {
+        buf,
+        capacity,
+        count,
+    })
+}
+
+impl<T: Copy> OutBuffer<T> {
+    /// How many elements the caller's buffer holds.
+    pub fn capacity(&self) -> usize {
+        self.capacity
+    }
+
+    /// Writes `*count = needed` (the one output written on this failure) and returns the
+    /// `STRAKE_STATUS_BUFFER_TOO_SMALL` failure; `what` names the elements ("samples").
+    pub fn too_small(self, needed: usize, what: &str) -> Failure {
+        // SAFETY: `count` was checked non-null and aligned; the caller provides a writable
+        // size_t.
+        unsafe { self.count.as_ptr().write(MaybeUninit::new(needed)) };
+        Failure::new(
+            StrakeStatus::BufferTooSmall,
+            format!(
+                "buffer too small: {needed} {what} needed, `capacity` = {}; `*count` now holds \
+                 the number needed, nothing was written to `buf`",
+                self.capacity
+            ),
+        )
+    }
+
+    /// Copies `items` to the caller's buffer and writes `*count`, or fails with
+    /// [`OutBuffer::too_small`] when they do not fit.
+    pub fn deliver(self, items: &[T], what: &str) -> Result<(), Failure> {
+        let n = items.len();
+        if n > self.capacity {
+            return Err(self.too_small(n, what));
+        }
+        // SAFETY: when n > 0, capacity >= n > 0, so `buf` was checked non-null and aligned and
+        // the caller provides room for `capacity` elements; `items` is our own buffer and
+        // cannot overlap it. `count` was checked non-null and aligned.
+        unsafe {
+            if n > 0 {
+                std::ptr::copy_nonoverlapping(items.as_ptr(), self.buf, n);
+            }
+            self.count.as_ptr().write(MaybeUninit::new(n));
+        }
+        Ok(())
+    }
 }
 
 #[cfg(test)]

@@ -11,7 +11,10 @@
 //! - Every pointer is checked: NULL (or misaligned) gives `STRAKE_STATUS_NULL_POINTER` naming
 //!   the argument; counts of zero or sizes that overflow give `STRAKE_STATUS_INVALID_ARGUMENT`.
 //! - Outputs are written only on success; on failure the thread-local message (see
-//!   `strake_last_error_message`) says which argument, index, value or sample was wrong.
+//!   `strake_last_error_message`) says which argument, index, value or sample was wrong. The
+//!   one exception: a function that fills a caller buffer (`buf`, `capacity`, `count`, see
+//!   `guard::OutBuffer`) writes `*count` = the number of elements needed when it returns
+//!   `STRAKE_STATUS_BUFFER_TOO_SMALL`, and nothing else.
 //! - Inputs are `const` pointers, outputs non-`const`; arrays are copied at creation, so the
 //!   host may free them after the call. Handles are owned by the host and released with the
 //!   matching `_free` function, where NULL is a no-op.
@@ -28,17 +31,24 @@
 pub(crate) mod guard;
 
 pub mod batch_callback;
+pub mod checks;
 pub mod curve;
 pub mod evaluate;
 pub mod message;
 pub mod nurbs_surface;
 pub mod parallel;
+pub mod path_curves;
+pub mod sampling;
 pub mod status;
 pub mod surface;
 pub mod types;
 pub mod version;
 
 pub use batch_callback::{StrakeSurfaceBatchFn, strake_surface_from_batch_callback};
+pub use checks::{
+    strake_check_feed, strake_check_fibre, strake_check_gouge, strake_check_scallop,
+    strake_check_step_over, strake_path_extremes, strake_path_violations, strake_tool_axis,
+};
 pub use curve::{
     StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
     strake_curve_new_nurbs,
@@ -47,9 +57,22 @@ pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, st
 pub use message::{strake_last_callback_code, strake_last_error_message};
 pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
 pub use parallel::strake_frames_at_parallel;
+pub use path_curves::{
+    strake_curve_project_nurbs, strake_curve_through_space_points, strake_curve_through_uv_points,
+    strake_surface_project_points,
+};
+pub use sampling::{
+    strake_arc_length, strake_sample_chordal, strake_sample_even_arc, strake_sample_even_t,
+};
 pub use status::{StrakeStatus, strake_status_name};
 pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
 };
-pub use types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurfaceJet};
+pub use types::{
+    StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
+    StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,
+    StrakeParametrization, StrakeProjection, StrakeProjectionOptions, StrakeSample, StrakeScallop,
+    StrakeStepOver, StrakeSurfaceJet, StrakeToolAngles, StrakeToolAxis, StrakeToolSide,
+    StrakeViolation,
+};
 pub use version::strake_version;

@@ -10,9 +10,7 @@ use crate::error::StrakeError;
 /// area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 90-99
 /// internal). New values take the next free number of their group; a retired value stays listed
 /// here as a comment and its number is never given to anything else. Hosts should treat an
-/// unknown non-zero value as a failure (a newer library may add values). Number 4 is reserved
-/// (a "buffer too small" status that this version never returns: the message function reports
-/// the size it needs instead).
+/// unknown non-zero value as a failure (a newer library may add values).
 ///
 /// In C the type is a `uint32_t`; the values are the `STRAKE_STATUS_...` constants.
 #[repr(u32)]
@@ -31,8 +29,14 @@ pub enum StrakeStatus {
     /// an entry of a jet filled by a host callback (the message names the entry, e.g. "Suv"
     /// or "ddv"), or a result that overflowed.
     NonFinite = 3,
-    // 4: reserved for "buffer too small"; never returned by this version (the message function
-    // reports the size it needs instead). Not to be given to anything else.
+    /// 4: the caller's buffer is too small for the result. The one failure that writes an
+    /// output: the function's `*count` is set to the number of elements needed, and nothing
+    /// is written to the buffer, so the caller can allocate that many and call again (the
+    /// result is deterministic: the retry gives exactly what a large enough first call would
+    /// have). Returned by the functions that fill a caller buffer (`buf`, `capacity`,
+    /// `count`): sampling and violation intervals. (The message function reports its size
+    /// through its return value instead.)
+    BufferTooSmall = 4,
     /// 10: degree, control-point count and knot count do not fit together (degree 0, too few
     /// points, knot count other than points + degree + 1).
     InvalidDegree = 10,
@@ -92,11 +96,12 @@ impl StrakeStatus {
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 16] = [
+    pub const ALL: [StrakeStatus; 17] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
         StrakeStatus::NonFinite,
+        StrakeStatus::BufferTooSmall,
         StrakeStatus::InvalidDegree,
         StrakeStatus::InvalidKnots,
         StrakeStatus::InvalidControlPoint,
@@ -118,6 +123,7 @@ impl StrakeStatus {
             StrakeStatus::NullPointer => c"STRAKE_STATUS_NULL_POINTER",
             StrakeStatus::InvalidArgument => c"STRAKE_STATUS_INVALID_ARGUMENT",
             StrakeStatus::NonFinite => c"STRAKE_STATUS_NON_FINITE",
+            StrakeStatus::BufferTooSmall => c"STRAKE_STATUS_BUFFER_TOO_SMALL",
             StrakeStatus::InvalidDegree => c"STRAKE_STATUS_INVALID_DEGREE",
             StrakeStatus::InvalidKnots => c"STRAKE_STATUS_INVALID_KNOTS",
             StrakeStatus::InvalidControlPoint => c"STRAKE_STATUS_INVALID_CONTROL_POINT",

@@ -1,8 +1,17 @@
-//! The plain C structs of the ABI: jets in, frames out, and the parameter scales.
+//! The plain C structs of the ABI: jets in, frames out, the parameter scales; samples,
+//! projections; the inputs and results of the checks; and the enums whose values some
+//! arguments take.
 
-use crate::frame::{DarbouxFrame, ParamScales};
+use crate::checks::summary::PathPosition;
+use crate::checks::tool_axis::ToolAxis;
+use crate::checks::{Extremes, FibreState, GougeState, Violation};
+use crate::error::{NonFiniteSource, StrakeError};
+use crate::frame::{Conditioning, DarbouxFrame, ParamScales};
 use crate::jet::{CurveJet, SurfaceJet};
 use crate::math::{arr3, vec3};
+use crate::path::PathSample;
+use crate::principal::PrincipalCurvatures;
+use crate::projection::Projection;
 
 /// A surface point S(u, v) with its partial derivatives, filled by a host surface callback
 /// (or passed to `strake_frame_from_jets`). Each entry is an (x, y, z) triple in the host's
@@ -181,6 +190,469 @@ impl StrakeFrame {
             gaussian_curvature: f.principal.gaussian,
             surface_conditioning: f.conditioning.surface,
             curve_speed_figure: f.conditioning.curve,
+        }
+    }
+}
+
+/// Fails with `NonFinite` naming `what` unless every entry of `x` is finite.
+fn finite_field(what: &'static str, x: &[f64]) -> Result<(), StrakeError> {
+    match x.iter().find(|v| !v.is_finite()) {
+        Some(&value) => Err(StrakeError::NonFinite {
+            source: NonFiniteSource::Parameter,
+            what,
+            value,
+        }),
+        None => Ok(()),
+    }
+}
+
+/// How far from 1 the length of a unit vector of a frame passed in by the host may be
+/// (relative): loose enough for a frame stored in single precision, tight enough to catch a
+/// zeroed or half-filled struct.
+pub const UNIT_VECTOR_SLACK: f64 = 1e-6;
+
+impl StrakeFrame {
+    /// The frame of the Rust API for a frame passed in by the host (to the check functions),
+    /// checked: every number must be finite (`NonFinite` naming the field, e.g. "frame.k1"),
+    /// and T, B, N, dir1 and dir2 must have unit length to [`UNIT_VECTOR_SLACK`]
+    /// (`InvalidArgument` naming the field). The one place where a C frame becomes a
+    /// [`DarbouxFrame`] again.
+    pub fn to_darboux(&self) -> Result<DarbouxFrame, StrakeError> {
+        let scalars: [(&'static str, f64); 16] = [
+            ("frame.curve_param", self.curve_param),
+            ("frame.u", self.u),
+            ("frame.v", self.v),
+            ("frame.normal_curvature", self.normal_curvature),
+            ("frame.geodesic_curvature", self.geodesic_curvature),
+            ("frame.geodesic_torsion", self.geodesic_torsion),
+            ("frame.speed", self.speed),
+            ("frame.k1", self.k1),
+            ("frame.k2", self.k2),
+            ("frame.mean_curvature", self.mean_curvature),
+            ("frame.gaussian_curvature", self.gaussian_curvature),
+            ("frame.surface_conditioning", self.surface_conditioning),
+            ("frame.curve_speed_figure", self.curve_speed_figure),
+            ("frame.point.x", self.point[0]),
+            ("frame.point.y", self.point[1]),
+            ("frame.point.z", self.point[2]),
+        ];
+        for (what, x) in scalars {
+            finite_field(what, &[x])?;
+        }
+        let units: [(&'static str, &[f64; 3]); 5] = [
+            ("frame.tangent", &self.tangent),
+            ("frame.side", &self.side),
+            ("frame.normal", &self.normal),
+            ("frame.dir1", &self.dir1),
+            ("frame.dir2", &self.dir2),
+        ];
+        for (what, x) in units {
+            finite_field(what, x)?;
+            let len = vec3(*x).norm();
+            if (len - 1.0).abs() > UNIT_VECTOR_SLACK {
+                return Err(StrakeError::InvalidArgument(format!(
+                    "{what} = ({}, {}, {}) has length {len}; it must be a unit vector (pass a \
+                     frame computed by strake)",
+                    x[0], x[1], x[2]
+                )));
+            }
+        }
+        Ok(DarbouxFrame {
+            u: self.u,
+            v: self.v,
+            point: vec3(self.point),
+            t: vec3(self.tangent),
+            b: vec3(self.side),
+            n: vec3(self.normal),
+            normal_curvature: self.normal_curvature,
+            geodesic_curvature: self.geodesic_curvature,
+            geodesic_torsion: self.geodesic_torsion,
+            speed: self.speed,
+            principal: PrincipalCurvatures {
+                k1: self.k1,
+                k2: self.k2,
+                d1: vec3(self.dir1),
+                d2: vec3(self.dir2),
+                mean: self.mean_curvature,
+                gaussian: self.gaussian_curvature,
+            },
+            conditioning: Conditioning {
+                surface: self.surface_conditioning,
+                curve: self.curve_speed_figure,
+            },
+        })
+    }
+}
+
+/// One sample of a path, from the sampling functions (`strake_sample_even_t`,
+/// `strake_sample_even_arc`, `strake_sample_chordal`): the frame (whose `curve_param` is the
+/// sample's t) and the arc length along the curve on the surface from the start of the
+/// curve's domain to the sample (host length unit).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeSample {
+    /// The frame at the sample; `frame.curve_param` is its curve parameter t.
+    pub frame: StrakeFrame,
+    /// Arc length from the start of the curve to this sample (host length unit).
+    pub arc_length: f64,
+}
+
+impl StrakeSample {
+    /// The C sample for a sample of the Rust API.
+    pub fn new(s: &PathSample) -> Self {
+        StrakeSample {
+            frame: StrakeFrame::new(s.t, &s.frame),
+            arc_length: s.arc_length,
+        }
+    }
+}
+
+impl PathPosition for StrakeSample {
+    #[inline]
+    fn t(&self) -> f64 {
+        self.frame.curve_param
+    }
+    #[inline]
+    fn arc_length(&self) -> f64 {
+        self.arc_length
+    }
+}
+
+/// How interpolation places the curve parameters of the points: the values of the
+/// `parametrization` argument of the interpolating constructors.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeParametrization {
+    /// 0: chord length, parameter steps proportional to the distances between consecutive
+    /// points (The NURBS Book eq. 9.5); the accurate choice for smooth data.
+    ChordLength = 0,
+    /// 1: centripetal, steps proportional to the square roots of the distances (eq. 9.6);
+    /// gentler on sharp turns of the data.
+    Centripetal = 1,
+}
+
+/// Options of point projection (point inversion onto a surface), for the functions that take
+/// points in space.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct StrakeProjectionOptions {
+    /// The largest accepted distance from a point to the surface (host length unit); positive,
+    /// or INFINITY to accept any distance. A point farther away gives
+    /// `STRAKE_STATUS_TOO_FAR_FROM_SURFACE`.
+    pub tolerance: f64,
+    /// 1 when the surface closes across u = u_min / u_max (a seam, e.g. around a cylinder), so
+    /// that a path may cross it; 0 otherwise.
+    pub periodic_u: i32,
+    /// 1 when the surface closes across v = v_min / v_max; 0 otherwise.
+    pub periodic_v: i32,
+    /// Cells per direction of the coarse search grid that finds the first foot point: 0 for the
+    /// default (16), else 2 to 1000.
+    pub grid: u32,
+    /// Newton iterations per start: 0 for the default (40), else 1 to 1000.
+    pub max_iterations: u32,
+}
+
+/// Where a point in space lands on the surface.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeProjection {
+    /// Surface parameter u of the foot point (inside the u domain).
+    pub u: f64,
+    /// Surface parameter v of the foot point.
+    pub v: f64,
+    /// The foot point S(u, v).
+    pub foot: [f64; 3],
+    /// Distance |S(u, v) - P| from the point to its foot point (host length unit).
+    pub distance: f64,
+    /// Signed distance (P - S).N: positive when the point lies on the side N points to.
+    pub signed_distance: f64,
+}
+
+impl From<&Projection> for StrakeProjection {
+    fn from(p: &Projection) -> Self {
+        StrakeProjection {
+            u: p.u,
+            v: p.v,
+            foot: arr3(&p.foot),
+            distance: p.distance,
+            signed_distance: p.signed_distance,
+        }
+    }
+}
+
+/// The side of the surface the tool is on: the values of the `tool_side` argument of the
+/// checks.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeToolSide {
+    /// 0: on the side the surface normal N points to.
+    AlongNormal = 0,
+    /// 1: on the side opposite to N.
+    AgainstNormal = 1,
+}
+
+/// The kinds of milling cutter: the values of `StrakeCutter.kind`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeCutterKind {
+    /// 0: ball-end mill of radius `radius`.
+    Ball = 0,
+    /// 1: flat-end mill of radius `radius`.
+    Flat = 1,
+    /// 2: toroidal (bull-nose) mill of radius `radius` (axis to the outermost point of the
+    /// cutting edge) and corner radius `corner_radius`.
+    Toroidal = 2,
+}
+
+/// A milling cutter's shape (host length unit). Every cutter is a torus swept about the tool
+/// axis: a corner circle of radius r whose centre lies at R from the axis (ball: R = 0,
+/// r = radius; flat: R = radius, r = 0; toroidal: R = radius - corner_radius,
+/// r = corner_radius).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct StrakeCutter {
+    /// One of the `STRAKE_CUTTER_KIND_...` values.
+    pub kind: u32,
+    /// Tool radius, positive and finite.
+    pub radius: f64,
+    /// Corner radius of a toroidal cutter, 0 < corner_radius <= radius; ignored for ball and
+    /// flat cutters.
+    pub corner_radius: f64,
+}
+
+/// Lead and tilt angles of the tool axis (radians, each strictly inside (-pi/2, pi/2)).
+///
+/// The axis a (from the cutter tip toward the spindle) is
+/// a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, with n_t = N when the
+/// tool is on the N side and -N otherwise: lead leans the axis from the tool-side normal toward
+/// the feed direction T, tilt then toward B. Both 0: the axis along the tool-side normal.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeToolAngles {
+    /// Lead angle (radians): toward the feed direction T.
+    pub lead: f64,
+    /// Tilt angle (radians): toward the side direction B.
+    pub tilt: f64,
+}
+
+/// The local gouge situation of a cutter at one sample (second-order contact). Curvatures in
+/// 1/length, radii in the host's length unit; "concave" means bending toward the tool.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeGougeState {
+    /// Largest curvature of the surface concave toward the tool, max(s k1, s k2) with s = +1
+    /// for a tool on the N side, -1 otherwise; <= 0 where the surface bends away from the tool
+    /// in every direction.
+    pub concave_curvature: f64,
+    /// Smallest concave radius of curvature 1/concave_curvature: the largest ball-end radius
+    /// free of local gouging. INFINITY when concave_curvature <= 0.
+    pub concave_radius: f64,
+    /// Effective cutting radius across the direction in which the axis is inclined by beta
+    /// from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
+    /// INFINITY for a flat or toroidal cutter with its axis along the normal).
+    pub effective_radius_cross: f64,
+    /// Effective cutting radius along the inclination: the corner radius r (0 for a flat-end
+    /// mill).
+    pub effective_radius_along: f64,
+    /// Smallest eigenvalue of (cutter curvature - surface curvature toward the tool) over the
+    /// tangent directions (1/length); negative means local gouging.
+    pub margin: f64,
+    /// 1 when the cutter gouges locally (margin below zero beyond round-off), else 0.
+    pub gouges: i32,
+    /// 1 when some lead angle in [0, pi/2) avoids local gouging at the given tilt; 0 when none
+    /// does (the cutter is too large for the concavity whatever its inclination).
+    pub has_min_lead: i32,
+    /// The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise.
+    pub min_lead: f64,
+}
+
+impl From<&GougeState> for StrakeGougeState {
+    fn from(g: &GougeState) -> Self {
+        StrakeGougeState {
+            concave_curvature: g.concave_curvature,
+            concave_radius: g.concave_radius,
+            effective_radius_cross: g.effective_radius_cross,
+            effective_radius_along: g.effective_radius_along,
+            margin: g.margin,
+            gouges: i32::from(g.gouges),
+            has_min_lead: i32::from(g.min_lead.is_some()),
+            min_lead: g.min_lead.unwrap_or(0.0),
+        }
+    }
+}
+
+/// Scallop height left between adjacent passes of a cutter at one sample.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeScallop {
+    /// Curvature of the surface across the path, concave toward the tool:
+    /// kappa = s kn(B) (1/length; positive where the surface bends toward the tool).
+    pub cross_curvature: f64,
+    /// Exact scallop height (circle geometry in the plane across the path; host length unit).
+    pub height: f64,
+    /// The approximation (w^2/8)(1/r - kappa).
+    pub height_approx: f64,
+}
+
+/// The largest step-over for a target scallop height at one sample.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeStepOver {
+    /// Curvature across the path, concave toward the tool (as in `StrakeScallop`).
+    pub cross_curvature: f64,
+    /// The largest step-over (arc length across the path) keeping the exact scallop height at
+    /// or below the target.
+    pub step_over: f64,
+    /// The approximation sqrt(8 h / (1/r - kappa)).
+    pub step_over_approx: f64,
+}
+
+/// Machine limits of the curvature-limited feed, in one consistent set of units (e.g. mm, s:
+/// feed in mm/s, acceleration in mm/s^2, jerk in mm/s^3).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeFeedLimits {
+    /// Programmed (largest) feed; positive and finite.
+    pub feed: f64,
+    /// Largest acceleration normal to the path; positive and finite.
+    pub max_acceleration: f64,
+    /// Largest jerk; positive and finite, or 0 for none (jerk not limited).
+    pub max_jerk: f64,
+}
+
+/// Limits of a fibre course (host length unit).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeFibreLimits {
+    /// Tow (or tape) width; positive and finite.
+    pub tow_width: f64,
+    /// Smallest admissible steering radius; positive and finite.
+    pub min_steering_radius: f64,
+    /// Largest admissible twist rate |tg| (radians per length); positive and finite.
+    pub max_twist_rate: f64,
+}
+
+/// Steering and twist of a fibre course at one sample.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeFibreState {
+    /// Steering curvature |kg| (1/length): the in-plane bending of the tow.
+    pub steering_curvature: f64,
+    /// Steering radius 1/|kg| (INFINITY along a geodesic, the unsteered path).
+    pub steering_radius: f64,
+    /// Tow-edge strain (w/2)|kg| (dimensionless): one edge stretched, the other compressed.
+    pub edge_strain: f64,
+    /// Twist rate tg (radians per length, signed): how fast the tangent plane turns about the
+    /// course.
+    pub twist_rate: f64,
+    /// 1 when the steering radius is below the minimum, else 0.
+    pub steering_violated: i32,
+    /// 1 when |tg| exceeds the largest twist rate, else 0.
+    pub twist_violated: i32,
+}
+
+impl From<&FibreState> for StrakeFibreState {
+    fn from(f: &FibreState) -> Self {
+        StrakeFibreState {
+            steering_curvature: f.steering_curvature,
+            steering_radius: f.steering_radius,
+            edge_strain: f.edge_strain,
+            twist_rate: f.twist_rate,
+            steering_violated: i32::from(f.steering_violated),
+            twist_violated: i32::from(f.twist_violated),
+        }
+    }
+}
+
+/// The tool axis at one sample (unit vector from the cutter tip toward the spindle).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeToolAxis {
+    /// Components along (T, B, N) of the sample's frame (along N, not the tool-side normal).
+    pub darboux: [f64; 3],
+    /// The axis in space: the three components above times T, B and N, summed.
+    pub space: [f64; 3],
+}
+
+impl From<&ToolAxis> for StrakeToolAxis {
+    fn from(a: &ToolAxis) -> Self {
+        StrakeToolAxis {
+            darboux: a.darboux,
+            space: arr3(&a.space),
+        }
+    }
+}
+
+/// Where a per-sample quantity is smallest and largest along a path (the first sample on
+/// ties).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeExtremes {
+    /// Smallest value.
+    pub min: f64,
+    /// Index of the sample where it occurs.
+    pub min_index: usize,
+    /// Arc length there.
+    pub min_arc_length: f64,
+    /// Curve parameter there.
+    pub min_t: f64,
+    /// Largest value.
+    pub max: f64,
+    /// Index of the sample where it occurs.
+    pub max_index: usize,
+    /// Arc length there.
+    pub max_arc_length: f64,
+    /// Curve parameter there.
+    pub max_t: f64,
+}
+
+impl From<&Extremes> for StrakeExtremes {
+    fn from(e: &Extremes) -> Self {
+        StrakeExtremes {
+            min: e.min,
+            min_index: e.min_index,
+            min_arc_length: e.min_arc_length,
+            min_t: e.min_t,
+            max: e.max,
+            max_index: e.max_index,
+            max_arc_length: e.max_arc_length,
+            max_t: e.max_t,
+        }
+    }
+}
+
+/// An interval along a path where a per-sample quantity exceeds its limit. Its ends are the
+/// crossings of the limit, placed by linear interpolation between the samples on either side
+/// (or the first/last sample when the path starts/ends in violation).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeViolation {
+    /// Arc length where the violation starts.
+    pub start_arc_length: f64,
+    /// Arc length where it ends.
+    pub end_arc_length: f64,
+    /// Curve parameter where it starts.
+    pub start_t: f64,
+    /// Curve parameter where it ends.
+    pub end_t: f64,
+    /// Index of the first violating sample.
+    pub first_index: usize,
+    /// Index of the last violating sample.
+    pub last_index: usize,
+    /// Largest value inside the interval.
+    pub worst: f64,
+}
+
+impl From<&Violation> for StrakeViolation {
+    fn from(v: &Violation) -> Self {
+        StrakeViolation {
+            start_arc_length: v.start_arc_length,
+            end_arc_length: v.end_arc_length,
+            start_t: v.start_t,
+            end_t: v.end_t,
+            first_index: v.first_index,
+            last_index: v.last_index,
+            worst: v.worst,
         }
     }
 }

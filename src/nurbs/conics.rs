@@ -1,7 +1,7 @@
 //! Exact conic curves and surfaces as NURBS: circles built from rational quadratic arcs, and the
 //! cylinder, sphere and torus built from them by a linear sweep or a revolution (The NURBS
 //! Book, 2nd ed., ch. 7 (§7.5, A7.1 MakeNurbsCircle, p. 308) and ch. 8 (§8.3 extruded
-//! surfaces; §8.5, A8.1 MakeRevolvedSurf, p. 346); section numbers [memory]).
+//! surfaces; §8.5, A8.1 MakeRevolvedSurf, p. 346); section numbers from memory).
 //!
 //! A circular arc of opening angle 2α is one rational quadratic Bézier segment with end points
 //! on the circle, middle control point where the end tangents meet (at distance R/cos α from the

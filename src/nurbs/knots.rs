@@ -21,6 +21,8 @@ pub struct KnotVector {
     degree: usize,
     /// Number of control points n + 1.
     count: usize,
+    /// The distinct knot values strictly inside the domain, ascending.
+    breaks: Vec<f64>,
 }
 
 impl KnotVector {
@@ -85,10 +87,17 @@ impl KnotVector {
                 "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] has zero length"
             )));
         }
+        let mut breaks: Vec<f64> = knots[degree + 1..count]
+            .iter()
+            .copied()
+            .filter(|&k| k > lo && k < hi)
+            .collect();
+        breaks.dedup();
         Ok(KnotVector {
             knots: knots.to_vec(),
             degree,
             count,
+            breaks,
         })
     }
 
@@ -96,6 +105,13 @@ impl KnotVector {
     #[inline]
     pub fn knots(&self) -> &[f64] {
         &self.knots
+    }
+
+    /// The distinct knot values strictly inside the domain, ascending: where a B-spline of this
+    /// knot vector may lose smoothness (C^{p−m} at a knot of multiplicity m).
+    #[inline]
+    pub fn interior_breaks(&self) -> &[f64] {
+        &self.breaks
     }
 
     /// The degree p.

@@ -1,7 +1,8 @@
 /*
  * abi_check: uses the C ABI the way a C host does, through include/strake.h only: version,
- * statuses and messages, callback failure codes, free(NULL), and one closed form through
- * strake_frame_from_jets. Built with -std=c11 -Wall -Wextra -Wpedantic -Werror (and under
+ * statuses and messages, callback failure codes, free(NULL), one closed form through
+ * strake_frame_from_jets, and the curves, sampling (with its buffer protocol) and checks on a
+ * plane, where every answer is elementary. Built with -std=c11 -Wall -Wextra -Wpedantic -Werror (and under
  * AddressSanitizer/UBSan) by tests/c_demo.rs. Prints one line per failed check and exits 1 if
  * any failed.
  */
@@ -80,7 +81,8 @@ int main(void)
     CHECK(STRAKE_STATUS_INTERNAL_PANIC == 90);
     CHECK(sizeof(StrakeStatus) == 4);
     CHECK(strcmp(strake_status_name(STRAKE_STATUS_STALLED_CURVE), "STRAKE_STATUS_STALLED_CURVE") == 0);
-    CHECK(strcmp(strake_status_name(4), "STRAKE_STATUS_UNKNOWN") == 0);
+    CHECK(STRAKE_STATUS_BUFFER_TOO_SMALL == 4);
+    CHECK(strcmp(strake_status_name(5), "STRAKE_STATUS_UNKNOWN") == 0);
 
     /* free(NULL) is a no-op. */
     strake_surface_free(NULL);
@@ -162,6 +164,101 @@ int main(void)
         status = strake_frame_from_jets(&sj, &cj, 1, &scales, &frame);
         CHECK(status == STRAKE_STATUS_OK);
         CHECK(fabs(frame.geodesic_curvature + 0.5) < 1e-15);
+    }
+
+    /* The enum values hosts pass as uint32_t are part of the ABI. */
+    CHECK(STRAKE_PARAMETRIZATION_CENTRIPETAL == 1);
+    CHECK(STRAKE_TOOL_SIDE_AGAINST_NORMAL == 1);
+    CHECK(STRAKE_CUTTER_KIND_TOROIDAL == 2);
+
+    /* Curves from points, sampling and checks on the plane z = 0 over [-2, 2]^2. */
+    if (surface != NULL) {
+        /* Evenly spaced points on a line: the interpolating cubic is the line itself, u(t) = -1 +
+         * 3t, v(t) = -1 + 2t (B-splines reproduce polynomials up to their degree; common
+         * practice), so its length is sqrt(13). */
+        const double uv[10] = {-1.0, -1.0, -0.25, -0.5, 0.5, 0.0, 1.25, 0.5, 2.0, 1.0};
+        const double above[6] = {0.5, -0.25, 3.0, -1.0, 1.5, -0.5};
+        const StrakeProjectionOptions options = {5.0, 0, 0, 0, 0};
+        StrakeProjection feet[2];
+        StrakeCurve *fitted = NULL;
+        StrakeSample samples[16];
+        size_t count = 99;
+        double length = 0.0;
+        status = strake_curve_through_uv_points(uv, 5, 3, STRAKE_PARAMETRIZATION_CHORD_LENGTH, NULL, NULL, &fitted);
+        CHECK(status == STRAKE_STATUS_OK);
+        if (fitted != NULL) {
+            status = strake_frame_at(surface, fitted, 0.5, &frame);
+            CHECK(status == STRAKE_STATUS_OK && fabs(frame.u - 0.5) < 1e-14 && fabs(frame.v) < 1e-14);
+            status = strake_arc_length(surface, fitted, 0.0, 1.0, 1e-12, &length);
+            CHECK(status == STRAKE_STATUS_OK && fabs(length - sqrt(13.0)) < 1e-12);
+
+            /* The buffer protocol: ask for the size, then fill. */
+            status = strake_sample_even_arc(surface, fitted, 5, 1e-12, NULL, 0, &count);
+            CHECK(status == STRAKE_STATUS_BUFFER_TOO_SMALL && count == 5);
+            samples[0].arc_length = -1.0;
+            status = strake_sample_even_arc(surface, fitted, 5, 1e-12, samples, 4, &count);
+            CHECK(status == STRAKE_STATUS_BUFFER_TOO_SMALL && count == 5 && samples[0].arc_length == -1.0);
+            status = strake_sample_even_arc(surface, fitted, 5, 1e-12, samples, 16, &count);
+            CHECK(status == STRAKE_STATUS_OK && count == 5);
+            CHECK(fabs(samples[2].arc_length - 0.5 * sqrt(13.0)) < 1e-12);
+            /* A straight line has no chord error: only the maximum step (0.5) sets the spacing. */
+            status = strake_sample_chordal(surface, fitted, 1e-3, 0.5, 1e-12, samples, 16, &count);
+            CHECK(status == STRAKE_STATUS_OK && count >= 9 && count <= 16);
+            CHECK(count <= 16 && fabs(samples[count - 1].arc_length - sqrt(13.0)) < 1e-12);
+            status = strake_sample_chordal(surface, fitted, 1e-3, 0.5, 1e-12, samples, 2, &count);
+            CHECK(status == STRAKE_STATUS_BUFFER_TOO_SMALL && count >= 9);
+
+            /* Scallop on a plane: h = r - sqrt(r^2 - w^2/4) (common practice). */
+            {
+                StrakeScallop h;
+                status = strake_check_scallop(&samples[0].frame, STRAKE_TOOL_SIDE_ALONG_NORMAL, 5.0, 2.0, &h);
+                CHECK(status == STRAKE_STATUS_OK && fabs(h.height - (5.0 - sqrt(24.0))) < 1e-14);
+                CHECK(h.cross_curvature == 0.0);
+            }
+            /* No violation anywhere: no buffer needed. */
+            {
+                double zero[2] = {0.0, 0.0};
+                status = strake_path_violations(samples, zero, 2, 1.0, NULL, 0, &count);
+                CHECK(status == STRAKE_STATUS_OK && count == 0);
+            }
+        }
+        strake_curve_free(fitted);
+
+        /* Points above the plane land straight below it, at their height. */
+        status = strake_surface_project_points(surface, above, 2, &options, feet);
+        CHECK(status == STRAKE_STATUS_OK);
+        CHECK(fabs(feet[0].u - 0.5) < 1e-14 && fabs(feet[0].v + 0.25) < 1e-14);
+        CHECK(fabs(feet[0].signed_distance - 3.0) < 1e-14 && fabs(feet[1].signed_distance + 0.5) < 1e-14);
+    }
+
+    /* A check refuses a frame that is not one, and leaves its output alone. */
+    {
+        StrakeFrame zero;
+        StrakeGougeState g;
+        const StrakeCutter ball = {STRAKE_CUTTER_KIND_BALL, 3.0, 0.0};
+        const StrakeToolAngles angles = {0.0, 0.0};
+        memset(&zero, 0, sizeof zero);
+        g.margin = 42.0;
+        status = strake_check_gouge(&zero, STRAKE_TOOL_SIDE_ALONG_NORMAL, &ball, &angles, &g);
+        CHECK(status == STRAKE_STATUS_INVALID_ARGUMENT && g.margin == 42.0);
+        CHECK(message_contains("frame.tangent"));
+    }
+
+    /* Feed on the circle of radius 2 from the jets above: v = sqrt(a rho) (physics). */
+    {
+        StrakeSurfaceJet sj;
+        StrakeCurveJet cj = {2.0, 0.0, 0.0, 2.0, -2.0, 0.0};
+        StrakeParamScales scales = {4.0, 4.0, 6.283185307179586};
+        StrakeFeedLimits limits = {100.0, 50.0, 0.0};
+        double feed = 0.0;
+        memset(&sj, 0, sizeof sj);
+        sj.p[0] = 2.0;
+        sj.su[0] = 1.0;
+        sj.sv[1] = 1.0;
+        status = strake_frame_from_jets(&sj, &cj, 0, &scales, &frame);
+        CHECK(status == STRAKE_STATUS_OK);
+        status = strake_check_feed(&frame, &limits, &feed);
+        CHECK(status == STRAKE_STATUS_OK && fabs(feed - 10.0) < 1e-13);
     }
 
     strake_curve_free(line);

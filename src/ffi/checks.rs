@@ -1,0 +1,370 @@
+//! What a machining or fibre-placement engineer asks of a path, per sample (from a
+//! `StrakeFrame` the host got from strake) and over a whole path (from the samples of the
+//! sampling functions and one value per sample).
+//!
+//! These are local, second-order geometric aids: they see the surface's curvature at each
+//! sample, not the whole cutter and holder against the part, nor the machine's dynamics, nor the
+//! material. Toolpaths and courses planned with them must be verified by simulation and on the
+//! machine.
+//!
+//! Sign convention of every check: the tool is on one side of the surface (`tool_side`); a
+//! curvature "concave toward the tool" is s kn with s = +1 when the tool is on the side N points
+//! to (`STRAKE_TOOL_SIDE_ALONG_NORMAL`) and -1 otherwise: positive where the surface bends
+//! toward the tool (a pocket floor seen from the cutter).
+
+use super::guard::{Failure, guard, input, input_slice, out_buffer, output};
+use super::status::StrakeStatus;
+use super::types::{
+    StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits, StrakeFibreLimits,
+    StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeSample, StrakeScallop, StrakeStepOver,
+    StrakeToolAngles, StrakeToolAxis, StrakeToolSide, StrakeViolation,
+};
+use crate::checks::{
+    Cutter, FeedLimits, FibreLimits, ToolAngles, ToolSide, cross_path_curvature,
+    curvature_limited_feed, extremes, fibre_state, gouge_state, scallop_height,
+    scallop_height_approx, step_over_for_scallop, step_over_for_scallop_approx, tool_axis,
+    violations,
+};
+use crate::frame::DarbouxFrame;
+use std::mem::MaybeUninit;
+use std::ptr::NonNull;
+
+/// The checked frame behind a `const StrakeFrame *` argument.
+///
+/// # Safety
+/// `p` must be NULL or point to a valid `StrakeFrame`.
+unsafe fn frame(p: *const StrakeFrame) -> Result<DarbouxFrame, Failure> {
+    // SAFETY: forwarded from the caller.
+    Ok(unsafe { input(p, "frame")? }.to_darboux()?)
+}
+
+/// The tool side for a `tool_side` argument.
+fn tool_side(code: u32) -> Result<ToolSide, Failure> {
+    match code {
+        c if c == StrakeToolSide::AlongNormal as u32 => Ok(ToolSide::AlongNormal),
+        c if c == StrakeToolSide::AgainstNormal as u32 => Ok(ToolSide::AgainstNormal),
+        other => Err(Failure::invalid(format!(
+            "`tool_side` = {other}; it must be 0 (STRAKE_TOOL_SIDE_ALONG_NORMAL) or 1 \
+             (STRAKE_TOOL_SIDE_AGAINST_NORMAL)"
+        ))),
+    }
+}
+
+/// The cutter for a `StrakeCutter` (its dimensions are checked by the checks themselves).
+fn cutter(c: &StrakeCutter) -> Result<Cutter, Failure> {
+    match c.kind {
+        k if k == StrakeCutterKind::Ball as u32 => Ok(Cutter::Ball { radius: c.radius }),
+        k if k == StrakeCutterKind::Flat as u32 => Ok(Cutter::Flat { radius: c.radius }),
+        k if k == StrakeCutterKind::Toroidal as u32 => Ok(Cutter::Toroidal {
+            radius: c.radius,
+            corner_radius: c.corner_radius,
+        }),
+        other => Err(Failure::invalid(format!(
+            "`cutter->kind` = {other}; it must be 0 (BALL), 1 (FLAT) or 2 (TOROIDAL)"
+        ))),
+    }
+}
+
+fn angles(a: &StrakeToolAngles) -> ToolAngles {
+    ToolAngles {
+        lead: a.lead,
+        tilt: a.tilt,
+    }
+}
+
+/// Writes `value` to a checked output slot.
+fn put<T>(slot: NonNull<MaybeUninit<T>>, value: T) {
+    // SAFETY: every slot comes from `output`, which checked it non-null and aligned; the
+    // exported functions' contracts make it writable.
+    unsafe { slot.as_ptr().write(MaybeUninit::new(value)) };
+}
+
+/// The local gouge state of `cutter` at the sample `frame` (from strake), with the tool on
+/// `tool_side` and its axis set by `angles` (lead toward T, tilt toward B, see
+/// `StrakeToolAngles`).
+///
+/// Second-order contact: the cutter does not cut into the surface near the contact point when,
+/// in every tangent direction, it bends away from the surface at least as fast as the surface
+/// bends toward it. For a ball-end mill of radius r this is r max(s k1, s k2) <= 1: the largest
+/// ball free of local gouging has the radius `out->concave_radius`. For flat and toroidal
+/// cutters the effective radius across the inclination is R/sin(beta) + r (beta the axis's
+/// inclination from the tool-side normal), and `out->min_lead` is the smallest lead angle (at
+/// the given tilt) that avoids local gouging.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field, named);
+/// INVALID_ARGUMENT (a frame vector that is not unit length, `tool_side` not 0 or 1, an unknown
+/// `cutter->kind`, a radius not positive and finite, a corner radius above the radius, an angle
+/// outside (-pi/2, pi/2); the message names the field). Thread-safe.
+///
+/// # Safety
+/// Each pointer NULL or valid for its type; `out` writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_check_gouge(
+    frame: *const StrakeFrame,
+    tool_side: u32,
+    cutter: *const StrakeCutter,
+    angles: *const StrakeToolAngles,
+    out: *mut StrakeGougeState,
+) -> StrakeStatus {
+    guard("strake_check_gouge", || {
+        // SAFETY: the caller passes valid values or NULL.
+        let f = unsafe { self::frame(frame)? };
+        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
+        let a = self::angles(unsafe { input(angles, "angles")? });
+        let slot = output(out, "out")?;
+        let g = gouge_state(&f, self::tool_side(tool_side)?, &c, &a)?;
+        put(slot, StrakeGougeState::from(&g));
+        Ok(())
+    })
+}
+
+/// The scallop height left at the sample `frame` between this pass and an adjacent one a
+/// step-over `step_over` away (arc length across the path), for a cutter of radius
+/// `cutter_radius` across the path (the ball radius of a ball-end mill; for flat and toroidal
+/// cutters their effective radius across the path, a common approximation), with the tool on
+/// `tool_side`.
+///
+/// In the plane across the path the surface is its osculating circle of curvature
+/// kappa = s kn(B) (`out->cross_curvature`, concave toward the tool when positive). Exact
+/// circle geometry gives `out->height`; on a plane it is r - sqrt(r^2 - w^2/4).
+/// `out->height_approx` = (w^2/8)(1/r - kappa). Host length unit.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a frame vector
+/// not unit length, `tool_side` not 0 or 1, `cutter_radius` or `step_over` not positive and
+/// finite, a cutter that does not fit the concave curvature (kappa r >= 1: it gouges), a
+/// step-over so wide that adjacent passes do not overlap). Thread-safe.
+///
+/// # Safety
+/// `frame` NULL or valid; `out` NULL or writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_check_scallop(
+    frame: *const StrakeFrame,
+    tool_side: u32,
+    cutter_radius: f64,
+    step_over: f64,
+    out: *mut StrakeScallop,
+) -> StrakeStatus {
+    guard("strake_check_scallop", || {
+        // SAFETY: the caller passes a valid frame or NULL.
+        let f = unsafe { self::frame(frame)? };
+        let slot = output(out, "out")?;
+        let kappa = cross_path_curvature(&f, self::tool_side(tool_side)?);
+        let result = StrakeScallop {
+            cross_curvature: kappa,
+            height: scallop_height(cutter_radius, step_over, kappa)?,
+            height_approx: scallop_height_approx(cutter_radius, step_over, kappa)?,
+        };
+        put(slot, result);
+        Ok(())
+    })
+}
+
+/// The largest step-over (arc length across the path) that keeps the scallop height at the
+/// sample `frame` at or below `scallop_height`, for a cutter of radius `cutter_radius` across
+/// the path, with the tool on `tool_side`: the inverse of `strake_check_scallop` (on a plane
+/// w = 2 sqrt(h (2r - h))). `out->step_over_approx` = sqrt(8 h / (1/r - kappa)).
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
+/// `strake_check_scallop`, with `scallop_height` required positive and finite and reachable
+/// (not above what the geometry allows). Thread-safe.
+///
+/// # Safety
+/// `frame` NULL or valid; `out` NULL or writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_check_step_over(
+    frame: *const StrakeFrame,
+    tool_side: u32,
+    cutter_radius: f64,
+    scallop_height: f64,
+    out: *mut StrakeStepOver,
+) -> StrakeStatus {
+    guard("strake_check_step_over", || {
+        // SAFETY: the caller passes a valid frame or NULL.
+        let f = unsafe { self::frame(frame)? };
+        let slot = output(out, "out")?;
+        let kappa = cross_path_curvature(&f, self::tool_side(tool_side)?);
+        let result = StrakeStepOver {
+            cross_curvature: kappa,
+            step_over: step_over_for_scallop(cutter_radius, scallop_height, kappa)?,
+            step_over_approx: step_over_for_scallop_approx(cutter_radius, scallop_height, kappa)?,
+        };
+        put(slot, result);
+        Ok(())
+    })
+}
+
+/// The highest feed at the sample `frame`: min(feed, sqrt(a_max/k), (j_max/k^2)^(1/3)) with k
+/// = sqrt(kn^2 + kg^2) the path's space curvature (normal acceleration v^2 k, and at constant
+/// speed on the osculating circle jerk v^3 k^2); the programmed feed where k = 0. Writes it to
+/// `*out` in the units of `limits` (e.g. mm/s with mm/s^2 and mm/s^3). Changes of curvature
+/// along the path add jerk this local rule does not see: the machine's look-ahead must still
+/// handle them.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+/// frame vector not unit length; `limits->feed` or `limits->max_acceleration` not positive and
+/// finite; `limits->max_jerk` negative, NaN or infinite (0 means no jerk limit)). Thread-safe.
+///
+/// # Safety
+/// Each pointer NULL or valid for its type; `out` writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_check_feed(
+    frame: *const StrakeFrame,
+    limits: *const StrakeFeedLimits,
+    out: *mut f64,
+) -> StrakeStatus {
+    guard("strake_check_feed", || {
+        // SAFETY: the caller passes valid values or NULL.
+        let f = unsafe { self::frame(frame)? };
+        let l = unsafe { input(limits, "limits")? };
+        let slot = output(out, "out")?;
+        if !(l.max_jerk.is_finite() && l.max_jerk >= 0.0) {
+            return Err(Failure::invalid(format!(
+                "limits->max_jerk = {} must be positive and finite, or 0 for no jerk limit",
+                l.max_jerk
+            )));
+        }
+        let limits = FeedLimits {
+            feed: l.feed,
+            max_acceleration: l.max_acceleration,
+            max_jerk: (l.max_jerk > 0.0).then_some(l.max_jerk),
+        };
+        put(slot, curvature_limited_feed(&f, &limits)?);
+        Ok(())
+    })
+}
+
+/// Steering and twist of a fibre course at the sample `frame`: steering curvature |kg| and
+/// radius 1/|kg| (INFINITY along a geodesic), tow-edge strain (w/2)|kg| for the tow width w,
+/// twist rate tg (radians per length: the tangent plane turns about the course at that rate,
+/// and the tow or the compaction roller with it), and whether the limits are exceeded.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+/// frame vector not unit length, a limit not positive and finite, named). Thread-safe.
+///
+/// # Safety
+/// Each pointer NULL or valid for its type; `out` writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_check_fibre(
+    frame: *const StrakeFrame,
+    limits: *const StrakeFibreLimits,
+    out: *mut StrakeFibreState,
+) -> StrakeStatus {
+    guard("strake_check_fibre", || {
+        // SAFETY: the caller passes valid values or NULL.
+        let f = unsafe { self::frame(frame)? };
+        let l = unsafe { input(limits, "limits")? };
+        let slot = output(out, "out")?;
+        let limits = FibreLimits {
+            tow_width: l.tow_width,
+            min_steering_radius: l.min_steering_radius,
+            max_twist_rate: l.max_twist_rate,
+        };
+        put(slot, StrakeFibreState::from(&fibre_state(&f, &limits)?));
+        Ok(())
+    })
+}
+
+/// The tool axis at the sample `frame` for lead and tilt `angles` with the tool on `tool_side`:
+/// a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, n_t = N on the N side and
+/// -N otherwise (unit vector from the cutter tip toward the spindle).
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`frame`, `angles`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+/// frame vector not unit length, `tool_side` not 0 or 1, an angle outside (-pi/2, pi/2)).
+/// Thread-safe.
+///
+/// # Safety
+/// Each pointer NULL or valid for its type; `out` writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_tool_axis(
+    frame: *const StrakeFrame,
+    tool_side: u32,
+    angles: *const StrakeToolAngles,
+    out: *mut StrakeToolAxis,
+) -> StrakeStatus {
+    guard("strake_tool_axis", || {
+        // SAFETY: the caller passes valid values or NULL.
+        let f = unsafe { self::frame(frame)? };
+        let a = self::angles(unsafe { input(angles, "angles")? });
+        let slot = output(out, "out")?;
+        let axis = tool_axis(&f, self::tool_side(tool_side)?, &a)?;
+        put(slot, StrakeToolAxis::from(&axis));
+        Ok(())
+    })
+}
+
+/// Where a per-sample quantity is smallest and largest along a path: `values[i]` is the
+/// quantity at `samples[i]` (samples as the sampling functions return them; only their
+/// `frame.curve_param` and `arc_length` are read). Values may be infinite; ties give the first
+/// sample.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+/// NULL_POINTER (`samples`, `values`, `out`); INVALID_ARGUMENT (`sample_count` of 0 or too
+/// large, a NaN value, a sample whose t or arc length is not finite; the message names the
+/// index). Thread-safe.
+///
+/// # Safety
+/// `samples` and `values` NULL or `sample_count` valid elements; `out` NULL or writable.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_path_extremes(
+    samples: *const StrakeSample,
+    values: *const f64,
+    sample_count: usize,
+    out: *mut StrakeExtremes,
+) -> StrakeStatus {
+    guard("strake_path_extremes", || {
+        // SAFETY: the caller passes arrays of `sample_count` elements or NULL.
+        let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
+        let v = unsafe { input_slice(values, sample_count, "values", "sample_count")? };
+        let slot = output(out, "out")?;
+        put(slot, StrakeExtremes::from(&extremes(s, v)?));
+        Ok(())
+    })
+}
+
+/// Every interval along a path where a per-sample quantity exceeds `limit`: each maximal run of
+/// samples with `values[i] > limit`, its ends placed where the quantity crosses the limit
+/// (linear interpolation in arc length and t between the samples on either side, or the
+/// first/last sample when the path starts/ends in violation), in path order. A quantity that
+/// must stay above a limit is checked through its negation or inverse (e.g. a steering
+/// curvature |kg| against 1/(smallest radius)). Their accuracy is that of the sampling.
+///
+/// Buffer (the pattern of the sampling functions): `buf` with room for `capacity` intervals
+/// (NULL when `capacity` is 0); on success `*count` intervals are written (0 when the limit is
+/// never exceeded). When more are found than fit, returns `STRAKE_STATUS_BUFFER_TOO_SMALL`
+/// with `*count` = the number found and nothing written to `buf`; call again with that
+/// capacity for the same intervals.
+///
+/// Errors: NULL_POINTER (`samples`, `values`, `count`; `buf` when `capacity` > 0);
+/// INVALID_ARGUMENT (`sample_count` of 0 or too large, `capacity` too large, a NaN value or
+/// limit, a sample whose t or arc length is not finite); BUFFER_TOO_SMALL. On any failure but
+/// BUFFER_TOO_SMALL nothing is written. Thread-safe.
+///
+/// # Safety
+/// `samples` and `values` NULL or `sample_count` valid elements; `buf` NULL or room for
+/// `capacity` intervals; `count` NULL or a writable size_t.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_path_violations(
+    samples: *const StrakeSample,
+    values: *const f64,
+    sample_count: usize,
+    limit: f64,
+    buf: *mut StrakeViolation,
+    capacity: usize,
+    count: *mut usize,
+) -> StrakeStatus {
+    guard("strake_path_violations", || {
+        // SAFETY: the caller passes arrays of `sample_count` elements or NULL.
+        let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
+        let v = unsafe { input_slice(values, sample_count, "values", "sample_count")? };
+        let out = out_buffer(buf, capacity, count)?;
+        let mut found = Vec::new();
+        violations(s, v, limit, &mut found)?;
+        let found: Vec<StrakeViolation> = found.iter().map(StrakeViolation::from).collect();
+        out.deliver(&found, "violation intervals")
+    })
+}
