@@ -123,6 +123,7 @@ pub struct DarbouxFrame {
 ///
 /// `t` is only used in error messages. Errors: `NonFinite` (input jets, or an overflowing
 /// result), `DegenerateSurface`, `StalledCurve`, `InvalidArgument` for bad scales.
+#[inline]
 pub fn darboux_frame(
     surface: &SurfaceJet,
     curve: &CurveJet,
@@ -146,6 +147,7 @@ pub fn darboux_frame(
 /// As [`darboux_frame`], for a surface point already computed (several curves through one
 /// point, or a caller that needs [`SurfacePoint`] too). `scales` must be valid and `curve`
 /// finite; this is not checked again.
+#[inline]
 pub fn darboux_frame_at(
     surface: &SurfaceJet,
     sp: &SurfacePoint,

@@ -123,6 +123,7 @@ impl SurfacePoint {
     /// surface's parameter domain (for the conditioning figure). Errors: `NonFinite` for a
     /// non-finite jet entry, `DegenerateSurface` when the conditioning figure is below
     /// [`DEGENERATE_SURFACE_LIMIT`].
+    #[inline]
     pub fn new(
         jet: &SurfaceJet,
         orientation: Orientation,
@@ -148,6 +149,7 @@ impl SurfacePoint {
     /// for callers that want a stricter limit. Below the default limit the results carry the
     /// errors documented in `docs/accuracy.md`; a `limit` of 0 refuses only a point where
     /// |Su × Sv| is exactly 0 (reported as `NonFinite`, since nothing can be divided by it).
+    #[inline]
     pub fn new_with_limit(
         jet: &SurfaceJet,
         orientation: Orientation,
