@@ -5,7 +5,7 @@
 
 use super::guard::{Failure, guard, output};
 use super::status::StrakeStatus;
-use super::surface::{StrakeSurface, finite, orientation, publish};
+use super::surface::{StrakeSurface, callback_domain, publish};
 use super::types::StrakeSurfaceJet;
 use crate::batch::CHUNK;
 use crate::error::{Result, StrakeError};
@@ -171,9 +171,7 @@ pub unsafe extern "C" fn strake_surface_from_batch_callback(
     guard("strake_surface_from_batch_callback", || {
         let f = f.ok_or_else(|| Failure::null("f"))?;
         output(out, "out")?;
-        let u = Interval::new("u", finite("u_min", u_min)?, finite("u_max", u_max)?)?;
-        let v = Interval::new("v", finite("v_min", v_min)?, finite("v_max", v_max)?)?;
-        let orientation = orientation(flip_normal)?;
+        let (u, v, orientation) = callback_domain(u_min, u_max, v_min, v_max, flip_normal)?;
         let source = BatchCallbackSurface {
             f,
             user_data,

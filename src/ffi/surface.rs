@@ -136,6 +136,20 @@ pub(crate) fn finite(name: &'static str, value: f64) -> std::result::Result<f64,
     }
 }
 
+/// The domain [u_min, u_max] x [v_min, v_max] and orientation of a host-callback surface,
+/// validated as every callback constructor requires (finite, non-empty ranges; flag 0 or 1).
+pub(crate) fn callback_domain(
+    u_min: f64,
+    u_max: f64,
+    v_min: f64,
+    v_max: f64,
+    flip_normal: i32,
+) -> std::result::Result<(Interval, Interval, Orientation), Failure> {
+    let u = Interval::new("u", finite("u_min", u_min)?, finite("u_max", u_max)?)?;
+    let v = Interval::new("v", finite("v_min", v_min)?, finite("v_max", v_max)?)?;
+    Ok((u, v, orientation(flip_normal)?))
+}
+
 /// The orientation for a `flip_normal` flag, which must be 0 or 1.
 pub(crate) fn orientation(flip_normal: i32) -> std::result::Result<Orientation, Failure> {
     match flip_normal {
@@ -177,9 +191,7 @@ pub unsafe extern "C" fn strake_surface_from_callback(
     guard("strake_surface_from_callback", || {
         let f = f.ok_or_else(|| Failure::null("f"))?;
         output(out, "out")?;
-        let u = Interval::new("u", finite("u_min", u_min)?, finite("u_max", u_max)?)?;
-        let v = Interval::new("v", finite("v_min", v_min)?, finite("v_max", v_max)?)?;
-        let orientation = orientation(flip_normal)?;
+        let (u, v, orientation) = callback_domain(u_min, u_max, v_min, v_max, flip_normal)?;
         let source = CallbackSurface {
             f,
             user_data,
