@@ -560,6 +560,12 @@ fn main() {
             c_frames_at_parallel(c_native, c_curve, &ts_par, 2, &mut out_par_c.borrow_mut())
         }),
     ];
+    // STRAKE_SPEED_ONLY=text keeps only the cases whose name contains `text` and prints them
+    // alone (no ratios, no floors): for profiling one case.
+    let only = std::env::var("STRAKE_SPEED_ONLY").ok();
+    if let Some(text) = &only {
+        cases.retain(|c| c.name.contains(text.as_str()));
+    }
     let wall = Instant::now();
     measure(&mut cases);
     let wall = wall.elapsed().as_secs_f64();
@@ -579,6 +585,9 @@ fn main() {
         );
     }
 
+    if only.is_some() {
+        return;
+    }
     let g = |n: &str| get(&cases, n);
     let ratio = |what: &str, a: f64, b: f64, target: &str| {
         println!("{what:<62} {:>6.3}   {target}", a / b);
