@@ -17,7 +17,7 @@
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
 use crate::frame::{DarbouxFrame, darboux_frame_at};
-use crate::frame_block::{BLOCK, BlockInput, frames_of_block};
+use crate::frame_block::{BLOCK, BlockInput, BlockOutput, finite_rest, frames_of_block};
 use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::principal::SurfacePoint;
@@ -52,6 +52,8 @@ where
     let mut vs = [0.0; CHUNK];
     let mut cj = [CurveJet::default(); CHUNK];
     let mut sj = [SurfaceJet::default(); CHUNK];
+    let mut block_in = BlockInput::zeroed();
+    let mut out = BlockOutput::zeroed();
     let mut base = 0;
     while base < count {
         let len = CHUNK.min(count - base);
@@ -102,23 +104,14 @@ where
                 }
             }
         }
-        let non_finite = sj[..good]
-            .iter()
-            .enumerate()
-            .find_map(|(i, j)| j.check_finite().err().map(|e| (i, e)));
-        if let Some((i, e)) = non_finite {
-            good = i;
-            pending = Some(e);
-        }
         for start in (0..good).step_by(BLOCK) {
             let end = good.min(start + BLOCK);
-            let out = frames_of_block(
-                &BlockInput::gather(&sj[start..end], &cj[start..end]),
-                orientation,
-                &scales,
-            );
+            block_in.fill(&sj[start..end], &cj[start..end]);
+            frames_of_block(&block_in, orientation, &scales, &mut out);
             for i in start..end {
-                let frame = if out.ok(i - start) {
+                // A lane with a non-finite jet is flagged by the kernel or by `finite_rest`;
+                // the one-point path then reports the jet's `NonFinite` error.
+                let frame = if out.ok(i - start) && finite_rest(&sj[i], &cj[i]) {
                     out.frame(i - start, &sj[i], &cj[i])
                 } else {
                     one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {

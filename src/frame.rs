@@ -71,7 +71,8 @@ impl ParamScales {
 /// that crosses the surface once; tends to 0 where the curve stalls. Dimensionless.
 #[inline]
 pub fn curve_speed_figure(jet: &CurveJet, s: &ParamScales) -> f64 {
-    let (a, b) = (jet.du / s.u_extent, jet.dv / s.v_extent);
+    // Multiplications by the reciprocal extents (the batch kernel computes them once per block).
+    let (a, b) = (jet.du * (1.0 / s.u_extent), jet.dv * (1.0 / s.v_extent));
     (a * a + b * b).sqrt() * s.t_extent
 }
 
@@ -172,7 +173,7 @@ pub fn darboux_frame_at(
     let tan = c1 * inv_speed;
     let n = sp.n;
     let b = n.cross(&tan);
-    let inv_speed2 = 1.0 / speed2;
+    let inv_speed2 = inv_speed * inv_speed;
     // κn = II(c', c')/|c'|², which equals c''·N/|c'|² since Su·N = Sv·N = 0 (do Carmo §3-2).
     // Taking c''·N instead subtracts the tangential part Su u'' + Sv v'' of c'' numerically,
     // which costs ε|c''|/(κn|c'|²) near a stalled curve (docs/accuracy.md).

@@ -15,7 +15,7 @@
 //! for a lane the one-point path accepts, its result).
 //!
 //! Costs, per point, from the formulas (counted by hand): about 250 additions and
-//! multiplications, 4 square roots and 9 divisions; no allocation.
+//! multiplications, 6 square roots and 5 divisions; no allocation.
 
 // Index loops over the lanes on purpose: iterators over arrays by value are not unrolled and
 // vectorised as reliably.
@@ -93,18 +93,17 @@ pub(crate) struct BlockOutput {
     gaussian: W,
     conditioning: W,
     speed_figure: W,
-    /// Where every check of the one-point path passes.
+    /// Where the kernel's inputs are finite and every check of the one-point path passes
+    /// (the position S and (u, v), which the kernel does not read, are the caller's to check:
+    /// [`finite_rest`]).
     ok: Mask,
 }
 
 impl BlockInput {
-    /// Gathers `len` ≤ [`BLOCK`] lanes from jets; lanes from `len` on repeat lane 0 (their
-    /// results are ignored; repeating real data keeps them free of NaN and of slow paths).
-    pub(crate) fn gather(surface: &[SurfaceJet], curve: &[CurveJet]) -> Self {
-        let len = surface.len().min(curve.len());
-        debug_assert!((1..=BLOCK).contains(&len));
+    /// All lanes zero: storage for [`Self::fill`] (made once per batch call, not per block).
+    pub(crate) fn zeroed() -> Self {
         let z = W([0.0; BLOCK]);
-        let mut x = BlockInput {
+        BlockInput {
             su: [z; 3],
             sv: [z; 3],
             suu: [z; 3],
@@ -114,7 +113,24 @@ impl BlockInput {
             dv: z,
             ddu: z,
             ddv: z,
-        };
+        }
+    }
+
+    /// Gathers `len` ≤ [`BLOCK`] lanes from jets into a new block (see [`Self::fill`]).
+    #[cfg(test)]
+    pub(crate) fn gather(surface: &[SurfaceJet], curve: &[CurveJet]) -> Self {
+        let mut x = Self::zeroed();
+        x.fill(surface, curve);
+        x
+    }
+
+    /// Overwrites the block with `len` = min(surface.len(), curve.len()) ≤ [`BLOCK`] lanes
+    /// from jets (1 ≤ len); lanes from `len` on repeat lane 0 (their results are ignored;
+    /// repeating real data keeps them free of NaN and of slow paths).
+    pub(crate) fn fill(&mut self, surface: &[SurfaceJet], curve: &[CurveJet]) {
+        let len = surface.len().min(curve.len());
+        debug_assert!((1..=BLOCK).contains(&len));
+        let x = self;
         #[inline(always)]
         fn put(w: &mut W3, i: usize, v: &Vec3) {
             w[0].0[i] = v.x;
@@ -144,11 +160,33 @@ impl BlockInput {
                 c.0[len..].fill(first);
             }
         }
-        x
     }
 }
 
 impl BlockOutput {
+    /// All lanes zero and flagged: storage for [`frames_of_block`] (made once per batch call).
+    pub(crate) fn zeroed() -> Self {
+        let z = W([0.0; BLOCK]);
+        BlockOutput {
+            n: [z; 3],
+            t: [z; 3],
+            b: [z; 3],
+            d1: [z; 3],
+            d2: [z; 3],
+            kn: z,
+            kg: z,
+            tg: z,
+            speed: z,
+            k1: z,
+            k2: z,
+            mean: z,
+            gaussian: z,
+            conditioning: z,
+            speed_figure: z,
+            ok: Mask([false; BLOCK]),
+        }
+    }
+
     /// True when lane `i` passed every check.
     #[inline]
     pub(crate) fn ok(&self, i: usize) -> bool {
@@ -195,18 +233,22 @@ impl BlockOutput {
 /// register copies. Only additions, subtractions, multiplications, divisions, square roots,
 /// compares and selects are used, which round identically in every instruction set (no fused
 /// multiply-add is enabled), so both give the same bits.
+/// The results go to `y` (written in place: a block's output is about 2 KiB, not worth
+/// returning by value).
 #[inline(never)]
 pub(crate) fn frames_of_block(
     x: &BlockInput,
     orientation: Orientation,
     s: &ParamScales,
-) -> BlockOutput {
+    y: &mut BlockOutput,
+) {
     #[cfg(target_arch = "x86_64")]
     if std::arch::is_x86_feature_detected!("avx2") {
         // SAFETY: the processor supports AVX2 (checked just above).
-        return unsafe { frames_of_block_avx2(x, orientation, s) };
+        unsafe { frames_of_block_avx2(x, orientation, s, y) };
+        return;
     }
-    frames_of_block_portable(x, orientation, s)
+    frames_of_block_portable(x, orientation, s, y)
 }
 
 /// [`frames_of_block_portable`] compiled for AVX2.
@@ -219,8 +261,9 @@ unsafe fn frames_of_block_avx2(
     x: &BlockInput,
     orientation: Orientation,
     s: &ParamScales,
-) -> BlockOutput {
-    frames_of_block_portable(x, orientation, s)
+    y: &mut BlockOutput,
+) {
+    frames_of_block_portable(x, orientation, s, y)
 }
 
 /// The kernel in the baseline instruction set.
@@ -229,10 +272,19 @@ pub(crate) fn frames_of_block_portable(
     x: &BlockInput,
     orientation: Orientation,
     s: &ParamScales,
-) -> BlockOutput {
+    y: &mut BlockOutput,
+) {
     let sigma = orientation.sign();
     let (su, sv, suu, suv, svv) = (x.su, x.sv, x.suu, x.suv, x.svv);
     let (du, dv, ddu, ddv) = (x.du, x.dv, x.ddu, x.ddv);
+
+    // The one-point path refuses non-finite jets first. A sum of the inputs is finite when
+    // they all are (a NaN or an infinity makes it NaN or infinite); when finite inputs overflow
+    // it, the lane is merely flagged and goes through the one-point path, which is exact.
+    let sum3 = |a: W3| a[0] + a[1] + a[2];
+    let inputs =
+        ((sum3(su) + sum3(sv)) + (sum3(suu) + sum3(suv))) + ((sum3(svv) + (du + dv)) + (ddu + ddv));
+    let inputs_finite = inputs.finite();
 
     // --- SurfacePoint::new_with_limit ---
     let cr = cross(su, sv);
@@ -245,8 +297,9 @@ pub(crate) fn frames_of_block_portable(
     let zero = W::splat(0.0);
     let degenerate = Mask(mx.test(zero, |m, _| m == 0.0 || !m.is_finite()).0);
     let conditioning = select(degenerate, zero, cond_raw);
-    let mut ok = conditioning.test(zero, |c, _| c >= DEGENERATE_SURFACE_LIMIT);
-    let n = scale(cr, sigma / area);
+    let mut ok = inputs_finite & conditioning.test(zero, |c, _| c >= DEGENERATE_SURFACE_LIMIT);
+    let inv_area = 1.0 / area;
+    let n = scale(cr, sigma * inv_area);
     let e = dot(su, su);
     let f = dot(su, sv);
     let g = dot(sv, sv);
@@ -255,7 +308,6 @@ pub(crate) fn frames_of_block_portable(
     let nn = dot(svv, n);
     let su_len = e.sqrt();
     let inv_su = 1.0 / su_len;
-    let inv_area = 1.0 / area;
     let beta = sigma * su_len * inv_area;
     let alpha = -sigma * f * inv_su * inv_area;
     let w11 = l * inv_su * inv_su;
@@ -286,7 +338,7 @@ pub(crate) fn frames_of_block_portable(
     ok = ok & gaussian.finite();
 
     // --- darboux_frame_at ---
-    let (a, b_) = (du / s.u_extent, dv / s.v_extent);
+    let (a, b_) = (du * (1.0 / s.u_extent), dv * (1.0 / s.v_extent));
     let speed_figure = (a * a + b_ * b_).sqrt() * s.t_extent;
     ok = ok & speed_figure.test(zero, |f, _| f >= STALLED_CURVE_LIMIT);
     let c1 = [
@@ -305,22 +357,23 @@ pub(crate) fn frames_of_block_portable(
     let inv_speed = 1.0 / speed;
     let tan = scale(c1, inv_speed);
     let b = cross(n, tan);
-    let inv_speed2 = 1.0 / speed2;
+    let inv_speed2 = inv_speed * inv_speed;
     let form = |x0, x1, y0, y1| second_form(l, m, nn, x0, x1, y0, y1);
     let kn = form(du, dv, du, dv) * inv_speed2;
     let kg = dot(c2, b) * inv_speed2;
     let (tc0, tc1) = (du * inv_speed, dv * inv_speed);
     // SurfacePoint::components(B·Su, B·Sv).
     let (xs, xv) = (dot(b, su), dot(b, sv));
-    let det = area * area;
-    let (bc0, bc1) = ((g * xs - f * xv) / det, (e * xv - f * xs) / det);
+    // SurfacePoint::components: 1/det = (1/A)².
+    let inv_det = inv_area * inv_area;
+    let (bc0, bc1) = ((g * xs - f * xv) * inv_det, (e * xv - f * xs) * inv_det);
     let tg = form(tc0, tc1, bc0, bc1);
     ok = ok & kn.finite() & kg.finite() & tg.finite() & speed.finite();
     ok = ok & tan[0].finite() & tan[1].finite() & tan[2].finite();
     ok = ok & b[0].finite() & b[1].finite() & b[2].finite();
     ok = ok & speed.test(zero, |v, _| v != 0.0);
 
-    BlockOutput {
+    *y = BlockOutput {
         n,
         t: tan,
         b,
@@ -337,7 +390,7 @@ pub(crate) fn frames_of_block_portable(
         conditioning,
         speed_figure,
         ok,
-    }
+    };
 }
 
 /// Frames from jets the caller has evaluated, many at once: `out[i]` is
@@ -372,35 +425,42 @@ pub fn darboux_frames(
         });
     }
     let scales_ok = scales.check().is_ok();
+    let mut x = BlockInput::zeroed();
+    let mut y = BlockOutput::zeroed();
     for (k, ((sb, cb), (tb, ob))) in surface
         .chunks(BLOCK)
         .zip(curve.chunks(BLOCK))
         .zip(ts.chunks(BLOCK).zip(out.chunks_mut(BLOCK)))
         .enumerate()
     {
-        let y = frames_of_block(&BlockInput::gather(sb, cb), orientation, scales);
+        x.fill(sb, cb);
+        frames_of_block(&x, orientation, scales, &mut y);
         for (i, o) in ob.iter_mut().enumerate() {
             // The one-point path checks the scales and the jets' finiteness first; a lane the
             // kernel flags (or any lane after invalid scales) goes through it for its error.
-            *o = if y.ok(i) && scales_ok && finite_jets(&sb[i], &cb[i]) {
-                y.frame(i, &sb[i], &cb[i])
+            if y.ok(i) && scales_ok && finite_rest(&sb[i], &cb[i]) {
+                *o = y.frame(i, &sb[i], &cb[i]);
             } else {
-                darboux_frame(&sb[i], &cb[i], orientation, scales, tb[i]).map_err(|error| {
-                    SampleError {
-                        index: k * BLOCK + i,
-                        t: tb[i],
-                        error,
-                    }
-                })?
-            };
+                *o =
+                    darboux_frame(&sb[i], &cb[i], orientation, scales, tb[i]).map_err(|error| {
+                        SampleError {
+                            index: k * BLOCK + i,
+                            t: tb[i],
+                            error,
+                        }
+                    })?;
+            }
         }
     }
     Ok(())
 }
 
-#[inline]
-fn finite_jets(s: &SurfaceJet, c: &CurveJet) -> bool {
-    s.check_finite().is_ok() && c.check_finite().is_ok()
+/// True when the entries of the jets the kernel does not read (S, u, v) are finite, by the
+/// same sum test as the kernel's inputs (an overflow of finite entries only sends the lane
+/// through the one-point path).
+#[inline(always)]
+pub(crate) fn finite_rest(s: &SurfaceJet, c: &CurveJet) -> bool {
+    ((s.p.x + s.p.y) + (s.p.z + (c.u + c.v))).is_finite()
 }
 
 #[cfg(test)]
@@ -456,8 +516,9 @@ mod tests {
             let len = 1 + round % BLOCK;
             let x = BlockInput::gather(&sj[..len], &cj[..len]);
             for orientation in [Orientation::Forward, Orientation::Reversed] {
-                let a = frames_of_block(&x, orientation, &scales);
-                let b = frames_of_block_portable(&x, orientation, &scales);
+                let (mut a, mut b) = (BlockOutput::zeroed(), BlockOutput::zeroed());
+                frames_of_block(&x, orientation, &scales, &mut a);
+                frames_of_block_portable(&x, orientation, &scales, &mut b);
                 for i in 0..len {
                     assert_eq!(a.ok(i), b.ok(i));
                     let fa = a.frame(i, &sj[i], &cj[i]);
