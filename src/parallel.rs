@@ -9,6 +9,9 @@ use crate::error::StrakeError;
 use crate::frame::DarbouxFrame;
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::surface::SurfaceSource;
+use std::panic::{AssertUnwindSafe, catch_unwind};
+use std::sync::Barrier;
+use std::sync::atomic::{AtomicBool, Ordering};
 
 /// Below this many samples per thread, extra threads cost more than they save (thread start-up
 /// is tens of microseconds; one frame is well under a microsecond).
@@ -42,19 +45,25 @@ where
             )),
         });
     }
-    frames_parallel_with(cs, threads, |i| ts[i], out, |o, _, f| *o = *f)
+    frames_parallel_with(cs, threads, |i| ts[i], out, |o, _, f| *o = *f, |_, _| {})
 }
 
 /// The engine of the parallel batches: sample i has parameter `t_of(i)` and its frame goes to
 /// `out[i]` through `write(&mut out[i], t, frame)`, i < `out.len()`; `threads` ≥ 1 (capped as
 /// in [`frames_at_parallel`]). Contiguous chunks, one per scoped thread; the first chunk runs on
 /// the calling thread. Errors as in [`frames_at_parallel`].
-pub(crate) fn frames_parallel_with<S, C, T, F, W>(
+///
+/// When every chunk has succeeded, `publish(first, chunk)` is called for each chunk (`first`
+/// the index of its first sample) on the thread that computed it, so that copying the results
+/// to their final place runs in parallel too (the C calls write the host's array only on
+/// success). It is not called at all when any sample fails or any worker panics.
+pub(crate) fn frames_parallel_with<S, C, T, F, W, P>(
     cs: &CurveOnSurface<'_, S, C>,
     threads: usize,
     t_of: F,
     out: &mut [T],
     write: W,
+    publish: P,
 ) -> Result<(), SampleError>
 where
     S: SurfaceSource + ?Sized,
@@ -62,6 +71,7 @@ where
     T: Send,
     F: Fn(usize) -> f64 + Sync,
     W: Fn(&mut T, f64, &DarbouxFrame) + Sync,
+    P: Fn(usize, &mut [T]) + Sync,
 {
     let n = out.len();
     let threads = threads.min(n.div_ceil(MIN_SAMPLES_PER_THREAD)).max(1);
@@ -82,22 +92,45 @@ where
         })
     };
     if threads == 1 {
-        return run(0, out);
+        run(0, out)?;
+        publish(0, out);
+        return Ok(());
     }
+    let chunks_count = n.div_ceil(chunk);
+    // Every worker reaches the barrier, even after a failure or a panic (caught, resumed after
+    // the join), so that none waits forever; `failed` tells them whether to publish.
+    let barrier = Barrier::new(chunks_count);
+    let failed = AtomicBool::new(false);
+    let (barrier, failed, publish) = (&barrier, &failed, &publish);
+    let work = move |k: usize, oc: &mut [T]| -> std::thread::Result<Result<(), SampleError>> {
+        let r = catch_unwind(AssertUnwindSafe(|| run(k, &mut *oc)));
+        if !matches!(r, Ok(Ok(()))) {
+            failed.store(true, Ordering::Relaxed);
+        }
+        barrier.wait();
+        if !failed.load(Ordering::Relaxed) {
+            publish(k * chunk, oc);
+        }
+        r
+    };
     std::thread::scope(|scope| {
         let mut chunks = out.chunks_mut(chunk).enumerate();
         let Some((_, own)) = chunks.next() else {
             return Ok(());
         };
         let handles: Vec<_> = chunks
-            .map(|(k, oc)| scope.spawn(move || run(k, oc)))
+            .map(|(k, oc)| scope.spawn(move || work(k, oc)))
             .collect();
-        let mine = run(0, own);
-        let theirs: Vec<Result<(), SampleError>> = handles
+        let mine = work(0, own);
+        let theirs: Vec<std::thread::Result<Result<(), SampleError>>> = handles
             .into_iter()
             .map(|h| h.join().unwrap_or_else(|p| std::panic::resume_unwind(p)))
             .collect();
-        // Chunks are in index order, so the first error is the lowest failing index.
-        std::iter::once(mine).chain(theirs).collect()
+        // Chunks are in index order, so the first error is the lowest failing index; a panic
+        // anywhere is resumed here.
+        std::iter::once(mine)
+            .chain(theirs)
+            .map(|r| r.unwrap_or_else(|p| std::panic::resume_unwind(p)))
+            .collect()
     })
 }

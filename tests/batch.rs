@@ -3,7 +3,9 @@
 
 use strake::analytic::torus;
 use strake::parallel::frames_at_parallel;
-use strake::{CurveOnSurface, DarbouxFrame, Hints, NurbsCurve, StrakeError};
+use strake::{
+    CurveJet, CurveOnSurface, DarbouxFrame, FnCurve, Hints, Interval, NurbsCurve, StrakeError,
+};
 
 fn curve() -> NurbsCurve<2> {
     // A cubic UV path winding around the torus.
@@ -67,4 +69,39 @@ fn failures_report_the_lowest_index() {
     assert!(e.to_string().contains("sample 2100"));
     assert!(frames_at_parallel(&cs, &ts, &mut out, 0).is_err());
     assert!(cs.frames_at(&ts[..10], &mut out).is_err());
+}
+
+// Common practice for scoped worker threads: a panic in any worker reaches the caller (and no
+// worker is left waiting for the others), whichever chunk it happens in; with 2 threads and
+// 2000 samples, t = 0.2 lies in the calling thread's chunk and t = 0.8 in the other one's.
+#[test]
+fn a_panic_in_any_worker_reaches_the_caller() {
+    let s = torus(5.0, 1.5);
+    let n = 2000;
+    let ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+    for bad in [0.2, 0.8] {
+        let c = FnCurve::new(Interval::new("t", 0.0, 1.0).unwrap(), move |t: f64| {
+            assert!((t - bad).abs() > 1e-3, "host curve gave up at t = {t}");
+            Ok(CurveJet {
+                u: 6.0 * t,
+                v: 1.0 + t,
+                du: 6.0,
+                dv: 1.0,
+                ddu: 0.0,
+                ddv: 0.0,
+            })
+        });
+        let cs = CurveOnSurface::new(&s, &c);
+        let blank = cs.frame(0.5, &mut Hints::default()).unwrap();
+        let mut out = vec![blank; n];
+        let r = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
+            frames_at_parallel(&cs, &ts, &mut out, 2)
+        }));
+        let payload = r.expect_err("the worker's panic must reach the caller");
+        let text = payload
+            .downcast_ref::<String>()
+            .cloned()
+            .unwrap_or_default();
+        assert!(text.contains("host curve gave up"), "{text}");
+    }
 }

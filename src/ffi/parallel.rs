@@ -11,6 +11,26 @@ use super::types::StrakeFrame;
 use crate::parallel::frames_parallel_with;
 use crate::path::CurveOnSurface;
 use std::mem::MaybeUninit;
+use std::ptr::NonNull;
+
+/// The host's output array, shared by the worker threads, each of which writes only its own
+/// chunk of it.
+struct SharedOut(NonNull<MaybeUninit<StrakeFrame>>);
+
+// SAFETY: the threads write disjoint ranges of the array (see `frames_parallel_with`'s publish
+// step), and the array outlives the scoped threads.
+unsafe impl Sync for SharedOut {}
+
+impl SharedOut {
+    /// The address of element `first`.
+    ///
+    /// # Safety
+    /// `first` must lie within the array (or at its end).
+    unsafe fn at(&self, first: usize) -> NonNull<MaybeUninit<StrakeFrame>> {
+        // SAFETY: the caller's contract.
+        unsafe { self.0.add(first) }
+    }
+}
 
 /// As `strake_frames_at`, with the samples split into `threads` contiguous chunks evaluated at
 /// once on `threads` threads: the calling thread and `threads - 1` threads started for this
@@ -53,16 +73,21 @@ pub unsafe extern "C" fn strake_frames_at_parallel(
         }
         let pair = CurveOnSurface::new(s.source(), c.curve());
         let mut buf = scratch(count)?;
+        let dest = SharedOut(slot);
         frames_parallel_with(
             &pair,
             threads as usize,
             |i| ts[i],
             &mut buf,
             |o: &mut MaybeUninit<StrakeFrame>, t, f| *o = MaybeUninit::new(StrakeFrame::new(t, f)),
+            // Each thread copies its own chunk, once every sample has succeeded.
+            |first, chunk: &mut [MaybeUninit<StrakeFrame>]| {
+                // SAFETY: called only when every sample succeeded, so the chunk is fully
+                // written; `out` has room for `count` frames (checked above) and the chunks
+                // [first, first + len) are disjoint, so each thread writes its own part.
+                unsafe { publish_frames(chunk, dest.at(first)) }
+            },
         )?;
-        // SAFETY: every sample succeeded, so every element was written; room and alignment of
-        // `out` checked above.
-        unsafe { publish_frames(&buf, slot) };
         Ok(())
     })
 }
