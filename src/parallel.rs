@@ -126,11 +126,15 @@ where
             .into_iter()
             .map(|h| h.join().unwrap_or_else(|p| std::panic::resume_unwind(p)))
             .collect();
-        // Chunks are in index order, so the first error is the lowest failing index; a panic
-        // anywhere is resumed here.
-        std::iter::once(mine)
+        // A panic anywhere is resumed here first; then, chunks being in index order, the
+        // first error is the lowest failing index.
+        let results: Vec<Result<(), SampleError>> = std::iter::once(mine)
             .chain(theirs)
             .map(|r| r.unwrap_or_else(|p| std::panic::resume_unwind(p)))
-            .collect()
+            .collect();
+        for r in results {
+            r?;
+        }
+        Ok(())
     })
 }
