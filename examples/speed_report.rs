@@ -441,6 +441,8 @@ fn main() {
     let c_callback = c_callback_surface(&surface);
     let c_batch = c_batch_callback_surface(&surface);
     let c_curve = c_path();
+    let c_line = c_line();
+    let (line_us, line_vs) = line_uv(&ts);
     let ts_par = path_ts(N_PARALLEL);
 
     // Output buffers shared by several cases (one case runs at a time).
@@ -544,6 +546,22 @@ fn main() {
         Case::new("C: strake_frames_at, native", N, || {
             c_frames_at(c_native, c_curve, &ts, &mut out_c.borrow_mut())
         }),
+        Case::new("C: host batch callback alone, line", N, || {
+            for (j, (u, v)) in jets_c
+                .borrow_mut()
+                .chunks_mut(64)
+                .zip(line_us.chunks(64).zip(line_vs.chunks(64)))
+            {
+                // SAFETY: as above, `u.len()` points and jets.
+                let st = unsafe {
+                    host_surface_batch(ud, u.as_ptr(), v.as_ptr(), u.len(), 2, j.as_mut_ptr())
+                };
+                assert_eq!(st, 0);
+            }
+        }),
+        Case::new("C: strake_frames_at, batch callback, line", N, || {
+            c_frames_at(c_batch, c_line, &ts, &mut out_c.borrow_mut())
+        }),
         Case::new("parallel: frames_at_parallel, 1 thread", N_PARALLEL, || {
             frames_at_parallel(&cs, &ts_par, &mut out_par.borrow_mut(), 1).unwrap();
         }),
@@ -610,6 +628,12 @@ fn main() {
         "(callback + frame) / callback alone, batch callback",
         g("C: strake_frames_at, batch callback"),
         g("C: host batch callback alone"),
+        "target <= 1.15",
+    );
+    ratio(
+        "(callback + frame) / callback alone, batch callback, line",
+        g("C: strake_frames_at, batch callback, line"),
+        g("C: host batch callback alone, line"),
         "target <= 1.15",
     );
     ratio(
@@ -801,5 +825,6 @@ fn main() {
         strake_surface_free(c_callback);
         strake_surface_free(c_batch);
         strake_curve_free(c_curve);
+        strake_curve_free(c_line);
     }
 }

@@ -337,6 +337,39 @@ pub fn c_path() -> *mut StrakeCurve {
     out
 }
 
+/// Knots of the straight path (a degree-1 NURBS: a line in the parameter plane, as a raster
+/// pass in parameter space is).
+pub const LINE_KNOTS: [f64; 4] = [0.0, 0.0, 1.0, 1.0];
+/// Ends of the straight path in (u, v).
+pub const LINE_POINTS: [[f64; 2]; 2] = [[0.05, 0.1], [0.95, 0.9]];
+
+/// The straight path as a C handle (`strake_curve_new_nurbs`, degree 1, no weights).
+pub fn c_line() -> *mut StrakeCurve {
+    let mut out = std::ptr::null_mut();
+    // SAFETY: valid arrays (copied by the call), no weights, and an output slot.
+    let st = unsafe {
+        strake_curve_new_nurbs(
+            1,
+            LINE_KNOTS.as_ptr(),
+            LINE_KNOTS.len(),
+            LINE_POINTS.as_ptr().cast(),
+            LINE_POINTS.len(),
+            std::ptr::null(),
+            &mut out,
+        )
+    };
+    assert_eq!(st, StrakeStatus::Ok);
+    out
+}
+
+/// The (u, v) points of the straight path at `ts`.
+pub fn line_uv(ts: &[f64]) -> (Vec<f64>, Vec<f64>) {
+    let [a, b] = LINE_POINTS;
+    ts.iter()
+        .map(|&t| (a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])))
+        .unzip()
+}
+
 /// `strake_frames_at` into `out`, asserting success.
 pub fn c_frames_at(
     s: *const StrakeSurface,
