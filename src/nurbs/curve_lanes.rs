@@ -13,8 +13,9 @@ use super::knots::{KnotVector, SpanHint};
 use crate::jet::CurveJet;
 use std::ops::{Add, Mul, Sub};
 
-/// Points evaluated together: four doubles fill one 256-bit AVX register, so every lane-wide
-/// value stays in one register (wider blocks spill to the stack; see `benches/README.md`).
+/// Points evaluated together: four doubles fill one 256-bit AVX register, so a lane-wide value
+/// is one register (an earlier block of 16 points in arrays went through the stack and did not
+/// beat the one-point evaluation; see `benches/README.md`).
 pub(crate) const LANES: usize = 4;
 
 /// One value per lane, with element-wise IEEE arithmetic (one rounding per operation, no fused
