@@ -160,8 +160,6 @@ impl KnotVector {
         span
     }
 
-    // Out of line: `find_span` is inlined into every evaluation, the search is its rare case.
-    #[inline(never)]
     fn search(&self, u: f64) -> usize {
         let k = &self.knots;
         let p = self.degree;
