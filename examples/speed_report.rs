@@ -478,6 +478,15 @@ fn main() {
                 black_box(curve.checked_jet(t, &mut h).unwrap());
             }
         }),
+        Case::new("curve jets, block of 64, marching", N, || {
+            let mut h = SpanHint::default();
+            let mut jets = [CurveJet::default(); 64];
+            for chunk in ts.chunks(64) {
+                let out = &mut jets[..chunk.len()];
+                curve.jets_in_domain_block(chunk, &mut h, out).unwrap();
+                black_box(&*out);
+            }
+        }),
         Case::new("curve jet, random", N, || {
             for &t in &ts_random {
                 black_box(curve.checked_jet(t, &mut SpanHint::default()).unwrap());
@@ -766,6 +775,11 @@ fn main() {
         "curve jet (cubic rational, 2nd)",
         crv,
         g("curve jet, marching"),
+    );
+    row(
+        "curve jets, block of 64",
+        crv,
+        g("curve jets, block of 64, marching"),
     );
     row("frame from jets", FRAME, g("frame from jets, batch"));
     row("native path point", native, g("path point, batch"));

@@ -2,15 +2,19 @@
 //! ([`CurveOnSurface::frames_at`], [`CurveOnSurface::frames_even`], the parallel batch and the C
 //! batch calls).
 //!
-//! For each chunk of up to [`CHUNK`] samples: the curve jets one after the other (span hint
-//! carried), the surface jets of the chunk in one call ([`SurfaceSource::jets_in_domain_block`],
+//! For each chunk of up to [`CHUNK`] samples: the curve jets of the chunk in one call
+//! ([`UvCurve::jets_in_domain_block`], span hint carried; NURBS curves evaluate several points
+//! at once), the surface jets of the chunk in one call ([`SurfaceSource::jets_in_domain_block`],
 //! which a host's batch callback answers in one call too), then the frame math a block of
 //! [`BLOCK`] points at a time in structure-of-arrays form ([`crate::frame_block`]). The results are the bits of the
 //! one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the block kernel
 //! flags is evaluated again by the one-point path from the same jets, and samples are reported
 //! in order, so the first failing sample and its error are those of a point-by-point loop.
-//! Only a failure of a host's batch callback as a whole has no point-by-point counterpart; it
-//! is reported at the first sample of its chunk.
+//! Only a failure of a block evaluation as a whole (a host's batch callback) has no
+//! point-by-point counterpart; it is reported at the first sample of its chunk. The curve is
+//! evaluated at every sample of a chunk before the first t outside its domain, so a curve
+//! callback may be called at samples after the first failing one (never with such a t), and
+//! the hints may have moved past the failing sample (they only ever affect speed).
 //!
 //! Nothing is allocated: the chunk's jets live on the stack (about 13 KiB).
 
@@ -47,6 +51,7 @@ where
     let scales = cs.scales();
     let orientation = surface.orientation();
     let (ud, vd) = (surface.u_domain(), surface.v_domain());
+    let td = curve.domain();
     let mut ts = [0.0; CHUNK];
     let mut us = [0.0; CHUNK];
     let mut vs = [0.0; CHUNK];
@@ -60,26 +65,50 @@ where
         // Lanes 0..good are fine so far; `pending` is the failure of lane `good`, if any.
         let mut good = len;
         let mut pending = None;
-        for i in 0..len {
-            let t = t_of(base + i);
-            ts[i] = t;
-            let jet = curve.checked_jet(t, &mut hints.curve).and_then(|c| {
-                ud.check("u", c.u)?;
-                vd.check("v", c.v)?;
-                Ok(c)
-            });
-            match jet {
-                Ok(c) => {
-                    cj[i] = c;
-                    us[i] = c.u;
-                    vs[i] = c.v;
+        // The checks of `UvCurve::checked_jet` and the surface domain, in a point-by-point
+        // loop's order: t of every sample first (a failure there ends the chunk before it),
+        // then the curve jets of the samples before it in one call, then per sample the jet's
+        // finiteness and (u, v) in the surface's domain. A sample's errors come in the order of
+        // `checked_jet` followed by the domain checks, and the first failing sample wins.
+        for (i, t) in ts[..len].iter_mut().enumerate() {
+            *t = t_of(base + i);
+        }
+        if let Some(i) = ts[..len]
+            .iter()
+            .position(|&t| !(t.is_finite() && td.lo <= t && t <= td.hi))
+        {
+            good = i;
+            pending = td.check("t", ts[i]).err();
+        }
+        if good > 0 {
+            match curve.jets_in_domain_block(&ts[..good], &mut hints.curve, &mut cj[..good]) {
+                Ok(()) => {}
+                Err(StrakeError::AtPoint { index, error }) if index < good => {
+                    good = index;
+                    pending = Some(*error);
                 }
-                Err(e) => {
-                    good = i;
-                    pending = Some(e);
-                    break;
+                Err(error) => {
+                    return Err(SampleError {
+                        index: base,
+                        t: ts[0],
+                        error,
+                    });
                 }
             }
+        }
+        let evaluated = good;
+        for (i, c) in cj[..evaluated].iter().enumerate() {
+            let checked = c
+                .check_finite()
+                .and_then(|()| ud.check("u", c.u))
+                .and_then(|()| vd.check("v", c.v));
+            if let Err(e) = checked {
+                good = i;
+                pending = Some(e);
+                break;
+            }
+            us[i] = c.u;
+            vs[i] = c.v;
         }
         if good > 0 {
             let block = surface.jets_in_domain_block(

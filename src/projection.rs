@@ -550,13 +550,33 @@ impl UvCurve for SeamCurve {
     #[inline]
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
         let mut j = self.curve.jet_in_domain(t, hint)?;
+        self.wrap(&mut j);
+        Ok(j)
+    }
+    fn jets_in_domain_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [CurveJet],
+    ) -> Result<()> {
+        self.curve.jets_in_domain_block(ts, hint, out)?;
+        for j in out.iter_mut().take(ts.len()) {
+            self.wrap(j);
+        }
+        Ok(())
+    }
+}
+
+impl SeamCurve {
+    /// Wraps u and v of a jet of the unwrapped curve into their periods.
+    #[inline]
+    fn wrap(&self, j: &mut CurveJet) {
         if let Some(d) = self.u_period {
             j.u = d.lo + (j.u - d.lo).rem_euclid(d.width());
         }
         if let Some(d) = self.v_period {
             j.v = d.lo + (j.v - d.lo).rem_euclid(d.width());
         }
-        Ok(j)
     }
 }
 

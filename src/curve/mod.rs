@@ -17,6 +17,26 @@ pub trait UvCurve: Send + Sync {
     /// ([`UvCurve::checked_jet`]).
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet>;
 
+    /// The jets at `ts[i]` into `out[i]`, i = 0..ts.len() (`ts` and `out` have the same
+    /// length), all called with t inside the domain; batch entry points call it once per block
+    /// of samples. The hint is carried through the points in order.
+    ///
+    /// The default evaluates one point after the other by [`UvCurve::jet_in_domain`]. A failure
+    /// at point i is returned as `StrakeError::AtPoint { index: i, error }` with `out[..i]`
+    /// written; an implementation that evaluates the block as a whole may instead fail for the
+    /// whole block with any other error. Results are checked for finiteness by the caller.
+    /// NURBS curves of degree 1 to 3 evaluate several points at once, with the bits of
+    /// [`UvCurve::jet_in_domain`] at each.
+    #[inline]
+    fn jets_in_domain_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [CurveJet],
+    ) -> Result<()> {
+        jets_one_by_one(self, ts, hint, out)
+    }
+
     /// Parameters strictly inside the domain, ascending, where the curve's derivatives may be
     /// discontinuous (a spline's interior knots). Arc-length quadrature splits there, since an
     /// integrand that is not smooth inside an interval defeats its error estimate. None by
@@ -34,6 +54,26 @@ pub trait UvCurve: Send + Sync {
         jet.check_finite()?;
         Ok(jet)
     }
+}
+
+/// The default of [`UvCurve::jets_in_domain_block`]: [`UvCurve::jet_in_domain`] point by
+/// point, a failure at point i returned as `StrakeError::AtPoint { index: i, .. }`.
+#[inline]
+pub(crate) fn jets_one_by_one<C: UvCurve + ?Sized>(
+    curve: &C,
+    ts: &[f64],
+    hint: &mut SpanHint,
+    out: &mut [CurveJet],
+) -> Result<()> {
+    for (index, (&t, o)) in ts.iter().zip(out.iter_mut()).enumerate() {
+        *o = curve
+            .jet_in_domain(t, hint)
+            .map_err(|error| StrakeError::AtPoint {
+                index,
+                error: Box::new(error),
+            })?;
+    }
+    Ok(())
 }
 
 impl UvCurve for NurbsCurve<2> {
@@ -54,6 +94,16 @@ impl UvCurve for NurbsCurve<2> {
             ddu: d.d2[0],
             ddv: d.d2[1],
         })
+    }
+    #[inline]
+    fn jets_in_domain_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [CurveJet],
+    ) -> Result<()> {
+        self.jets_block(ts, hint, out);
+        Ok(())
     }
 }
 
@@ -92,6 +142,14 @@ impl<C: UvCurve + ?Sized> UvCurve for &C {
     }
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
         (**self).jet_in_domain(t, hint)
+    }
+    fn jets_in_domain_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [CurveJet],
+    ) -> Result<()> {
+        (**self).jets_in_domain_block(ts, hint, out)
     }
     fn breakpoints(&self) -> &[f64] {
         (**self).breakpoints()

@@ -16,9 +16,10 @@
 use super::basis::{
     Direct, MAX_ORDER, Reciprocals, basis_rows_in, reciprocal_table, reciprocals_per_span,
 };
+use super::curve_lanes::{CurveParts, jets_block};
 use super::knots::{KnotVector, SpanHint};
 use crate::error::{Result, StrakeError};
-use crate::jet::{DerivOrder, Interval};
+use crate::jet::{CurveJet, DerivOrder, Interval};
 
 /// A NURBS curve in D dimensions. Immutable after creation, so it can be evaluated from many
 /// threads at once.
@@ -262,6 +263,40 @@ impl<const D: usize> NurbsCurve<D> {
             }
         }
         out
+    }
+}
+
+impl NurbsCurve<2> {
+    /// The jets (point, first and second derivatives) at `ts[i]` into `out[i]` for
+    /// i < min(`ts.len()`, `out.len()`), the hint carried through the points in order: the
+    /// bits of [`Self::derivs_unchecked`] at each point, as for a `t` known to lie in the
+    /// domain (not checked, nor is the result's finiteness). Degrees 1 to 3 evaluate four
+    /// points at once (`curve_lanes`); other degrees one after the other.
+    pub(crate) fn jets_block(&self, ts: &[f64], hint: &mut SpanHint, out: &mut [CurveJet]) {
+        if jets_block(&self.parts(), ts, hint, out).is_some() {
+            return;
+        }
+        for (&t, o) in ts.iter().zip(out.iter_mut()) {
+            let d = self.derivs_unchecked(t, DerivOrder::Second, hint);
+            *o = CurveJet {
+                u: d.p[0],
+                v: d.p[1],
+                du: d.d1[0],
+                dv: d.d1[1],
+                ddu: d.d2[0],
+                ddv: d.d2[1],
+            };
+        }
+    }
+
+    /// What a lane-wide evaluation reads (`curve_lanes`).
+    pub(crate) fn parts(&self) -> CurveParts<'_> {
+        CurveParts {
+            knots: &self.knots,
+            recip: &self.recip,
+            weighted: &self.weighted,
+            weights: &self.weights,
+        }
     }
 }
 

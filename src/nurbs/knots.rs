@@ -139,7 +139,7 @@ impl KnotVector {
     /// end of the domain, the last non-empty span. `u` must lie in the domain (callers check).
     /// Tries `hint` and its right neighbour first, then binary search (A2.1), and stores the
     /// span found in `hint`.
-    #[inline]
+    #[inline(always)]
     pub fn find_span(&self, u: f64, hint: &mut SpanHint) -> usize {
         let k = &self.knots;
         let n = self.count - 1;
