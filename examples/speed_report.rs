@@ -418,6 +418,23 @@ fn main() {
     let mut rng = Lcg(7);
     let random_uv: Vec<(f64, f64)> = (0..N).map(|_| (rng.next(), rng.next())).collect();
     let cs = CurveOnSurface::new(&surface, &curve);
+    // The textbook evaluator of the second baseline must be the same surface.
+    let textbook = TextbookSurface::wing_skin();
+    let textbook_gap = us
+        .iter()
+        .zip(&vs)
+        .map(|(&u, &v)| {
+            let a = surface
+                .jet(u, v, DerivOrder::Position, &mut SurfaceHint::default())
+                .unwrap()
+                .p;
+            (textbook.point(u, v) - a).norm()
+        })
+        .fold(0.0, f64::max);
+    assert!(
+        textbook_gap < 1e-12,
+        "textbook evaluator off by {textbook_gap:e}"
+    );
     let exact: Vec<DarbouxFrame> = {
         let mut h = Hints::default();
         ts.iter().map(|&t| cs.frame(t, &mut h).unwrap()).collect()
@@ -526,6 +543,12 @@ fn main() {
                 black_box(fd_frame(&surface, &curve, t, &mut hs, &mut hc).unwrap());
             }
         }),
+        Case::new("finite differences, textbook evaluator", N, || {
+            let mut hc = SpanHint::default();
+            for &t in &ts {
+                black_box(fd_frame_textbook(&textbook, &curve, t, &mut hc).unwrap());
+            }
+        }),
         Case::new("C: host callback alone", N, || {
             for (j, (&u, &v)) in jets_c.borrow_mut().iter_mut().zip(us.iter().zip(&vs)) {
                 // SAFETY: the callback's contract: live surface, valid jet.
@@ -626,6 +649,12 @@ fn main() {
         g("path point, batch"),
         g("finite differences"),
         "target <= 0.15",
+    );
+    ratio(
+        "native path point (batch) / finite differences, textbook evaluator",
+        g("path point, batch"),
+        g("finite differences, textbook evaluator"),
+        "",
     );
     ratio(
         "native path point (one at a time) / finite differences",

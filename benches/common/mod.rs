@@ -227,11 +227,26 @@ pub const FD_STEP: f64 = 1e-4;
 /// likewise in v. (u ± h, v ± h) must lie inside the domain.
 #[inline(never)]
 pub fn fd_jet(s: &NurbsSurface, u: f64, v: f64, h: f64, hint: &mut SurfaceHint) -> SurfaceJet {
+    fd_jet_with(
+        |uu, vv| s.jet(uu, vv, DerivOrder::Position, hint).unwrap().p,
+        u,
+        v,
+        h,
+    )
+}
+
+/// The stencil of [`fd_jet`] over any position evaluator `position(u, v)`.
+#[inline(always)]
+pub fn fd_jet_with(
+    mut position: impl FnMut(f64, f64) -> strake::Vec3,
+    u: f64,
+    v: f64,
+    h: f64,
+) -> SurfaceJet {
     let mut p = [[strake::Vec3::zeros(); 3]; 3];
     for (a, row) in p.iter_mut().enumerate() {
         for (b, x) in row.iter_mut().enumerate() {
-            let (uu, vv) = (u + (a as f64 - 1.0) * h, v + (b as f64 - 1.0) * h);
-            *x = s.jet(uu, vv, DerivOrder::Position, hint).unwrap().p;
+            *x = position(u + (a as f64 - 1.0) * h, v + (b as f64 - 1.0) * h);
         }
     }
     let (i2h, ih2, i4h2) = (0.5 / h, 1.0 / (h * h), 0.25 / (h * h));
@@ -257,6 +272,111 @@ pub fn fd_frame(
 ) -> Result<DarbouxFrame> {
     let cj: CurveJet = c.checked_jet(t, hint_c)?;
     let sj = fd_jet(s, cj.u, cj.v, FD_STEP, hint_s);
+    darboux_frame(&sj, &cj, Orientation::Forward, &SCALES, t)
+}
+
+/// The position-only evaluator a host programmer types from the textbook, for a second,
+/// less demanding finite-difference baseline: span by binary search (The NURBS Book, 2nd ed.,
+/// A2.1 FindSpan, p. 68), basis functions by the triangular recursion with a division per
+/// term (A2.2 BasisFuns, p. 70), the tensor sum on the homogeneous net and one division by
+/// the weight (A4.3 SurfacePoint applied to Pw, §4.4). Scalar code, no span hint, no tables.
+pub struct TextbookSurface {
+    knots_u: Vec<f64>,
+    knots_v: Vec<f64>,
+    count_u: usize,
+    count_v: usize,
+    /// [w x, w y, w z, w], index i * count_v + j.
+    pw: Vec<[f64; 4]>,
+}
+
+impl TextbookSurface {
+    /// The rational test surface of [`wing_skin`].
+    pub fn wing_skin() -> Self {
+        let (pts, ws) = wing_net();
+        TextbookSurface {
+            knots_u: KNOTS_U.to_vec(),
+            knots_v: KNOTS_V.to_vec(),
+            count_u: 8,
+            count_v: 8,
+            pw: pts
+                .iter()
+                .zip(&ws)
+                .map(|(p, &w)| [w * p[0], w * p[1], w * p[2], w])
+                .collect(),
+        }
+    }
+
+    /// A2.1: the span index i with u in [U_i, U_{i+1}) (the last non-empty span at the end).
+    fn find_span(knots: &[f64], n: usize, p: usize, u: f64) -> usize {
+        if u >= knots[n + 1] {
+            return n;
+        }
+        let (mut low, mut high) = (p, n + 1);
+        let mut mid = (low + high) / 2;
+        while u < knots[mid] || u >= knots[mid + 1] {
+            if u < knots[mid] {
+                high = mid;
+            } else {
+                low = mid;
+            }
+            mid = (low + high) / 2;
+        }
+        mid
+    }
+
+    /// A2.2 for degree 3: the four non-zero basis functions at u on span i.
+    fn basis(knots: &[f64], i: usize, u: f64) -> [f64; 4] {
+        let mut n = [1.0, 0.0, 0.0, 0.0];
+        let (mut left, mut right) = ([0.0; 4], [0.0; 4]);
+        for j in 1..=3 {
+            left[j] = u - knots[i + 1 - j];
+            right[j] = knots[i + j] - u;
+            let mut saved = 0.0;
+            for r in 0..j {
+                let temp = n[r] / (right[r + 1] + left[j - r]);
+                n[r] = saved + right[r + 1] * temp;
+                saved = left[j - r] * temp;
+            }
+            n[j] = saved;
+        }
+        n
+    }
+
+    /// S(u, v) for (u, v) in the domain.
+    pub fn point(&self, u: f64, v: f64) -> strake::Vec3 {
+        let su = Self::find_span(&self.knots_u, self.count_u - 1, 3, u);
+        let sv = Self::find_span(&self.knots_v, self.count_v - 1, 3, v);
+        let (nu, nv) = (
+            Self::basis(&self.knots_u, su, u),
+            Self::basis(&self.knots_v, sv, v),
+        );
+        let mut sw = [0.0; 4];
+        for (l, &bv) in nv.iter().enumerate() {
+            let mut temp = [0.0; 4];
+            for (k, &bu) in nu.iter().enumerate() {
+                let cp = &self.pw[(su - 3 + k) * self.count_v + (sv - 3 + l)];
+                for c in 0..4 {
+                    temp[c] += bu * cp[c];
+                }
+            }
+            for c in 0..4 {
+                sw[c] += bv * temp[c];
+            }
+        }
+        strake::Vec3::new(sw[0] / sw[3], sw[1] / sw[3], sw[2] / sw[3])
+    }
+}
+
+/// As [`fd_frame`] with the nine positions from the [`TextbookSurface`] evaluator.
+#[inline(never)]
+pub fn fd_frame_textbook(
+    s: &TextbookSurface,
+    c: &NurbsCurve<2>,
+    t: f64,
+    hint_c: &mut SpanHint,
+) -> Result<DarbouxFrame> {
+    let cj: CurveJet = c.checked_jet(t, hint_c)?;
+    let sj = fd_jet_with(|uu, vv| s.point(uu, vv), cj.u, cj.v, FD_STEP);
     darboux_frame(&sj, &cj, Orientation::Forward, &SCALES, t)
 }
 
