@@ -139,7 +139,7 @@ impl KnotVector {
     /// end of the domain, the last non-empty span. `u` must lie in the domain (callers check).
     /// Tries `hint` and its right neighbour first, then binary search (A2.1), and stores the
     /// span found in `hint`.
-    #[inline]
+    #[inline(always)]
     pub fn find_span(&self, u: f64, hint: &mut SpanHint) -> usize {
         let k = &self.knots;
         let n = self.count - 1;
@@ -155,6 +155,13 @@ impl KnotVector {
                 }
             }
         }
+        self.search_and_remember(u, hint)
+    }
+
+    /// The search of [`Self::find_span`] when the hint misses (kept out of line, so that the
+    /// hint test inlines into the evaluators).
+    #[inline(never)]
+    fn search_and_remember(&self, u: f64, hint: &mut SpanHint) -> usize {
         let span = self.search(u);
         hint.0 = Some(span);
         span
