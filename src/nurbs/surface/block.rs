@@ -48,6 +48,21 @@ impl NurbsSurface {
             unsafe { self.block_avx2(u, v, order, hint, out) };
             return;
         }
+        self.block_portable(u, v, order, hint, out);
+    }
+
+    /// [`Self::block_with`] in the baseline instruction set (SSE2 on x86-64). Out of line, so
+    /// that the dispatcher's stack frame stays small in unoptimised builds, which give every
+    /// local of every inlined copy of the kernel its own slot.
+    #[inline(never)]
+    fn block_portable(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
         self.block_with::<Sse2>(u, v, order, hint, out);
     }
 
@@ -283,6 +298,20 @@ mod tests {
         }
     }
 
+    /// [`NurbsSurface::block_with`] with `M`, out of line (each copy of the kernel takes a
+    /// large stack frame in unoptimised builds).
+    #[inline(never)]
+    fn with<M: QuadOps>(
+        s: &NurbsSurface,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        s.block_with::<M>(u, v, order, hint, out);
+    }
+
     fn bits(j: &SurfaceJet) -> [u64; 18] {
         let mut b = [0; 18];
         for (i, v) in [j.p, j.su, j.sv, j.suu, j.suv, j.svv].iter().enumerate() {
@@ -368,7 +397,8 @@ mod tests {
                     .unwrap();
                     check("dispatched", &out[..len], hint);
                     let mut hint = start;
-                    s.block_with::<Scalar>(
+                    with::<Scalar>(
+                        &s,
                         &us[..len],
                         &vs[..len],
                         order,
@@ -379,7 +409,8 @@ mod tests {
                     #[cfg(target_arch = "x86_64")]
                     {
                         let mut hint = start;
-                        s.block_with::<Sse2>(
+                        with::<Sse2>(
+                            &s,
                             &us[..len],
                             &vs[..len],
                             order,
