@@ -23,7 +23,7 @@ use strake::ffi::{StrakeFrame, StrakeSurfaceJet, strake_curve_free, strake_surfa
 use strake::jet::{CurveJet, DerivOrder, SurfaceJet};
 use strake::nurbs::SpanHint;
 use strake::parallel::frames_at_parallel;
-use strake::surface::SurfaceHint;
+use strake::surface::{SurfaceHint, SurfaceSource};
 use strake::{
     CurveOnSurface, DarbouxFrame, Hints, Orientation, UvCurve, darboux_frame, darboux_frames,
 };
@@ -469,6 +469,7 @@ fn main() {
     let out_par_c = RefCell::new(vec![StrakeFrame::default(); N_PARALLEL]);
     let ud = &surface as *const strake::NurbsSurface as *mut std::ffi::c_void;
     let jets_c = RefCell::new(vec![StrakeSurfaceJet::default(); N]);
+    let jets_block = RefCell::new(vec![SurfaceJet::default(); N]);
 
     let mut cases = vec![
         Case::new("surface jet, marching", N, || {
@@ -476,6 +477,17 @@ fn main() {
             for (&u, &v) in us.iter().zip(&vs) {
                 black_box(surface.jet(u, v, DerivOrder::Second, &mut h).unwrap());
             }
+        }),
+        Case::new("surface jets, block of 64, marching", N, || {
+            // What the batch entry points do: one `jets_in_domain_block` call per 64 points.
+            let mut h = SurfaceHint::default();
+            let mut out = jets_block.borrow_mut();
+            for ((u, v), o) in us.chunks(64).zip(vs.chunks(64)).zip(out.chunks_mut(64)) {
+                surface
+                    .jets_in_domain_block(u, v, DerivOrder::Second, &mut h, o)
+                    .unwrap();
+            }
+            black_box(&mut *out);
         }),
         Case::new("surface jet, random", N, || {
             for &(u, v) in &random_uv {
@@ -699,6 +711,12 @@ fn main() {
         "",
     );
     ratio(
+        "surface jets: block of 64 / one at a time (marching)",
+        g("surface jets, block of 64, marching"),
+        g("surface jet, marching"),
+        "",
+    );
+    ratio(
         "marching / random, curve jet",
         g("curve jet, marching"),
         g("curve jet, random"),
@@ -794,6 +812,11 @@ fn main() {
         "surface jet (bicubic rational, 2nd)",
         surf,
         g("surface jet, marching"),
+    );
+    row(
+        "surface jets, block of 64",
+        surf,
+        g("surface jets, block of 64, marching"),
     );
     row(
         "surface position (bicubic rational)",

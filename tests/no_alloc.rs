@@ -89,6 +89,24 @@ fn evaluation_paths_do_not_allocate() {
         }
     });
     assert_eq!(a, 0, "NURBS jets allocated {a} times");
+    // The same points a block at a time (the batch path's call).
+    let (us, vs): (Vec<f64>, Vec<f64>) = ts
+        .iter()
+        .map(|&t| {
+            let cj = c.checked_jet(t, &mut SpanHint::default()).unwrap();
+            (cj.u / 6.5, cj.v / 6.5)
+        })
+        .unzip();
+    let mut jets = vec![SurfaceJet::default(); n];
+    let (_, a) = count(|| {
+        let mut hs = SurfaceHint::default();
+        for ((u, v), o) in us.chunks(64).zip(vs.chunks(64)).zip(jets.chunks_mut(64)) {
+            patch
+                .jets_in_domain_block(u, v, DerivOrder::Second, &mut hs, o)
+                .unwrap();
+        }
+    });
+    assert_eq!(a, 0, "NURBS block jets allocated {a} times");
 
     // The frame from jets, in a batch.
     let sj: Vec<SurfaceJet> = ts

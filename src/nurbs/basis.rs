@@ -183,3 +183,132 @@ fn derivative_row<const N: usize, D: KnotDivisor>(
     }
     out[p] = pf * carry;
 }
+
+/// `L` values, one per point of a group of points evaluated together. Every operation is one
+/// IEEE operation per lane, the one the scalar code performs, written as a loop over the lanes
+/// that the compiler vectorises; so lane-wide code written like the scalar code gives, lane by
+/// lane, the scalar code's bits.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct Lanes<const L: usize>(pub(crate) [f64; L]);
+
+impl<const L: usize> Lanes<L> {
+    /// The same value in every lane.
+    #[inline(always)]
+    pub(crate) fn splat(x: f64) -> Self {
+        Lanes([x; L])
+    }
+    /// Lane i = `x[i][at]`.
+    #[inline(always)]
+    fn gather(x: &[&[f64]; L], at: usize) -> Self {
+        let mut r = [0.0; L];
+        for (r, x) in r.iter_mut().zip(x) {
+            *r = x[at];
+        }
+        Lanes(r)
+    }
+    /// Lane by lane `f(self, o)`.
+    #[inline(always)]
+    fn zip(self, o: Self, f: impl Fn(f64, f64) -> f64) -> Self {
+        let mut r = [0.0; L];
+        for (i, r) in r.iter_mut().enumerate() {
+            *r = f(self.0[i], o.0[i]);
+        }
+        Lanes(r)
+    }
+}
+
+macro_rules! lane_op {
+    ($tr:ident, $f:ident, $op:tt) => {
+        impl<const L: usize> std::ops::$tr for Lanes<L> {
+            type Output = Self;
+            #[inline(always)]
+            fn $f(self, o: Self) -> Self {
+                self.zip(o, |a, b| a $op b)
+            }
+        }
+    };
+}
+lane_op!(Add, add, +);
+lane_op!(Sub, sub, -);
+lane_op!(Mul, mul, *);
+lane_op!(Div, div, /);
+
+/// [`basis_rows_in`] with [`Reciprocals`] and the degree `P` (> 0) known at compile time, for
+/// `L` points at once: lane l evaluates at `x[l]` on span `spans[l]` of `knots`, with the
+/// reciprocal table `recips` of every span (as made by [`reciprocal_table`]). Each lane performs
+/// exactly the operations of [`basis_rows_in`] in the same order, so it gives the same bits;
+/// the latencies of the lanes' recursions overlap. `d[k][r]` lane l is `d[k][r]` of
+/// [`basis_rows_in`] at point l. Same preconditions per lane as [`basis_rows_in`].
+#[inline(always)]
+pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize>(
+    knots: &[f64],
+    recips: &[f64],
+    spans: &[usize; L],
+    x: Lanes<L>,
+    order: usize,
+) -> [[Lanes<L>; N]; 3] {
+    const { assert!(P > 0 && P < N) };
+    let per_span = reciprocals_per_span(P);
+    // Per lane the knot window and the span's reciprocals, as in `basis_rows_in` and
+    // `Reciprocals`; fixed lengths, so that the constant indices below carry no bounds checks.
+    // Plain loops rather than `array::from_fn`, which is not reliably inlined.
+    let mut kw: [&[f64]; L] = [&[]; L];
+    let mut rc: [&[f64]; L] = [&[]; L];
+    for l in 0..L {
+        kw[l] = &knots[spans[l] + 1 - P..spans[l] + P + 1];
+        rc[l] = &recips[(spans[l] - P) * per_span..][..per_span];
+    }
+    let zero = Lanes::splat(0.0);
+    let mut out = [[zero; N]; 3];
+    let mut left = [zero; N];
+    let mut right = [zero; N];
+    let mut deg_p1 = [zero; N];
+    let mut deg_p2 = [zero; N];
+    let row = &mut out[0];
+    row[0] = Lanes::splat(1.0);
+    for j in 1..P + 1 {
+        if j == P {
+            deg_p1 = *row;
+        }
+        if j + 1 == P {
+            deg_p2 = *row;
+        }
+        left[j] = x - Lanes::gather(&kw, P - j);
+        right[j] = Lanes::gather(&kw, P - 1 + j) - x;
+        let mut saved = zero;
+        for r in 0..j {
+            let temp = row[r] * Lanes::gather(&rc, j * (j - 1) / 2 + r);
+            row[r] = saved + right[r + 1] * temp;
+            saved = left[j - r] * temp;
+        }
+        row[j] = saved;
+    }
+    if order >= 1 {
+        derivative_row_lanes(P, &rc, &deg_p1, &mut out[1]);
+    }
+    if order >= 2 && P >= 2 {
+        let mut der_p1 = [zero; N];
+        derivative_row_lanes(P - 1, &rc, &deg_p2, &mut der_p1);
+        derivative_row_lanes(P, &rc, &der_p1, &mut out[2]);
+    }
+    out
+}
+
+/// [`derivative_row`] with [`Reciprocals`], lane-wide: lane l of `rc` is the reciprocal table of
+/// lane l's span.
+#[inline(always)]
+fn derivative_row_lanes<const N: usize, const L: usize>(
+    p: usize,
+    rc: &[&[f64]; L],
+    lower: &[Lanes<L>; N],
+    out: &mut [Lanes<L>; N],
+) {
+    let pf = Lanes::splat(p as f64);
+    let mut carry = Lanes::splat(0.0);
+    for r in 0..p {
+        let term = lower[r] * Lanes::gather(rc, p * (p - 1) / 2 + r);
+        out[r] = pf * (carry - term);
+        carry = term;
+    }
+    out[p] = pf * carry;
+}

@@ -155,6 +155,13 @@ impl KnotVector {
                 }
             }
         }
+        self.search_and_remember(u, hint)
+    }
+
+    /// The search of [`Self::find_span`] when the hint misses (kept out of line, so that the
+    /// hint test inlines into the evaluators).
+    #[inline(never)]
+    fn search_and_remember(&self, u: f64, hint: &mut SpanHint) -> usize {
         let span = self.search(u);
         hint.0 = Some(span);
         span

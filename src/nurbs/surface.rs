@@ -36,6 +36,8 @@ use crate::math::Vec3;
 use crate::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
 
+mod block;
+
 /// The arrays that define a NURBS surface, borrowed from the caller, as handed to
 /// [`NurbsSurface::new`].
 ///
@@ -380,13 +382,31 @@ impl NurbsSurface {
                 basis_rows_in::<N, Q, _>(self.v_knots.knots(), q, span_v, v, K, &Direct),
             )
         };
+        let h = self.tensor_sums::<K, N, M>(p, q, span_u, span_v, &nu, &nv);
+        self.quotient::<K>(&h)
+    }
+
+    /// The homogeneous partials h\[0\] = A, h\[1\] = Au, h\[2\] = Av, h\[3\] = Auu,
+    /// h\[4\] = Auv, h\[5\] = Avv, each [x, y, z, w], up to order K (higher ones zero): the
+    /// tensor-product sums (A3.6) of the basis rows `nu` (degree `p`, span `span_u`) and `nv`
+    /// (degree `q`, span `span_v`) over the homogeneous net. `M` as in [`Self::eval`].
+    #[inline(always)]
+    fn tensor_sums<const K: usize, const N: usize, M: QuadOps>(
+        &self,
+        p: usize,
+        q: usize,
+        span_u: usize,
+        span_v: usize,
+        nu: &[[f64; N]; 3],
+        nv: &[[f64; N]; 3],
+    ) -> [[f64; 4]; 6] {
         let count_v = self.v_knots.count();
         let first = (span_u - p) * count_v + (span_v - q);
-
         // h[0] = A, h[1] = Au, h[2] = Av, h[3] = Auu, h[4] = Auv, h[5] = Avv, each [x, y, z, w]
         // in one vector value of `M` (see `quad`). Row r of the (p + 1) × (q + 1) block starts
         // at first + r * count_v; exclusive ranges, so that the loops unroll for known degrees.
-        // SAFETY (every `M::` call): the caller chose `M` for this processor (`eval`'s contract).
+        // SAFETY (every `M::` call): the caller chose `M` for this processor (the contract of
+        // `eval` and of this function).
         let z = unsafe { M::zero() };
         let mut h = [z; 6];
         let block = &self.net[first..];
@@ -419,7 +439,13 @@ impl NurbsSurface {
         for (o, &x) in hs.iter_mut().zip(&h).take(if K == 0 { 1 } else { 3 * K }) {
             *o = unsafe { M::store(x) };
         }
-        let h = hs;
+        hs
+    }
+
+    /// The jet from the homogeneous partials `h` of [`Self::tensor_sums`]: S = A directly for a
+    /// non-rational surface, the quotient rule (A4.4) otherwise; entries above order K zero.
+    #[inline(always)]
+    fn quotient<const K: usize>(&self, h: &[[f64; 4]; 6]) -> SurfaceJet {
         let v3 = |a: &[f64; 4]| Vec3::new(a[0], a[1], a[2]);
         if !self.rational {
             return SurfaceJet {
@@ -471,6 +497,20 @@ impl SurfaceSource for NurbsSurface {
         hint: &mut SurfaceHint,
     ) -> Result<SurfaceJet> {
         Ok(self.jet_unchecked(u, v, order, hint))
+    }
+    /// The points of the block a group at a time, with the latencies of several points
+    /// overlapping (see `nurbs/surface/block.rs`); the bits of [`NurbsSurface::jet_unchecked`]
+    /// at each point, the hint carried as by a loop. Never fails.
+    fn jets_in_domain_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) -> Result<()> {
+        self.jets_unchecked_block(u, v, order, hint, out);
+        Ok(())
     }
 }
 

@@ -1,0 +1,427 @@
+//! The jets of many points of a NURBS surface in one call (the batch path's
+//! [`SurfaceSource::jets_in_domain_block`](crate::surface::SurfaceSource::jets_in_domain_block)),
+//! a group of [`GROUP`] points at a time.
+//!
+//! One point at a time, an evaluation is bound by latency: the Cox–de Boor recursion is a chain
+//! of dependent multiplications and additions, and the quotient rule waits for one division.
+//! Here, per group: the span searches of its points in order (the hint carried as by a loop of
+//! one-point evaluations), the basis rows of all its points at once in lane-wide form
+//! ([`basis_rows_lanes`], one lane per point), the tensor sums point by point (already four
+//! wide over [x, y, z, w]; the points are independent, so the processor overlaps them), and the
+//! quotient rule lane-wide. Every lane performs the one-point path's operations in the same
+//! order, so the jets are the bits of [`NurbsSurface::jet_unchecked`] (tested below).
+
+use super::super::basis::{Lanes, basis_rows_lanes};
+use super::super::quad::QuadOps;
+#[cfg(not(target_arch = "x86_64"))]
+use super::super::quad::Scalar as Sse2;
+#[cfg(target_arch = "x86_64")]
+use super::super::quad::{Avx, Sse2};
+use super::NurbsSurface;
+use crate::jet::{DerivOrder, SurfaceJet};
+use crate::math::Vec3;
+use crate::surface::SurfaceHint;
+
+/// Points evaluated together: the lanes of the basis rows and of the quotient rule. Four fill
+/// one AVX vector.
+const GROUP: usize = 4;
+
+type L = Lanes<GROUP>;
+
+impl NurbsSurface {
+    /// The jets at (u\[i\], v\[i\]) up to `order` into `out[i]`, for i below the shortest of
+    /// the three lengths: the bits of [`Self::jet_unchecked`] at each point, with `hint`
+    /// carried from point to point as by a loop of [`Self::jet_unchecked`] calls (and left
+    /// where the last point put it). The same conditions on (u, v) as [`Self::jet_unchecked`];
+    /// never panics, never allocates.
+    pub(super) fn jets_unchecked_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        #[cfg(target_arch = "x86_64")]
+        if std::arch::is_x86_feature_detected!("avx2") {
+            // SAFETY: the processor supports AVX2 (checked just above).
+            unsafe { self.block_avx2(u, v, order, hint, out) };
+            return;
+        }
+        self.block_portable(u, v, order, hint, out);
+    }
+
+    /// [`Self::block_with`] in the baseline instruction set (SSE2 on x86-64). Out of line, so
+    /// that the dispatcher's stack frame stays small in unoptimised builds, which give every
+    /// local of every inlined copy of the kernel its own slot.
+    #[inline(never)]
+    fn block_portable(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        self.block_with::<Sse2>(u, v, order, hint, out);
+    }
+
+    /// [`Self::block_with`] compiled for AVX2 (the basis rows and the quotient rule on 256-bit
+    /// vectors of four points, the tensor sums on one 256-bit vector per homogeneous point).
+    ///
+    /// # Safety
+    /// The processor must support AVX2.
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    unsafe fn block_avx2(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        self.block_with::<Avx>(u, v, order, hint, out);
+    }
+
+    /// The block evaluation with the vector arithmetic `M` of the tensor sums (usable on this
+    /// processor: `Avx` only with AVX2), dispatched on the order and the degrees. Second-order
+    /// jets (what the batch path asks for) of degrees up to 3 in each direction, at least 2 in
+    /// one, take the grouped path; everything else is a loop of one-point evaluations.
+    #[inline(always)]
+    pub(super) fn block_with<M: QuadOps>(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        if order == DerivOrder::Second {
+            match (self.u_knots.degree(), self.v_knots.degree()) {
+                (3, 3) => return self.groups::<2, 4, 3, 3, M>(u, v, hint, out),
+                (3, 2) => return self.groups::<2, 4, 3, 2, M>(u, v, hint, out),
+                (2, 3) => return self.groups::<2, 4, 2, 3, M>(u, v, hint, out),
+                (2, 2) => return self.groups::<2, 3, 2, 2, M>(u, v, hint, out),
+                (2, 1) => return self.groups::<2, 3, 2, 1, M>(u, v, hint, out),
+                (1, 2) => return self.groups::<2, 3, 1, 2, M>(u, v, hint, out),
+                _ => {}
+            }
+        }
+        for ((&u, &v), o) in u.iter().zip(v).zip(out.iter_mut()) {
+            *o = self.jet_with::<M>(u, v, order, hint);
+        }
+    }
+
+    /// The grouped evaluation for derivatives up to order K, degrees `P`, `Q` (> 0, known at
+    /// compile time, the surface's), basis rows of N entries (`P`, `Q` < N), the arithmetic of
+    /// [`Self::eval`] with per-span reciprocals lane by lane.
+    #[inline(always)]
+    fn groups<const K: usize, const N: usize, const P: usize, const Q: usize, M: QuadOps>(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        debug_assert!(P == self.u_knots.degree() && Q == self.v_knots.degree());
+        let n = u.len().min(v.len()).min(out.len());
+        let (knots_u, knots_v) = (self.u_knots.knots(), self.v_knots.knots());
+        for start in (0..n).step_by(GROUP) {
+            let len = GROUP.min(n - start);
+            // Spans in order, u before v for each point, as the one-point path searches them.
+            // Lanes past the end repeat the last point; their results are dropped.
+            let (mut xu, mut xv) = ([0.0; GROUP], [0.0; GROUP]);
+            let (mut span_u, mut span_v) = ([0; GROUP], [0; GROUP]);
+            for l in 0..GROUP {
+                if l < len {
+                    xu[l] = u[start + l];
+                    xv[l] = v[start + l];
+                    span_u[l] = self.u_knots.find_span(xu[l], &mut hint.u);
+                    span_v[l] = self.v_knots.find_span(xv[l], &mut hint.v);
+                } else {
+                    (xu[l], xv[l]) = (xu[len - 1], xv[len - 1]);
+                    (span_u[l], span_v[l]) = (span_u[len - 1], span_v[len - 1]);
+                }
+            }
+            let nu = basis_rows_lanes::<N, P, GROUP>(knots_u, &self.u_recip, &span_u, Lanes(xu), K);
+            let nv = basis_rows_lanes::<N, Q, GROUP>(knots_v, &self.v_recip, &span_v, Lanes(xv), K);
+            let out = &mut out[start..start + len];
+            // h[k][c] lane l: component c of the homogeneous partial k of point l (see
+            // `tensor_sums`).
+            let mut h = [[L::splat(0.0); 4]; 6];
+            for (l, o) in out.iter_mut().enumerate() {
+                let hp = self.tensor_sums::<K, N, M>(
+                    P,
+                    Q,
+                    span_u[l],
+                    span_v[l],
+                    &lane(&nu, l),
+                    &lane(&nv, l),
+                );
+                if self.rational {
+                    for (hk, hpk) in h.iter_mut().zip(&hp) {
+                        for (hkc, &x) in hk.iter_mut().zip(hpk) {
+                            hkc.0[l] = x;
+                        }
+                    }
+                } else {
+                    *o = self.quotient::<K>(&hp);
+                }
+            }
+            if self.rational {
+                quotient_lanes::<K>(&h, out);
+            }
+        }
+    }
+}
+
+/// Lane `l` of basis rows.
+#[inline(always)]
+fn lane<const N: usize>(rows: &[[L; N]; 3], l: usize) -> [[f64; N]; 3] {
+    let mut out = [[0.0; N]; 3];
+    for (o, row) in out.iter_mut().zip(rows) {
+        for (o, x) in o.iter_mut().zip(row) {
+            *o = x.0[l];
+        }
+    }
+    out
+}
+
+/// [`NurbsSurface::quotient`] for a rational surface, lane-wide: the jets of the group's points
+/// from their homogeneous partials `h[k][c]` (partial k as in `tensor_sums`, component c of
+/// [x, y, z, w]), into `out[l]` for the lanes l < `out.len()`. The same operations in the same
+/// order per lane.
+#[inline(always)]
+fn quotient_lanes<const K: usize>(h: &[[L; 4]; 6], out: &mut [SurfaceJet]) {
+    let zero = L::splat(0.0);
+    let inv_w = L::splat(1.0) / h[0][3];
+    let (mut s, mut su, mut sv) = ([zero; 3], [zero; 3], [zero; 3]);
+    let (mut suu, mut suv, mut svv) = ([zero; 3], [zero; 3], [zero; 3]);
+    for c in 0..3 {
+        s[c] = h[0][c] * inv_w;
+    }
+    if K >= 1 {
+        let (wu, wv) = (h[1][3], h[2][3]);
+        for c in 0..3 {
+            su[c] = (h[1][c] - s[c] * wu) * inv_w;
+            sv[c] = (h[2][c] - s[c] * wv) * inv_w;
+        }
+        if K >= 2 {
+            let (wuu, wuv, wvv) = (h[3][3], h[4][3], h[5][3]);
+            let two = L::splat(2.0);
+            let (two_wu, two_wv) = (two * wu, two * wv);
+            for c in 0..3 {
+                suu[c] = (h[3][c] - su[c] * two_wu - s[c] * wuu) * inv_w;
+                suv[c] = (h[4][c] - sv[c] * wu - su[c] * wv - s[c] * wuv) * inv_w;
+                svv[c] = (h[5][c] - sv[c] * two_wv - s[c] * wvv) * inv_w;
+            }
+        }
+    }
+    for (l, o) in out.iter_mut().enumerate() {
+        let v3 = |x: &[L; 3]| Vec3::new(x[0].0[l], x[1].0[l], x[2].0[l]);
+        *o = SurfaceJet {
+            p: v3(&s),
+            su: v3(&su),
+            sv: v3(&sv),
+            suu: v3(&suu),
+            suv: v3(&suv),
+            svv: v3(&svv),
+        };
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::super::super::quad::Scalar;
+    use super::super::NurbsSurfaceData;
+    use super::*;
+    use crate::nurbs::SpanHint;
+    use crate::surface::SurfaceSource;
+
+    /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
+    fn lcg(state: &mut u64) -> f64 {
+        *state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (*state >> 11) as f64 / (1u64 << 53) as f64
+    }
+
+    /// A knot vector for degree `deg` and `n` control points: clamped for odd degrees,
+    /// unclamped for even ones, random spacing, a double interior knot.
+    fn knots(deg: usize, n: usize, st: &mut u64) -> Vec<f64> {
+        let mut k: Vec<f64> = Vec::new();
+        let mut x = 0.0;
+        for i in 0..n + deg + 1 {
+            let clamped = deg % 2 == 1 && (i <= deg || i > n);
+            if !(clamped || i == deg + 2) {
+                x += 0.05 + lcg(st);
+            }
+            k.push(x);
+        }
+        k
+    }
+
+    fn surface(p: usize, q: usize, rational: bool, st: &mut u64) -> NurbsSurface {
+        let (nu, nv) = (p + 5, q + 4);
+        let ku = knots(p, nu, st);
+        let kv = knots(q, nv, st);
+        let pts: Vec<[f64; 3]> = (0..nu * nv).map(|_| [lcg(st), lcg(st), lcg(st)]).collect();
+        let ws: Vec<f64> = (0..nu * nv).map(|_| 0.3 + 2.0 * lcg(st)).collect();
+        NurbsSurface::new(&NurbsSurfaceData {
+            degree_u: p,
+            degree_v: q,
+            count_u: nu,
+            count_v: nv,
+            knots_u: &ku,
+            knots_v: &kv,
+            points: &pts,
+            weights: rational.then_some(&ws[..]),
+        })
+        .unwrap()
+    }
+
+    /// A parameter in `kv`'s domain: mostly marching forward (so that hints hit), sometimes
+    /// jumping, sometimes exactly on a knot or a domain end.
+    fn param(kv: &crate::nurbs::KnotVector, prev: f64, st: &mut u64) -> f64 {
+        let d = kv.domain();
+        let k = kv.knots();
+        match (lcg(st) * 10.0) as usize {
+            0 => d.lo,
+            1 => d.hi,
+            2 | 3 => {
+                let i = (lcg(st) * k.len() as f64) as usize;
+                k[i.min(k.len() - 1)].clamp(d.lo, d.hi)
+            }
+            4 => d.lo + d.width() * lcg(st),
+            _ => (prev + 0.02 * d.width() * lcg(st)).min(d.hi),
+        }
+    }
+
+    /// [`NurbsSurface::block_with`] with `M`, out of line (each copy of the kernel takes a
+    /// large stack frame in unoptimised builds).
+    #[inline(never)]
+    fn with<M: QuadOps>(
+        s: &NurbsSurface,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) {
+        s.block_with::<M>(u, v, order, hint, out);
+    }
+
+    fn bits(j: &SurfaceJet) -> [u64; 18] {
+        let mut b = [0; 18];
+        for (i, v) in [j.p, j.su, j.sv, j.suu, j.suv, j.svv].iter().enumerate() {
+            for c in 0..3 {
+                b[3 * i + c] = v[c].to_bits();
+            }
+        }
+        b
+    }
+
+    // The block evaluation gives, point by point, the bits of the one-point path
+    // (`jet_unchecked`), and leaves the hint where a loop of one-point calls leaves it: for
+    // chunks of every length 1..=64, rational and non-rational, every degree pair of the
+    // grouped path and some of the one-point fallback, every order, points on knots and at the
+    // domain ends, each vector arithmetic.
+    #[test]
+    fn block_gives_the_bits_of_the_one_point_path() {
+        let mut st = 2024u64;
+        let orders = [DerivOrder::Position, DerivOrder::First, DerivOrder::Second];
+        let mut on_knot = 0;
+        for (p, q) in [
+            (3, 3),
+            (3, 2),
+            (2, 3),
+            (2, 2),
+            (2, 1),
+            (1, 2),
+            (1, 1),
+            (3, 1),
+            (4, 2),
+        ] {
+            for rational in [true, false] {
+                let s = surface(p, q, rational, &mut st);
+                let (mut u0, mut v0) = (s.u_knots.domain().lo, s.v_knots.domain().lo);
+                for len in 1..=64 {
+                    let mut us = [0.0; 64];
+                    let mut vs = [0.0; 64];
+                    for i in 0..len {
+                        u0 = param(&s.u_knots, u0, &mut st);
+                        v0 = param(&s.v_knots, v0, &mut st);
+                        (us[i], vs[i]) = (u0, v0);
+                        let on = |x: f64, k: &[f64]| k.contains(&x);
+                        if on(u0, s.u_knots.knots()) || on(v0, s.v_knots.knots()) {
+                            on_knot += 1;
+                        }
+                    }
+                    let order = orders[len % 3];
+                    // Start from a hint that is sometimes stale, sometimes empty.
+                    let start = if len % 4 == 0 {
+                        SurfaceHint::default()
+                    } else {
+                        SurfaceHint {
+                            u: SpanHint(Some(p + len % 3)),
+                            v: SpanHint(Some(q)),
+                        }
+                    };
+                    let mut want_hint = start;
+                    let want: Vec<[u64; 18]> = (0..len)
+                        .map(|i| bits(&s.jet_unchecked(us[i], vs[i], order, &mut want_hint)))
+                        .collect();
+                    let check = |name: &str, got: &[SurfaceJet], hint: SurfaceHint| {
+                        for i in 0..len {
+                            assert_eq!(
+                                bits(&got[i]),
+                                want[i],
+                                "{name}: degrees ({p}, {q}), rational {rational}, {order:?}, \
+                                 chunk of {len}, point {i} at ({}, {})",
+                                us[i],
+                                vs[i]
+                            );
+                        }
+                        assert_eq!(hint, want_hint, "{name}: hint after the block");
+                    };
+                    let mut out = [SurfaceJet::default(); 64];
+                    let mut hint = start;
+                    s.jets_in_domain_block(
+                        &us[..len],
+                        &vs[..len],
+                        order,
+                        &mut hint,
+                        &mut out[..len],
+                    )
+                    .unwrap();
+                    check("dispatched", &out[..len], hint);
+                    let mut hint = start;
+                    with::<Scalar>(
+                        &s,
+                        &us[..len],
+                        &vs[..len],
+                        order,
+                        &mut hint,
+                        &mut out[..len],
+                    );
+                    check("scalar", &out[..len], hint);
+                    #[cfg(target_arch = "x86_64")]
+                    {
+                        let mut hint = start;
+                        with::<Sse2>(
+                            &s,
+                            &us[..len],
+                            &vs[..len],
+                            order,
+                            &mut hint,
+                            &mut out[..len],
+                        );
+                        check("sse2", &out[..len], hint);
+                    }
+                }
+            }
+        }
+        assert!(on_knot > 500, "only {on_knot} points on a knot");
+    }
+}
