@@ -81,20 +81,12 @@ where
             pending = td.check("t", ts[i]).err();
         }
         if good > 0 {
-            match curve.jets_in_domain_block(&ts[..good], &mut hints.curve, &mut cj[..good]) {
-                Ok(()) => {}
-                Err(StrakeError::AtPoint { index, error }) if index < good => {
-                    good = index;
-                    pending = Some(*error);
-                }
-                Err(error) => {
-                    return Err(SampleError {
-                        index: base,
-                        t: ts[0],
-                        error,
-                    });
-                }
-            }
+            let block = curve.jets_in_domain_block(&ts[..good], &mut hints.curve, &mut cj[..good]);
+            narrow(block, &mut good, &mut pending).map_err(|error| SampleError {
+                index: base,
+                t: ts[0],
+                error,
+            })?;
         }
         let evaluated = good;
         for (i, c) in cj[..evaluated].iter().enumerate() {
@@ -118,20 +110,11 @@ where
                 &mut hints.surface,
                 &mut sj[..good],
             );
-            match block {
-                Ok(()) => {}
-                Err(StrakeError::AtPoint { index, error }) if index < good => {
-                    good = index;
-                    pending = Some(*error);
-                }
-                Err(error) => {
-                    return Err(SampleError {
-                        index: base,
-                        t: ts[0],
-                        error,
-                    });
-                }
-            }
+            narrow(block, &mut good, &mut pending).map_err(|error| SampleError {
+                index: base,
+                t: ts[0],
+                error,
+            })?;
         }
         for start in (0..good).step_by(BLOCK) {
             let end = good.min(start + BLOCK);
@@ -162,6 +145,26 @@ where
         base += len;
     }
     Ok(())
+}
+
+/// Takes the result of a block call over lanes `0..good`: a failure at lane `index < good`
+/// (`StrakeError::AtPoint`) narrows the good lanes to `0..index` and becomes the pending error;
+/// any other error is the block's as a whole (returned, for the caller to report at the first
+/// sample of its chunk).
+fn narrow(
+    block: crate::error::Result<()>,
+    good: &mut usize,
+    pending: &mut Option<StrakeError>,
+) -> Result<(), StrakeError> {
+    match block {
+        Ok(()) => Ok(()),
+        Err(StrakeError::AtPoint { index, error }) if index < *good => {
+            *good = index;
+            *pending = Some(*error);
+            Ok(())
+        }
+        Err(error) => Err(error),
+    }
 }
 
 /// The one-point path from given jets (what [`CurveOnSurface::frame`] does after evaluating
