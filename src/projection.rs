@@ -559,11 +559,17 @@ impl UvCurve for SeamCurve {
         hint: &mut SpanHint,
         out: &mut [CurveJet],
     ) -> Result<()> {
-        self.curve.jets_in_domain_block(ts, hint, out)?;
-        for j in out.iter_mut().take(ts.len()) {
+        let r = self.curve.jets_in_domain_block(ts, hint, out);
+        // The lanes before a failing point are used by the caller too: wrap them as well.
+        let written = match &r {
+            Ok(()) => ts.len(),
+            Err(StrakeError::AtPoint { index, .. }) => *index,
+            Err(_) => 0,
+        };
+        for j in out.iter_mut().take(written) {
             self.wrap(j);
         }
-        Ok(())
+        r
     }
 }
 
