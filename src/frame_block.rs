@@ -1,13 +1,15 @@
 //! The Darboux frame and invariants of a block of points at once, in structure-of-arrays form.
 //!
 //! The same formulas as [`crate::principal::SurfacePoint::new`] and
-//! [`crate::frame::darboux_frame_at`], in the same order of operations, written once per lane
-//! over plain `[f64; BLOCK]` arrays with no branches (the choices become selects). The compiler
-//! turns the loop over lanes into vector instructions, so that the square roots and divisions of
-//! several points overlap instead of waiting on each other (one point at a time, the frame is
-//! bound by their latency). Since every lane performs exactly the operations of the one-point
-//! path, each in IEEE double precision (no fused multiply-add, no reassociation), the results
-//! are the same bits; `tests/block.rs` checks it.
+//! [`crate::frame::darboux_frame_at`], in the same order of operations, written once over a
+//! lane-wide type ([`Lane`]) with no branches (the choices become selects), so that the square
+//! roots and divisions of several points overlap instead of waiting on each other (one point at
+//! a time, the frame is bound by their latency). On AVX2 processors the block is done as four
+//! groups of four points, each value one AVX register (the whole block as 16-lane arrays kept
+//! about 30 values of four registers each live and spilled them); elsewhere as plain
+//! `[f64; BLOCK]` arrays, whose loops the compiler vectorises. Since every lane performs
+//! exactly the operations of the one-point path, each in IEEE double precision (no fused
+//! multiply-add, no reassociation), the results are the same bits; `tests/block.rs` checks it.
 //!
 //! The kernel does not report errors: it computes every lane and flags the lanes whose checks
 //! fail (the checks of the one-point path, the same comparisons). The caller evaluates flagged
@@ -24,10 +26,11 @@
 use crate::error::StrakeError;
 use crate::frame::{Conditioning, DarbouxFrame, ParamScales, STALLED_CURVE_LIMIT, darboux_frame};
 use crate::jet::{CurveJet, SurfaceJet};
-use crate::lanes::{LANES, Mask, W, W3, select};
+use crate::lanes::{LANES, Lane, Mask, W, W3};
 use crate::math::Vec3;
 use crate::path::SampleError;
 use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
+use std::ops::{Div, Mul};
 
 /// Number of points the block kernel processes together (16): a multiple of the vector widths
 /// (2 lanes with SSE2, 4 with AVX2), large enough to hide the latency of the frame's square
@@ -36,13 +39,13 @@ use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvature
 pub const BLOCK: usize = LANES;
 
 #[inline(always)]
-fn dot(a: W3, b: W3) -> W {
+fn dot<T: Lane>(a: [T; 3], b: [T; 3]) -> T {
     // nalgebra's order for 3-vectors: (a0 b0 + a1 b1) + a2 b2.
     a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
 }
 
 #[inline(always)]
-fn cross(a: W3, b: W3) -> W3 {
+fn cross<T: Lane>(a: [T; 3], b: [T; 3]) -> [T; 3] {
     [
         a[1] * b[2] - a[2] * b[1],
         a[2] * b[0] - a[0] * b[2],
@@ -51,13 +54,13 @@ fn cross(a: W3, b: W3) -> W3 {
 }
 
 #[inline(always)]
-fn scale(a: W3, s: W) -> W3 {
+fn scale<T: Lane>(a: [T; 3], s: T) -> [T; 3] {
     [a[0] * s, a[1] * s, a[2] * s]
 }
 
 /// `SurfacePoint::second_form(x, y)` = L x0 y0 + M (x0 y1 + x1 y0) + Nn x1 y1.
 #[inline(always)]
-fn second_form(l: W, m: W, nn: W, x0: W, x1: W, y0: W, y1: W) -> W {
+fn second_form<T: Lane>(l: T, m: T, nn: T, x0: T, x1: T, y0: T, y1: T) -> T {
     l * x0 * y0 + m * (x0 * y1 + x1 * y0) + nn * x1 * y1
 }
 
@@ -228,11 +231,11 @@ impl BlockOutput {
 /// The frame math over all lanes of a block: the formulas of `SurfacePoint::new_with_limit`
 /// and `darboux_frame_at`, operation for operation. `scales` must be valid (positive, finite).
 ///
-/// On x86-64 processors with AVX2 (detected at run time, once) the same code runs compiled for
-/// AVX2: four lanes per instruction and three-operand forms instead of SSE2's two lanes and
-/// register copies. Only additions, subtractions, multiplications, divisions, square roots,
-/// compares and selects are used, which round identically in every instruction set (no fused
-/// multiply-add is enabled), so both give the same bits.
+/// On x86-64 processors with AVX2 (detected at run time, once) the same code runs on AVX
+/// registers, four lanes per instruction, a group of four points at a time. Only additions,
+/// subtractions, multiplications, divisions, square roots, compares and selects are used, which
+/// round identically in every instruction set (no fused multiply-add), so both give the same
+/// bits.
 /// The results go to `y` (written in place: a block's output is about 2 KiB, not worth
 /// returning by value).
 #[inline(never)]
@@ -251,7 +254,7 @@ pub(crate) fn frames_of_block(
     frames_of_block_portable(x, orientation, s, y)
 }
 
-/// [`frames_of_block_portable`] compiled for AVX2.
+/// The kernel on AVX registers ([`crate::lanes::x86::Avx4`]), four groups of four lanes.
 ///
 /// # Safety
 /// The processor must support AVX2.
@@ -263,10 +266,14 @@ unsafe fn frames_of_block_avx2(
     s: &ParamScales,
     y: &mut BlockOutput,
 ) {
-    frames_of_block_portable(x, orientation, s, y)
+    use crate::lanes::x86::Avx4;
+    for at in (0..BLOCK).step_by(Avx4::N) {
+        // SAFETY: the caller promises AVX2.
+        unsafe { frames_of_group::<Avx4>(x, orientation, s, y, at) };
+    }
 }
 
-/// The kernel in the baseline instruction set.
+/// The kernel in the baseline instruction set: all lanes as plain arrays.
 #[inline(always)]
 pub(crate) fn frames_of_block_portable(
     x: &BlockInput,
@@ -274,14 +281,58 @@ pub(crate) fn frames_of_block_portable(
     s: &ParamScales,
     y: &mut BlockOutput,
 ) {
+    // SAFETY: plain arrays need no particular instructions.
+    unsafe { frames_of_group::<W>(x, orientation, s, y, 0) }
+}
+
+/// `a * b` in f64, outside [`frames_of_group`], whose bound `f64: Mul<T>` hides the scalar
+/// product from type inference.
+#[inline(always)]
+fn scalar_mul(a: f64, b: f64) -> f64 {
+    a * b
+}
+
+/// `a / b` in f64 (see [`scalar_mul`]).
+#[inline(always)]
+fn scalar_div(a: f64, b: f64) -> f64 {
+    a / b
+}
+
+/// 4 ε, the umbilic test's relative bound of `SurfacePoint::new_with_limit`.
+const UMBILIC_FACTOR: f64 = 4.0 * f64::EPSILON;
+
+/// The frame math for the lanes `at .. at + T::N` of a block.
+///
+/// # Safety
+/// `T`'s instructions must be available (see [`Lane`]).
+#[inline(always)]
+unsafe fn frames_of_group<T: Lane>(
+    x: &BlockInput,
+    orientation: Orientation,
+    s: &ParamScales,
+    y: &mut BlockOutput,
+    at: usize,
+) where
+    f64: Mul<T, Output = T> + Div<T, Output = T>,
+{
     let sigma = orientation.sign();
-    let (su, sv, suu, suv, svv) = (x.su, x.sv, x.suu, x.suv, x.svv);
-    let (du, dv, ddu, ddv) = (x.du, x.dv, x.ddu, x.ddv);
+    // SAFETY (loads and splats): passed on from the caller.
+    let ld = |w: &W| unsafe { T::load(w, at) };
+    let ld3 = |w: &W3| [ld(&w[0]), ld(&w[1]), ld(&w[2])];
+    let (su, sv, suu, suv, svv) = (
+        ld3(&x.su),
+        ld3(&x.sv),
+        ld3(&x.suu),
+        ld3(&x.suv),
+        ld3(&x.svv),
+    );
+    let (du, dv, ddu, ddv) = (ld(&x.du), ld(&x.dv), ld(&x.ddu), ld(&x.ddv));
+    let zero = unsafe { T::splat(0.0) };
 
     // The one-point path refuses non-finite jets first. A sum of the inputs is finite when
     // they all are (a NaN or an infinity makes it NaN or infinite); when finite inputs overflow
     // it, the lane is merely flagged and goes through the one-point path, which is exact.
-    let sum3 = |a: W3| a[0] + a[1] + a[2];
+    let sum3 = |a: [T; 3]| a[0] + a[1] + a[2];
     let inputs =
         ((sum3(su) + sum3(sv)) + (sum3(suu) + sum3(suv))) + ((sum3(svv) + (du + dv)) + (ddu + ddv));
     let inputs_finite = inputs.finite();
@@ -290,14 +341,15 @@ pub(crate) fn frames_of_block_portable(
     let cr = cross(su, sv);
     let area = dot(cr, cr).sqrt();
     // surface_conditioning
-    let ea = dot(su, su) * (s.u_extent * s.u_extent);
-    let eb = dot(sv, sv) * (s.v_extent * s.v_extent);
+    let ea = dot(su, su) * scalar_mul(s.u_extent, s.u_extent);
+    let eb = dot(sv, sv) * scalar_mul(s.v_extent, s.v_extent);
     let mx = ea.max(eb);
     let cond_raw = (area * s.u_extent * s.v_extent) / mx;
-    let zero = W::splat(0.0);
-    let degenerate = Mask(mx.test(zero, |m, _| m == 0.0 || !m.is_finite()).0);
-    let conditioning = select(degenerate, zero, cond_raw);
-    let mut ok = inputs_finite & conditioning.test(zero, |c, _| c >= DEGENERATE_SURFACE_LIMIT);
+    // Degenerate where mx == 0 or mx is not finite.
+    let regular = mx.ne(zero) & mx.finite();
+    let conditioning = T::select(regular, cond_raw, zero);
+    let limit = unsafe { T::splat(DEGENERATE_SURFACE_LIMIT) };
+    let mut ok = inputs_finite & conditioning.ge(limit);
     let inv_area = 1.0 / area;
     let n = scale(cr, sigma * inv_area);
     let e = dot(su, su);
@@ -319,10 +371,11 @@ pub(crate) fn frames_of_block_portable(
     let k1 = mean + d;
     let k2 = mean - d;
     let sc = w11.abs().max(w22.abs()).max(w12.abs());
-    let umbilic = d.test(4.0 * f64::EPSILON * sc, |d, lim| d <= lim);
-    let forward = half_diff.test(zero, |h, _| h >= 0.0);
-    let ex = select(umbilic, W::splat(1.0), select(forward, d + half_diff, w12));
-    let ey = select(umbilic, zero, select(forward, w12, d - half_diff));
+    let umbilic = d.le(UMBILIC_FACTOR * sc);
+    let forward = half_diff.ge(zero);
+    let one = unsafe { T::splat(1.0) };
+    let ex = T::select(umbilic, one, T::select(forward, d + half_diff, w12));
+    let ey = T::select(umbilic, zero, T::select(forward, w12, d - half_diff));
     let inv = 1.0 / (ex * ex + ey * ey).sqrt();
     let e1 = scale(su, inv_su);
     let e2 = cross(n, e1);
@@ -338,9 +391,13 @@ pub(crate) fn frames_of_block_portable(
     ok = ok & gaussian.finite();
 
     // --- darboux_frame_at ---
-    let (a, b_) = (du * (1.0 / s.u_extent), dv * (1.0 / s.v_extent));
+    let (a, b_) = (
+        du * scalar_div(1.0, s.u_extent),
+        dv * scalar_div(1.0, s.v_extent),
+    );
     let speed_figure = (a * a + b_ * b_).sqrt() * s.t_extent;
-    ok = ok & speed_figure.test(zero, |f, _| f >= STALLED_CURVE_LIMIT);
+    let stalled = unsafe { T::splat(STALLED_CURVE_LIMIT) };
+    ok = ok & speed_figure.ge(stalled);
     let c1 = [
         su[0] * du + sv[0] * dv,
         su[1] * du + sv[1] * dv,
@@ -371,26 +428,33 @@ pub(crate) fn frames_of_block_portable(
     ok = ok & kn.finite() & kg.finite() & tg.finite() & speed.finite();
     ok = ok & tan[0].finite() & tan[1].finite() & tan[2].finite();
     ok = ok & b[0].finite() & b[1].finite() & b[2].finite();
-    ok = ok & speed.test(zero, |v, _| v != 0.0);
+    ok = ok & speed.ne(zero);
 
-    *y = BlockOutput {
-        n,
-        t: tan,
-        b,
-        d1,
-        d2,
-        kn,
-        kg,
-        tg,
-        speed,
-        k1,
-        k2,
-        mean,
-        gaussian,
-        conditioning,
-        speed_figure,
-        ok,
+    let put3 = |v: [T; 3], w: &mut W3| {
+        for (v, w) in v.into_iter().zip(w.iter_mut()) {
+            v.store(w, at);
+        }
     };
+    put3(n, &mut y.n);
+    put3(tan, &mut y.t);
+    put3(b, &mut y.b);
+    put3(d1, &mut y.d1);
+    put3(d2, &mut y.d2);
+    for (v, w) in [
+        (kn, &mut y.kn),
+        (kg, &mut y.kg),
+        (tg, &mut y.tg),
+        (speed, &mut y.speed),
+        (k1, &mut y.k1),
+        (k2, &mut y.k2),
+        (mean, &mut y.mean),
+        (gaussian, &mut y.gaussian),
+        (conditioning, &mut y.conditioning),
+        (speed_figure, &mut y.speed_figure),
+    ] {
+        v.store(w, at);
+    }
+    T::store_mask(ok, &mut y.ok, at);
 }
 
 /// Frames from jets the caller has evaluated, many at once: `out[i]` is
