@@ -532,12 +532,9 @@ mod tests {
     use super::*;
     use crate::math::Vec3;
 
-    /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
+    /// A reproducible value in [−0.5, 0.5) (`crate::math::lcg`).
     fn lcg(state: &mut u64) -> f64 {
-        *state = state
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (*state >> 11) as f64 / (1u64 << 53) as f64 - 0.5
+        crate::math::lcg(state) - 0.5
     }
 
     // Common practice: the kernel compiled for the baseline instruction set and the one the

@@ -23,3 +23,13 @@ pub fn arr3(v: &Vec3) -> [f64; 3] {
 pub fn all_finite(v: &Vec3) -> bool {
     v.x.is_finite() && v.y.is_finite() && v.z.is_finite()
 }
+
+/// 64-bit linear congruential generator (Knuth's MMIX constants; common practice): a uniform
+/// value in [0, 1), for reproducible inputs in the unit tests.
+#[cfg(test)]
+pub(crate) fn lcg(state: &mut u64) -> f64 {
+    *state = state
+        .wrapping_mul(6364136223846793005)
+        .wrapping_add(1442695040888963407);
+    (*state >> 11) as f64 / (1u64 << 53) as f64
+}

@@ -304,13 +304,7 @@ impl NurbsCurve<2> {
 mod tests {
     use super::*;
 
-    /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
-    fn lcg(state: &mut u64) -> f64 {
-        *state = state
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (*state >> 11) as f64 / (1u64 << 53) as f64
-    }
+    use crate::math::lcg;
 
     // Common practice: multiplying by per-span reciprocals of the knot differences gives the
     // same point and derivatives as dividing (the arithmetic of `basis_rows`, The NURBS Book

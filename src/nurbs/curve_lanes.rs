@@ -499,13 +499,7 @@ mod tests {
     use crate::jet::DerivOrder;
     use crate::nurbs::NurbsCurve;
 
-    /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
-    fn lcg(state: &mut u64) -> f64 {
-        *state = state
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (*state >> 11) as f64 / (1u64 << 53) as f64
-    }
+    use crate::math::lcg;
 
     // Common practice: the lanes in plain arrays (the build without AVX2; on an AVX2 machine
     // the integration tests only reach the AVX lanes) give the bits of the one-point

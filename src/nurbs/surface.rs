@@ -519,13 +519,7 @@ mod tests {
     use super::super::quad::Scalar;
     use super::*;
 
-    /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
-    fn lcg(state: &mut u64) -> f64 {
-        *state = state
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (*state >> 11) as f64 / (1u64 << 53) as f64
-    }
+    use crate::math::lcg;
 
     // Common practice: multiplying by per-span reciprocals of the knot differences gives the
     // same jets as dividing (the reference arithmetic of `basis_rows`) to 1e-13 relative, for

@@ -239,13 +239,7 @@ mod tests {
     use crate::nurbs::SpanHint;
     use crate::surface::SurfaceSource;
 
-    /// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
-    fn lcg(state: &mut u64) -> f64 {
-        *state = state
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (*state >> 11) as f64 / (1u64 << 53) as f64
-    }
+    use crate::math::lcg;
 
     /// A knot vector for degree `deg` and `n` control points: clamped for odd degrees,
     /// unclamped for even ones, random spacing, a double interior knot.
