@@ -14,10 +14,13 @@
 //! the relative tolerance `arc_tolerance` applies to each interval's length. The integral is
 //! first split at the curve's breakpoints ([`UvCurve::breakpoints`], a spline's interior knots),
 //! where the speed is not smooth: a kink inside an interval can fool the halving estimate
-//! (regression test `tests/regression_arc_length_across_knots.rs`). Knot lines of the *surface*
-//! crossed by the curve are not split at; on surfaces of degree ≥ 3 with simple knots the speed
-//! stays C² there, but on surfaces with repeated knots (e.g. rational quadratic conics, C¹ only)
-//! the achieved accuracy can fall short of a very tight tolerance near such crossings.
+//! (regression test `tests/regression_arc_length_across_knots.rs`). Each piece is split again
+//! where the curve crosses a knot line of the surface ([`SurfaceSource::u_breaks`],
+//! [`SurfaceSource::v_breaks`]; on a surface with repeated knots, such as the rational quadratic
+//! conics, the speed has a kink there): the piece is scanned at 8 even steps of t and every sign
+//! change of u(t) − k or v(t) − k is located by bisection. A knot line the curve only touches,
+//! or crosses twice within one step, is not split at; surfaces that do not know their knot
+//! lines (host callbacks) are not split at either.
 //!
 //! **Inverse** t(s): safeguarded Newton's method on f(t) = s(t) − s_target, f' = |c'(t)|, inside
 //! a bracket [lo, hi] with f(lo) < 0 ≤ f(hi) that every iterate narrows; a Newton iterate that
@@ -216,19 +219,125 @@ fn integrate<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     // kink between an interval's end and its first node fools the halving error estimate
     // (both halves then make the same error). Each piece gets the relative tolerance, so the
     // sum has it too.
+    // Likewise where the curve crosses a knot line of the surface (found per piece by
+    // `surface_crossings`).
     let breaks = path.curve().breakpoints();
     let first = breaks.partition_point(|&k| k <= a);
     let last = breaks.partition_point(|&k| k < b);
+    let split = !(path.surface().u_breaks().is_empty() && path.surface().v_breaks().is_empty());
     let mut total = 0.0;
     let mut lo = a;
     for &k in breaks[first..last].iter().chain(std::iter::once(&b)) {
-        let whole = gl5(path, lo, k, hints)?;
-        let tol = rel_tol * whole.abs();
-        let floor = 16.0 * f64::EPSILON * whole.abs();
-        total += gl_recursive(path, lo, k, whole, tol, floor, 0, hints)?;
+        let mut start = lo;
+        if split {
+            let mut crossings = [0.0; MAX_CROSSINGS];
+            let n = surface_crossings(path, lo, k, hints, &mut crossings)?;
+            for &c in &crossings[..n] {
+                total += quadrature(path, start, c, rel_tol, hints)?;
+                start = c;
+            }
+        }
+        total += quadrature(path, start, k, rel_tol, hints)?;
         lo = k;
     }
     Ok(sign * total)
+}
+
+/// ∫_a^b |c'(t)| dt over one smooth piece, adaptively to the relative tolerance `rel_tol`.
+fn quadrature<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    path: &CurveOnSurface<'_, S, C>,
+    a: f64,
+    b: f64,
+    rel_tol: f64,
+    hints: &mut Hints,
+) -> Result<f64> {
+    let whole = gl5(path, a, b, hints)?;
+    let tol = rel_tol * whole.abs();
+    let floor = 16.0 * f64::EPSILON * whole.abs();
+    gl_recursive(path, a, b, whole, tol, floor, 0, hints)
+}
+
+/// Steps of the scan for knot-line crossings in one piece of the curve.
+const CROSSING_SCAN_STEPS: usize = 8;
+
+/// Most knot-line crossings split at in one piece of the curve (further ones are not split at;
+/// the adaptive rule still integrates across them, less accurately).
+const MAX_CROSSINGS: usize = 16;
+
+/// The parameters t in (a, b), ascending, where u(t) or v(t) crosses one of the surface's
+/// knot lines ([`SurfaceSource::u_breaks`], [`SurfaceSource::v_breaks`]), written to `out`;
+/// returns how many. The piece is scanned at [`CROSSING_SCAN_STEPS`] even steps, and a sign
+/// change of u(t) − k (or v(t) − k) within a step is located by bisection to a few units in
+/// the last place of t. A line touched without being crossed, or crossed twice within one
+/// step, is not found (the quadrature then integrates across it as before, less accurately).
+fn surface_crossings<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    path: &CurveOnSurface<'_, S, C>,
+    a: f64,
+    b: f64,
+    hints: &mut Hints,
+    out: &mut [f64; MAX_CROSSINGS],
+) -> Result<usize> {
+    let curve = path.curve();
+    let (ub, vb) = (path.surface().u_breaks(), path.surface().v_breaks());
+    let mut n = 0;
+    let at = |t: f64, hints: &mut Hints| -> Result<(f64, f64)> {
+        let j = curve.checked_jet(t, &mut hints.curve)?;
+        Ok((j.u, j.v))
+    };
+    let mut t0 = a;
+    let mut p0 = at(a, hints)?;
+    for i in 1..=CROSSING_SCAN_STEPS {
+        let t1 = if i == CROSSING_SCAN_STEPS {
+            b
+        } else {
+            a + (b - a) * (i as f64 / CROSSING_SCAN_STEPS as f64)
+        };
+        let p1 = at(t1, hints)?;
+        for (breaks, x0, x1, pick) in [(ub, p0.0, p1.0, 0), (vb, p0.1, p1.1, 1)] {
+            let (lo, hi) = (x0.min(x1), x0.max(x1));
+            let first = breaks.partition_point(|&k| k <= lo);
+            for &k in breaks[first..].iter().take_while(|&&k| k <= hi) {
+                if n == MAX_CROSSINGS {
+                    break;
+                }
+                if x1 == k {
+                    // The scan point itself lies on the line (x0 == k was the previous step's).
+                    if t1 < b {
+                        out[n] = t1;
+                        n += 1;
+                    }
+                    continue;
+                }
+                if x0 == k {
+                    continue;
+                }
+                // x(t0) and x(t1) lie on either side of k: bisect x(t) − k.
+                let (mut l, mut r, left_below) = (t0, t1, x0 < k);
+                for _ in 0..64 {
+                    let m = 0.5 * (l + r);
+                    if m <= l || m >= r {
+                        break;
+                    }
+                    let pm = at(m, hints)?;
+                    let xm = if pick == 0 { pm.0 } else { pm.1 };
+                    if (xm < k) == left_below {
+                        l = m;
+                    } else {
+                        r = m;
+                    }
+                }
+                let t = 0.5 * (l + r);
+                if t > a && t < b {
+                    out[n] = t;
+                    n += 1;
+                }
+            }
+        }
+        t0 = t1;
+        p0 = p1;
+    }
+    out[..n].sort_by(f64::total_cmp);
+    Ok(n)
 }
 
 /// The arc length of the curve on the surface between parameters `t0` and `t1` (signed:

@@ -8,7 +8,9 @@
 //! span (an independent rule; its error on a smooth span is O(h⁴), far below the tolerance).
 
 use strake::analytic::torus;
-use strake::{CurveOnSurface, Hints, NurbsCurve, UvCurve, arc_length};
+use strake::nurbs::CircleForm;
+use strake::nurbs::conics::cylinder;
+use strake::{CurveOnSurface, Hints, NurbsCurve, SurfaceSource, UvCurve, arc_length};
 
 fn simpson(f: impl Fn(f64) -> f64, a: f64, b: f64, n: usize) -> f64 {
     let h = (b - a) / n as f64;
@@ -60,4 +62,38 @@ fn arc_length_across_knots_meets_its_tolerance() {
         assert!(err <= tol.max(1e-13), "tol {tol:e}: relative error {err:e}");
     }
     assert_eq!(c.breakpoints(), &[0.0503, 0.29, 0.61, 0.7]);
+}
+
+// Regression: arc length across the knot lines of the *surface*. The rational quadratic
+// circles have double knots (a kink in the parametric speed where the arcs join); before the
+// quadrature split there, the full circle came out 2.4e-8 (nine-point form) and 5.4e-8
+// (seven-point form) short whatever the tolerance. Reference: the circumference 2πR of the
+// exact circle the NURBS represents (The NURBS Book, 2nd ed., §7.5). The curve u = t² sweeps
+// the whole circle at v = 0.5 with the knot lines at non-dyadic t (√0.25 = 0.5 for the
+// nine-point form is a scan point: the case of a line hit exactly).
+#[test]
+fn arc_length_across_surface_knot_lines_meets_its_tolerance() {
+    let r = 3.0;
+    let exact = 2.0 * std::f64::consts::PI * r;
+    for form in [CircleForm::NinePoint, CircleForm::SevenPoint] {
+        let s = cylinder(r, 0.0, 2.0, form).unwrap();
+        let ud = s.u_domain();
+        assert!(!s.u_breaks().is_empty());
+        let c = NurbsCurve::new(
+            2,
+            &[0.0, 0.0, 0.0, 1.0, 1.0, 1.0],
+            &[[ud.lo, 0.5], [ud.lo, 0.5], [ud.hi, 0.5]],
+            None,
+        )
+        .unwrap();
+        let cs = CurveOnSurface::new(&s, &c);
+        for tol in [1e-8, 1e-10, 1e-12] {
+            let got = arc_length(&cs, 0.0, 1.0, tol).unwrap();
+            let err = (got - exact).abs() / exact;
+            assert!(
+                err <= tol.max(1e-14),
+                "{form:?}, tol {tol:e}: relative error {err:e}"
+            );
+        }
+    }
 }

@@ -488,6 +488,12 @@ impl SurfaceSource for NurbsSurface {
     fn orientation(&self) -> Orientation {
         self.orientation
     }
+    fn u_breaks(&self) -> &[f64] {
+        self.u_knots.interior_breaks()
+    }
+    fn v_breaks(&self) -> &[f64] {
+        self.v_knots.interior_breaks()
+    }
     #[inline]
     fn jet_in_domain(
         &self,

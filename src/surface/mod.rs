@@ -30,6 +30,17 @@ pub trait SurfaceSource: Send + Sync {
     fn v_domain(&self) -> Interval;
     /// Which way the unit normal points (see [`Orientation`]).
     fn orientation(&self) -> Orientation;
+    /// Values of u strictly inside the domain, ascending, where the surface's derivatives may
+    /// be discontinuous (a NURBS surface's interior knots in u): arc-length quadrature splits
+    /// a curve where it crosses these lines. None by default (a smooth surface, or one whose
+    /// knot lines the source does not know, such as a host callback).
+    fn u_breaks(&self) -> &[f64] {
+        &[]
+    }
+    /// As [`SurfaceSource::u_breaks`], in v.
+    fn v_breaks(&self) -> &[f64] {
+        &[]
+    }
     /// The jet at (u, v) up to `order`; entries above `order` may be left zero. Called only
     /// with (u, v) inside the domain; the result is checked for finiteness by the caller
     /// ([`SurfaceSource::checked_jet`]).
@@ -98,6 +109,12 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
     }
     fn orientation(&self) -> Orientation {
         (**self).orientation()
+    }
+    fn u_breaks(&self) -> &[f64] {
+        (**self).u_breaks()
+    }
+    fn v_breaks(&self) -> &[f64] {
+        (**self).v_breaks()
     }
     fn jet_in_domain(
         &self,
