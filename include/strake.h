@@ -1552,6 +1552,31 @@ StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
 const char *strake_status_name(uint32_t status);
 
 /**
+ * Declares where the surface's derivatives may jump: the distinct interior knots of the host's
+ * NURBS in u (`u_lines`, `u_count` values) and in v (`v_lines`, `v_count`), each finite,
+ * strictly inside the domain and strictly ascending. Arc length (`strake_arc_length` and the
+ * sampling calls) then splits its quadrature where a curve crosses these lines; without them a
+ * callback surface with repeated knots (e.g. rational conics) can fall short of a very tight
+ * tolerance there (about 1e-8 relative on a quadratic circle). A count of 0 (the pointer may
+ * then be NULL) goes back to what the surface knows itself: nothing for a callback surface,
+ * the knots of a native NURBS surface. Frames do not depend on it.
+ *
+ * Returns `STRAKE_STATUS_OK` and replaces both lists; otherwise the handle is unchanged.
+ * Errors: NULL_POINTER (`surface`, or a list with a count above 0); NON_FINITE (a value);
+ * INVALID_ARGUMENT (a value outside the open domain, or not above its predecessor). Not
+ * thread-safe on the same handle: no other call may use `surface` meanwhile.
+ *
+ * # Safety
+ * `surface` NULL or a live handle not in use by another thread; each list NULL or `count`
+ * readable doubles.
+ */
+StrakeStatus strake_surface_set_knot_lines(struct StrakeSurface *surface,
+                                           const double *u_lines,
+                                           size_t u_count,
+                                           const double *v_lines,
+                                           size_t v_count);
+
+/**
  * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max].
  *
  * `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv| (e.g. to put the

@@ -174,6 +174,7 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_surface_from_batch_callback",
         "strake_surface_new_nurbs",
         "strake_surface_from_callback",
+        "strake_surface_set_knot_lines",
         "strake_version",
     ];
     let mut found = functions.clone();

@@ -67,6 +67,7 @@ pub use sampling::{
 pub use status::{StrakeStatus, strake_status_name};
 pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
+    strake_surface_set_knot_lines,
 };
 pub use types::{
     StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,

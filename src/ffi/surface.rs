@@ -6,7 +6,7 @@
 //! build the source, then `publish(StrakeSurface::new(Box::new(source)), out)`. Evaluation,
 //! freeing and the batch calls need no change.
 
-use super::guard::{Failure, guard, output};
+use super::guard::{Failure, guard, input_slice, non_null, output};
 use super::status::StrakeStatus;
 use super::types::StrakeSurfaceJet;
 use crate::error::{NonFiniteSource, Result, StrakeError};
@@ -46,21 +46,151 @@ pub type StrakeSurfaceFn = Option<
 /// handle is freed, and must not free the handle while another thread uses it.
 pub struct StrakeSurface {
     source: Box<dyn SurfaceSource>,
+    /// Knot lines the host declared (`strake_surface_set_knot_lines`); empty: the source's own.
+    u_lines: Vec<f64>,
+    v_lines: Vec<f64>,
 }
 
 impl StrakeSurface {
-    /// Wraps any surface of the Rust API.
+    /// A handle around any surface of the Rust API.
     pub fn new(source: Box<dyn SurfaceSource>) -> Self {
-        StrakeSurface { source }
+        StrakeSurface {
+            source,
+            u_lines: Vec::new(),
+            v_lines: Vec::new(),
+        }
     }
 
-    /// The surface inside.
+    /// The surface behind the handle, with the knot lines the host declared, if any.
     pub fn source(&self) -> &dyn SurfaceSource {
-        &*self.source
+        self
     }
 }
 
-/// Hands a new surface to the host through `out`.
+/// The handle's surface: its source, with the host's knot lines in place of the source's own
+/// where the host declared some.
+impl SurfaceSource for StrakeSurface {
+    fn u_domain(&self) -> Interval {
+        self.source.u_domain()
+    }
+    fn v_domain(&self) -> Interval {
+        self.source.v_domain()
+    }
+    fn orientation(&self) -> Orientation {
+        self.source.orientation()
+    }
+    fn u_breaks(&self) -> &[f64] {
+        if self.u_lines.is_empty() {
+            self.source.u_breaks()
+        } else {
+            &self.u_lines
+        }
+    }
+    fn v_breaks(&self) -> &[f64] {
+        if self.v_lines.is_empty() {
+            self.source.v_breaks()
+        } else {
+            &self.v_lines
+        }
+    }
+    #[inline]
+    fn jet_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        self.source.jet_in_domain(u, v, order, hint)
+    }
+    fn jets_in_domain_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) -> Result<()> {
+        self.source.jets_in_domain_block(u, v, order, hint, out)
+    }
+}
+
+/// Checks declared knot lines: finite, strictly inside `domain`, strictly ascending.
+fn checked_lines(
+    lines: *const f64,
+    count: usize,
+    name: &'static str,
+    count_name: &str,
+    domain: Interval,
+) -> std::result::Result<Vec<f64>, Failure> {
+    if count == 0 {
+        return Ok(Vec::new());
+    }
+    // SAFETY: the caller passes `count` readable doubles at `lines` (or NULL, refused).
+    let xs = unsafe { input_slice(lines, count, name, count_name)? };
+    for (i, &x) in xs.iter().enumerate() {
+        if !x.is_finite() {
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Parameter,
+                what: name,
+                value: x,
+            }
+            .into());
+        }
+        if !(domain.lo < x && x < domain.hi) {
+            return Err(Failure::invalid(format!(
+                "{name}[{i}] = {x} is not strictly inside the domain [{}, {}]",
+                domain.lo, domain.hi
+            )));
+        }
+        if i > 0 && x <= xs[i - 1] {
+            return Err(Failure::invalid(format!(
+                "{name}[{i}] = {x} does not exceed {name}[{}] = {}: knot lines must be strictly ascending",
+                i - 1,
+                xs[i - 1]
+            )));
+        }
+    }
+    Ok(xs.to_vec())
+}
+
+/// Declares where the surface's derivatives may jump: the distinct interior knots of the host's
+/// NURBS in u (`u_lines`, `u_count` values) and in v (`v_lines`, `v_count`), each finite,
+/// strictly inside the domain and strictly ascending. Arc length (`strake_arc_length` and the
+/// sampling calls) then splits its quadrature where a curve crosses these lines; without them a
+/// callback surface with repeated knots (e.g. rational conics) can fall short of a very tight
+/// tolerance there (about 1e-8 relative on a quadratic circle). A count of 0 (the pointer may
+/// then be NULL) goes back to what the surface knows itself: nothing for a callback surface,
+/// the knots of a native NURBS surface. Frames do not depend on it.
+///
+/// Returns `STRAKE_STATUS_OK` and replaces both lists; otherwise the handle is unchanged.
+/// Errors: NULL_POINTER (`surface`, or a list with a count above 0); NON_FINITE (a value);
+/// INVALID_ARGUMENT (a value outside the open domain, or not above its predecessor). Not
+/// thread-safe on the same handle: no other call may use `surface` meanwhile.
+///
+/// # Safety
+/// `surface` NULL or a live handle not in use by another thread; each list NULL or `count`
+/// readable doubles.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_surface_set_knot_lines(
+    surface: *mut StrakeSurface,
+    u_lines: *const f64,
+    u_count: usize,
+    v_lines: *const f64,
+    v_count: usize,
+) -> StrakeStatus {
+    guard("strake_surface_set_knot_lines", || {
+        let nn = non_null(surface.cast_const(), "surface")?;
+        // SAFETY: a live handle that no other thread uses during the call (the contract).
+        let s = unsafe { &mut *nn.as_ptr() };
+        let u = checked_lines(u_lines, u_count, "u_lines", "u_count", s.source.u_domain())?;
+        let v = checked_lines(v_lines, v_count, "v_lines", "v_count", s.source.v_domain())?;
+        s.u_lines = u;
+        s.v_lines = v;
+        Ok(())
+    })
+}
+
 pub(crate) fn publish(
     surface: StrakeSurface,
     out: *mut *mut StrakeSurface,
