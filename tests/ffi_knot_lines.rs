@@ -8,49 +8,16 @@
 #[path = "support/ffi_util.rs"]
 mod ffi_util;
 
-use ffi_util::expect;
+use ffi_util::{expect, nurbs_host};
 use std::ffi::c_void;
+use strake::SurfaceSource;
 use strake::ffi::{
-    StrakeCurve, StrakeStatus, StrakeSurface, StrakeSurfaceJet, strake_arc_length,
-    strake_curve_free, strake_curve_new_nurbs, strake_surface_free, strake_surface_from_callback,
+    StrakeCurve, StrakeStatus, StrakeSurface, strake_arc_length, strake_curve_free,
+    strake_curve_new_nurbs, strake_surface_free, strake_surface_from_callback,
     strake_surface_set_knot_lines,
 };
 use strake::nurbs::conics::cylinder;
 use strake::nurbs::{CircleForm, NurbsSurface};
-use strake::surface::SurfaceHint;
-use strake::{DerivOrder, SurfaceSource};
-
-/// The host's evaluator: `user_data` is a `NurbsSurface`.
-unsafe extern "C" fn host(
-    user_data: *mut c_void,
-    u: f64,
-    v: f64,
-    order: i32,
-    out: *mut StrakeSurfaceJet,
-) -> i32 {
-    // SAFETY: the test passes a live NurbsSurface and a writable jet.
-    let (s, out) = unsafe { (&*(user_data as *const NurbsSurface), &mut *out) };
-    let order = match order {
-        0 => DerivOrder::Position,
-        1 => DerivOrder::First,
-        _ => DerivOrder::Second,
-    };
-    match s.jet(u, v, order, &mut SurfaceHint::default()) {
-        Ok(j) => {
-            let a = |x: &strake::Vec3| [x.x, x.y, x.z];
-            *out = StrakeSurfaceJet {
-                p: a(&j.p),
-                su: a(&j.su),
-                sv: a(&j.sv),
-                suu: a(&j.suu),
-                suv: a(&j.suv),
-                svv: a(&j.svv),
-            };
-            0
-        }
-        Err(_) => 1,
-    }
-}
 
 fn arc(s: *const StrakeSurface, c: *const StrakeCurve, tol: f64) -> f64 {
     let mut len = f64::NAN;
@@ -74,8 +41,16 @@ fn declared_knot_lines_bring_arc_length_within_its_tolerance() {
     // SAFETY: valid arrays and output slots; the NurbsSurface outlives the handle.
     unsafe {
         let ud_ptr = &nurbs as *const NurbsSurface as *mut c_void;
-        let st =
-            strake_surface_from_callback(Some(host), ud_ptr, ud.lo, ud.hi, vd.lo, vd.hi, 0, &mut s);
+        let st = strake_surface_from_callback(
+            Some(nurbs_host),
+            ud_ptr,
+            ud.lo,
+            ud.hi,
+            vd.lo,
+            vd.hi,
+            0,
+            &mut s,
+        );
         assert_eq!(st, StrakeStatus::Ok);
         let st = strake_curve_new_nurbs(
             2,

@@ -3,13 +3,15 @@
 //! rational circles: The NURBS Book 2nd ed. ch. 7–8), and every validation failure with its
 //! status and message.
 
+#[path = "support/ffi_util.rs"]
+mod ffi_util;
+
+use ffi_util::nurbs_host;
 use std::ffi::{CStr, c_void};
 use std::ptr;
 use strake::ffi::*;
 use strake::nurbs::conics::{CircleForm, torus};
-use strake::{
-    CurveOnSurface, DerivOrder, Hints, NurbsSurface, SurfaceHint, SurfaceSource, uv_line,
-};
+use strake::{CurveOnSurface, Hints, NurbsSurface, SurfaceSource, uv_line};
 
 fn message() -> String {
     let mut buf = [0 as std::ffi::c_char; 1024];
@@ -108,32 +110,6 @@ fn patch() -> NurbsSurface {
     .unwrap()
 }
 
-unsafe extern "C" fn host_eval(
-    ud: *mut c_void,
-    u: f64,
-    v: f64,
-    _order: i32,
-    out: *mut StrakeSurfaceJet,
-) -> i32 {
-    // SAFETY: user_data is the &NurbsSurface passed at creation; out is a valid jet.
-    let s = unsafe { &*(ud as *const NurbsSurface) };
-    let Ok(j) = s.jet(u, v, DerivOrder::Second, &mut SurfaceHint::default()) else {
-        return 7;
-    };
-    let out = unsafe { &mut *out };
-    for (dst, src) in [
-        (&mut out.p, j.p),
-        (&mut out.su, j.su),
-        (&mut out.sv, j.sv),
-        (&mut out.suu, j.suu),
-        (&mut out.suv, j.suv),
-        (&mut out.svv, j.svv),
-    ] {
-        *dst = [src.x, src.y, src.z];
-    }
-    0
-}
-
 fn frames(surface: *const StrakeSurface, curve: *const StrakeCurve, n: usize) -> Vec<StrakeFrame> {
     let mut out = vec![StrakeFrame::default(); n];
     // SAFETY: valid handles and an array of n frames.
@@ -151,10 +127,10 @@ fn native_and_callback_surfaces_agree() {
     let (st, native) = create(&arrays.data(), 0);
     assert_eq!(st, StrakeStatus::Ok, "{}", message());
     let mut cb: *mut StrakeSurface = ptr::null_mut();
-    // SAFETY: host_eval honours the callback contract; `rust` outlives the handle.
+    // SAFETY: nurbs_host honours the callback contract; `rust` outlives the handle.
     let st = unsafe {
         strake_surface_from_callback(
-            Some(host_eval),
+            Some(nurbs_host),
             &rust as *const _ as *mut c_void,
             0.0,
             1.0,

@@ -186,3 +186,37 @@ pub fn close(what: &str, a: f64, b: f64, tol: f64, floor: f64) {
         "{what}: got {a}, expected {b} (tol {tol:e})"
     );
 }
+
+/// A host's callback over strake's own NURBS code: `ud` is a `&strake::NurbsSurface` that
+/// outlives the handle; every jet to second order (the callback may always give more than
+/// `order` asks); status 7 when strake refuses the point.
+pub unsafe extern "C" fn nurbs_host(
+    ud: *mut c_void,
+    u: f64,
+    v: f64,
+    _order: i32,
+    out: *mut StrakeSurfaceJet,
+) -> i32 {
+    // SAFETY: user_data is the &NurbsSurface passed at creation; out is a valid jet.
+    let s = unsafe { &*(ud as *const strake::NurbsSurface) };
+    let Ok(j) = s.jet(
+        u,
+        v,
+        strake::DerivOrder::Second,
+        &mut strake::surface::SurfaceHint::default(),
+    ) else {
+        return 7;
+    };
+    let out = unsafe { &mut *out };
+    for (dst, src) in [
+        (&mut out.p, j.p),
+        (&mut out.su, j.su),
+        (&mut out.sv, j.sv),
+        (&mut out.suu, j.suu),
+        (&mut out.suv, j.suv),
+        (&mut out.svv, j.svv),
+    ] {
+        *dst = [src.x, src.y, src.z];
+    }
+    0
+}

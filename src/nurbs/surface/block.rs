@@ -390,20 +390,22 @@ mod tests {
                     )
                     .unwrap();
                     check("dispatched", &out[..len], hint);
-                    let mut hint = start;
-                    with::<Scalar>(
-                        &s,
-                        &us[..len],
-                        &vs[..len],
-                        order,
-                        &mut hint,
-                        &mut out[..len],
+                    type Variant = fn(
+                        &NurbsSurface,
+                        &[f64],
+                        &[f64],
+                        DerivOrder,
+                        &mut SurfaceHint,
+                        &mut [SurfaceJet],
                     );
-                    check("scalar", &out[..len], hint);
-                    #[cfg(target_arch = "x86_64")]
-                    {
+                    let variants: &[(&str, Variant)] = &[
+                        ("scalar", with::<Scalar>),
+                        #[cfg(target_arch = "x86_64")]
+                        ("sse2", with::<Sse2>),
+                    ];
+                    for &(name, f) in variants {
                         let mut hint = start;
-                        with::<Sse2>(
+                        f(
                             &s,
                             &us[..len],
                             &vs[..len],
@@ -411,7 +413,7 @@ mod tests {
                             &mut hint,
                             &mut out[..len],
                         );
-                        check("sse2", &out[..len], hint);
+                        check(name, &out[..len], hint);
                     }
                 }
             }
