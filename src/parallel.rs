@@ -1,26 +1,50 @@
 //! Batch evaluation over several threads, on the host's terms: the host chooses the number of
 //! threads (1 = serial, no thread is started); strake starts scoped threads for the call (the
-//! calling thread works on the first chunk) and joins them before returning, so no global
-//! thread pool is ever created. Starting a thread costs tens of microseconds and one
-//! allocation (its handle), per call, not per point.
+//! calling thread works too) and joins them before returning, so no global thread pool is ever
+//! created. Starting a thread costs tens of microseconds and one allocation (its handle), per
+//! call, not per point.
+//!
+//! The samples are cut into pieces of a few hundred to a few thousand, handed out in order to
+//! whichever thread is free (a counter behind a lock, taken once per piece). Contiguous halves,
+//! one per thread, would leave the whole call waiting for the slower thread whenever the
+//! operating system gives one of them less time (another program on the same core); with
+//! pieces, the faster thread takes more of them.
 
+use crate::batch::CHUNK;
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
 use crate::frame::DarbouxFrame;
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::surface::SurfaceSource;
 use std::panic::{AssertUnwindSafe, catch_unwind};
-use std::sync::Barrier;
-use std::sync::atomic::{AtomicBool, Ordering};
+use std::sync::atomic::{AtomicUsize, Ordering};
+use std::sync::{Barrier, Mutex, PoisonError};
 
 /// Below this many samples per thread, extra threads cost more than they save (thread start-up
 /// is tens of microseconds; one frame is well under a microsecond).
 pub const MIN_SAMPLES_PER_THREAD: usize = 256;
 
-/// Frames at each of `ts` into `out` (same length), split into contiguous chunks over at most
-/// `threads` scoped threads (each with its own span hints), each chunk evaluated like
-/// [`CurveOnSurface::frames_at`] (the same bits as one point at a time). `threads` = 0 is
-/// refused; 1 runs on the calling thread. Fewer threads are started when there are fewer than
+/// Pieces per thread the samples are cut into when there are enough of them: enough for the
+/// threads to even out a difference in speed, few enough that taking a piece (a lock) and
+/// starting it again without span hints cost nothing measurable.
+const PIECES_PER_THREAD: usize = 16;
+
+/// The largest piece, in samples (a few hundred microseconds of work).
+const MAX_PIECE: usize = 4096;
+
+/// Samples per piece for `n` samples over `threads` threads: about [`PIECES_PER_THREAD`]
+/// pieces per thread, at least one chunk of the batch kernel ([`CHUNK`]) and at most
+/// [`MAX_PIECE`], a whole number of chunks.
+fn piece_len(n: usize, threads: usize) -> usize {
+    let want = n.div_ceil(threads * PIECES_PER_THREAD);
+    want.clamp(CHUNK, MAX_PIECE).div_ceil(CHUNK) * CHUNK
+}
+
+/// Frames at each of `ts` into `out` (same length), over at most `threads` scoped threads
+/// (pieces of the samples handed out in order to whichever thread is free, each piece with its
+/// own span hints), each piece evaluated like [`CurveOnSurface::frames_at`] (the same bits as
+/// one point at a time, whatever the number of threads). `threads` = 0 is refused; 1 runs on
+/// the calling thread. Fewer threads are started when there are fewer than
 /// [`MIN_SAMPLES_PER_THREAD`] samples per thread. A panic in a worker (e.g. in a Rust closure
 /// surface) is resumed on the calling thread. On failure the error of the lowest failing index
 /// is returned; `out` is then partly written.
@@ -48,13 +72,17 @@ where
     frames_parallel_with(cs, threads, |i| ts[i], out, |o, _, f| *o = *f, |_, _| {})
 }
 
+/// What a worker brings back: the first error of its pieces (its lowest failing index, pieces
+/// being taken in increasing order), or the payload of a panic.
+type WorkerEnd = std::thread::Result<Option<SampleError>>;
+
 /// The engine of the parallel batches: sample i has parameter `t_of(i)` and its frame goes to
 /// `out[i]` through `write(&mut out[i], t, frame)`, i < `out.len()`; `threads` ≥ 1 (capped as
-/// in [`frames_at_parallel`]). Contiguous chunks, one per scoped thread; the first chunk runs on
-/// the calling thread. Errors as in [`frames_at_parallel`].
+/// in [`frames_at_parallel`]). Pieces handed out in order to whichever thread is free; the
+/// calling thread is one of the workers. Errors as in [`frames_at_parallel`].
 ///
-/// When every chunk has succeeded, `publish(first, chunk)` is called for each chunk (`first`
-/// the index of its first sample) on the thread that computed it, so that copying the results
+/// When every piece has succeeded, `publish(first, piece)` is called once for each piece
+/// (`first` the index of its first sample), by the worker threads, so that copying the results
 /// to their final place runs in parallel too (the C calls write the host's array only on
 /// success). It is not called at all when any sample fails or any worker panics.
 pub(crate) fn frames_parallel_with<S, C, T, F, W, P>(
@@ -75,10 +103,8 @@ where
 {
     let n = out.len();
     let threads = threads.min(n.div_ceil(MIN_SAMPLES_PER_THREAD)).max(1);
-    let chunk = n.div_ceil(threads).max(1);
     let (t_of, write) = (&t_of, &write);
-    let run = move |k: usize, oc: &mut [T]| {
-        let first = k * chunk;
+    let run = move |first: usize, oc: &mut [T]| {
         crate::batch::frames_blocked(
             cs,
             oc.len(),
@@ -96,45 +122,92 @@ where
         publish(0, out);
         return Ok(());
     }
-    let chunks_count = n.div_ceil(chunk);
+    let piece = piece_len(n, threads);
+    // The pieces still to do, in order; the pieces done (for the publish step); the lowest
+    // failing sample index seen so far (0 after a panic, usize::MAX while none): pieces that
+    // start after it are skipped, those before it are still evaluated, so the lowest failing
+    // index overall is found.
+    let todo = Mutex::new(out.chunks_mut(piece).enumerate());
+    let done = Mutex::new(Vec::with_capacity(n.div_ceil(piece)));
+    let lowest_failure = AtomicUsize::new(usize::MAX);
     // Every worker reaches the barrier, even after a failure or a panic (caught, resumed after
-    // the join), so that none waits forever; `failed` tells them whether to publish.
-    let barrier = Barrier::new(chunks_count);
-    let failed = AtomicBool::new(false);
-    let (barrier, failed, publish) = (&barrier, &failed, &publish);
-    let work = move |k: usize, oc: &mut [T]| -> std::thread::Result<Result<(), SampleError>> {
-        let r = catch_unwind(AssertUnwindSafe(|| run(k, &mut *oc)));
-        if !matches!(r, Ok(Ok(()))) {
-            failed.store(true, Ordering::Relaxed);
+    // the join), so that none waits forever.
+    let barrier = Barrier::new(threads);
+    let (todo, done, lowest_failure, barrier, publish) =
+        (&todo, &done, &lowest_failure, &barrier, &publish);
+    let work = move || -> WorkerEnd {
+        let mut end: WorkerEnd = Ok(None);
+        loop {
+            let next = todo.lock().unwrap_or_else(PoisonError::into_inner).next();
+            let Some((k, oc)) = next else { break };
+            let first = k * piece;
+            if first > lowest_failure.load(Ordering::Relaxed) {
+                break;
+            }
+            match catch_unwind(AssertUnwindSafe(|| run(first, &mut *oc))) {
+                Ok(Ok(())) => done
+                    .lock()
+                    .unwrap_or_else(PoisonError::into_inner)
+                    .push((first, oc)),
+                Ok(Err(e)) => {
+                    lowest_failure.fetch_min(e.index, Ordering::Relaxed);
+                    end = Ok(Some(e));
+                    break;
+                }
+                Err(payload) => {
+                    lowest_failure.store(0, Ordering::Relaxed);
+                    end = Err(payload);
+                    break;
+                }
+            }
         }
         barrier.wait();
-        if !failed.load(Ordering::Relaxed) {
-            publish(k * chunk, oc);
+        if lowest_failure.load(Ordering::Relaxed) == usize::MAX {
+            loop {
+                let next = done.lock().unwrap_or_else(PoisonError::into_inner).pop();
+                let Some((first, oc)) = next else { break };
+                publish(first, oc);
+            }
         }
-        r
+        end
     };
     std::thread::scope(|scope| {
-        let mut chunks = out.chunks_mut(chunk).enumerate();
-        let Some((_, own)) = chunks.next() else {
-            return Ok(());
-        };
-        let handles: Vec<_> = chunks
-            .map(|(k, oc)| scope.spawn(move || work(k, oc)))
+        let handles: Vec<_> = (1..threads).map(|_| scope.spawn(work)).collect();
+        let mine = work();
+        let ends: Vec<WorkerEnd> = std::iter::once(mine)
+            .chain(handles.into_iter().map(|h| h.join().unwrap_or_else(Err)))
             .collect();
-        let mine = work(0, own);
-        let theirs: Vec<std::thread::Result<Result<(), SampleError>>> = handles
-            .into_iter()
-            .map(|h| h.join().unwrap_or_else(|p| std::panic::resume_unwind(p)))
-            .collect();
-        // A panic anywhere is resumed here first; then, chunks being in index order, the
-        // first error is the lowest failing index.
-        let results: Vec<Result<(), SampleError>> = std::iter::once(mine)
-            .chain(theirs)
-            .map(|r| r.unwrap_or_else(|p| std::panic::resume_unwind(p)))
-            .collect();
-        for r in results {
-            r?;
+        // A panic anywhere is resumed here first; otherwise the error with the lowest index.
+        let mut lowest: Option<SampleError> = None;
+        for end in ends {
+            match end {
+                Err(payload) => std::panic::resume_unwind(payload),
+                Ok(Some(e)) if lowest.as_ref().is_none_or(|l| e.index < l.index) => {
+                    lowest = Some(e)
+                }
+                Ok(_) => {}
+            }
         }
-        Ok(())
+        lowest.map_or(Ok(()), Err)
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // Common practice: pieces are whole chunks, cover the samples in about 16 per thread, and
+    // stay within their bounds.
+    #[test]
+    fn pieces_are_whole_chunks_within_bounds() {
+        assert_eq!(piece_len(512, 2), CHUNK);
+        assert_eq!(piece_len(65536, 2), 2048);
+        assert_eq!(piece_len(10_000_000, 2), MAX_PIECE);
+        assert_eq!(piece_len(100_000, 3), 2112);
+        for (n, threads) in [(300, 2), (5000, 2), (65536, 4), (1 << 24, 8)] {
+            let p = piece_len(n, threads);
+            assert_eq!(p % CHUNK, 0);
+            assert!((CHUNK..=MAX_PIECE).contains(&p));
+        }
+    }
 }

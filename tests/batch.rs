@@ -71,6 +71,35 @@ fn failures_report_the_lowest_index() {
     assert!(cs.frames_at(&ts[..10], &mut out).is_err());
 }
 
+// Common practice for work handed out in pieces: however the pieces fall to the threads, the
+// error reported is that of the lowest failing sample, and every sample before it is written
+// as one at a time would write it. 40 000 samples make about 16 pieces per thread, so the
+// three bad samples (in reverse order of index along the array) fall in different pieces.
+#[test]
+fn pieces_over_threads_report_the_lowest_failure() {
+    let s = torus(5.0, 1.5);
+    let c = curve();
+    let cs = CurveOnSurface::new(&s, &c);
+    let n = 40_000;
+    let mut ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+    let good = ts.clone();
+    for (at, bad) in [(31_000, 2.0), (17_500, -0.5), (9_100, f64::NAN)] {
+        ts[at] = bad;
+    }
+    let blank = cs.frame(0.5, &mut Hints::default()).unwrap();
+    let mut want = vec![blank; n];
+    cs.frames_at(&good, &mut want).unwrap();
+    for threads in [2, 3, 4] {
+        for _ in 0..5 {
+            let mut out = vec![blank; n];
+            let e = frames_at_parallel(&cs, &ts, &mut out, threads).unwrap_err();
+            assert_eq!(e.index, 9_100, "threads = {threads}: {e}");
+            assert!(matches!(e.error, StrakeError::NonFinite { .. }), "{e}");
+            assert_eq!(out[..9_100], want[..9_100], "threads = {threads}");
+        }
+    }
+}
+
 // Common practice for scoped worker threads: a panic in any worker reaches the caller (and no
 // worker is left waiting for the others), whichever chunk it happens in; with 2 threads and
 // 2000 samples, t = 0.2 lies in the calling thread's chunk and t = 0.8 in the other one's.

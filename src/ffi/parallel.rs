@@ -1,6 +1,6 @@
 //! The batch over several threads, on the host's terms: the host passes the number of threads
-//! for this call; strake starts that many scoped threads (the calling thread works on the first
-//! chunk), joins them before returning, and keeps no thread or pool between calls.
+//! for this call; strake starts that many scoped threads (the calling thread works too), joins
+//! them before returning, and keeps no thread or pool between calls.
 
 use super::curve::StrakeCurve;
 use super::evaluate::{publish_frames, scratch};
@@ -13,8 +13,8 @@ use crate::path::CurveOnSurface;
 use std::mem::MaybeUninit;
 use std::ptr::NonNull;
 
-/// The host's output array, shared by the worker threads, each of which writes only its own
-/// chunk of it.
+/// The host's output array, shared by the worker threads, each of which writes only the pieces
+/// it publishes.
 struct SharedOut(NonNull<MaybeUninit<StrakeFrame>>);
 
 // SAFETY: the threads write disjoint ranges of the array (see `frames_parallel_with`'s publish
@@ -32,9 +32,11 @@ impl SharedOut {
     }
 }
 
-/// As `strake_frames_at`, with the samples split into `threads` contiguous chunks evaluated at
-/// once on `threads` threads: the calling thread and `threads - 1` threads started for this
-/// call and joined before it returns (no thread pool, nothing left running). `threads` = 1 is
+/// As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and
+/// `threads - 1` threads started for this call and joined before it returns (no thread pool,
+/// nothing left running). The samples are cut into pieces (a few hundred to 4096 samples) that
+/// go, in order, to whichever thread is free, so a thread the operating system slows down
+/// takes fewer of them. `threads` = 1 is
 /// the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
 /// threads are started when there are fewer than 256 samples per thread (starting a thread
 /// costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
@@ -80,12 +82,13 @@ pub unsafe extern "C" fn strake_frames_at_parallel(
             |i| ts[i],
             &mut buf,
             |o: &mut MaybeUninit<StrakeFrame>, t, f| *o = MaybeUninit::new(StrakeFrame::new(t, f)),
-            // Each thread copies its own chunk, once every sample has succeeded.
-            |first, chunk: &mut [MaybeUninit<StrakeFrame>]| {
-                // SAFETY: called only when every sample succeeded, so the chunk is fully
-                // written; `out` has room for `count` frames (checked above) and the chunks
-                // [first, first + len) are disjoint, so each thread writes its own part.
-                unsafe { publish_frames(chunk, dest.at(first)) }
+            // The threads copy the pieces, once every sample has succeeded.
+            |first, piece: &mut [MaybeUninit<StrakeFrame>]| {
+                // SAFETY: called only when every sample succeeded, so the piece is fully
+                // written; `out` has room for `count` frames (checked above) and the pieces
+                // [first, first + len) are disjoint and each published once, so no two
+                // threads write the same element.
+                unsafe { publish_frames(piece, dest.at(first)) }
             },
         )?;
         Ok(())
