@@ -1294,9 +1294,11 @@ StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
                                       struct StrakeSurface **out);
 
 /**
- * As `strake_frames_at`, with the samples split into `threads` contiguous chunks evaluated at
- * once on `threads` threads: the calling thread and `threads - 1` threads started for this
- * call and joined before it returns (no thread pool, nothing left running). `threads` = 1 is
+ * As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and
+ * `threads - 1` threads started for this call and joined before it returns (no thread pool,
+ * nothing left running). The samples are cut into pieces (a few hundred to 4096 samples) that
+ * go, in order, to whichever thread is free, so a thread the operating system slows down
+ * takes fewer of them. `threads` = 1 is
  * the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
  * threads are started when there are fewer than 256 samples per thread (starting a thread
  * costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
