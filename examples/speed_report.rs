@@ -747,6 +747,34 @@ fn main() {
         "",
     );
 
+    // The callback target in absolute terms: what strake adds per point on top of the host's
+    // evaluation, and how slow a host's evaluation would have to be for that to be 15 % of it.
+    println!("\nstrake's own time per point on top of the host's evaluation (same run)");
+    for (label, with, alone) in [
+        (
+            "batch callback",
+            "C: strake_frames_at, batch callback",
+            "C: host batch callback alone",
+        ),
+        (
+            "batch callback, line",
+            "C: strake_frames_at, batch callback, line",
+            "C: host batch callback alone, line",
+        ),
+        (
+            "per-point callback",
+            "C: strake_frames_at, callback",
+            "C: host callback alone",
+        ),
+    ] {
+        let (w, a) = (g(with), g(alone));
+        let added = w - a;
+        println!(
+            "{label:<24} {added:6.1} ns over a {a:5.1} ns host evaluation; (callback + frame) <= 1.15 x callback would need a host evaluation of >= {:.0} ns",
+            added / 0.15
+        );
+    }
+
     // Floors.
     let chain = add_chain_rate();
     let portable = {
