@@ -6,10 +6,11 @@
 //! of dependent multiplications and additions, and the quotient rule waits for one division.
 //! Here, per group: the span searches of its points in order (the hint carried as by a loop of
 //! one-point evaluations), the basis rows of all its points at once in lane-wide form
-//! ([`basis_rows_lanes`], one lane per point), the tensor sums point by point (already four
-//! wide over [x, y, z, w]; the points are independent, so the processor overlaps them), and the
-//! quotient rule lane-wide. Every lane performs the one-point path's operations in the same
-//! order, so the jets are the bits of [`NurbsSurface::jet_unchecked`] (tested below).
+//! ([`basis_rows_lanes`], one lane per point), then point by point the tensor sums and the
+//! quotient rule, both four wide over [x, y, z, w] (`tensor_sums_v`, `quotient_into`; the points
+//! are independent, so the processor overlaps them), written straight into the caller's jets.
+//! Every lane and component performs the one-point path's operations in the same order, so the
+//! jets are the bits of [`NurbsSurface::jet_unchecked`] (tested below).
 
 use super::super::basis::{Lanes, basis_rows_lanes};
 use super::super::quad::QuadOps;
@@ -19,10 +20,9 @@ use super::super::quad::Scalar as Sse2;
 use super::super::quad::{Avx, Sse2};
 use super::NurbsSurface;
 use crate::jet::{DerivOrder, SurfaceJet};
-use crate::math::Vec3;
 use crate::surface::SurfaceHint;
 
-/// Points evaluated together: the lanes of the basis rows and of the quotient rule. Four fill
+/// Points evaluated together: the lanes of the basis rows. Four fill
 /// one AVX vector.
 const GROUP: usize = 4;
 
@@ -146,12 +146,10 @@ impl NurbsSurface {
             }
             let nu = basis_rows_lanes::<N, P, GROUP>(knots_u, &self.u_recip, &span_u, Lanes(xu), K);
             let nv = basis_rows_lanes::<N, Q, GROUP>(knots_v, &self.v_recip, &span_v, Lanes(xv), K);
-            let out = &mut out[start..start + len];
-            // h[k][c] lane l: component c of the homogeneous partial k of point l (see
-            // `tensor_sums`).
-            let mut h = [[L::splat(0.0); 4]; 6];
-            for (l, o) in out.iter_mut().enumerate() {
-                let hp = self.tensor_sums::<K, N, M>(
+            // Per point: the tensor sums and the quotient rule in vector form, written
+            // straight into `out`.
+            for (l, o) in out[start..start + len].iter_mut().enumerate() {
+                let h = self.tensor_sums_v::<K, N, M>(
                     P,
                     Q,
                     span_u[l],
@@ -159,18 +157,7 @@ impl NurbsSurface {
                     &lane(&nu, l),
                     &lane(&nv, l),
                 );
-                if self.rational {
-                    for (hk, hpk) in h.iter_mut().zip(&hp) {
-                        for (hkc, &x) in hk.iter_mut().zip(hpk) {
-                            hkc.0[l] = x;
-                        }
-                    }
-                } else {
-                    *o = self.quotient::<K>(&hp);
-                }
-            }
-            if self.rational {
-                quotient_lanes::<K>(&h, out);
+                self.quotient_into::<K, M>(&h, o);
             }
         }
     }
@@ -186,49 +173,6 @@ fn lane<const N: usize>(rows: &[[L; N]; 3], l: usize) -> [[f64; N]; 3] {
         }
     }
     out
-}
-
-/// [`NurbsSurface::quotient`] for a rational surface, lane-wide: the jets of the group's points
-/// from their homogeneous partials `h[k][c]` (partial k as in `tensor_sums`, component c of
-/// [x, y, z, w]), into `out[l]` for the lanes l < `out.len()`. The same operations in the same
-/// order per lane.
-#[inline(always)]
-fn quotient_lanes<const K: usize>(h: &[[L; 4]; 6], out: &mut [SurfaceJet]) {
-    let zero = L::splat(0.0);
-    let inv_w = L::splat(1.0) / h[0][3];
-    let (mut s, mut su, mut sv) = ([zero; 3], [zero; 3], [zero; 3]);
-    let (mut suu, mut suv, mut svv) = ([zero; 3], [zero; 3], [zero; 3]);
-    for c in 0..3 {
-        s[c] = h[0][c] * inv_w;
-    }
-    if K >= 1 {
-        let (wu, wv) = (h[1][3], h[2][3]);
-        for c in 0..3 {
-            su[c] = (h[1][c] - s[c] * wu) * inv_w;
-            sv[c] = (h[2][c] - s[c] * wv) * inv_w;
-        }
-        if K >= 2 {
-            let (wuu, wuv, wvv) = (h[3][3], h[4][3], h[5][3]);
-            let two = L::splat(2.0);
-            let (two_wu, two_wv) = (two * wu, two * wv);
-            for c in 0..3 {
-                suu[c] = (h[3][c] - su[c] * two_wu - s[c] * wuu) * inv_w;
-                suv[c] = (h[4][c] - sv[c] * wu - su[c] * wv - s[c] * wuv) * inv_w;
-                svv[c] = (h[5][c] - sv[c] * two_wv - s[c] * wvv) * inv_w;
-            }
-        }
-    }
-    for (l, o) in out.iter_mut().enumerate() {
-        let v3 = |x: &[L; 3]| Vec3::new(x[0].0[l], x[1].0[l], x[2].0[l]);
-        *o = SurfaceJet {
-            p: v3(&s),
-            su: v3(&su),
-            sv: v3(&sv),
-            suu: v3(&suu),
-            suv: v3(&suv),
-            svv: v3(&svv),
-        };
-    }
 }
 
 #[cfg(test)]
