@@ -151,10 +151,14 @@ impl NurbsSurface {
             } else {
                 basis_rows_lanes::<N, Q, GROUP, false>(knots_v, rv, &span_v, Lanes(xv), K)
             };
-            // Per point: the tensor sums and the quotient rule in vector form, written
-            // straight into `out`.
-            for (l, o) in out[start..start + len].iter_mut().enumerate() {
-                let h = self.tensor_sums_v::<K, N, M>(
+            // Per point in vector form: first the tensor sums of every point, then the
+            // quotient rule of every point, written straight into `out` (the divisions and the
+            // quotients' dependent chains of the group's points overlap).
+            let out = &mut out[start..start + len];
+            // SAFETY: the caller chose `M` for this processor.
+            let mut h = [[unsafe { M::zero() }; 6]; GROUP];
+            for (l, h) in h.iter_mut().enumerate().take(len) {
+                *h = self.tensor_sums_v::<K, N, M>(
                     P,
                     Q,
                     span_u[l],
@@ -162,7 +166,9 @@ impl NurbsSurface {
                     &lane(&nu, l),
                     &lane(&nv, l),
                 );
-                self.quotient_into::<K, M>(&h, o);
+            }
+            for (o, h) in out.iter_mut().zip(&h) {
+                self.quotient_into::<K, M>(h, o);
             }
         }
     }
