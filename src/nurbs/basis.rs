@@ -197,9 +197,12 @@ impl<const L: usize> Lanes<L> {
     pub(crate) fn splat(x: f64) -> Self {
         Lanes([x; L])
     }
-    /// Lane i = `x[i][at]`.
+    /// Lane i = `x[i][at]`; with `SAME`, `x[0][at]` in every lane.
     #[inline(always)]
-    fn gather(x: &[&[f64]; L], at: usize) -> Self {
+    fn gather<const SAME: bool>(x: &[&[f64]; L], at: usize) -> Self {
+        if SAME {
+            return Self::splat(x[0][at]);
+        }
         let mut r = [0.0; L];
         for (r, x) in r.iter_mut().zip(x) {
             *r = x[at];
@@ -239,8 +242,12 @@ lane_op!(Div, div, /);
 /// exactly the operations of [`basis_rows_in`] in the same order, so it gives the same bits;
 /// the latencies of the lanes' recursions overlap. `d[k][r]` lane l is `d[k][r]` of
 /// [`basis_rows_in`] at point l. Same preconditions per lane as [`basis_rows_in`].
+///
+/// With `SAME` the caller promises that every lane has the span of lane 0 (the common case on a
+/// path, which crosses a knot line now and then): the knots and reciprocals are then read once
+/// and broadcast instead of gathered lane by lane. The same values either way.
 #[inline(always)]
-pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize>(
+pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize, const SAME: bool>(
     knots: &[f64],
     recips: &[f64],
     spans: &[usize; L],
@@ -248,13 +255,15 @@ pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize>(
     order: usize,
 ) -> [[Lanes<L>; N]; 3] {
     const { assert!(P > 0 && P < N) };
+    debug_assert!(!SAME || spans.iter().all(|&s| s == spans[0]));
     let per_span = reciprocals_per_span(P);
     // Per lane the knot window and the span's reciprocals, as in `basis_rows_in` and
     // `Reciprocals`; fixed lengths, so that the constant indices below carry no bounds checks.
-    // Plain loops rather than `array::from_fn`, which is not reliably inlined.
+    // Plain loops rather than `array::from_fn`, which is not reliably inlined. With `SAME` only
+    // lane 0's are read.
     let mut kw: [&[f64]; L] = [&[]; L];
     let mut rc: [&[f64]; L] = [&[]; L];
-    for l in 0..L {
+    for l in 0..if SAME { 1 } else { L } {
         kw[l] = &knots[spans[l] + 1 - P..spans[l] + P + 1];
         rc[l] = &recips[(spans[l] - P) * per_span..][..per_span];
     }
@@ -273,31 +282,31 @@ pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize>(
         if j + 1 == P {
             deg_p2 = *row;
         }
-        left[j] = x - Lanes::gather(&kw, P - j);
-        right[j] = Lanes::gather(&kw, P - 1 + j) - x;
+        left[j] = x - Lanes::gather::<SAME>(&kw, P - j);
+        right[j] = Lanes::gather::<SAME>(&kw, P - 1 + j) - x;
         let mut saved = zero;
         for r in 0..j {
-            let temp = row[r] * Lanes::gather(&rc, j * (j - 1) / 2 + r);
+            let temp = row[r] * Lanes::gather::<SAME>(&rc, j * (j - 1) / 2 + r);
             row[r] = saved + right[r + 1] * temp;
             saved = left[j - r] * temp;
         }
         row[j] = saved;
     }
     if order >= 1 {
-        derivative_row_lanes(P, &rc, &deg_p1, &mut out[1]);
+        derivative_row_lanes::<N, L, SAME>(P, &rc, &deg_p1, &mut out[1]);
     }
     if order >= 2 && P >= 2 {
         let mut der_p1 = [zero; N];
-        derivative_row_lanes(P - 1, &rc, &deg_p2, &mut der_p1);
-        derivative_row_lanes(P, &rc, &der_p1, &mut out[2]);
+        derivative_row_lanes::<N, L, SAME>(P - 1, &rc, &deg_p2, &mut der_p1);
+        derivative_row_lanes::<N, L, SAME>(P, &rc, &der_p1, &mut out[2]);
     }
     out
 }
 
 /// [`derivative_row`] with [`Reciprocals`], lane-wide: lane l of `rc` is the reciprocal table of
-/// lane l's span.
+/// lane l's span (with `SAME`, lane 0's table serves every lane).
 #[inline(always)]
-fn derivative_row_lanes<const N: usize, const L: usize>(
+fn derivative_row_lanes<const N: usize, const L: usize, const SAME: bool>(
     p: usize,
     rc: &[&[f64]; L],
     lower: &[Lanes<L>; N],
@@ -306,7 +315,7 @@ fn derivative_row_lanes<const N: usize, const L: usize>(
     let pf = Lanes::splat(p as f64);
     let mut carry = Lanes::splat(0.0);
     for r in 0..p {
-        let term = lower[r] * Lanes::gather(rc, p * (p - 1) / 2 + r);
+        let term = lower[r] * Lanes::gather::<SAME>(rc, p * (p - 1) / 2 + r);
         out[r] = pf * (carry - term);
         carry = term;
     }

@@ -400,6 +400,27 @@ impl NurbsSurface {
         nu: &[[f64; N]; 3],
         nv: &[[f64; N]; 3],
     ) -> [[f64; 4]; 6] {
+        let h = self.tensor_sums_v::<K, N, M>(p, q, span_u, span_v, nu, nv);
+        let mut hs = [[0.0f64; 4]; 6];
+        for (o, &x) in hs.iter_mut().zip(&h).take(if K == 0 { 1 } else { 3 * K }) {
+            // SAFETY: the caller chose `M` for this processor.
+            *o = unsafe { M::store(x) };
+        }
+        hs
+    }
+
+    /// [`Self::tensor_sums`] left in vector values of `M` (entries above order K zero), for
+    /// callers that go on in vector form ([`Self::quotient_into`]).
+    #[inline(always)]
+    fn tensor_sums_v<const K: usize, const N: usize, M: QuadOps>(
+        &self,
+        p: usize,
+        q: usize,
+        span_u: usize,
+        span_v: usize,
+        nu: &[[f64; N]; 3],
+        nv: &[[f64; N]; 3],
+    ) -> [M::V; 6] {
         let count_v = self.v_knots.count();
         let first = (span_u - p) * count_v + (span_v - q);
         // h[0] = A, h[1] = Au, h[2] = Av, h[3] = Auu, h[4] = Auv, h[5] = Avv, each [x, y, z, w]
@@ -435,11 +456,65 @@ impl NurbsSurface {
                 h[5] = unsafe { M::madd(h[5], nu[0][r], t2) };
             }
         }
-        let mut hs = [[0.0f64; 4]; 6];
-        for (o, &x) in hs.iter_mut().zip(&h).take(if K == 0 { 1 } else { 3 * K }) {
-            *o = unsafe { M::store(x) };
+        h
+    }
+
+    /// [`Self::quotient`] in vector form, written straight into `out`: the jet from the
+    /// homogeneous partials `h` of [`Self::tensor_sums_v`], each formula applied to the four
+    /// components [x, y, z, w] at once (the w results are dropped). Per x, y, z component the
+    /// operations of [`Self::quotient`] in the same order (1/w is one division, broadcast), so
+    /// the same bits. Entries above order K are zero. `M` as in [`Self::eval`].
+    #[inline(always)]
+    fn quotient_into<const K: usize, M: QuadOps>(&self, h: &[M::V; 6], out: &mut SurfaceJet) {
+        // SAFETY (every `M::` call): the caller chose `M` for this processor.
+        let put = |x: M::V, v: &mut Vec3| unsafe { M::store3(x, &mut v.data.0[0]) };
+        if !self.rational {
+            // Entries above order K are zero in `h` already.
+            put(h[0], &mut out.p);
+            put(h[1], &mut out.su);
+            put(h[2], &mut out.sv);
+            put(h[3], &mut out.suu);
+            put(h[4], &mut out.suv);
+            put(h[5], &mut out.svv);
+            return;
         }
-        hs
+        let (mul, sub, w) = (
+            |a, b| unsafe { M::mul(a, b) },
+            |a, b| unsafe { M::sub(a, b) },
+            |a| unsafe { M::splat_w(a) },
+        );
+        // 1/w in every component: one IEEE division, as `1.0 / h[0][3]`.
+        let inv_w = unsafe { M::div(M::splat(1.0), w(h[0])) };
+        let s = mul(h[0], inv_w);
+        put(s, &mut out.p);
+        let zero = Vec3::zeros();
+        if K < 2 {
+            (out.suu, out.suv, out.svv) = (zero, zero, zero);
+        }
+        if K < 1 {
+            (out.su, out.sv) = (zero, zero);
+        }
+        if K >= 1 {
+            let (wu, wv) = (w(h[1]), w(h[2]));
+            let su = mul(sub(h[1], mul(s, wu)), inv_w);
+            let sv = mul(sub(h[2], mul(s, wv)), inv_w);
+            put(su, &mut out.su);
+            put(sv, &mut out.sv);
+            if K >= 2 {
+                let (wuu, wuv, wvv) = (w(h[3]), w(h[4]), w(h[5]));
+                let two = unsafe { M::splat(2.0) };
+                let (two_wu, two_wv) = (mul(two, wu), mul(two, wv));
+                let suu = mul(sub(sub(h[3], mul(su, two_wu)), mul(s, wuu)), inv_w);
+                let suv = mul(
+                    sub(sub(sub(h[4], mul(sv, wu)), mul(su, wv)), mul(s, wuv)),
+                    inv_w,
+                );
+                let svv = mul(sub(sub(h[5], mul(sv, two_wv)), mul(s, wvv)), inv_w);
+                put(suu, &mut out.suu);
+                put(suv, &mut out.suv);
+                put(svv, &mut out.svv);
+            }
+        }
     }
 
     /// The jet from the homogeneous partials `h` of [`Self::tensor_sums`]: S = A directly for a

@@ -6,10 +6,11 @@
 //! of dependent multiplications and additions, and the quotient rule waits for one division.
 //! Here, per group: the span searches of its points in order (the hint carried as by a loop of
 //! one-point evaluations), the basis rows of all its points at once in lane-wide form
-//! ([`basis_rows_lanes`], one lane per point), the tensor sums point by point (already four
-//! wide over [x, y, z, w]; the points are independent, so the processor overlaps them), and the
-//! quotient rule lane-wide. Every lane performs the one-point path's operations in the same
-//! order, so the jets are the bits of [`NurbsSurface::jet_unchecked`] (tested below).
+//! ([`basis_rows_lanes`], one lane per point), then point by point the tensor sums and the
+//! quotient rule, both four wide over [x, y, z, w] (`tensor_sums_v`, `quotient_into`; the points
+//! are independent, so the processor overlaps them), written straight into the caller's jets.
+//! Every lane and component performs the one-point path's operations in the same order, so the
+//! jets are the bits of [`NurbsSurface::jet_unchecked`] (tested below).
 
 use super::super::basis::{Lanes, basis_rows_lanes};
 use super::super::quad::QuadOps;
@@ -19,10 +20,10 @@ use super::super::quad::Scalar as Sse2;
 use super::super::quad::{Avx, Sse2};
 use super::NurbsSurface;
 use crate::jet::{DerivOrder, SurfaceJet};
-use crate::math::Vec3;
+use crate::nurbs::{KnotVector, SpanHint};
 use crate::surface::SurfaceHint;
 
-/// Points evaluated together: the lanes of the basis rows and of the quotient rule. Four fill
+/// Points evaluated together: the lanes of the basis rows. Four fill
 /// one AVX vector.
 const GROUP: usize = 4;
 
@@ -129,29 +130,35 @@ impl NurbsSurface {
         let (knots_u, knots_v) = (self.u_knots.knots(), self.v_knots.knots());
         for start in (0..n).step_by(GROUP) {
             let len = GROUP.min(n - start);
-            // Spans in order, u before v for each point, as the one-point path searches them.
             // Lanes past the end repeat the last point; their results are dropped.
             let (mut xu, mut xv) = ([0.0; GROUP], [0.0; GROUP]);
-            let (mut span_u, mut span_v) = ([0; GROUP], [0; GROUP]);
             for l in 0..GROUP {
-                if l < len {
-                    xu[l] = u[start + l];
-                    xv[l] = v[start + l];
-                    span_u[l] = self.u_knots.find_span(xu[l], &mut hint.u);
-                    span_v[l] = self.v_knots.find_span(xv[l], &mut hint.v);
-                } else {
-                    (xu[l], xv[l]) = (xu[len - 1], xv[len - 1]);
-                    (span_u[l], span_v[l]) = (span_u[len - 1], span_v[len - 1]);
-                }
+                let i = start + l.min(len - 1);
+                (xu[l], xv[l]) = (u[i], v[i]);
             }
-            let nu = basis_rows_lanes::<N, P, GROUP>(knots_u, &self.u_recip, &span_u, Lanes(xu), K);
-            let nv = basis_rows_lanes::<N, Q, GROUP>(knots_v, &self.v_recip, &span_v, Lanes(xv), K);
+            // The spans in point order, each direction with its own hint, as a loop of
+            // one-point evaluations searches them (the u hint never depends on v).
+            let (span_u, same_u) = group_spans(&self.u_knots, &xu, len, &mut hint.u);
+            let (span_v, same_v) = group_spans(&self.v_knots, &xv, len, &mut hint.v);
+            let (ru, rv) = (&self.u_recip[..], &self.v_recip[..]);
+            let nu = if same_u {
+                basis_rows_lanes::<N, P, GROUP, true>(knots_u, ru, &span_u, Lanes(xu), K)
+            } else {
+                basis_rows_lanes::<N, P, GROUP, false>(knots_u, ru, &span_u, Lanes(xu), K)
+            };
+            let nv = if same_v {
+                basis_rows_lanes::<N, Q, GROUP, true>(knots_v, rv, &span_v, Lanes(xv), K)
+            } else {
+                basis_rows_lanes::<N, Q, GROUP, false>(knots_v, rv, &span_v, Lanes(xv), K)
+            };
+            // Per point in vector form: first the tensor sums of every point, then the
+            // quotient rule of every point, written straight into `out` (the divisions and the
+            // quotients' dependent chains of the group's points overlap).
             let out = &mut out[start..start + len];
-            // h[k][c] lane l: component c of the homogeneous partial k of point l (see
-            // `tensor_sums`).
-            let mut h = [[L::splat(0.0); 4]; 6];
-            for (l, o) in out.iter_mut().enumerate() {
-                let hp = self.tensor_sums::<K, N, M>(
+            // SAFETY: the caller chose `M` for this processor.
+            let mut h = [[unsafe { M::zero() }; 6]; GROUP];
+            for (l, h) in h.iter_mut().enumerate().take(len) {
+                *h = self.tensor_sums_v::<K, N, M>(
                     P,
                     Q,
                     span_u[l],
@@ -159,21 +166,47 @@ impl NurbsSurface {
                     &lane(&nu, l),
                     &lane(&nv, l),
                 );
-                if self.rational {
-                    for (hk, hpk) in h.iter_mut().zip(&hp) {
-                        for (hkc, &x) in hk.iter_mut().zip(hpk) {
-                            hkc.0[l] = x;
-                        }
-                    }
-                } else {
-                    *o = self.quotient::<K>(&hp);
-                }
             }
-            if self.rational {
-                quotient_lanes::<K>(&h, out);
+            for (o, h) in out.iter_mut().zip(&h) {
+                self.quotient_into::<K, M>(h, o);
             }
         }
     }
+}
+
+/// The knot spans of the group's parameters `x` in one direction (lanes from `len` on repeat
+/// the last point) and whether they are all the same, with `hint` carried and left as by
+/// [`KnotVector::find_span`] point after point. When every point lies in the hinted span
+/// (u_h ≤ x < u_{h+1}, the hint's first test in `find_span`, which then returns h and keeps
+/// the hint), one test per point and no search.
+#[inline(always)]
+fn group_spans(
+    kv: &KnotVector,
+    x: &[f64; GROUP],
+    len: usize,
+    hint: &mut SpanHint,
+) -> ([usize; GROUP], bool) {
+    if let Some(h) = hint.0 {
+        // h ≤ n, so u_{h+1} ≤ u_{n+1}: x < u_{h+1} covers `find_span`'s test x < u_{n+1}.
+        if h >= kv.degree() && h < kv.count() {
+            let k = kv.knots();
+            let (lo, hi) = (k[h], k[h + 1]);
+            // Non-short-circuit `&`: one branch; a NaN fails the test and is searched.
+            if x.iter().fold(true, |all, &x| all & (lo <= x) & (x < hi)) {
+                return ([h; GROUP], true);
+            }
+        }
+    }
+    let mut spans = [0; GROUP];
+    for l in 0..GROUP {
+        spans[l] = if l < len {
+            kv.find_span(x[l], hint)
+        } else {
+            spans[len - 1]
+        };
+    }
+    let same = spans.iter().fold(true, |all, &s| all & (s == spans[0]));
+    (spans, same)
 }
 
 /// Lane `l` of basis rows.
@@ -186,49 +219,6 @@ fn lane<const N: usize>(rows: &[[L; N]; 3], l: usize) -> [[f64; N]; 3] {
         }
     }
     out
-}
-
-/// [`NurbsSurface::quotient`] for a rational surface, lane-wide: the jets of the group's points
-/// from their homogeneous partials `h[k][c]` (partial k as in `tensor_sums`, component c of
-/// [x, y, z, w]), into `out[l]` for the lanes l < `out.len()`. The same operations in the same
-/// order per lane.
-#[inline(always)]
-fn quotient_lanes<const K: usize>(h: &[[L; 4]; 6], out: &mut [SurfaceJet]) {
-    let zero = L::splat(0.0);
-    let inv_w = L::splat(1.0) / h[0][3];
-    let (mut s, mut su, mut sv) = ([zero; 3], [zero; 3], [zero; 3]);
-    let (mut suu, mut suv, mut svv) = ([zero; 3], [zero; 3], [zero; 3]);
-    for c in 0..3 {
-        s[c] = h[0][c] * inv_w;
-    }
-    if K >= 1 {
-        let (wu, wv) = (h[1][3], h[2][3]);
-        for c in 0..3 {
-            su[c] = (h[1][c] - s[c] * wu) * inv_w;
-            sv[c] = (h[2][c] - s[c] * wv) * inv_w;
-        }
-        if K >= 2 {
-            let (wuu, wuv, wvv) = (h[3][3], h[4][3], h[5][3]);
-            let two = L::splat(2.0);
-            let (two_wu, two_wv) = (two * wu, two * wv);
-            for c in 0..3 {
-                suu[c] = (h[3][c] - su[c] * two_wu - s[c] * wuu) * inv_w;
-                suv[c] = (h[4][c] - sv[c] * wu - su[c] * wv - s[c] * wuv) * inv_w;
-                svv[c] = (h[5][c] - sv[c] * two_wv - s[c] * wvv) * inv_w;
-            }
-        }
-    }
-    for (l, o) in out.iter_mut().enumerate() {
-        let v3 = |x: &[L; 3]| Vec3::new(x[0].0[l], x[1].0[l], x[2].0[l]);
-        *o = SurfaceJet {
-            p: v3(&s),
-            su: v3(&su),
-            sv: v3(&sv),
-            suu: v3(&suu),
-            suv: v3(&suv),
-            svv: v3(&svv),
-        };
-    }
 }
 
 #[cfg(test)]
