@@ -5,8 +5,10 @@
 //! For each chunk of up to [`CHUNK`] samples: the curve jets of the chunk in one call
 //! ([`UvCurve::jets_in_domain_block`], span hint carried; NURBS curves evaluate several points
 //! at once), the surface jets of the chunk in one call ([`SurfaceSource::jets_in_domain_block`],
-//! which a host's batch callback answers in one call too), then the frame math a block of
-//! [`BLOCK`] points at a time in structure-of-arrays form ([`crate::frame_block`]). The results are the bits of the
+//! which a host's batch callback answers in one call too), then the frame math of the chunk
+//! ([`crate::frame_block::FrameKernel`]: on AVX2 four points at a time, the jets transposed
+//! straight into AVX registers and the frames straight out of them; elsewhere a block of
+//! [`crate::frame_block::BLOCK`] points in structure-of-arrays form). The results are the bits of the
 //! one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the block kernel
 //! flags is evaluated again by the one-point path from the same jets, and samples are reported
 //! in order, so the first failing sample and its error are those of a point-by-point loop.
@@ -16,20 +18,21 @@
 //! callback may be called at samples after the first failing one (never with such a t), and
 //! the hints may have moved past the failing sample (they only ever affect speed).
 //!
-//! Nothing is allocated: the chunk's jets live on the stack (about 13 KiB).
+//! Nothing is allocated: the chunk's jets and frames live on the stack (about 28 KiB).
 
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
 use crate::frame::{DarbouxFrame, darboux_frame_at};
-use crate::frame_block::{BLOCK, BlockInput, BlockOutput, finite_rest, frames_of_block};
+use crate::frame_block::FrameKernel;
 use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::principal::SurfacePoint;
 use crate::surface::SurfaceSource;
+use std::mem::MaybeUninit;
 
 /// Samples per call of [`SurfaceSource::jets_in_domain_block`] (so a host's batch callback gets
 /// up to this many points per call): eight blocks of the frame kernel.
-pub(crate) const CHUNK: usize = 64;
+pub(crate) const CHUNK: usize = crate::frame_block::MAX_POINTS;
 
 /// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
 /// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been
@@ -57,8 +60,8 @@ where
     let mut vs = [0.0; CHUNK];
     let mut cj = [CurveJet::default(); CHUNK];
     let mut sj = [SurfaceJet::default(); CHUNK];
-    let mut block_in = BlockInput::zeroed();
-    let mut out = BlockOutput::zeroed();
+    let mut kernel = FrameKernel::new();
+    let mut frames = [MaybeUninit::<DarbouxFrame>::uninit(); CHUNK];
     let mut base = 0;
     while base < count {
         let len = CHUNK.min(count - base);
@@ -116,23 +119,29 @@ where
                 error,
             })?;
         }
-        for start in (0..good).step_by(BLOCK) {
-            let end = good.min(start + BLOCK);
-            block_in.fill(&sj[start..end], &cj[start..end]);
-            frames_of_block(&block_in, orientation, &scales, &mut out);
-            for i in start..end {
-                // A lane with a non-finite jet is flagged by the kernel or by `finite_rest`;
-                // the one-point path then reports the jet's `NonFinite` error.
-                let frame = if out.ok(i - start) && finite_rest(&sj[i], &cj[i]) {
-                    out.frame(i - start, &sj[i], &cj[i])
+        if good > 0 {
+            let bits = kernel.frames(
+                &sj[..good],
+                &cj[..good],
+                orientation,
+                &scales,
+                &mut frames[..good],
+            );
+            for i in 0..good {
+                // A lane with a non-finite jet is flagged by the kernel; the one-point path
+                // then reports the jet's `NonFinite` error.
+                if bits & (1 << i) != 0 {
+                    // SAFETY: `FrameKernel::frames` wrote every frame of `..good`.
+                    emit(base + i, ts[i], unsafe { frames[i].assume_init_ref() });
                 } else {
-                    one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
-                        index: base + i,
-                        t: ts[i],
-                        error,
-                    })?
-                };
-                emit(base + i, ts[i], &frame);
+                    let frame =
+                        one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
+                            index: base + i,
+                            t: ts[i],
+                            error,
+                        })?;
+                    emit(base + i, ts[i], &frame);
+                }
             }
         }
         if let Some(error) = pending {
