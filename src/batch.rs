@@ -34,6 +34,51 @@ use std::mem::MaybeUninit;
 /// up to this many points per call): eight blocks of the frame kernel.
 pub(crate) const CHUNK: usize = crate::frame_block::MAX_POINTS;
 
+/// Where [`frames_blocked_into`] puts the frames.
+pub(crate) trait FrameSink {
+    /// Room for the frames of the samples `base .. base + len`, for the kernel to write them in
+    /// place (a sink that keeps the frames as they are, in an array); `None` to receive every
+    /// frame through [`Self::put`] instead.
+    fn room(&mut self, base: usize, len: usize) -> Option<&mut [MaybeUninit<DarbouxFrame>]>;
+    /// The frame of sample `index` (at parameter `t`), unless the kernel wrote it into
+    /// [`Self::room`].
+    fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame);
+}
+
+/// A sink that hands each frame to a closure `(index, t, frame)`.
+struct Emit<F>(F);
+
+impl<F: FnMut(usize, f64, &DarbouxFrame)> FrameSink for Emit<F> {
+    #[inline]
+    fn room(&mut self, _: usize, _: usize) -> Option<&mut [MaybeUninit<DarbouxFrame>]> {
+        None
+    }
+    #[inline]
+    fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame) {
+        (self.0)(index, t, frame)
+    }
+}
+
+/// A sink that is the caller's array of frames (`count` long): the kernel writes into it
+/// directly, with no copy. On a failure, entries from the failing sample to the end of its
+/// chunk of [`CHUNK`] samples may hold meaningless numbers.
+pub(crate) struct IntoSlice<'a>(pub(crate) &'a mut [DarbouxFrame]);
+
+impl FrameSink for IntoSlice<'_> {
+    #[inline]
+    fn room(&mut self, base: usize, len: usize) -> Option<&mut [MaybeUninit<DarbouxFrame>]> {
+        let room = &mut self.0[base..base + len];
+        // SAFETY: the same memory seen as possibly uninitialised frames; only whole frames are
+        // written through it (`FrameKernel::frames` writes every f64 of each), so the array
+        // stays initialised.
+        Some(unsafe { &mut *(room as *mut [DarbouxFrame] as *mut [MaybeUninit<DarbouxFrame>]) })
+    }
+    #[inline]
+    fn put(&mut self, index: usize, _: f64, frame: &DarbouxFrame) {
+        self.0[index] = *frame;
+    }
+}
+
 /// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
 /// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been
 /// emitted) and returns its index, parameter and error. `hints` is carried through and left
@@ -43,7 +88,23 @@ pub(crate) fn frames_blocked<S, C>(
     count: usize,
     hints: &mut Hints,
     t_of: impl Fn(usize) -> f64,
-    mut emit: impl FnMut(usize, f64, &DarbouxFrame),
+    emit: impl FnMut(usize, f64, &DarbouxFrame),
+) -> Result<(), SampleError>
+where
+    S: SurfaceSource + ?Sized,
+    C: UvCurve + ?Sized,
+{
+    frames_blocked_into(cs, count, hints, t_of, &mut Emit(emit))
+}
+
+/// [`frames_blocked`] into any [`FrameSink`]: every sample before the failing one has been
+/// put into the sink (or written into its room).
+pub(crate) fn frames_blocked_into<S, C>(
+    cs: &CurveOnSurface<'_, S, C>,
+    count: usize,
+    hints: &mut Hints,
+    t_of: impl Fn(usize) -> f64,
+    sink: &mut impl FrameSink,
 ) -> Result<(), SampleError>
 where
     S: SurfaceSource + ?Sized,
@@ -120,19 +181,22 @@ where
             })?;
         }
         if good > 0 {
-            let bits = kernel.frames(
-                &sj[..good],
-                &cj[..good],
-                orientation,
-                &scales,
-                &mut frames[..good],
-            );
+            let (sg, cg) = (&sj[..good], &cj[..good]);
+            let (bits, direct) = match sink.room(base, good) {
+                Some(room) => (kernel.frames(sg, cg, orientation, &scales, room), true),
+                None => (
+                    kernel.frames(sg, cg, orientation, &scales, &mut frames[..good]),
+                    false,
+                ),
+            };
             for i in 0..good {
                 // A lane with a non-finite jet is flagged by the kernel; the one-point path
                 // then reports the jet's `NonFinite` error.
                 if bits & (1 << i) != 0 {
-                    // SAFETY: `FrameKernel::frames` wrote every frame of `..good`.
-                    emit(base + i, ts[i], unsafe { frames[i].assume_init_ref() });
+                    if !direct {
+                        // SAFETY: `FrameKernel::frames` wrote every frame of `..good`.
+                        sink.put(base + i, ts[i], unsafe { frames[i].assume_init_ref() });
+                    }
                 } else {
                     let frame =
                         one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
@@ -140,7 +204,7 @@ where
                             t: ts[i],
                             error,
                         })?;
-                    emit(base + i, ts[i], &frame);
+                    sink.put(base + i, ts[i], &frame);
                 }
             }
         }

@@ -479,6 +479,15 @@ unsafe fn frame_math<T: Lane>(
         ((sum3(su) + sum3(sv)) + (sum3(suu) + sum3(suv))) + ((sum3(svv) + (du + dv)) + (ddu + ddv));
     let inputs_finite = inputs.finite();
 
+    // c'' of darboux_frame_at, first: three values in place of the eleven inputs it needs (the
+    // second derivatives are used again only for L, M, Nn), fewer values live to the end.
+    let (duu, duv, dvv) = (du * du, 2.0 * du * dv, dv * dv);
+    let c2 = [
+        suu[0] * duu + suv[0] * duv + svv[0] * dvv + su[0] * ddu + sv[0] * ddv,
+        suu[1] * duu + suv[1] * duv + svv[1] * dvv + su[1] * ddu + sv[1] * ddv,
+        suu[2] * duu + suv[2] * duv + svv[2] * dvv + su[2] * ddu + sv[2] * ddv,
+    ];
+
     // --- darboux_frame_at: the speed figure (u', v' and the extents only) ---
     let (a, b_) = (
         du * scalar_div(1.0, s.u_extent),
@@ -537,8 +546,9 @@ unsafe fn frame_math<T: Lane>(
     ];
     let d2 = cross(n, d1);
     let gaussian = k1 * k2;
-    ok = ok & k1.finite() & k2.finite() & n[0].finite() & n[1].finite() & n[2].finite();
-    ok = ok & gaussian.finite();
+    // k1, k2, K and N finite: a sum of them is finite only then (as for the inputs, an
+    // overflow of finite values merely sends the lane through the one-point path).
+    ok = ok & (((k1 + k2) + gaussian) + ((n[0] + n[1]) + n[2])).finite();
     out.surface(SurfaceLanes {
         n,
         d1,
@@ -572,17 +582,11 @@ unsafe fn frame_math<T: Lane>(
     let inv_det = inv_area * inv_area;
     let (bc0, bc1) = ((g * xs - f * xv) * inv_det, (e * xv - f * xs) * inv_det);
     let tg = form(tc0, tc1, bc0, bc1);
-    let (duu, duv, dvv) = (du * du, 2.0 * du * dv, dv * dv);
-    let c2 = [
-        suu[0] * duu + suv[0] * duv + svv[0] * dvv + su[0] * ddu + sv[0] * ddv,
-        suu[1] * duu + suv[1] * duv + svv[1] * dvv + su[1] * ddu + sv[1] * ddv,
-        suu[2] * duu + suv[2] * duv + svv[2] * dvv + su[2] * ddu + sv[2] * ddv,
-    ];
     let kg = dot(c2, b) * inv_speed2;
-    ok = ok & kn.finite() & kg.finite() & tg.finite() & speed.finite();
-    ok = ok & tan[0].finite() & tan[1].finite() & tan[2].finite();
-    ok = ok & b[0].finite() & b[1].finite() & b[2].finite();
-    ok = ok & speed.ne(zero);
+    // κn, κg, τg, |c'|, T and B finite (a sum, as above), and |c'| ≠ 0.
+    let results =
+        ((kn + kg) + (tg + speed)) + (((tan[0] + tan[1]) + (tan[2] + b[0])) + (b[1] + b[2]));
+    ok = ok & results.finite() & speed.ne(zero);
     out.curve(CurveLanes {
         n,
         tan,
