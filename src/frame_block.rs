@@ -680,7 +680,7 @@ mod aos {
 
     // The layouts the transposes rely on: every structure a run of f64, fields in declaration
     // order, vectors as three f64 (nalgebra's `Vector3<f64>` is `#[repr(C)]` around
-    // `[[f64; 3]; 1]`; x, y, z order checked by a unit test).
+    // `[[f64; 3]; 1]`; x, y, z order checked by the unit test `vectors_are_x_y_z_in_memory`).
     const _: () = {
         assert!(size_of::<Vec3>() == 3 * F);
         assert!(size_of::<SurfaceJet>() == 18 * F);
@@ -977,6 +977,120 @@ mod tests {
     /// A reproducible value in [−0.5, 0.5) (`crate::math::lcg`).
     fn lcg(state: &mut u64) -> f64 {
         crate::math::lcg(state) - 0.5
+    }
+
+    // Common practice: `FrameKernel::frames` as the batch entry points call it (on AVX2 the
+    // jets transposed straight into registers and the frames straight out; elsewhere, and
+    // forced here, the 16-lane block) gives, for every length 1..=64 (short last groups
+    // included) and flagged lanes at every position, the flags of `darboux_frame`'s success and
+    // for every accepted lane its bits (every f64 of the frame, u, v and the point included).
+    #[test]
+    fn frame_kernel_gives_the_bits_and_verdicts_of_the_one_point_path() {
+        let mut st = 11u64;
+        let scales = ParamScales {
+            u_extent: 1.25,
+            v_extent: 3.0,
+            t_extent: 0.5,
+        };
+        let all_bits = |f: &DarbouxFrame| {
+            let p = &f.principal;
+            let mut v = vec![
+                f.u,
+                f.v,
+                f.normal_curvature,
+                f.geodesic_curvature,
+                f.geodesic_torsion,
+                f.speed,
+                p.k1,
+                p.k2,
+                p.mean,
+                p.gaussian,
+                f.conditioning.surface,
+                f.conditioning.curve,
+            ];
+            for x in [&f.point, &f.t, &f.b, &f.n, &p.d1, &p.d2] {
+                v.extend([x.x, x.y, x.z]);
+            }
+            v.into_iter().map(f64::to_bits).collect::<Vec<_>>()
+        };
+        let mut kernels = vec![FrameKernel::new()];
+        #[cfg(target_arch = "x86_64")]
+        kernels.push(FrameKernel {
+            avx2: false,
+            ..FrameKernel::new()
+        });
+        let mut flagged = 0;
+        for round in 0..3 * MAX_POINTS {
+            let len = 1 + round % MAX_POINTS;
+            let v = |st: &mut u64| Vec3::new(lcg(st), lcg(st), lcg(st));
+            let mut sj: Vec<SurfaceJet> = (0..len)
+                .map(|_| SurfaceJet {
+                    p: v(&mut st),
+                    su: v(&mut st) + Vec3::new(1.0, 0.0, 0.0),
+                    sv: v(&mut st) + Vec3::new(0.0, 1.0, 0.0),
+                    suu: v(&mut st),
+                    suv: v(&mut st),
+                    svv: v(&mut st),
+                })
+                .collect();
+            let mut cj: Vec<CurveJet> = (0..len)
+                .map(|_| CurveJet {
+                    u: lcg(&mut st),
+                    v: lcg(&mut st),
+                    du: lcg(&mut st),
+                    dv: lcg(&mut st),
+                    ddu: lcg(&mut st),
+                    ddv: lcg(&mut st),
+                })
+                .collect();
+            // A refusal of each kind at a position that moves with the round: a stalled
+            // curve, a degenerate surface (Sv parallel to Su), a non-finite entry the kernel
+            // reads, and one it does not read (S, u, v).
+            let at = |k: usize| (round * 7 + k * 13) % len;
+            match round % 5 {
+                0 => {
+                    let i = at(0);
+                    (cj[i].du, cj[i].dv) = (0.0, 0.0);
+                }
+                1 => {
+                    let i = at(1);
+                    sj[i].sv = sj[i].su * 2.0;
+                }
+                2 => sj[at(2)].suv.y = f64::INFINITY,
+                3 => sj[at(3)].p.z = f64::NAN,
+                _ => cj[at(4)].v = f64::NEG_INFINITY,
+            }
+            for orientation in [Orientation::Forward, Orientation::Reversed] {
+                for kernel in kernels.iter_mut() {
+                    let mut out = vec![MaybeUninit::<DarbouxFrame>::uninit(); len];
+                    let bits = kernel.frames(&sj, &cj, orientation, &scales, &mut out);
+                    assert_eq!(bits.checked_shr(len as u32).unwrap_or(0), 0, "len {len}");
+                    for i in 0..len {
+                        let want = darboux_frame(&sj[i], &cj[i], orientation, &scales, 0.0);
+                        let ok = bits & (1 << i) != 0;
+                        assert_eq!(ok, want.is_ok(), "len {len}, lane {i}: {want:?}");
+                        flagged += usize::from(!ok);
+                        if let Ok(w) = want {
+                            // SAFETY: `frames` writes every frame of `out`.
+                            let got = unsafe { out[i].assume_init_ref() };
+                            assert_eq!(all_bits(got), all_bits(&w), "len {len}, lane {i}");
+                        }
+                    }
+                }
+            }
+        }
+        // Every refusal above reached the kernel and was flagged.
+        assert!(flagged >= 3 * MAX_POINTS * 2, "{flagged}");
+    }
+
+    // Common practice: a `Vec3` is three f64 in the order x, y, z (what the transposes of the
+    // AVX2 kernel assume of the jets and frames).
+    #[test]
+    fn vectors_are_x_y_z_in_memory() {
+        let v = Vec3::new(1.0, 2.0, 3.0);
+        // SAFETY: both are 24 bytes (checked at compile time in `aos`), any bits are an f64.
+        let a: [f64; 3] = unsafe { std::mem::transmute(v) };
+        assert_eq!(a, [1.0, 2.0, 3.0]);
     }
 
     // Common practice: the kernel compiled for the baseline instruction set and the one the
