@@ -4,10 +4,12 @@
 //! [`crate::frame::darboux_frame_at`], in the same order of operations, written once over a
 //! lane-wide type ([`Lane`]) with no branches (the choices become selects), so that the square
 //! roots and divisions of several points overlap instead of waiting on each other (one point at
-//! a time, the frame is bound by their latency). On AVX2 processors the block is done as four
-//! groups of four points, each value one AVX register (the whole block as 16-lane arrays kept
-//! about 30 values of four registers each live and spilled them); elsewhere as plain
-//! `[f64; BLOCK]` arrays, whose loops the compiler vectorises. Since every lane performs
+//! a time, the frame is bound by their latency). On AVX2 processors ([`FrameKernel`]) the points
+//! are done four at a time, each value one AVX register, the jets transposed straight into the
+//! registers and the frames straight out of them (pairs of adjacent f64 of four structures;
+//! `#[repr(C)]` layouts checked at compile time), each part of the results stored as soon as
+//! it is final; elsewhere a block of [`BLOCK`] points as plain `[f64; BLOCK]` arrays
+//! ([`BlockInput`], [`BlockOutput`]), whose loops the compiler vectorises. Since every lane performs
 //! exactly the operations of the one-point path, each in IEEE double precision (no fused
 //! multiply-add, no reassociation), the results are the same bits; `tests/block.rs` checks it.
 //!
