@@ -31,7 +31,8 @@ use crate::surface::SurfaceSource;
 use std::mem::MaybeUninit;
 
 /// Samples per call of [`SurfaceSource::jets_in_domain_block`] (so a host's batch callback gets
-/// up to this many points per call): eight blocks of the frame kernel.
+/// up to this many points per call): one call of the frame kernel (sixteen groups of four on
+/// AVX2, four blocks of sixteen elsewhere).
 pub(crate) const CHUNK: usize = crate::frame_block::MAX_POINTS;
 
 /// Where [`frames_blocked_into`] puts the frames.
