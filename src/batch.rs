@@ -23,7 +23,7 @@
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
 use crate::frame::{DarbouxFrame, darboux_frame_at};
-use crate::frame_block::FrameKernel;
+use crate::frame_block::{FrameKernel, FrameSlots};
 use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::principal::SurfacePoint;
@@ -40,7 +40,13 @@ pub(crate) trait FrameSink {
     /// Room for the frames of the samples `base .. base + len`, for the kernel to write them in
     /// place (a sink that keeps the frames as they are, in an array); `None` to receive every
     /// frame through [`Self::put`] instead.
-    fn room(&mut self, base: usize, len: usize) -> Option<&mut [MaybeUninit<DarbouxFrame>]>;
+    fn room(&mut self, base: usize, len: usize) -> Option<FrameSlots<'_>>;
+    /// The kernel wrote the frame of sample `index` (at parameter `t`) into [`Self::room`], and
+    /// it is final.
+    #[inline]
+    fn placed(&mut self, index: usize, t: f64) {
+        let _ = (index, t);
+    }
     /// The frame of sample `index` (at parameter `t`), unless the kernel wrote it into
     /// [`Self::room`].
     fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame);
@@ -51,7 +57,7 @@ struct Emit<F>(F);
 
 impl<F: FnMut(usize, f64, &DarbouxFrame)> FrameSink for Emit<F> {
     #[inline]
-    fn room(&mut self, _: usize, _: usize) -> Option<&mut [MaybeUninit<DarbouxFrame>]> {
+    fn room(&mut self, _: usize, _: usize) -> Option<FrameSlots<'_>> {
         None
     }
     #[inline]
@@ -67,12 +73,14 @@ pub(crate) struct IntoSlice<'a>(pub(crate) &'a mut [DarbouxFrame]);
 
 impl FrameSink for IntoSlice<'_> {
     #[inline]
-    fn room(&mut self, base: usize, len: usize) -> Option<&mut [MaybeUninit<DarbouxFrame>]> {
+    fn room(&mut self, base: usize, len: usize) -> Option<FrameSlots<'_>> {
         let room = &mut self.0[base..base + len];
         // SAFETY: the same memory seen as possibly uninitialised frames; only whole frames are
         // written through it (`FrameKernel::frames` writes every f64 of each), so the array
         // stays initialised.
-        Some(unsafe { &mut *(room as *mut [DarbouxFrame] as *mut [MaybeUninit<DarbouxFrame>]) })
+        let room =
+            unsafe { &mut *(room as *mut [DarbouxFrame] as *mut [MaybeUninit<DarbouxFrame>]) };
+        Some(FrameSlots::of(room))
     }
     #[inline]
     fn put(&mut self, index: usize, _: f64, frame: &DarbouxFrame) {
@@ -186,7 +194,13 @@ where
             let (bits, direct) = match sink.room(base, good) {
                 Some(room) => (kernel.frames(sg, cg, orientation, &scales, room), true),
                 None => (
-                    kernel.frames(sg, cg, orientation, &scales, &mut frames[..good]),
+                    kernel.frames(
+                        sg,
+                        cg,
+                        orientation,
+                        &scales,
+                        FrameSlots::of(&mut frames[..good]),
+                    ),
                     false,
                 ),
             };
@@ -194,7 +208,9 @@ where
                 // A lane with a non-finite jet is flagged by the kernel; the one-point path
                 // then reports the jet's `NonFinite` error.
                 if bits & (1 << i) != 0 {
-                    if !direct {
+                    if direct {
+                        sink.placed(base + i, ts[i]);
+                    } else {
                         // SAFETY: `FrameKernel::frames` wrote every frame of `..good`.
                         sink.put(base + i, ts[i], unsafe { frames[i].assume_init_ref() });
                     }

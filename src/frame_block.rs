@@ -32,7 +32,8 @@ use crate::lanes::{LANES, Lane, Mask, W, W3};
 use crate::math::Vec3;
 use crate::path::SampleError;
 use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
-use std::mem::MaybeUninit;
+use std::marker::PhantomData;
+use std::mem::{MaybeUninit, size_of};
 use std::ops::{Div, Mul};
 
 /// Number of points the block kernel processes together (16): a multiple of the vector widths
@@ -601,6 +602,66 @@ unsafe fn frame_math<T: Lane>(
     });
 }
 
+/// Room for frames that [`FrameKernel::frames`] writes whole: frame i at byte `i · stride`
+/// from the start, so that the frames may sit inside larger records (the C ABI's frame is the
+/// curve parameter followed by a [`DarbouxFrame`]'s fields in the same layout).
+pub(crate) struct FrameSlots<'a> {
+    base: *mut u8,
+    stride: usize,
+    len: usize,
+    _room: PhantomData<&'a mut [u8]>,
+}
+
+impl<'a> FrameSlots<'a> {
+    /// An array of frames.
+    #[inline]
+    pub(crate) fn of(frames: &'a mut [MaybeUninit<DarbouxFrame>]) -> Self {
+        FrameSlots {
+            base: frames.as_mut_ptr() as *mut u8,
+            stride: size_of::<DarbouxFrame>(),
+            len: frames.len(),
+            _room: PhantomData,
+        }
+    }
+
+    /// `len` frames at byte `i · stride` from `base`.
+    ///
+    /// # Safety
+    /// For every i < `len`, `base + i · stride` must point to room for one [`DarbouxFrame`],
+    /// aligned for it, writable for `'a`, overlapping no other of these frames, and used by
+    /// nothing else during `'a`.
+    #[inline]
+    pub(crate) unsafe fn from_raw(base: *mut u8, stride: usize, len: usize) -> Self {
+        FrameSlots {
+            base,
+            stride,
+            len,
+            _room: PhantomData,
+        }
+    }
+
+    /// Number of frames.
+    #[inline]
+    pub(crate) fn len(&self) -> usize {
+        self.len
+    }
+
+    /// Where frame `i` < `len` goes.
+    #[inline(always)]
+    fn at(&self, i: usize) -> *mut DarbouxFrame {
+        debug_assert!(i < self.len);
+        self.base.wrapping_add(i * self.stride) as *mut DarbouxFrame
+    }
+
+    /// Writes frame `i` (panics unless `i` < `len`).
+    #[inline]
+    fn write(&mut self, i: usize, frame: DarbouxFrame) {
+        assert!(i < self.len);
+        // SAFETY: room for frame i (the contract of the constructors).
+        unsafe { self.at(i).write(frame) }
+    }
+}
+
 /// Most points per call of [`FrameKernel::frames`] (one flag bit each in its result).
 pub(crate) const MAX_POINTS: usize = 64;
 
@@ -628,10 +689,10 @@ impl FrameKernel {
     }
 
     /// Frames of the points `(surface[i], curve[i])`, i < len = `out.len()` ≤ [`MAX_POINTS`]
-    /// (the three slices of equal length), into `out[i]`, every one written. Bit i of the
-    /// result is set where point i passed every check of the one-point path: the kernel's and
-    /// [`finite_rest`]; `out[i]` is then the bits of [`darboux_frame`] (with valid scales).
-    /// Other points must be evaluated again by the one-point path; their `out[i]` hold
+    /// (the three slices of equal length), into frame i of `out`, every one written. Bit i of
+    /// the result is set where point i passed every check of the one-point path: the kernel's
+    /// and [`finite_rest`]; frame i is then the bits of [`darboux_frame`] (with valid scales).
+    /// Other points must be evaluated again by the one-point path; their frames hold
     /// meaningless numbers.
     #[inline]
     pub(crate) fn frames(
@@ -640,14 +701,14 @@ impl FrameKernel {
         curve: &[CurveJet],
         orientation: Orientation,
         s: &ParamScales,
-        out: &mut [MaybeUninit<DarbouxFrame>],
+        mut out: FrameSlots<'_>,
     ) -> u64 {
         let len = out.len();
         assert!(surface.len() == len && curve.len() == len && len <= MAX_POINTS);
         #[cfg(target_arch = "x86_64")]
         if self.avx2 {
             // SAFETY: the processor supports AVX2 (detected in `new`); lengths checked above.
-            return unsafe { aos::frames_avx2(surface, curve, orientation, s, out) };
+            return unsafe { aos::frames_avx2(surface, curve, orientation, s, &mut out) };
         }
         let mut bits = 0u64;
         for start in (0..len).step_by(BLOCK) {
@@ -656,7 +717,7 @@ impl FrameKernel {
             self.x.fill(sb, cb);
             frames_of_block_portable(&self.x, orientation, s, &mut self.y);
             for i in 0..end - start {
-                out[start + i].write(self.y.frame(i, &sb[i], &cb[i]));
+                out.write(start + i, self.y.frame(i, &sb[i], &cb[i]));
                 if self.y.ok(i) && finite_rest(&sb[i], &cb[i]) {
                     bits |= 1 << (start + i);
                 }
@@ -729,10 +790,10 @@ mod aos {
     /// Where the principal curvatures start in a frame, in f64.
     const PRINCIPAL: usize = 18;
 
-    /// Stores the results of four points into four consecutive frames.
+    /// Stores the results of four points into four frames.
     struct AosOut {
-        /// The first of the four frames.
-        out: *mut DarbouxFrame,
+        /// The four frames.
+        out: [*mut DarbouxFrame; 4],
         /// z of the points (stored with T.x, its neighbour in the frame).
         pz: Avx4,
         /// The points' S, u, v are finite ([`finite_rest`]).
@@ -748,7 +809,7 @@ mod aos {
             let f = |l: usize| {
                 // SAFETY: `out` points to four frames of FRAME_LEN f64 (the contract of
                 // `four`); k + 1 < FRAME_LEN at every call.
-                unsafe { (self.out.add(l) as *mut f64).add(k) }
+                unsafe { (self.out[l] as *mut f64).add(k) }
             };
             debug_assert!(k + 1 < FRAME_LEN);
             // SAFETY: as just above.
@@ -785,14 +846,14 @@ mod aos {
     /// the result set where lane l passed every check.
     ///
     /// # Safety
-    /// AVX2; `sj`, `cj` point to four readable jets each, `out` to four writable frames.
+    /// AVX2; `sj`, `cj` point to four readable jets each, each of `out` to a writable frame.
     #[inline(always)]
     unsafe fn four(
         sj: *const SurfaceJet,
         cj: *const CurveJet,
         orientation: Orientation,
         s: &ParamScales,
-        out: *mut DarbouxFrame,
+        out: [*mut DarbouxFrame; 4],
     ) -> u32 {
         // SAFETY (all pointer arithmetic and loads): as the caller promises.
         let sp = |k: usize| unsafe {
@@ -852,7 +913,7 @@ mod aos {
         curve: &[CurveJet],
         orientation: Orientation,
         s: &ParamScales,
-        out: &mut [MaybeUninit<DarbouxFrame>],
+        out: &mut FrameSlots<'_>,
     ) -> u64 {
         let len = out.len();
         let mut bits = 0u64;
@@ -865,7 +926,7 @@ mod aos {
                 (
                     surface[at..].as_ptr(),
                     curve[at..].as_ptr(),
-                    out[at..].as_mut_ptr() as *mut DarbouxFrame,
+                    [out.at(at), out.at(at + 1), out.at(at + 2), out.at(at + 3)],
                 )
             } else {
                 let n = len - at;
@@ -873,10 +934,12 @@ mod aos {
                 pad_c = [curve[at]; 4];
                 pad_s[..n].copy_from_slice(&surface[at..]);
                 pad_c[..n].copy_from_slice(&curve[at..]);
+                let o = pad_o.as_mut_ptr() as *mut DarbouxFrame;
                 (
                     pad_s.as_ptr(),
                     pad_c.as_ptr(),
-                    pad_o.as_mut_ptr() as *mut DarbouxFrame,
+                    // SAFETY: within `pad_o`.
+                    unsafe { [o, o.add(1), o.add(2), o.add(3)] },
                 )
             };
             // SAFETY: AVX2 (the caller); four jets of each kind readable and four frames
@@ -886,7 +949,10 @@ mod aos {
                 bits |= (b as u64) << at;
             } else {
                 let n = len - at;
-                out[at..].copy_from_slice(&pad_o[..n]);
+                for (l, f) in pad_o[..n].iter().enumerate() {
+                    // SAFETY: `four` wrote every frame of `pad_o`.
+                    out.write(at + l, unsafe { f.assume_init() });
+                }
                 bits |= ((b & ((1 << n) - 1)) as u64) << at;
             }
         }
@@ -939,7 +1005,7 @@ pub fn darboux_frames(
         .zip(ts.chunks(MAX_POINTS).zip(out.chunks_mut(MAX_POINTS)))
         .enumerate()
     {
-        let bits = kernel.frames(sb, cb, orientation, scales, ob);
+        let bits = kernel.frames(sb, cb, orientation, scales, FrameSlots::of(ob));
         let all = u64::MAX >> (MAX_POINTS - ob.len());
         if bits == all && scales_ok {
             continue;
@@ -1065,7 +1131,8 @@ mod tests {
             for orientation in [Orientation::Forward, Orientation::Reversed] {
                 for kernel in kernels.iter_mut() {
                     let mut out = vec![MaybeUninit::<DarbouxFrame>::uninit(); len];
-                    let bits = kernel.frames(&sj, &cj, orientation, &scales, &mut out);
+                    let slots = FrameSlots::of(&mut out);
+                    let bits = kernel.frames(&sj, &cj, orientation, &scales, slots);
                     assert_eq!(bits.checked_shr(len as u32).unwrap_or(0), 0, "len {len}");
                     for i in 0..len {
                         let want = darboux_frame(&sj[i], &cj[i], orientation, &scales, 0.0);
