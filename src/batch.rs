@@ -8,8 +8,8 @@
 //! which a host's batch callback answers in one call too), then the frame math of the chunk
 //! ([`crate::frame_block::FrameKernel`]: on AVX2 four points at a time, the jets transposed
 //! straight into AVX registers and the frames straight out of them; elsewhere a block of
-//! [`crate::frame_block::BLOCK`] points in structure-of-arrays form). The results are the bits of the
-//! one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the block kernel
+//! [`crate::frame_block::BLOCK`] points in structure-of-arrays form). The results are the bits
+//! of the one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the kernel
 //! flags is evaluated again by the one-point path from the same jets, and samples are reported
 //! in order, so the first failing sample and its error are those of a point-by-point loop.
 //! Only a failure of a block evaluation as a whole (a host's batch callback) has no

@@ -9,9 +9,10 @@
 //! registers and the frames straight out of them (pairs of adjacent f64 of four structures;
 //! `#[repr(C)]` layouts checked at compile time), each part of the results stored as soon as
 //! it is final; elsewhere a block of [`BLOCK`] points as plain `[f64; BLOCK]` arrays
-//! ([`BlockInput`], [`BlockOutput`]), whose loops the compiler vectorises. Since every lane performs
-//! exactly the operations of the one-point path, each in IEEE double precision (no fused
-//! multiply-add, no reassociation), the results are the same bits; `tests/block.rs` checks it.
+//! ([`BlockInput`], [`BlockOutput`]), whose loops the compiler vectorises. Since every lane
+//! performs exactly the operations of the one-point path, each in IEEE double precision (no
+//! fused multiply-add, no reassociation), the results are the same bits; `tests/block.rs` and
+//! the unit tests below check it.
 //!
 //! The kernel does not report errors: it computes every lane and flags the lanes whose checks
 //! fail (the checks of the one-point path, the same comparisons). The caller evaluates flagged
