@@ -5,9 +5,11 @@
 //! For each chunk of up to [`CHUNK`] samples: the curve jets of the chunk in one call
 //! ([`UvCurve::jets_in_domain_block`], span hint carried; NURBS curves evaluate several points
 //! at once), the surface jets of the chunk in one call ([`SurfaceSource::jets_in_domain_block`],
-//! which a host's batch callback answers in one call too), then the frame math a block of
-//! [`BLOCK`] points at a time in structure-of-arrays form ([`crate::frame_block`]). The results are the bits of the
-//! one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the block kernel
+//! which a host's batch callback answers in one call too), then the frame math of the chunk
+//! ([`crate::frame_block::FrameKernel`]: on AVX2 four points at a time, the jets transposed
+//! straight into AVX registers and the frames straight out of them; elsewhere a block of
+//! [`crate::frame_block::BLOCK`] points in structure-of-arrays form). The results are the bits
+//! of the one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the kernel
 //! flags is evaluated again by the one-point path from the same jets, and samples are reported
 //! in order, so the first failing sample and its error are those of a point-by-point loop.
 //! Only a failure of a block evaluation as a whole (a host's batch callback) has no
@@ -16,20 +18,75 @@
 //! callback may be called at samples after the first failing one (never with such a t), and
 //! the hints may have moved past the failing sample (they only ever affect speed).
 //!
-//! Nothing is allocated: the chunk's jets live on the stack (about 13 KiB).
+//! Nothing is allocated: the chunk's jets and frames live on the stack (about 28 KiB).
 
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
 use crate::frame::{DarbouxFrame, darboux_frame_at};
-use crate::frame_block::{BLOCK, BlockInput, BlockOutput, finite_rest, frames_of_block};
+use crate::frame_block::{FrameKernel, FrameSlots};
 use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::path::{CurveOnSurface, Hints, SampleError};
 use crate::principal::SurfacePoint;
 use crate::surface::SurfaceSource;
+use std::mem::MaybeUninit;
 
 /// Samples per call of [`SurfaceSource::jets_in_domain_block`] (so a host's batch callback gets
-/// up to this many points per call): eight blocks of the frame kernel.
-pub(crate) const CHUNK: usize = 64;
+/// up to this many points per call): one call of the frame kernel (sixteen groups of four on
+/// AVX2, four blocks of sixteen elsewhere).
+pub(crate) const CHUNK: usize = crate::frame_block::MAX_POINTS;
+
+/// Where [`frames_blocked_into`] puts the frames.
+pub(crate) trait FrameSink {
+    /// Room for the frames of the samples `base .. base + len`, for the kernel to write them in
+    /// place (a sink that keeps the frames as they are, in an array); `None` to receive every
+    /// frame through [`Self::put`] instead.
+    fn room(&mut self, base: usize, len: usize) -> Option<FrameSlots<'_>>;
+    /// The kernel wrote the frame of sample `index` (at parameter `t`) into [`Self::room`], and
+    /// it is final.
+    #[inline]
+    fn placed(&mut self, index: usize, t: f64) {
+        let _ = (index, t);
+    }
+    /// The frame of sample `index` (at parameter `t`), unless the kernel wrote it into
+    /// [`Self::room`].
+    fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame);
+}
+
+/// A sink that hands each frame to a closure `(index, t, frame)`.
+struct Emit<F>(F);
+
+impl<F: FnMut(usize, f64, &DarbouxFrame)> FrameSink for Emit<F> {
+    #[inline]
+    fn room(&mut self, _: usize, _: usize) -> Option<FrameSlots<'_>> {
+        None
+    }
+    #[inline]
+    fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame) {
+        (self.0)(index, t, frame)
+    }
+}
+
+/// A sink that is the caller's array of frames (`count` long): the kernel writes into it
+/// directly, with no copy. On a failure, entries from the failing sample to the end of its
+/// chunk of [`CHUNK`] samples may hold meaningless numbers.
+pub(crate) struct IntoSlice<'a>(pub(crate) &'a mut [DarbouxFrame]);
+
+impl FrameSink for IntoSlice<'_> {
+    #[inline]
+    fn room(&mut self, base: usize, len: usize) -> Option<FrameSlots<'_>> {
+        let room = &mut self.0[base..base + len];
+        // SAFETY: the same memory seen as possibly uninitialised frames; only whole frames are
+        // written through it (`FrameKernel::frames` writes every f64 of each), so the array
+        // stays initialised.
+        let room =
+            unsafe { &mut *(room as *mut [DarbouxFrame] as *mut [MaybeUninit<DarbouxFrame>]) };
+        Some(FrameSlots::of(room))
+    }
+    #[inline]
+    fn put(&mut self, index: usize, _: f64, frame: &DarbouxFrame) {
+        self.0[index] = *frame;
+    }
+}
 
 /// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
 /// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been
@@ -40,7 +97,23 @@ pub(crate) fn frames_blocked<S, C>(
     count: usize,
     hints: &mut Hints,
     t_of: impl Fn(usize) -> f64,
-    mut emit: impl FnMut(usize, f64, &DarbouxFrame),
+    emit: impl FnMut(usize, f64, &DarbouxFrame),
+) -> Result<(), SampleError>
+where
+    S: SurfaceSource + ?Sized,
+    C: UvCurve + ?Sized,
+{
+    frames_blocked_into(cs, count, hints, t_of, &mut Emit(emit))
+}
+
+/// [`frames_blocked`] into any [`FrameSink`]: every sample before the failing one has been
+/// put into the sink (or written into its room).
+pub(crate) fn frames_blocked_into<S, C>(
+    cs: &CurveOnSurface<'_, S, C>,
+    count: usize,
+    hints: &mut Hints,
+    t_of: impl Fn(usize) -> f64,
+    sink: &mut impl FrameSink,
 ) -> Result<(), SampleError>
 where
     S: SurfaceSource + ?Sized,
@@ -57,8 +130,8 @@ where
     let mut vs = [0.0; CHUNK];
     let mut cj = [CurveJet::default(); CHUNK];
     let mut sj = [SurfaceJet::default(); CHUNK];
-    let mut block_in = BlockInput::zeroed();
-    let mut out = BlockOutput::zeroed();
+    let mut kernel = FrameKernel::new();
+    let mut frames = [MaybeUninit::<DarbouxFrame>::uninit(); CHUNK];
     let mut base = 0;
     while base < count {
         let len = CHUNK.min(count - base);
@@ -116,23 +189,40 @@ where
                 error,
             })?;
         }
-        for start in (0..good).step_by(BLOCK) {
-            let end = good.min(start + BLOCK);
-            block_in.fill(&sj[start..end], &cj[start..end]);
-            frames_of_block(&block_in, orientation, &scales, &mut out);
-            for i in start..end {
-                // A lane with a non-finite jet is flagged by the kernel or by `finite_rest`;
-                // the one-point path then reports the jet's `NonFinite` error.
-                let frame = if out.ok(i - start) && finite_rest(&sj[i], &cj[i]) {
-                    out.frame(i - start, &sj[i], &cj[i])
+        if good > 0 {
+            let (sg, cg) = (&sj[..good], &cj[..good]);
+            let (bits, direct) = match sink.room(base, good) {
+                Some(room) => (kernel.frames(sg, cg, orientation, &scales, room), true),
+                None => (
+                    kernel.frames(
+                        sg,
+                        cg,
+                        orientation,
+                        &scales,
+                        FrameSlots::of(&mut frames[..good]),
+                    ),
+                    false,
+                ),
+            };
+            for i in 0..good {
+                // A lane with a non-finite jet is flagged by the kernel; the one-point path
+                // then reports the jet's `NonFinite` error.
+                if bits & (1 << i) != 0 {
+                    if direct {
+                        sink.placed(base + i, ts[i]);
+                    } else {
+                        // SAFETY: `FrameKernel::frames` wrote every frame of `..good`.
+                        sink.put(base + i, ts[i], unsafe { frames[i].assume_init_ref() });
+                    }
                 } else {
-                    one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
-                        index: base + i,
-                        t: ts[i],
-                        error,
-                    })?
-                };
-                emit(base + i, ts[i], &frame);
+                    let frame =
+                        one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
+                            index: base + i,
+                            t: ts[i],
+                            error,
+                        })?;
+                    sink.put(base + i, ts[i], &frame);
+                }
             }
         }
         if let Some(error) = pending {

@@ -80,7 +80,10 @@ pub fn curve_speed_figure(jet: &CurveJet, s: &ParamScales) -> f64 {
 ///
 /// The relative error of κn, τg, k1 and k2 grows like 7 ε / surface², that of κg also by about
 /// ε |c''| / |c'|² as the curve stalls (measured; `docs/accuracy.md` has the tables).
+///
+/// Laid out as C lays out the same fields (`#[repr(C)]`): surface, curve.
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[repr(C)]
 pub struct Conditioning {
     /// The surface conditioning figure (see [`crate::principal::surface_conditioning`]); 1 is
     /// ideal, refusal below [`crate::principal::DEGENERATE_SURFACE_LIMIT`].
@@ -92,7 +95,12 @@ pub struct Conditioning {
 
 /// The Darboux frame and invariants of a curve on a surface at one point, with the surface's
 /// principal curvatures there.
+///
+/// Laid out as C lays out the same fields (`#[repr(C)]`): 30 f64 in the order of the fields
+/// below, vectors as x, y, z. The batch frame kernel writes frames in that order (checked at
+/// compile time in `frame_block.rs`).
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[repr(C)]
 pub struct DarbouxFrame {
     /// Surface parameter u of the point.
     pub u: f64,

@@ -4,12 +4,15 @@
 //! [`crate::frame::darboux_frame_at`], in the same order of operations, written once over a
 //! lane-wide type ([`Lane`]) with no branches (the choices become selects), so that the square
 //! roots and divisions of several points overlap instead of waiting on each other (one point at
-//! a time, the frame is bound by their latency). On AVX2 processors the block is done as four
-//! groups of four points, each value one AVX register (the whole block as 16-lane arrays kept
-//! about 30 values of four registers each live and spilled them); elsewhere as plain
-//! `[f64; BLOCK]` arrays, whose loops the compiler vectorises. Since every lane performs
-//! exactly the operations of the one-point path, each in IEEE double precision (no fused
-//! multiply-add, no reassociation), the results are the same bits; `tests/block.rs` checks it.
+//! a time, the frame is bound by their latency). On AVX2 processors ([`FrameKernel`]) the points
+//! are done four at a time, each value one AVX register, the jets transposed straight into the
+//! registers and the frames straight out of them (pairs of adjacent f64 of four structures;
+//! `#[repr(C)]` layouts checked at compile time), each part of the results stored as soon as
+//! it is final; elsewhere a block of [`BLOCK`] points as plain `[f64; BLOCK]` arrays
+//! ([`BlockInput`], [`BlockOutput`]), whose loops the compiler vectorises. Since every lane
+//! performs exactly the operations of the one-point path, each in IEEE double precision (no
+//! fused multiply-add, no reassociation), the results are the same bits; `tests/block.rs` and
+//! the unit tests below check it.
 //!
 //! The kernel does not report errors: it computes every lane and flags the lanes whose checks
 //! fail (the checks of the one-point path, the same comparisons). The caller evaluates flagged
@@ -30,6 +33,8 @@ use crate::lanes::{LANES, Lane, Mask, W, W3};
 use crate::math::Vec3;
 use crate::path::SampleError;
 use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
+use std::marker::PhantomData;
+use std::mem::{MaybeUninit, size_of};
 use std::ops::{Div, Mul};
 
 /// Number of points the block kernel processes together (16): a multiple of the vector widths
@@ -238,6 +243,11 @@ impl BlockOutput {
 /// bits.
 /// The results go to `y` (written in place: a block's output is about 2 KiB, not worth
 /// returning by value).
+///
+/// The batch entry points use [`FrameKernel`], which on AVX2 reads the jets and writes the
+/// frames directly; this structure-of-arrays dispatch remains for the unit test that holds the
+/// AVX variant of the frame math to the baseline one on the same block.
+#[cfg(test)]
 #[inline(never)]
 pub(crate) fn frames_of_block(
     x: &BlockInput,
@@ -258,7 +268,7 @@ pub(crate) fn frames_of_block(
 ///
 /// # Safety
 /// The processor must support AVX2.
-#[cfg(target_arch = "x86_64")]
+#[cfg(all(test, target_arch = "x86_64"))]
 #[target_feature(enable = "avx2")]
 unsafe fn frames_of_block_avx2(
     x: &BlockInput,
@@ -285,7 +295,7 @@ pub(crate) fn frames_of_block_portable(
     unsafe { frames_of_group::<W>(x, orientation, s, y, 0) }
 }
 
-/// `a * b` in f64, outside [`frames_of_group`], whose bound `f64: Mul<T>` hides the scalar
+/// `a * b` in f64, outside [`frame_math`], whose bound `f64: Mul<T>` hides the scalar
 /// product from type inference.
 #[inline(always)]
 fn scalar_mul(a: f64, b: f64) -> f64 {
@@ -301,7 +311,57 @@ fn scalar_div(a: f64, b: f64) -> f64 {
 /// 4 ε, the umbilic test's relative bound of `SurfacePoint::new_with_limit`.
 const UMBILIC_FACTOR: f64 = 4.0 * f64::EPSILON;
 
-/// The frame math for the lanes `at .. at + T::N` of a block.
+/// The inputs of the frame math for [`Lane::N`] points, one lane each.
+#[derive(Clone, Copy)]
+pub(crate) struct LanesIn<T> {
+    su: [T; 3],
+    sv: [T; 3],
+    suu: [T; 3],
+    suv: [T; 3],
+    svv: [T; 3],
+    du: T,
+    dv: T,
+    ddu: T,
+    ddv: T,
+}
+
+/// The results that depend on the surface only, final before the curve's part starts.
+pub(crate) struct SurfaceLanes<T> {
+    n: [T; 3],
+    d1: [T; 3],
+    d2: [T; 3],
+    k1: T,
+    k2: T,
+    mean: T,
+    gaussian: T,
+    conditioning: T,
+    /// The curve's speed figure (it needs only u', v' and the extents; computed early so that
+    /// it leaves with the conditioning figure).
+    speed_figure: T,
+}
+
+/// The results of the curve's part, and the flags of every check.
+pub(crate) struct CurveLanes<T: Lane> {
+    n: [T; 3],
+    tan: [T; 3],
+    b: [T; 3],
+    kn: T,
+    kg: T,
+    tg: T,
+    speed: T,
+    ok: T::Mask,
+}
+
+/// Where the frame math puts its results, each part as soon as it is final (so that fewer
+/// values stay live across the rest of the kernel).
+pub(crate) trait LanesOut<T: Lane> {
+    /// The surface's part.
+    fn surface(&mut self, r: SurfaceLanes<T>);
+    /// The curve's part and the flags.
+    fn curve(&mut self, r: CurveLanes<T>);
+}
+
+/// The frame math for the lanes `at .. at + T::N` of a block in structure-of-arrays form.
 ///
 /// # Safety
 /// `T`'s instructions must be available (see [`Lane`]).
@@ -315,18 +375,104 @@ unsafe fn frames_of_group<T: Lane>(
 ) where
     f64: Mul<T, Output = T> + Div<T, Output = T>,
 {
-    let sigma = orientation.sign();
-    // SAFETY (loads and splats): passed on from the caller.
+    // SAFETY (loads): passed on from the caller.
     let ld = |w: &W| unsafe { T::load(w, at) };
     let ld3 = |w: &W3| [ld(&w[0]), ld(&w[1]), ld(&w[2])];
-    let (su, sv, suu, suv, svv) = (
-        ld3(&x.su),
-        ld3(&x.sv),
-        ld3(&x.suu),
-        ld3(&x.suv),
-        ld3(&x.svv),
-    );
-    let (du, dv, ddu, ddv) = (ld(&x.du), ld(&x.dv), ld(&x.ddu), ld(&x.ddv));
+    let input = LanesIn {
+        su: ld3(&x.su),
+        sv: ld3(&x.sv),
+        suu: ld3(&x.suu),
+        suv: ld3(&x.suv),
+        svv: ld3(&x.svv),
+        du: ld(&x.du),
+        dv: ld(&x.dv),
+        ddu: ld(&x.ddu),
+        ddv: ld(&x.ddv),
+    };
+    let mut out = SoaOut { y, at };
+    // SAFETY: passed on from the caller.
+    unsafe { frame_math(&input, orientation, s, &mut out) }
+}
+
+/// Stores results into a [`BlockOutput`] at lanes `at ..`.
+struct SoaOut<'a> {
+    y: &'a mut BlockOutput,
+    at: usize,
+}
+
+impl<T: Lane> LanesOut<T> for SoaOut<'_> {
+    #[inline(always)]
+    fn surface(&mut self, r: SurfaceLanes<T>) {
+        let (y, at) = (&mut *self.y, self.at);
+        let put3 = |v: [T; 3], w: &mut W3| {
+            for (v, w) in v.into_iter().zip(w.iter_mut()) {
+                v.store(w, at);
+            }
+        };
+        put3(r.d1, &mut y.d1);
+        put3(r.d2, &mut y.d2);
+        put3(r.n, &mut y.n);
+        for (v, w) in [
+            (r.k1, &mut y.k1),
+            (r.k2, &mut y.k2),
+            (r.mean, &mut y.mean),
+            (r.gaussian, &mut y.gaussian),
+            (r.conditioning, &mut y.conditioning),
+            (r.speed_figure, &mut y.speed_figure),
+        ] {
+            v.store(w, at);
+        }
+    }
+
+    #[inline(always)]
+    fn curve(&mut self, r: CurveLanes<T>) {
+        let (y, at) = (&mut *self.y, self.at);
+        let put3 = |v: [T; 3], w: &mut W3| {
+            for (v, w) in v.into_iter().zip(w.iter_mut()) {
+                v.store(w, at);
+            }
+        };
+        put3(r.tan, &mut y.t);
+        put3(r.b, &mut y.b);
+        for (v, w) in [
+            (r.kn, &mut y.kn),
+            (r.kg, &mut y.kg),
+            (r.tg, &mut y.tg),
+            (r.speed, &mut y.speed),
+        ] {
+            v.store(w, at);
+        }
+        T::store_mask(r.ok, &mut y.ok, at);
+    }
+}
+
+/// The frame math of `T::N` points: the formulas of `SurfacePoint::new_with_limit` and
+/// `darboux_frame_at`, operation for operation, results handed to `out` part by part.
+///
+/// # Safety
+/// `T`'s instructions must be available (see [`Lane`]).
+#[inline(always)]
+unsafe fn frame_math<T: Lane>(
+    x: &LanesIn<T>,
+    orientation: Orientation,
+    s: &ParamScales,
+    out: &mut impl LanesOut<T>,
+) where
+    f64: Mul<T, Output = T> + Div<T, Output = T>,
+{
+    let sigma = orientation.sign();
+    let LanesIn {
+        su,
+        sv,
+        suu,
+        suv,
+        svv,
+        du,
+        dv,
+        ddu,
+        ddv,
+    } = *x;
+    // SAFETY (splats): passed on from the caller.
     let zero = unsafe { T::splat(0.0) };
 
     // The one-point path refuses non-finite jets first. A sum of the inputs is finite when
@@ -336,6 +482,23 @@ unsafe fn frames_of_group<T: Lane>(
     let inputs =
         ((sum3(su) + sum3(sv)) + (sum3(suu) + sum3(suv))) + ((sum3(svv) + (du + dv)) + (ddu + ddv));
     let inputs_finite = inputs.finite();
+
+    // c'' of darboux_frame_at, first: three values in place of the eleven inputs it needs (the
+    // second derivatives are used again only for L, M, Nn), fewer values live to the end.
+    let (duu, duv, dvv) = (du * du, 2.0 * du * dv, dv * dv);
+    let c2 = [
+        suu[0] * duu + suv[0] * duv + svv[0] * dvv + su[0] * ddu + sv[0] * ddv,
+        suu[1] * duu + suv[1] * duv + svv[1] * dvv + su[1] * ddu + sv[1] * ddv,
+        suu[2] * duu + suv[2] * duv + svv[2] * dvv + su[2] * ddu + sv[2] * ddv,
+    ];
+
+    // --- darboux_frame_at: the speed figure (u', v' and the extents only) ---
+    let (a, b_) = (
+        du * scalar_div(1.0, s.u_extent),
+        dv * scalar_div(1.0, s.v_extent),
+    );
+    let speed_figure = (a * a + b_ * b_).sqrt() * s.t_extent;
+    let stalled = unsafe { T::splat(STALLED_CURVE_LIMIT) };
 
     // --- SurfacePoint::new_with_limit ---
     let cr = cross(su, sv);
@@ -349,7 +512,7 @@ unsafe fn frames_of_group<T: Lane>(
     let regular = mx.ne(zero) & mx.finite();
     let conditioning = T::select(regular, cond_raw, zero);
     let limit = unsafe { T::splat(DEGENERATE_SURFACE_LIMIT) };
-    let mut ok = inputs_finite & conditioning.ge(limit);
+    let mut ok = inputs_finite & conditioning.ge(limit) & speed_figure.ge(stalled);
     let inv_area = 1.0 / area;
     let n = scale(cr, sigma * inv_area);
     let e = dot(su, su);
@@ -387,27 +550,26 @@ unsafe fn frames_of_group<T: Lane>(
     ];
     let d2 = cross(n, d1);
     let gaussian = k1 * k2;
-    ok = ok & k1.finite() & k2.finite() & n[0].finite() & n[1].finite() & n[2].finite();
-    ok = ok & gaussian.finite();
+    // k1, k2, K and N finite: a sum of them is finite only then (as for the inputs, an
+    // overflow of finite values merely sends the lane through the one-point path).
+    ok = ok & (((k1 + k2) + gaussian) + ((n[0] + n[1]) + n[2])).finite();
+    out.surface(SurfaceLanes {
+        n,
+        d1,
+        d2,
+        k1,
+        k2,
+        mean,
+        gaussian,
+        conditioning,
+        speed_figure,
+    });
 
     // --- darboux_frame_at ---
-    let (a, b_) = (
-        du * scalar_div(1.0, s.u_extent),
-        dv * scalar_div(1.0, s.v_extent),
-    );
-    let speed_figure = (a * a + b_ * b_).sqrt() * s.t_extent;
-    let stalled = unsafe { T::splat(STALLED_CURVE_LIMIT) };
-    ok = ok & speed_figure.ge(stalled);
     let c1 = [
         su[0] * du + sv[0] * dv,
         su[1] * du + sv[1] * dv,
         su[2] * du + sv[2] * dv,
-    ];
-    let (duu, duv, dvv) = (du * du, 2.0 * du * dv, dv * dv);
-    let c2 = [
-        suu[0] * duu + suv[0] * duv + svv[0] * dvv + su[0] * ddu + sv[0] * ddv,
-        suu[1] * duu + suv[1] * duv + svv[1] * dvv + su[1] * ddu + sv[1] * ddv,
-        suu[2] * duu + suv[2] * duv + svv[2] * dvv + su[2] * ddu + sv[2] * ddv,
     ];
     let speed2 = dot(c1, c1);
     let speed = speed2.sqrt();
@@ -417,7 +579,6 @@ unsafe fn frames_of_group<T: Lane>(
     let inv_speed2 = inv_speed * inv_speed;
     let form = |x0, x1, y0, y1| second_form(l, m, nn, x0, x1, y0, y1);
     let kn = form(du, dv, du, dv) * inv_speed2;
-    let kg = dot(c2, b) * inv_speed2;
     let (tc0, tc1) = (du * inv_speed, dv * inv_speed);
     // SurfacePoint::components(B·Su, B·Sv).
     let (xs, xv) = (dot(b, su), dot(b, sv));
@@ -425,36 +586,379 @@ unsafe fn frames_of_group<T: Lane>(
     let inv_det = inv_area * inv_area;
     let (bc0, bc1) = ((g * xs - f * xv) * inv_det, (e * xv - f * xs) * inv_det);
     let tg = form(tc0, tc1, bc0, bc1);
-    ok = ok & kn.finite() & kg.finite() & tg.finite() & speed.finite();
-    ok = ok & tan[0].finite() & tan[1].finite() & tan[2].finite();
-    ok = ok & b[0].finite() & b[1].finite() & b[2].finite();
-    ok = ok & speed.ne(zero);
+    let kg = dot(c2, b) * inv_speed2;
+    // κn, κg, τg, |c'|, T and B finite (a sum, as above), and |c'| ≠ 0.
+    let results =
+        ((kn + kg) + (tg + speed)) + (((tan[0] + tan[1]) + (tan[2] + b[0])) + (b[1] + b[2]));
+    ok = ok & results.finite() & speed.ne(zero);
+    out.curve(CurveLanes {
+        n,
+        tan,
+        b,
+        kn,
+        kg,
+        tg,
+        speed,
+        ok,
+    });
+}
 
-    let put3 = |v: [T; 3], w: &mut W3| {
-        for (v, w) in v.into_iter().zip(w.iter_mut()) {
-            v.store(w, at);
+/// Room for frames that [`FrameKernel::frames`] writes whole: frame i at byte `i · stride`
+/// from the start, so that the frames may sit inside larger records (the C ABI's frame is the
+/// curve parameter followed by a [`DarbouxFrame`]'s fields in the same layout).
+pub(crate) struct FrameSlots<'a> {
+    base: *mut u8,
+    stride: usize,
+    len: usize,
+    _room: PhantomData<&'a mut [u8]>,
+}
+
+impl<'a> FrameSlots<'a> {
+    /// An array of frames.
+    #[inline]
+    pub(crate) fn of(frames: &'a mut [MaybeUninit<DarbouxFrame>]) -> Self {
+        FrameSlots {
+            base: frames.as_mut_ptr() as *mut u8,
+            stride: size_of::<DarbouxFrame>(),
+            len: frames.len(),
+            _room: PhantomData,
         }
-    };
-    put3(n, &mut y.n);
-    put3(tan, &mut y.t);
-    put3(b, &mut y.b);
-    put3(d1, &mut y.d1);
-    put3(d2, &mut y.d2);
-    for (v, w) in [
-        (kn, &mut y.kn),
-        (kg, &mut y.kg),
-        (tg, &mut y.tg),
-        (speed, &mut y.speed),
-        (k1, &mut y.k1),
-        (k2, &mut y.k2),
-        (mean, &mut y.mean),
-        (gaussian, &mut y.gaussian),
-        (conditioning, &mut y.conditioning),
-        (speed_figure, &mut y.speed_figure),
-    ] {
-        v.store(w, at);
     }
-    T::store_mask(ok, &mut y.ok, at);
+
+    /// `len` frames at byte `i · stride` from `base`.
+    ///
+    /// # Safety
+    /// For every i < `len`, `base + i · stride` must point to room for one [`DarbouxFrame`],
+    /// aligned for it, writable for `'a`, overlapping no other of these frames, and used by
+    /// nothing else during `'a`.
+    #[inline]
+    pub(crate) unsafe fn from_raw(base: *mut u8, stride: usize, len: usize) -> Self {
+        FrameSlots {
+            base,
+            stride,
+            len,
+            _room: PhantomData,
+        }
+    }
+
+    /// Number of frames.
+    #[inline]
+    pub(crate) fn len(&self) -> usize {
+        self.len
+    }
+
+    /// Where frame `i` < `len` goes.
+    #[inline(always)]
+    fn at(&self, i: usize) -> *mut DarbouxFrame {
+        debug_assert!(i < self.len);
+        self.base.wrapping_add(i * self.stride) as *mut DarbouxFrame
+    }
+
+    /// Writes frame `i` (panics unless `i` < `len`).
+    #[inline]
+    fn write(&mut self, i: usize, frame: DarbouxFrame) {
+        assert!(i < self.len);
+        // SAFETY: room for frame i (the contract of the constructors).
+        unsafe { self.at(i).write(frame) }
+    }
+}
+
+/// Most points per call of [`FrameKernel::frames`] (one flag bit each in its result).
+pub(crate) const MAX_POINTS: usize = 64;
+
+/// The batch frame kernel as the batch entry points use it: jets in, frames out, a flag per
+/// point. On AVX2 processors (detected once, at construction) the jets are transposed into AVX
+/// registers four points at a time and the frames out of them (`aos::frames_avx2`), with no
+/// structure-of-arrays block in between; elsewhere the block of [`BLOCK`] plain arrays
+/// ([`BlockInput`], [`frames_of_block_portable`], [`BlockOutput`]).
+pub(crate) struct FrameKernel {
+    #[cfg(target_arch = "x86_64")]
+    avx2: bool,
+    x: BlockInput,
+    y: BlockOutput,
+}
+
+impl FrameKernel {
+    /// The kernel for this processor, with its scratch storage (made once per batch call).
+    pub(crate) fn new() -> Self {
+        FrameKernel {
+            #[cfg(target_arch = "x86_64")]
+            avx2: std::arch::is_x86_feature_detected!("avx2"),
+            x: BlockInput::zeroed(),
+            y: BlockOutput::zeroed(),
+        }
+    }
+
+    /// Frames of the points `(surface[i], curve[i])`, i < len = `out.len()` ≤ [`MAX_POINTS`]
+    /// (the three slices of equal length), into frame i of `out`, every one written. Bit i of
+    /// the result is set where point i passed every check of the one-point path: the kernel's
+    /// and [`finite_rest`]; frame i is then the bits of [`darboux_frame`] (with valid scales).
+    /// Other points must be evaluated again by the one-point path; their frames hold
+    /// meaningless numbers.
+    #[inline]
+    pub(crate) fn frames(
+        &mut self,
+        surface: &[SurfaceJet],
+        curve: &[CurveJet],
+        orientation: Orientation,
+        s: &ParamScales,
+        mut out: FrameSlots<'_>,
+    ) -> u64 {
+        let len = out.len();
+        assert!(surface.len() == len && curve.len() == len && len <= MAX_POINTS);
+        #[cfg(target_arch = "x86_64")]
+        if self.avx2 {
+            // SAFETY: the processor supports AVX2 (detected in `new`); lengths checked above.
+            return unsafe { aos::frames_avx2(surface, curve, orientation, s, &mut out) };
+        }
+        let mut bits = 0u64;
+        for start in (0..len).step_by(BLOCK) {
+            let end = len.min(start + BLOCK);
+            let (sb, cb) = (&surface[start..end], &curve[start..end]);
+            self.x.fill(sb, cb);
+            frames_of_block_portable(&self.x, orientation, s, &mut self.y);
+            for i in 0..end - start {
+                out.write(start + i, self.y.frame(i, &sb[i], &cb[i]));
+                if self.y.ok(i) && finite_rest(&sb[i], &cb[i]) {
+                    bits |= 1 << (start + i);
+                }
+            }
+        }
+        bits
+    }
+}
+
+/// The AVX2 kernel on arrays of jets and frames: four points at a time transposed from their
+/// jets into AVX registers (pairs of adjacent f64: two 128-bit loads per register half and one
+/// unpack per value), the frame math ([`frame_math`] on [`Avx4`]), and the results transposed
+/// back into four [`DarbouxFrame`]s the same way, each part as soon as it is final. Relies on
+/// the `#[repr(C)]` layouts of the jets and the frame, checked at compile time below.
+#[cfg(target_arch = "x86_64")]
+mod aos {
+    use super::*;
+    use crate::lanes::x86::{Avx4, Mask4};
+    use std::mem::{offset_of, size_of};
+
+    /// Size of an f64 in bytes.
+    const F: usize = size_of::<f64>();
+
+    // The layouts the transposes rely on: every structure a run of f64, fields in declaration
+    // order, vectors as three f64 (nalgebra's `Vector3<f64>` is `#[repr(C)]` around
+    // `[[f64; 3]; 1]`; x, y, z order checked by the unit test `vectors_are_x_y_z_in_memory`).
+    const _: () = {
+        assert!(size_of::<Vec3>() == 3 * F);
+        assert!(size_of::<SurfaceJet>() == 18 * F);
+        assert!(offset_of!(SurfaceJet, p) == 0);
+        assert!(offset_of!(SurfaceJet, su) == 3 * F);
+        assert!(offset_of!(SurfaceJet, sv) == 6 * F);
+        assert!(offset_of!(SurfaceJet, suu) == 9 * F);
+        assert!(offset_of!(SurfaceJet, suv) == 12 * F);
+        assert!(offset_of!(SurfaceJet, svv) == 15 * F);
+        assert!(size_of::<CurveJet>() == 6 * F);
+        assert!(offset_of!(CurveJet, u) == 0);
+        assert!(offset_of!(CurveJet, v) == F);
+        assert!(offset_of!(CurveJet, du) == 2 * F);
+        assert!(offset_of!(CurveJet, dv) == 3 * F);
+        assert!(offset_of!(CurveJet, ddu) == 4 * F);
+        assert!(offset_of!(CurveJet, ddv) == 5 * F);
+        assert!(size_of::<DarbouxFrame>() == FRAME_LEN * F);
+        assert!(offset_of!(DarbouxFrame, u) == 0);
+        assert!(offset_of!(DarbouxFrame, v) == F);
+        assert!(offset_of!(DarbouxFrame, point) == 2 * F);
+        assert!(offset_of!(DarbouxFrame, t) == 5 * F);
+        assert!(offset_of!(DarbouxFrame, b) == 8 * F);
+        assert!(offset_of!(DarbouxFrame, n) == 11 * F);
+        assert!(offset_of!(DarbouxFrame, normal_curvature) == 14 * F);
+        assert!(offset_of!(DarbouxFrame, geodesic_curvature) == 15 * F);
+        assert!(offset_of!(DarbouxFrame, geodesic_torsion) == 16 * F);
+        assert!(offset_of!(DarbouxFrame, speed) == 17 * F);
+        assert!(offset_of!(DarbouxFrame, principal) == PRINCIPAL * F);
+        assert!(offset_of!(DarbouxFrame, conditioning) == 28 * F);
+        assert!(size_of::<PrincipalCurvatures>() == 10 * F);
+        assert!(offset_of!(PrincipalCurvatures, k1) == 0);
+        assert!(offset_of!(PrincipalCurvatures, k2) == F);
+        assert!(offset_of!(PrincipalCurvatures, d1) == 2 * F);
+        assert!(offset_of!(PrincipalCurvatures, d2) == 5 * F);
+        assert!(offset_of!(PrincipalCurvatures, mean) == 8 * F);
+        assert!(offset_of!(PrincipalCurvatures, gaussian) == 9 * F);
+        assert!(size_of::<Conditioning>() == 2 * F);
+        assert!(offset_of!(Conditioning, surface) == 0);
+        assert!(offset_of!(Conditioning, curve) == F);
+    };
+
+    /// f64 per frame.
+    const FRAME_LEN: usize = 30;
+    /// Where the principal curvatures start in a frame, in f64.
+    const PRINCIPAL: usize = 18;
+
+    /// Stores the results of four points into four frames.
+    struct AosOut {
+        /// The four frames.
+        out: [*mut DarbouxFrame; 4],
+        /// z of the points (stored with T.x, its neighbour in the frame).
+        pz: Avx4,
+        /// The points' S, u, v are finite ([`finite_rest`]).
+        rest: Mask4,
+        /// Bit l set where lane l passed every check.
+        bits: u32,
+    }
+
+    impl AosOut {
+        /// f64 `k`, `k + 1` of the four frames from lanes of `a`, `b`.
+        #[inline(always)]
+        fn put(&self, k: usize, a: Avx4, b: Avx4) {
+            let f = |l: usize| {
+                // SAFETY: `out` points to four frames of FRAME_LEN f64 (the contract of
+                // `four`); k + 1 < FRAME_LEN at every call.
+                unsafe { (self.out[l] as *mut f64).add(k) }
+            };
+            debug_assert!(k + 1 < FRAME_LEN);
+            // SAFETY: as just above.
+            unsafe { Avx4::store_pairs(a, b, [f(0), f(1), f(2), f(3)]) }
+        }
+    }
+
+    impl LanesOut<Avx4> for AosOut {
+        #[inline(always)]
+        fn surface(&mut self, r: SurfaceLanes<Avx4>) {
+            const P: usize = PRINCIPAL;
+            self.put(P, r.k1, r.k2);
+            self.put(P + 2, r.d1[0], r.d1[1]);
+            self.put(P + 4, r.d1[2], r.d2[0]);
+            self.put(P + 6, r.d2[1], r.d2[2]);
+            self.put(P + 8, r.mean, r.gaussian);
+            self.put(28, r.conditioning, r.speed_figure);
+            self.put(12, r.n[1], r.n[2]);
+        }
+
+        #[inline(always)]
+        fn curve(&mut self, r: CurveLanes<Avx4>) {
+            self.put(4, self.pz, r.tan[0]);
+            self.put(6, r.tan[1], r.tan[2]);
+            self.put(8, r.b[0], r.b[1]);
+            self.put(10, r.b[2], r.n[0]);
+            self.put(14, r.kn, r.kg);
+            self.put(16, r.tg, r.speed);
+            self.bits = Avx4::mask_bits(r.ok & self.rest);
+        }
+    }
+
+    /// The frames of the four points at `sj`, `cj` into the four frames at `out`; bit l of
+    /// the result set where lane l passed every check.
+    ///
+    /// # Safety
+    /// AVX2; `sj`, `cj` point to four readable jets each, each of `out` to a writable frame.
+    #[inline(always)]
+    unsafe fn four(
+        sj: *const SurfaceJet,
+        cj: *const CurveJet,
+        orientation: Orientation,
+        s: &ParamScales,
+        out: [*mut DarbouxFrame; 4],
+    ) -> u32 {
+        // SAFETY (all pointer arithmetic and loads): as the caller promises.
+        let sp = |k: usize| unsafe {
+            let f = |l: usize| (sj.add(l) as *const f64).add(k);
+            Avx4::load_pairs([f(0), f(1), f(2), f(3)])
+        };
+        let cp = |k: usize| unsafe {
+            let f = |l: usize| (cj.add(l) as *const f64).add(k);
+            Avx4::load_pairs([f(0), f(1), f(2), f(3)])
+        };
+        let (u, v) = cp(0);
+        let (px, py) = sp(0);
+        let (pz, su0) = sp(2);
+        let rest = ((px + py) + (pz + (u + v))).finite();
+        let mut sink = AosOut {
+            out,
+            pz,
+            rest,
+            bits: 0,
+        };
+        sink.put(0, u, v);
+        sink.put(2, px, py);
+        let (su1, su2) = sp(4);
+        let (sv0, sv1) = sp(6);
+        let (sv2, suu0) = sp(8);
+        let (suu1, suu2) = sp(10);
+        let (suv0, suv1) = sp(12);
+        let (suv2, svv0) = sp(14);
+        let (svv1, svv2) = sp(16);
+        let (du, dv) = cp(2);
+        let (ddu, ddv) = cp(4);
+        let input = LanesIn {
+            su: [su0, su1, su2],
+            sv: [sv0, sv1, sv2],
+            suu: [suu0, suu1, suu2],
+            suv: [suv0, suv1, suv2],
+            svv: [svv0, svv1, svv2],
+            du,
+            dv,
+            ddu,
+            ddv,
+        };
+        // SAFETY: AVX2, as the caller promises.
+        unsafe { frame_math(&input, orientation, s, &mut sink) };
+        sink.bits
+    }
+
+    /// [`FrameKernel::frames`] on AVX2: groups of four points straight from the slices; the
+    /// last group, when short, through padded copies (its missing lanes repeat its first
+    /// point, as [`BlockInput::fill`] does).
+    ///
+    /// # Safety
+    /// The processor must support AVX2; the three slices have the same length ≤ 64.
+    #[target_feature(enable = "avx2")]
+    pub(super) unsafe fn frames_avx2(
+        surface: &[SurfaceJet],
+        curve: &[CurveJet],
+        orientation: Orientation,
+        s: &ParamScales,
+        out: &mut FrameSlots<'_>,
+    ) -> u64 {
+        let len = out.len();
+        let mut bits = 0u64;
+        let mut pad_s: [SurfaceJet; 4];
+        let mut pad_c: [CurveJet; 4];
+        let mut pad_o = [MaybeUninit::<DarbouxFrame>::uninit(); 4];
+        for at in (0..len).step_by(Avx4::N) {
+            let full = at + Avx4::N <= len;
+            let (sp, cp, op) = if full {
+                (
+                    surface[at..].as_ptr(),
+                    curve[at..].as_ptr(),
+                    [out.at(at), out.at(at + 1), out.at(at + 2), out.at(at + 3)],
+                )
+            } else {
+                let n = len - at;
+                pad_s = [surface[at]; 4];
+                pad_c = [curve[at]; 4];
+                pad_s[..n].copy_from_slice(&surface[at..]);
+                pad_c[..n].copy_from_slice(&curve[at..]);
+                let o = pad_o.as_mut_ptr() as *mut DarbouxFrame;
+                (
+                    pad_s.as_ptr(),
+                    pad_c.as_ptr(),
+                    // SAFETY: within `pad_o`.
+                    unsafe { [o, o.add(1), o.add(2), o.add(3)] },
+                )
+            };
+            // SAFETY: AVX2 (the caller); four jets of each kind readable and four frames
+            // writable at the pointers (a full group of the slices, or the padded copies).
+            let b = unsafe { four(sp, cp, orientation, s, op) };
+            if full {
+                bits |= (b as u64) << at;
+            } else {
+                let n = len - at;
+                for (l, f) in pad_o[..n].iter().enumerate() {
+                    // SAFETY: `four` wrote every frame of `pad_o`.
+                    out.write(at + l, unsafe { f.assume_init() });
+                }
+                bits |= ((b & ((1 << n) - 1)) as u64) << at;
+            }
+        }
+        bits
+    }
 }
 
 /// Frames from jets the caller has evaluated, many at once: `out[i]` is
@@ -465,7 +969,9 @@ unsafe fn frames_of_group<T: Lane>(
 ///
 /// Errors: `InvalidArgument` (as index 0) when the four slices differ in length or `scales` is
 /// invalid; otherwise the first failing sample with the error `darboux_frame` gives for it
-/// (`NonFinite`, `DegenerateSurface`, `StalledCurve`); `out` is then written up to that sample.
+/// (`NonFinite`, `DegenerateSurface`, `StalledCurve`); `out` is then written up to that sample,
+/// and entries from it to the end of its group of 64 (the kernel writes 64 frames at a time)
+/// may hold meaningless numbers.
 /// Allocates nothing (but the message of an error).
 pub fn darboux_frames(
     surface: &[SurfaceJet],
@@ -489,30 +995,35 @@ pub fn darboux_frames(
         });
     }
     let scales_ok = scales.check().is_ok();
-    let mut x = BlockInput::zeroed();
-    let mut y = BlockOutput::zeroed();
+    let mut kernel = FrameKernel::new();
+    // SAFETY: the same memory seen as possibly uninitialised frames; only whole frames are
+    // written through it (`FrameKernel::frames` writes every f64 of each), so `out` stays
+    // initialised.
+    let out = unsafe { &mut *(out as *mut [DarbouxFrame] as *mut [MaybeUninit<DarbouxFrame>]) };
     for (k, ((sb, cb), (tb, ob))) in surface
-        .chunks(BLOCK)
-        .zip(curve.chunks(BLOCK))
-        .zip(ts.chunks(BLOCK).zip(out.chunks_mut(BLOCK)))
+        .chunks(MAX_POINTS)
+        .zip(curve.chunks(MAX_POINTS))
+        .zip(ts.chunks(MAX_POINTS).zip(out.chunks_mut(MAX_POINTS)))
         .enumerate()
     {
-        x.fill(sb, cb);
-        frames_of_block(&x, orientation, scales, &mut y);
+        let bits = kernel.frames(sb, cb, orientation, scales, FrameSlots::of(ob));
+        let all = u64::MAX >> (MAX_POINTS - ob.len());
+        if bits == all && scales_ok {
+            continue;
+        }
         for (i, o) in ob.iter_mut().enumerate() {
             // The one-point path checks the scales and the jets' finiteness first; a lane the
             // kernel flags (or any lane after invalid scales) goes through it for its error.
-            if y.ok(i) && scales_ok && finite_rest(&sb[i], &cb[i]) {
-                *o = y.frame(i, &sb[i], &cb[i]);
-            } else {
-                *o =
+            if bits & (1 << i) == 0 || !scales_ok {
+                let frame =
                     darboux_frame(&sb[i], &cb[i], orientation, scales, tb[i]).map_err(|error| {
                         SampleError {
-                            index: k * BLOCK + i,
+                            index: k * MAX_POINTS + i,
                             t: tb[i],
                             error,
                         }
                     })?;
+                o.write(frame);
             }
         }
     }
@@ -535,6 +1046,121 @@ mod tests {
     /// A reproducible value in [−0.5, 0.5) (`crate::math::lcg`).
     fn lcg(state: &mut u64) -> f64 {
         crate::math::lcg(state) - 0.5
+    }
+
+    // Common practice: `FrameKernel::frames` as the batch entry points call it (on AVX2 the
+    // jets transposed straight into registers and the frames straight out; elsewhere, and
+    // forced here, the 16-lane block) gives, for every length 1..=64 (short last groups
+    // included) and flagged lanes at every position, the flags of `darboux_frame`'s success and
+    // for every accepted lane its bits (every f64 of the frame, u, v and the point included).
+    #[test]
+    fn frame_kernel_gives_the_bits_and_verdicts_of_the_one_point_path() {
+        let mut st = 11u64;
+        let scales = ParamScales {
+            u_extent: 1.25,
+            v_extent: 3.0,
+            t_extent: 0.5,
+        };
+        let all_bits = |f: &DarbouxFrame| {
+            let p = &f.principal;
+            let mut v = vec![
+                f.u,
+                f.v,
+                f.normal_curvature,
+                f.geodesic_curvature,
+                f.geodesic_torsion,
+                f.speed,
+                p.k1,
+                p.k2,
+                p.mean,
+                p.gaussian,
+                f.conditioning.surface,
+                f.conditioning.curve,
+            ];
+            for x in [&f.point, &f.t, &f.b, &f.n, &p.d1, &p.d2] {
+                v.extend([x.x, x.y, x.z]);
+            }
+            v.into_iter().map(f64::to_bits).collect::<Vec<_>>()
+        };
+        let mut kernels = vec![FrameKernel::new()];
+        #[cfg(target_arch = "x86_64")]
+        kernels.push(FrameKernel {
+            avx2: false,
+            ..FrameKernel::new()
+        });
+        let mut flagged = 0;
+        for round in 0..3 * MAX_POINTS {
+            let len = 1 + round % MAX_POINTS;
+            let v = |st: &mut u64| Vec3::new(lcg(st), lcg(st), lcg(st));
+            let mut sj: Vec<SurfaceJet> = (0..len)
+                .map(|_| SurfaceJet {
+                    p: v(&mut st),
+                    su: v(&mut st) + Vec3::new(1.0, 0.0, 0.0),
+                    sv: v(&mut st) + Vec3::new(0.0, 1.0, 0.0),
+                    suu: v(&mut st),
+                    suv: v(&mut st),
+                    svv: v(&mut st),
+                })
+                .collect();
+            let mut cj: Vec<CurveJet> = (0..len)
+                .map(|_| CurveJet {
+                    u: lcg(&mut st),
+                    v: lcg(&mut st),
+                    du: lcg(&mut st),
+                    dv: lcg(&mut st),
+                    ddu: lcg(&mut st),
+                    ddv: lcg(&mut st),
+                })
+                .collect();
+            // A refusal of each kind at a position that moves with the round: a stalled
+            // curve, a degenerate surface (Sv parallel to Su), a non-finite entry the kernel
+            // reads, and one it does not read (S, u, v).
+            let at = |k: usize| (round * 7 + k * 13) % len;
+            match round % 5 {
+                0 => {
+                    let i = at(0);
+                    (cj[i].du, cj[i].dv) = (0.0, 0.0);
+                }
+                1 => {
+                    let i = at(1);
+                    sj[i].sv = sj[i].su * 2.0;
+                }
+                2 => sj[at(2)].suv.y = f64::INFINITY,
+                3 => sj[at(3)].p.z = f64::NAN,
+                _ => cj[at(4)].v = f64::NEG_INFINITY,
+            }
+            for orientation in [Orientation::Forward, Orientation::Reversed] {
+                for kernel in kernels.iter_mut() {
+                    let mut out = vec![MaybeUninit::<DarbouxFrame>::uninit(); len];
+                    let slots = FrameSlots::of(&mut out);
+                    let bits = kernel.frames(&sj, &cj, orientation, &scales, slots);
+                    assert_eq!(bits.checked_shr(len as u32).unwrap_or(0), 0, "len {len}");
+                    for i in 0..len {
+                        let want = darboux_frame(&sj[i], &cj[i], orientation, &scales, 0.0);
+                        let ok = bits & (1 << i) != 0;
+                        assert_eq!(ok, want.is_ok(), "len {len}, lane {i}: {want:?}");
+                        flagged += usize::from(!ok);
+                        if let Ok(w) = want {
+                            // SAFETY: `frames` writes every frame of `out`.
+                            let got = unsafe { out[i].assume_init_ref() };
+                            assert_eq!(all_bits(got), all_bits(&w), "len {len}, lane {i}");
+                        }
+                    }
+                }
+            }
+        }
+        // Every refusal above reached the kernel and was flagged.
+        assert!(flagged >= 3 * MAX_POINTS * 2, "{flagged}");
+    }
+
+    // Common practice: a `Vec3` is three f64 in the order x, y, z (what the transposes of the
+    // AVX2 kernel assume of the jets and frames).
+    #[test]
+    fn vectors_are_x_y_z_in_memory() {
+        let v = Vec3::new(1.0, 2.0, 3.0);
+        // SAFETY: both are 24 bytes (checked at compile time in `aos`), any bits are an f64.
+        let a: [f64; 3] = unsafe { std::mem::transmute(v) };
+        assert_eq!(a, [1.0, 2.0, 3.0]);
     }
 
     // Common practice: the kernel compiled for the baseline instruction set and the one the

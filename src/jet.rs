@@ -19,7 +19,12 @@ pub enum DerivOrder {
 ///
 /// Lengths are in the host's unit; derivatives are per unit of the surface parameters. Entries
 /// beyond the order that was requested are zero.
+///
+/// Laid out as C lays out the same fields (`#[repr(C)]`): 18 f64 in the order p, Su, Sv, Suu,
+/// Suv, Svv, each x, y, z. The batch frame kernel reads them in that order (checked at compile
+/// time in `frame_block.rs`).
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
+#[repr(C)]
 pub struct SurfaceJet {
     /// The point S.
     pub p: Vec3,
@@ -80,7 +85,11 @@ impl SurfaceJet {
 
 /// A point (u, v) of a curve in the surface's parameter plane, with its first and second
 /// derivatives with respect to the curve parameter t.
+///
+/// Laid out as C lays out the same fields (`#[repr(C)]`): 6 f64 in the order u, v, u', v',
+/// u'', v''.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
+#[repr(C)]
 pub struct CurveJet {
     /// u(t).
     pub u: f64,

@@ -318,6 +318,27 @@ pub(crate) mod x86 {
         // p must point to four readable f64.
         fn load(p: *const f64) -> __m256d { _mm256_loadu_pd(p) }
         fn movemask(a: __m256d) -> i32 { _mm256_movemask_pd(a) }
+        // Lane l of the first result is p_l[0], of the second p_l[1]; each p_l must point to
+        // two readable f64. Two 128-bit loads per register half and one unpack per result.
+        fn load_pairs(p0: *const f64, p1: *const f64, p2: *const f64, p3: *const f64)
+            -> (__m256d, __m256d) {
+            // r0 = [p0[0], p0[1], p2[0], p2[1]], r1 = [p1[0], p1[1], p3[0], p3[1]].
+            let r0 = _mm256_insertf128_pd::<1>(_mm256_castpd128_pd256(_mm_loadu_pd(p0)), _mm_loadu_pd(p2));
+            let r1 = _mm256_insertf128_pd::<1>(_mm256_castpd128_pd256(_mm_loadu_pd(p1)), _mm_loadu_pd(p3));
+            (_mm256_unpacklo_pd(r0, r1), _mm256_unpackhi_pd(r0, r1))
+        }
+        // The inverse of `load_pairs`: p_l[0] = lane l of a, p_l[1] = lane l of b; each p_l
+        // must point to two writable f64.
+        fn store_pairs(a: __m256d, b: __m256d, p0: *mut f64, p1: *mut f64, p2: *mut f64, p3: *mut f64)
+            -> () {
+            // lo = [a0, b0, a2, b2], hi = [a1, b1, a3, b3].
+            let lo = _mm256_unpacklo_pd(a, b);
+            let hi = _mm256_unpackhi_pd(a, b);
+            _mm_storeu_pd(p0, _mm256_castpd256_pd128(lo));
+            _mm_storeu_pd(p2, _mm256_extractf128_pd::<1>(lo));
+            _mm_storeu_pd(p1, _mm256_castpd256_pd128(hi));
+            _mm_storeu_pd(p3, _mm256_extractf128_pd::<1>(hi));
+        }
     }
 
     /// Stores the lanes of `a` at `p`, which must point to four writable f64.
@@ -368,6 +389,39 @@ pub(crate) mod x86 {
         fn bitand(self, o: Mask4) -> Mask4 {
             // SAFETY: as above (a `Mask4` comes from an `Avx4`).
             Mask4(unsafe { and(self.0, o.0) })
+        }
+    }
+
+    impl Avx4 {
+        /// Two values from pairs of adjacent f64 of four points (an array-of-structures to
+        /// structure-of-arrays transpose): lane l of the first is `*p[l]`, of the second
+        /// `*p[l].add(1)`.
+        ///
+        /// # Safety
+        /// The processor must support AVX2; each `p[l]` must point to two readable f64.
+        #[inline(always)]
+        pub(crate) unsafe fn load_pairs(p: [*const f64; 4]) -> (Avx4, Avx4) {
+            // SAFETY: passed on from the caller.
+            let (a, b) = unsafe { load_pairs(p[0], p[1], p[2], p[3]) };
+            (Avx4(a), Avx4(b))
+        }
+
+        /// The inverse of [`Self::load_pairs`]: `*p[l]` = lane l of `a`, `*p[l].add(1)` = lane
+        /// l of `b`.
+        ///
+        /// # Safety
+        /// Each `p[l]` must point to two writable f64.
+        #[inline(always)]
+        pub(crate) unsafe fn store_pairs(a: Avx4, b: Avx4, p: [*mut f64; 4]) {
+            // SAFETY: an `Avx4` exists only on an AVX2 processor; pointers from the caller.
+            unsafe { store_pairs(a.0, b.0, p[0], p[1], p[2], p[3]) }
+        }
+
+        /// Bit l set where flag l of `m` holds.
+        #[inline(always)]
+        pub(crate) fn mask_bits(m: Mask4) -> u32 {
+            // SAFETY: a `Mask4` exists only on an AVX2 processor.
+            (unsafe { movemask(m.0) }) as u32
         }
     }
 

@@ -110,7 +110,9 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     }
 
     /// Frames at each of `ts`, written to `out` (same length). Stops at the first failure and
-    /// reports its index; `out` is then partly written (every sample before the failing one).
+    /// reports its index; `out` is then partly written (every sample before the failing one;
+    /// entries from the failing one to the end of its chunk of 64 samples may hold meaningless
+    /// numbers, the kernel writes frames in place).
     ///
     /// Evaluated a block of points at a time (the frame math of a block in
     /// structure-of-arrays form, so that the square roots and divisions of several points
@@ -132,12 +134,12 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
                 )),
             });
         }
-        crate::batch::frames_blocked(
+        crate::batch::frames_blocked_into(
             self,
             ts.len(),
             &mut Hints::default(),
             |i| ts[i],
-            |i, _, f| out[i] = *f,
+            &mut crate::batch::IntoSlice(out),
         )
     }
 
@@ -147,12 +149,12 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     pub fn frames_even(&self, out: &mut [DarbouxFrame]) -> std::result::Result<(), SampleError> {
         let n = out.len();
         let dom = self.curve.domain();
-        crate::batch::frames_blocked(
+        crate::batch::frames_blocked_into(
             self,
             n,
             &mut Hints::default(),
             |i| dom.even(i, n),
-            |i, _, f| out[i] = *f,
+            &mut crate::batch::IntoSlice(out),
         )
     }
 }

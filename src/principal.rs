@@ -74,7 +74,11 @@ pub fn surface_conditioning(
 }
 
 /// Principal curvatures and directions at a surface point.
+///
+/// Laid out as C lays out the same fields (`#[repr(C)]`): k1, k2, d1, d2, mean, gaussian
+/// (10 f64).
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[repr(C)]
 pub struct PrincipalCurvatures {
     /// Larger principal curvature k1 (1/length; sign as in the module docs).
     pub k1: f64,

@@ -4,8 +4,8 @@
 //! Outputs are written only on success. The batch calls evaluate into one scratch buffer
 //! allocated per call (never per point), and copy it to the host's array once every sample has
 //! succeeded; a failure names the sample's index and parameter. They evaluate a block of points
-//! at a time (the frame math of a block in structure-of-arrays form) with the results of
-//! `strake_frame_at` at each parameter, bit for bit.
+//! at a time (`crate::batch`; the frame kernel writes straight into the scratch buffer's C
+//! frames) with the results of `strake_frame_at` at each parameter, bit for bit.
 
 use super::curve::StrakeCurve;
 use super::guard::{Failure, check_count, guard, input, input_slice, output};
@@ -75,6 +75,86 @@ pub(crate) unsafe fn publish_frames(
     unsafe { std::ptr::copy_nonoverlapping(scratch.as_ptr(), out.as_ptr(), scratch.len()) };
 }
 
+// The C frame is the curve parameter followed by the fields of `DarbouxFrame` in the same
+// layout (both `#[repr(C)]`; `[f64; 3]` and `Vec3` are three f64 x, y, z), so the frame kernel
+// can write a `DarbouxFrame` at the C frame's `u` (`IntoScratch`).
+const _: () = {
+    use crate::frame::DarbouxFrame;
+    use std::mem::{offset_of, size_of};
+    const T: usize = offset_of!(StrakeFrame, u);
+    assert!(offset_of!(StrakeFrame, curve_param) == 0 && T == size_of::<f64>());
+    assert!(size_of::<StrakeFrame>() == T + size_of::<DarbouxFrame>());
+    assert!(offset_of!(StrakeFrame, v) == T + offset_of!(DarbouxFrame, v));
+    assert!(offset_of!(StrakeFrame, point) == T + offset_of!(DarbouxFrame, point));
+    assert!(offset_of!(StrakeFrame, tangent) == T + offset_of!(DarbouxFrame, t));
+    assert!(offset_of!(StrakeFrame, side) == T + offset_of!(DarbouxFrame, b));
+    assert!(offset_of!(StrakeFrame, normal) == T + offset_of!(DarbouxFrame, n));
+    assert!(
+        offset_of!(StrakeFrame, normal_curvature) == T + offset_of!(DarbouxFrame, normal_curvature)
+    );
+    assert!(
+        offset_of!(StrakeFrame, geodesic_curvature)
+            == T + offset_of!(DarbouxFrame, geodesic_curvature)
+    );
+    assert!(
+        offset_of!(StrakeFrame, geodesic_torsion) == T + offset_of!(DarbouxFrame, geodesic_torsion)
+    );
+    assert!(offset_of!(StrakeFrame, speed) == T + offset_of!(DarbouxFrame, speed));
+    assert!(offset_of!(StrakeFrame, k1) == T + offset_of!(DarbouxFrame, principal.k1));
+    assert!(offset_of!(StrakeFrame, k2) == T + offset_of!(DarbouxFrame, principal.k2));
+    assert!(offset_of!(StrakeFrame, dir1) == T + offset_of!(DarbouxFrame, principal.d1));
+    assert!(offset_of!(StrakeFrame, dir2) == T + offset_of!(DarbouxFrame, principal.d2));
+    assert!(
+        offset_of!(StrakeFrame, mean_curvature) == T + offset_of!(DarbouxFrame, principal.mean)
+    );
+    assert!(
+        offset_of!(StrakeFrame, gaussian_curvature)
+            == T + offset_of!(DarbouxFrame, principal.gaussian)
+    );
+    assert!(
+        offset_of!(StrakeFrame, surface_conditioning)
+            == T + offset_of!(DarbouxFrame, conditioning.surface)
+    );
+    assert!(
+        offset_of!(StrakeFrame, curve_speed_figure)
+            == T + offset_of!(DarbouxFrame, conditioning.curve)
+    );
+};
+
+/// The batch calls' sink: the scratch buffer of C frames, into which the frame kernel writes
+/// in place (each frame at its C frame's `u`, then the parameter beside it); frames of the
+/// one-point path are converted by [`StrakeFrame::new`].
+struct IntoScratch<'a>(&'a mut [MaybeUninit<StrakeFrame>]);
+
+impl crate::batch::FrameSink for IntoScratch<'_> {
+    #[inline]
+    fn room(&mut self, base: usize, len: usize) -> Option<crate::frame_block::FrameSlots<'_>> {
+        let room = &mut self.0[base..base + len];
+        let first = room.as_mut_ptr() as *mut u8;
+        // SAFETY: C frame i of `room` holds a `DarbouxFrame` at byte offset 8, aligned for it
+        // (the layout checked above); the frames are disjoint and borrowed from `self`.
+        Some(unsafe {
+            crate::frame_block::FrameSlots::from_raw(
+                first.add(std::mem::offset_of!(StrakeFrame, u)),
+                std::mem::size_of::<StrakeFrame>(),
+                len,
+            )
+        })
+    }
+
+    #[inline]
+    fn placed(&mut self, index: usize, t: f64) {
+        let frame = self.0[index].as_mut_ptr();
+        // SAFETY: a field of our own element, written without reading it.
+        unsafe { std::ptr::addr_of_mut!((*frame).curve_param).write(t) }
+    }
+
+    #[inline]
+    fn put(&mut self, index: usize, t: f64, frame: &crate::frame::DarbouxFrame) {
+        self.0[index] = MaybeUninit::new(StrakeFrame::new(t, frame));
+    }
+}
+
 /// Evaluates `count` samples with parameters `t_of(i)` into a scratch buffer (a block of
 /// points at a time, see `crate::batch`), then copies them to `out`.
 fn batch(
@@ -86,9 +166,13 @@ fn batch(
 ) -> Result<(), Failure> {
     let pair = CurveOnSurface::new(surface.source(), curve.curve());
     let mut scratch = scratch(count)?;
-    crate::batch::frames_blocked(&pair, count, &mut Hints::default(), t_of, |i, t, f| {
-        scratch[i] = MaybeUninit::new(StrakeFrame::new(t, f));
-    })?;
+    crate::batch::frames_blocked_into(
+        &pair,
+        count,
+        &mut Hints::default(),
+        t_of,
+        &mut IntoScratch(&mut scratch),
+    )?;
     // SAFETY: every sample succeeded, so every element was written; the caller provides room
     // for `count` frames at `out` (non-null, aligned, size checked by `check_count`), and
     // `scratch` is our own buffer.
