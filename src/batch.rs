@@ -52,20 +52,6 @@ pub(crate) trait FrameSink {
     fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame);
 }
 
-/// A sink that hands each frame to a closure `(index, t, frame)`.
-struct Emit<F>(F);
-
-impl<F: FnMut(usize, f64, &DarbouxFrame)> FrameSink for Emit<F> {
-    #[inline]
-    fn room(&mut self, _: usize, _: usize) -> Option<FrameSlots<'_>> {
-        None
-    }
-    #[inline]
-    fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame) {
-        (self.0)(index, t, frame)
-    }
-}
-
 /// A sink that is the caller's array of frames (`count` long): the kernel writes into it
 /// directly, with no copy. On a failure, entries from the failing sample to the end of its
 /// chunk of [`CHUNK`] samples may hold meaningless numbers.
@@ -88,26 +74,29 @@ impl FrameSink for IntoSlice<'_> {
     }
 }
 
-/// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, handed in order to
-/// `emit(index, t, frame)`. Stops at the first failing sample (every sample before it has been
-/// emitted) and returns its index, parameter and error. `hints` is carried through and left
-/// where the last sample put it.
-pub(crate) fn frames_blocked<S, C>(
-    cs: &CurveOnSurface<'_, S, C>,
-    count: usize,
-    hints: &mut Hints,
-    t_of: impl Fn(usize) -> f64,
-    emit: impl FnMut(usize, f64, &DarbouxFrame),
-) -> Result<(), SampleError>
-where
-    S: SurfaceSource + ?Sized,
-    C: UvCurve + ?Sized,
-{
-    frames_blocked_into(cs, count, hints, t_of, &mut Emit(emit))
+/// Element types of arrays the batch can write frames into in place: the parallel batch cuts
+/// such an array into pieces and makes each piece a [`FrameSink`].
+pub(crate) trait SinkSlice: Sized {
+    /// The sink over a piece of the array.
+    type Sink<'a>: FrameSink
+    where
+        Self: 'a;
+    /// `slice` as a sink whose sample 0 is `slice[0]`.
+    fn sink(slice: &mut [Self]) -> Self::Sink<'_>;
 }
 
-/// [`frames_blocked`] into any [`FrameSink`]: every sample before the failing one has been
-/// put into the sink (or written into its room).
+impl SinkSlice for DarbouxFrame {
+    type Sink<'a> = IntoSlice<'a>;
+    #[inline]
+    fn sink(slice: &mut [Self]) -> IntoSlice<'_> {
+        IntoSlice(slice)
+    }
+}
+
+/// Frames at the `count` parameters `t_of(0)`, …, `t_of(count − 1)`, into `sink` in order.
+/// Stops at the first failing sample (every sample before it has been put into the sink or
+/// written into its room) and returns its index, parameter and error. `hints` is carried
+/// through and left where the last sample put it.
 pub(crate) fn frames_blocked_into<S, C>(
     cs: &CurveOnSurface<'_, S, C>,
     count: usize,

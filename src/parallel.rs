@@ -10,7 +10,7 @@
 //! operating system gives one of them less time (another program on the same core); with
 //! pieces, the faster thread takes more of them.
 
-use crate::batch::CHUNK;
+use crate::batch::{CHUNK, SinkSlice};
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
 use crate::frame::DarbouxFrame;
@@ -47,7 +47,10 @@ fn piece_len(n: usize, threads: usize) -> usize {
 /// the calling thread. Fewer threads are started when there are fewer than
 /// [`MIN_SAMPLES_PER_THREAD`] samples per thread. A panic in a worker (e.g. in a Rust closure
 /// surface) is resumed on the calling thread. On failure the error of the lowest failing index
-/// is returned; `out` is then partly written.
+/// is returned; `out` then holds the frames of the samples before it (as
+/// [`CurveOnSurface::frames_at`] would leave them), while later entries may hold anything: the
+/// frames of pieces done by other threads, the caller's old values, or, from the failing sample
+/// to the end of its chunk of 64, meaningless numbers.
 pub fn frames_at_parallel<S, C>(
     cs: &CurveOnSurface<'_, S, C>,
     ts: &[f64],
@@ -69,7 +72,7 @@ where
             )),
         });
     }
-    frames_parallel_with(cs, threads, |i| ts[i], out, |o, _, f| *o = *f, |_, _| {})
+    frames_parallel_with(cs, threads, |i| ts[i], out, |_, _| {})
 }
 
 /// What a worker brings back: the first error of its pieces (its lowest failing index, pieces
@@ -77,7 +80,8 @@ where
 type WorkerEnd = std::thread::Result<Option<SampleError>>;
 
 /// The engine of the parallel batches: sample i has parameter `t_of(i)` and its frame goes to
-/// `out[i]` through `write(&mut out[i], t, frame)`, i < `out.len()`; `threads` ≥ 1 (capped as
+/// `out[i]` (written in place by the batch kernel through [`SinkSlice::sink`] of the piece it
+/// lies in), i < `out.len()`; `threads` ≥ 1 (capped as
 /// in [`frames_at_parallel`]). Pieces handed out in order to whichever thread is free; the
 /// calling thread is one of the workers. Errors as in [`frames_at_parallel`].
 ///
@@ -85,32 +89,30 @@ type WorkerEnd = std::thread::Result<Option<SampleError>>;
 /// (`first` the index of its first sample), by the worker threads, so that copying the results
 /// to their final place runs in parallel too (the C calls write the host's array only on
 /// success). It is not called at all when any sample fails or any worker panics.
-pub(crate) fn frames_parallel_with<S, C, T, F, W, P>(
+pub(crate) fn frames_parallel_with<S, C, T, F, P>(
     cs: &CurveOnSurface<'_, S, C>,
     threads: usize,
     t_of: F,
     out: &mut [T],
-    write: W,
     publish: P,
 ) -> Result<(), SampleError>
 where
     S: SurfaceSource + ?Sized,
     C: UvCurve + ?Sized,
-    T: Send,
+    T: SinkSlice + Send,
     F: Fn(usize) -> f64 + Sync,
-    W: Fn(&mut T, f64, &DarbouxFrame) + Sync,
     P: Fn(usize, &mut [T]) + Sync,
 {
     let n = out.len();
     let threads = threads.min(n.div_ceil(MIN_SAMPLES_PER_THREAD)).max(1);
-    let (t_of, write) = (&t_of, &write);
+    let t_of = &t_of;
     let run = move |first: usize, oc: &mut [T]| {
-        crate::batch::frames_blocked(
+        crate::batch::frames_blocked_into(
             cs,
             oc.len(),
             &mut Hints::default(),
             |i| t_of(first + i),
-            |i, t, f| write(&mut oc[i], t, f),
+            &mut T::sink(oc),
         )
         .map_err(|e| SampleError {
             index: first + e.index,

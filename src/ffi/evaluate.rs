@@ -124,7 +124,7 @@ const _: () = {
 /// The batch calls' sink: the scratch buffer of C frames, into which the frame kernel writes
 /// in place (each frame at its C frame's `u`, then the parameter beside it); frames of the
 /// one-point path are converted by [`StrakeFrame::new`].
-struct IntoScratch<'a>(&'a mut [MaybeUninit<StrakeFrame>]);
+pub(crate) struct IntoScratch<'a>(&'a mut [MaybeUninit<StrakeFrame>]);
 
 impl crate::batch::FrameSink for IntoScratch<'_> {
     #[inline]
@@ -152,6 +152,14 @@ impl crate::batch::FrameSink for IntoScratch<'_> {
     #[inline]
     fn put(&mut self, index: usize, t: f64, frame: &crate::frame::DarbouxFrame) {
         self.0[index] = MaybeUninit::new(StrakeFrame::new(t, frame));
+    }
+}
+
+impl crate::batch::SinkSlice for MaybeUninit<StrakeFrame> {
+    type Sink<'a> = IntoScratch<'a>;
+    #[inline]
+    fn sink(slice: &mut [Self]) -> IntoScratch<'_> {
+        IntoScratch(slice)
     }
 }
 

@@ -81,7 +81,6 @@ pub unsafe extern "C" fn strake_frames_at_parallel(
             threads as usize,
             |i| ts[i],
             &mut buf,
-            |o: &mut MaybeUninit<StrakeFrame>, t, f| *o = MaybeUninit::new(StrakeFrame::new(t, f)),
             // The threads copy the pieces, once every sample has succeeded.
             |first, piece: &mut [MaybeUninit<StrakeFrame>]| {
                 // SAFETY: called only when every sample succeeded, so the piece is fully
