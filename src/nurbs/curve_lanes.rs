@@ -303,8 +303,9 @@ macro_rules! per_lane {
 /// Entries of the knot window and of the reciprocals of one span, up to cubics.
 const ROOM: usize = 6;
 
-/// Groups of [`LANES`] points: the spans in order (hint carried), then the jets lane-wide. A
-/// last, short group fills its unused lanes with its last point (computed, not stored).
+/// Groups of [`LANES`] points: the spans in order (hint carried; one test per point when the
+/// group stays in the hinted span), then the jets lane-wide. A last, short group fills its
+/// unused lanes with its last point (computed, not stored).
 ///
 /// # Safety
 /// As [`jets_block_with`].
@@ -317,59 +318,80 @@ unsafe fn blocks<T: Lane, const P: usize, const N: usize, const RAT: bool>(
 ) {
     let len = ts.len().min(out.len());
     let (ts, out) = (&ts[..len], &mut out[..len]);
-    let mut whole = ts.chunks_exact(LANES).zip(out.chunks_exact_mut(LANES));
-    for (t, o) in &mut whole {
-        let t: [f64; LANES] = per_lane!(|l| t[l]);
-        let spans: [usize; LANES] = per_lane!(|l| c.knots.find_span(t[l], hint));
-        // SAFETY: passed on from the caller.
-        unsafe { lanes::<T, P, N, RAT>(c, t, &spans, o) };
+    for (t, o) in ts.chunks(LANES).zip(out.chunks_mut(LANES)) {
+        let n = t.len();
+        let t: [f64; LANES] = per_lane!(|l| t[l.min(n - 1)]);
+        let (spans, same) = c.knots.group_spans(&t, n, hint);
+        // SAFETY (both): passed on from the caller.
+        if same {
+            unsafe { lanes::<T, P, N, RAT, true>(c, t, &spans, o) };
+        } else {
+            unsafe { lanes::<T, P, N, RAT, false>(c, t, &spans, o) };
+        }
     }
-    let rest = len % LANES;
-    if rest > 0 {
-        let (t, o) = (&ts[len - rest..], &mut out[len - rest..]);
-        let mut tl = [t[rest - 1]; LANES];
-        let mut spans = [0; LANES];
-        for l in 0..rest {
-            tl[l] = t[l];
-            spans[l] = c.knots.find_span(tl[l], hint);
+}
+
+/// Lane-wide value `i` of the per-lane slices `x`: gathered lane by lane, or with `SAME` (every
+/// lane reads the same slice) lane 0's value broadcast.
+///
+/// # Safety
+/// As [`jets_block_with`].
+#[inline(always)]
+unsafe fn pick<T: Lane, const SAME: bool>(x: &[&[f64]; LANES], i: usize) -> T {
+    // SAFETY: passed on from the caller.
+    unsafe {
+        if SAME {
+            T::splat(x[0][i])
+        } else {
+            T::from_array(per_lane!(|l| x[l][i]))
         }
-        for l in rest..LANES {
-            spans[l] = spans[rest - 1];
-        }
-        // SAFETY: passed on from the caller.
-        unsafe { lanes::<T, P, N, RAT>(c, tl, &spans, o) };
     }
 }
 
 /// The jets of one group into `out` (its first `out.len()` ≤ [`LANES`] lanes):
 /// `basis_rows_in::<N, P, Reciprocals>` for order 2 and `eval::<2, N, P, true>` of
-/// `NurbsCurve`, operation for operation, each lane on its own span.
+/// `NurbsCurve`, operation for operation, each lane on its own span. With `SAME` the caller
+/// promises that every lane has the span of lane 0: the knots, reciprocals, control points and
+/// weights are then read once and broadcast instead of gathered lane by lane (the same values).
 ///
 /// # Safety
 /// As [`jets_block_with`].
 #[inline(always)]
-unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool>(
+unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool, const SAME: bool>(
     c: &CurveParts<'_>,
     t: [f64; LANES],
     spans: &[usize; LANES],
     out: &mut [CurveJet],
 ) {
     debug_assert!(P < N && 2 * P <= ROOM && P * (P + 1) / 2 <= ROOM);
-    // SAFETY (every `T` constructor below): passed on from the caller.
+    debug_assert!(!SAME || spans.iter().all(|&s| s == spans[0]));
+    // SAFETY (every `T` constructor and `pick` below): passed on from the caller.
     let zero = unsafe { T::splat(0.0) };
     let per = P * (P + 1) / 2;
     let knots = c.knots.knots();
-    // Lane l reads the 2P knots u_{s+1−P} ..= u_{s+P} of its span s (kw as in basis_rows_in)
-    // and the span's reciprocals; one bounds check per lane and array.
-    let kw: [&[f64]; LANES] = per_lane!(|l| &knots[spans[l] + 1 - P..spans[l] + P + 1]);
-    let rw: [&[f64]; LANES] = per_lane!(|l| &c.recip[(spans[l] - P) * per..][..per]);
+    // Lane l reads the 2P knots u_{s+1−P} ..= u_{s+P} of its span s (kw as in basis_rows_in),
+    // the span's reciprocals, control points and weights; one bounds check per lane and slice
+    // (with `SAME`, lane 0's only).
+    let mut kw: [&[f64]; LANES] = [&[]; LANES];
+    let mut rw: [&[f64]; LANES] = [&[]; LANES];
+    let mut xs: [&[f64]; LANES] = [&[]; LANES];
+    let mut ws: [&[f64]; LANES] = [&[]; LANES];
+    for l in 0..if SAME { 1 } else { LANES } {
+        let s = spans[l];
+        kw[l] = &knots[s + 1 - P..s + P + 1];
+        rw[l] = &c.recip[(s - P) * per..][..per];
+        xs[l] = c.weighted[s - P..][..P + 1].as_flattened();
+        if RAT {
+            ws[l] = &c.weights[s - P..][..P + 1];
+        }
+    }
     let mut kv = [zero; ROOM];
     for (i, k) in kv.iter_mut().enumerate().take(2 * P) {
-        *k = unsafe { T::from_array(per_lane!(|l| kw[l][i])) };
+        *k = unsafe { pick::<T, SAME>(&kw, i) };
     }
     let mut rc = [zero; ROOM];
     for (i, r) in rc.iter_mut().enumerate().take(per) {
-        *r = unsafe { T::from_array(per_lane!(|l| rw[l][i])) };
+        *r = unsafe { pick::<T, SAME>(&rw, i) };
     }
     let t = unsafe { T::from_array(t) };
 
@@ -407,20 +429,15 @@ unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool>(
     let rows = [row, d1, d2];
 
     // --- the sums over the span's control points ---
-    let firsts: [usize; LANES] = per_lane!(|l| spans[l] - P);
-    let pts: [&[[f64; 2]]; LANES] = per_lane!(|l| &c.weighted[firsts[l]..][..P + 1]);
-    let ws: [&[f64]; LANES] = if RAT {
-        per_lane!(|l| &c.weights[firsts[l]..][..P + 1])
-    } else {
-        [&[]; LANES]
-    };
     let mut a = [[zero; 2]; 3];
     let mut w = [zero; 3];
+    // `r` selects the control point and the basis functions' entry alike.
+    #[allow(clippy::needless_range_loop)]
     for r in 0..P + 1 {
-        let x = unsafe { T::from_array(per_lane!(|l| pts[l][r][0])) };
-        let y = unsafe { T::from_array(per_lane!(|l| pts[l][r][1])) };
+        let x = unsafe { pick::<T, SAME>(&xs, 2 * r) };
+        let y = unsafe { pick::<T, SAME>(&xs, 2 * r + 1) };
         let wi = if RAT {
-            unsafe { T::from_array(per_lane!(|l| ws[l][r])) }
+            unsafe { pick::<T, SAME>(&ws, r) }
         } else {
             zero
         };
