@@ -79,8 +79,10 @@ impl SurfaceJet {
 }
 
 /// A point (u, v) of a curve in the surface's parameter plane, with its first and second
-/// derivatives with respect to the curve parameter t.
+/// derivatives with respect to the curve parameter t. Laid out as six `f64` in the order of the
+/// fields (`repr(C)`; the block evaluation of NURBS curves stores them with vector stores).
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
+#[repr(C)]
 pub struct CurveJet {
     /// u(t).
     pub u: f64,

@@ -34,6 +34,31 @@ trait Lane: Copy + Add<Output = Self> + Sub<Output = Self> + Mul<Output = Self> 
     fn to_array(self) -> [f64; LANES];
     /// 1 / x, lane by lane.
     fn recip(self) -> Self;
+    /// Jet l of `out` (l < `out.len()` ≤ [`LANES`]) from lane l of `j` = [u, v, du, dv, ddu,
+    /// ddv]: a transposition, no arithmetic.
+    #[inline(always)]
+    fn put_jets(j: [Self; 6], out: &mut [CurveJet]) {
+        // No `array::map`: it is not reliably inlined.
+        let [a, b, c, d, e, f] = j;
+        let j = [
+            a.to_array(),
+            b.to_array(),
+            c.to_array(),
+            d.to_array(),
+            e.to_array(),
+            f.to_array(),
+        ];
+        for (l, o) in out.iter_mut().enumerate().take(LANES) {
+            *o = CurveJet {
+                u: j[0][l],
+                v: j[1][l],
+                du: j[2][l],
+                dv: j[3][l],
+                ddu: j[4][l],
+                ddv: j[5][l],
+            };
+        }
+    }
 }
 
 /// Plain arrays: the baseline build (the optimiser maps them onto SSE2 pairs).
@@ -87,6 +112,7 @@ impl Lane for Plain {
 mod x86 {
     //! One 256-bit AVX vector per lane-wide value.
     use super::{LANES, Lane};
+    use crate::jet::CurveJet;
     use std::arch::x86_64::*;
     use std::ops::{Add, Mul, Sub};
 
@@ -193,6 +219,67 @@ mod x86 {
         fn recip(self) -> Avx4 {
             // SAFETY: as above.
             Avx4(unsafe { div(set([1.0; LANES]), self.0) })
+        }
+        #[inline(always)]
+        fn put_jets(j: [Avx4; 6], out: &mut [CurveJet]) {
+            let [a, b, c, d, e, f] = j;
+            if out.len() < LANES {
+                let j = [
+                    a.to_array(),
+                    b.to_array(),
+                    c.to_array(),
+                    d.to_array(),
+                    e.to_array(),
+                    f.to_array(),
+                ];
+                for (l, o) in out.iter_mut().enumerate() {
+                    *o = CurveJet {
+                        u: j[0][l],
+                        v: j[1][l],
+                        du: j[2][l],
+                        dv: j[3][l],
+                        ddu: j[4][l],
+                        ddv: j[5][l],
+                    };
+                }
+                return;
+            }
+            // SAFETY: an `Avx4` exists only on an AVX2 processor; `out` holds four jets.
+            unsafe { put4([a.0, b.0, c.0, d.0, e.0, f.0], &mut out[..LANES]) }
+        }
+    }
+
+    /// The four jets of `j` = [u, v, du, dv, ddu, ddv] (lane l = jet l) into `out` by
+    /// transposition: per jet one 256-bit store of [u, v, du, dv] and one 128-bit store of
+    /// [ddu, ddv] (`CurveJet` is six `f64` in field order, `repr(C)`).
+    ///
+    /// # Safety
+    /// AVX must be available; `out` must hold exactly four jets.
+    #[target_feature(enable = "avx")]
+    #[inline]
+    #[allow(unused_unsafe)]
+    unsafe fn put4(j: [__m256d; 6], out: &mut [CurveJet]) {
+        debug_assert_eq!(out.len(), LANES);
+        // SAFETY: AVX is enabled for this function; each jet is 48 bytes of six f64 (the
+        // layout `repr(C)` fixes), so the stores at offsets 0 (four f64) and 4 (two f64) of
+        // each of the four jets stay inside `out`; unaligned stores.
+        unsafe {
+            let [u, v, du, dv, ddu, ddv] = j;
+            let t0 = _mm256_unpacklo_pd(u, v); // u0 v0 u2 v2
+            let t1 = _mm256_unpackhi_pd(u, v); // u1 v1 u3 v3
+            let t2 = _mm256_unpacklo_pd(du, dv); // du0 dv0 du2 dv2
+            let t3 = _mm256_unpackhi_pd(du, dv); // du1 dv1 du3 dv3
+            let s0 = _mm256_unpacklo_pd(ddu, ddv); // ddu0 ddv0 ddu2 ddv2
+            let s1 = _mm256_unpackhi_pd(ddu, ddv); // ddu1 ddv1 ddu3 ddv3
+            let p = out.as_mut_ptr().cast::<f64>();
+            _mm256_storeu_pd(p, _mm256_permute2f128_pd::<0x20>(t0, t2));
+            _mm_storeu_pd(p.add(4), _mm256_castpd256_pd128(s0));
+            _mm256_storeu_pd(p.add(6), _mm256_permute2f128_pd::<0x20>(t1, t3));
+            _mm_storeu_pd(p.add(10), _mm256_castpd256_pd128(s1));
+            _mm256_storeu_pd(p.add(12), _mm256_permute2f128_pd::<0x31>(t0, t2));
+            _mm_storeu_pd(p.add(16), _mm256_extractf128_pd::<1>(s0));
+            _mm256_storeu_pd(p.add(18), _mm256_permute2f128_pd::<0x31>(t1, t3));
+            _mm_storeu_pd(p.add(22), _mm256_extractf128_pd::<1>(s1));
         }
     }
 }
@@ -468,24 +555,7 @@ unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool, const 
     } else {
         [a0[0], a0[1], a1[0], a1[1], a2[0], a2[1]]
     };
-    let (pu, pv, d1u, d1v, d2u, d2v) = (
-        pu.to_array(),
-        pv.to_array(),
-        d1u.to_array(),
-        d1v.to_array(),
-        d2u.to_array(),
-        d2v.to_array(),
-    );
-    for (l, o) in out.iter_mut().enumerate().take(LANES) {
-        *o = CurveJet {
-            u: pu[l],
-            v: pv[l],
-            du: d1u[l],
-            dv: d1v[l],
-            ddu: d2u[l],
-            ddv: d2v[l],
-        };
-    }
+    T::put_jets([pu, pv, d1u, d1v, d2u, d2v], out);
 }
 
 /// `derivative_row` of `basis_rows_in` lane-wide: out[r] = p (carry − lower[r]·rec), the
