@@ -30,6 +30,19 @@ trait Lane: Copy + Add<Output = Self> + Sub<Output = Self> + Mul<Output = Self> 
     unsafe fn splat(x: f64) -> Self;
     /// Lane l from `a[l]`.
     unsafe fn from_array(a: [f64; LANES]) -> Self;
+    /// Lane l from `a[l]`, read from memory.
+    #[inline(always)]
+    unsafe fn load(a: &[f64; LANES]) -> Self {
+        // SAFETY: passed on from the caller.
+        unsafe { Self::from_array(*a) }
+    }
+    /// Whether lo ≤ x < hi in every lane (false for a NaN lane).
+    #[inline(always)]
+    fn within(self, lo: f64, hi: f64) -> bool {
+        self.to_array()
+            .iter()
+            .fold(true, |all, &x| all & (lo <= x) & (x < hi))
+    }
     /// The lanes.
     fn to_array(self) -> [f64; LANES];
     /// 1 / x, lane by lane.
@@ -165,6 +178,28 @@ mod x86 {
     #[target_feature(enable = "avx")]
     #[inline]
     #[allow(unused_unsafe)]
+    unsafe fn load(a: &[f64; LANES]) -> __m256d {
+        // SAFETY: `a` holds four f64; unaligned load; AVX is enabled for this function.
+        unsafe { _mm256_loadu_pd(a.as_ptr()) }
+    }
+
+    /// lo ≤ x < hi in all four lanes: ordered comparisons (false on a NaN), as the scalar
+    /// `<=` and `<`.
+    #[target_feature(enable = "avx")]
+    #[inline]
+    #[allow(unused_unsafe)]
+    unsafe fn within(x: __m256d, lo: f64, hi: f64) -> bool {
+        // SAFETY: AVX is enabled for this function.
+        unsafe {
+            let ge = _mm256_cmp_pd::<_CMP_LE_OQ>(_mm256_set1_pd(lo), x);
+            let lt = _mm256_cmp_pd::<_CMP_LT_OQ>(x, _mm256_set1_pd(hi));
+            _mm256_movemask_pd(_mm256_and_pd(ge, lt)) == 0b1111
+        }
+    }
+
+    #[target_feature(enable = "avx")]
+    #[inline]
+    #[allow(unused_unsafe)]
     unsafe fn get(v: __m256d) -> [f64; LANES] {
         let mut out = [0.0; LANES];
         // SAFETY: `out` holds four f64; unaligned store; AVX is enabled for this function.
@@ -209,6 +244,16 @@ mod x86 {
         unsafe fn from_array(a: [f64; LANES]) -> Avx4 {
             // SAFETY: as above.
             Avx4(unsafe { set(a) })
+        }
+        #[inline(always)]
+        unsafe fn load(a: &[f64; LANES]) -> Avx4 {
+            // SAFETY: the caller promises AVX2; `a` holds four f64.
+            Avx4(unsafe { load(a) })
+        }
+        #[inline(always)]
+        fn within(self, lo: f64, hi: f64) -> bool {
+            // SAFETY: an `Avx4` exists only on an AVX2 processor.
+            unsafe { within(self.0, lo, hi) }
         }
         #[inline(always)]
         fn to_array(self) -> [f64; LANES] {
@@ -405,16 +450,57 @@ unsafe fn blocks<T: Lane, const P: usize, const N: usize, const RAT: bool>(
 ) {
     let len = ts.len().min(out.len());
     let (ts, out) = (&ts[..len], &mut out[..len]);
-    for (t, o) in ts.chunks(LANES).zip(out.chunks_mut(LANES)) {
-        let n = t.len();
-        let t: [f64; LANES] = per_lane!(|l| t[l.min(n - 1)]);
-        let (spans, same) = c.knots.group_spans(&t, n, hint);
+    let mut whole = ts.chunks_exact(LANES).zip(out.chunks_exact_mut(LANES));
+    for (t, o) in &mut whole {
+        let t: &[f64; LANES] = t.try_into().expect("chunks of LANES");
         // SAFETY (both): passed on from the caller.
-        if same {
-            unsafe { lanes::<T, P, N, RAT, true>(c, t, &spans, o) };
-        } else {
-            unsafe { lanes::<T, P, N, RAT, false>(c, t, &spans, o) };
+        let tv = unsafe { T::load(t) };
+        unsafe { group::<T, P, N, RAT>(c, t, tv, LANES, hint, o) };
+    }
+    let rest = len % LANES;
+    if rest > 0 {
+        let (t, o) = (&ts[len - rest..], &mut out[len - rest..]);
+        let mut tl = [t[rest - 1]; LANES];
+        tl[..rest].copy_from_slice(t);
+        // SAFETY (both): passed on from the caller.
+        let tv = unsafe { T::from_array(tl) };
+        unsafe { group::<T, P, N, RAT>(c, &tl, tv, rest, hint, o) };
+    }
+}
+
+/// One group: `t` its parameters (`len` of them, the others repeating the last), `tv` the same
+/// lane-wide. When every lane lies in the hinted span (the first test of `find_span`, which then
+/// returns the hint and keeps it) one vector comparison and no search; otherwise the spans by
+/// [`KnotVector::group_spans`].
+///
+/// # Safety
+/// As [`jets_block_with`].
+#[inline(always)]
+unsafe fn group<T: Lane, const P: usize, const N: usize, const RAT: bool>(
+    c: &CurveParts<'_>,
+    t: &[f64; LANES],
+    tv: T,
+    len: usize,
+    hint: &mut SpanHint,
+    out: &mut [CurveJet],
+) {
+    if let Some(h) = hint.0 {
+        // As in `group_spans`: h ≤ n, so x < u_{h+1} covers `find_span`'s test x < u_{n+1}.
+        if h >= P && h < c.knots.count() {
+            let k = c.knots.knots();
+            if tv.within(k[h], k[h + 1]) {
+                // SAFETY: passed on from the caller.
+                unsafe { lanes::<T, P, N, RAT, true>(c, tv, &[h; LANES], out) };
+                return;
+            }
         }
+    }
+    let (spans, same) = c.knots.group_spans(t, len, hint);
+    // SAFETY (both): passed on from the caller.
+    if same {
+        unsafe { lanes::<T, P, N, RAT, true>(c, tv, &spans, out) };
+    } else {
+        unsafe { lanes::<T, P, N, RAT, false>(c, tv, &spans, out) };
     }
 }
 
@@ -446,7 +532,7 @@ unsafe fn pick<T: Lane, const SAME: bool>(x: &[&[f64]; LANES], i: usize) -> T {
 #[inline(always)]
 unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool, const SAME: bool>(
     c: &CurveParts<'_>,
-    t: [f64; LANES],
+    t: T,
     spans: &[usize; LANES],
     out: &mut [CurveJet],
 ) {
@@ -480,7 +566,6 @@ unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool, const 
     for (i, r) in rc.iter_mut().enumerate().take(per) {
         *r = unsafe { pick::<T, SAME>(&rw, i) };
     }
-    let t = unsafe { T::from_array(t) };
 
     // --- basis_rows_in (Cox–de Boor with reciprocals) ---
     let mut row = [zero; N];
