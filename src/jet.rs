@@ -87,7 +87,8 @@ impl SurfaceJet {
 /// derivatives with respect to the curve parameter t.
 ///
 /// Laid out as C lays out the same fields (`#[repr(C)]`): 6 f64 in the order u, v, u', v',
-/// u'', v''.
+/// u'', v'' (the frame kernel loads them, and the block evaluation of NURBS curves stores
+/// them, with vector loads and stores).
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 #[repr(C)]
 pub struct CurveJet {

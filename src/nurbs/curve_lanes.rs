@@ -30,10 +30,48 @@ trait Lane: Copy + Add<Output = Self> + Sub<Output = Self> + Mul<Output = Self> 
     unsafe fn splat(x: f64) -> Self;
     /// Lane l from `a[l]`.
     unsafe fn from_array(a: [f64; LANES]) -> Self;
+    /// Lane l from `a[l]`, read from memory.
+    #[inline(always)]
+    unsafe fn load(a: &[f64; LANES]) -> Self {
+        // SAFETY: passed on from the caller.
+        unsafe { Self::from_array(*a) }
+    }
+    /// Whether lo ≤ x < hi in every lane (false for a NaN lane).
+    #[inline(always)]
+    fn within(self, lo: f64, hi: f64) -> bool {
+        self.to_array()
+            .iter()
+            .fold(true, |all, &x| all & (lo <= x) & (x < hi))
+    }
     /// The lanes.
     fn to_array(self) -> [f64; LANES];
     /// 1 / x, lane by lane.
     fn recip(self) -> Self;
+    /// Jet l of `out` (l < `out.len()` ≤ [`LANES`]) from lane l of `j` = [u, v, du, dv, ddu,
+    /// ddv]: a transposition, no arithmetic.
+    #[inline(always)]
+    fn put_jets(j: [Self; 6], out: &mut [CurveJet]) {
+        // No `array::map`: it is not reliably inlined.
+        let [a, b, c, d, e, f] = j;
+        let j = [
+            a.to_array(),
+            b.to_array(),
+            c.to_array(),
+            d.to_array(),
+            e.to_array(),
+            f.to_array(),
+        ];
+        for (l, o) in out.iter_mut().enumerate().take(LANES) {
+            *o = CurveJet {
+                u: j[0][l],
+                v: j[1][l],
+                du: j[2][l],
+                dv: j[3][l],
+                ddu: j[4][l],
+                ddv: j[5][l],
+            };
+        }
+    }
 }
 
 /// Plain arrays: the baseline build (the optimiser maps them onto SSE2 pairs).
@@ -87,6 +125,7 @@ impl Lane for Plain {
 mod x86 {
     //! One 256-bit AVX vector per lane-wide value.
     use super::{LANES, Lane};
+    use crate::jet::CurveJet;
     use std::arch::x86_64::*;
     use std::ops::{Add, Mul, Sub};
 
@@ -139,6 +178,28 @@ mod x86 {
     #[target_feature(enable = "avx")]
     #[inline]
     #[allow(unused_unsafe)]
+    unsafe fn load(a: &[f64; LANES]) -> __m256d {
+        // SAFETY: `a` holds four f64; unaligned load; AVX is enabled for this function.
+        unsafe { _mm256_loadu_pd(a.as_ptr()) }
+    }
+
+    /// lo ≤ x < hi in all four lanes: ordered comparisons (false on a NaN), as the scalar
+    /// `<=` and `<`.
+    #[target_feature(enable = "avx")]
+    #[inline]
+    #[allow(unused_unsafe)]
+    unsafe fn within(x: __m256d, lo: f64, hi: f64) -> bool {
+        // SAFETY: AVX is enabled for this function.
+        unsafe {
+            let ge = _mm256_cmp_pd::<_CMP_LE_OQ>(_mm256_set1_pd(lo), x);
+            let lt = _mm256_cmp_pd::<_CMP_LT_OQ>(x, _mm256_set1_pd(hi));
+            _mm256_movemask_pd(_mm256_and_pd(ge, lt)) == 0b1111
+        }
+    }
+
+    #[target_feature(enable = "avx")]
+    #[inline]
+    #[allow(unused_unsafe)]
     unsafe fn get(v: __m256d) -> [f64; LANES] {
         let mut out = [0.0; LANES];
         // SAFETY: `out` holds four f64; unaligned store; AVX is enabled for this function.
@@ -185,6 +246,16 @@ mod x86 {
             Avx4(unsafe { set(a) })
         }
         #[inline(always)]
+        unsafe fn load(a: &[f64; LANES]) -> Avx4 {
+            // SAFETY: the caller promises AVX2; `a` holds four f64.
+            Avx4(unsafe { load(a) })
+        }
+        #[inline(always)]
+        fn within(self, lo: f64, hi: f64) -> bool {
+            // SAFETY: an `Avx4` exists only on an AVX2 processor.
+            unsafe { within(self.0, lo, hi) }
+        }
+        #[inline(always)]
         fn to_array(self) -> [f64; LANES] {
             // SAFETY: an `Avx4` exists only on an AVX2 processor.
             unsafe { get(self.0) }
@@ -193,6 +264,67 @@ mod x86 {
         fn recip(self) -> Avx4 {
             // SAFETY: as above.
             Avx4(unsafe { div(set([1.0; LANES]), self.0) })
+        }
+        #[inline(always)]
+        fn put_jets(j: [Avx4; 6], out: &mut [CurveJet]) {
+            let [a, b, c, d, e, f] = j;
+            if out.len() < LANES {
+                let j = [
+                    a.to_array(),
+                    b.to_array(),
+                    c.to_array(),
+                    d.to_array(),
+                    e.to_array(),
+                    f.to_array(),
+                ];
+                for (l, o) in out.iter_mut().enumerate() {
+                    *o = CurveJet {
+                        u: j[0][l],
+                        v: j[1][l],
+                        du: j[2][l],
+                        dv: j[3][l],
+                        ddu: j[4][l],
+                        ddv: j[5][l],
+                    };
+                }
+                return;
+            }
+            // SAFETY: an `Avx4` exists only on an AVX2 processor; `out` holds four jets.
+            unsafe { put4([a.0, b.0, c.0, d.0, e.0, f.0], &mut out[..LANES]) }
+        }
+    }
+
+    /// The four jets of `j` = [u, v, du, dv, ddu, ddv] (lane l = jet l) into `out` by
+    /// transposition: per jet one 256-bit store of [u, v, du, dv] and one 128-bit store of
+    /// [ddu, ddv] (`CurveJet` is six `f64` in field order, `repr(C)`).
+    ///
+    /// # Safety
+    /// AVX must be available; `out` must hold exactly four jets.
+    #[target_feature(enable = "avx")]
+    #[inline]
+    #[allow(unused_unsafe)]
+    unsafe fn put4(j: [__m256d; 6], out: &mut [CurveJet]) {
+        debug_assert_eq!(out.len(), LANES);
+        // SAFETY: AVX is enabled for this function; each jet is 48 bytes of six f64 (the
+        // layout `repr(C)` fixes), so the stores at offsets 0 (four f64) and 4 (two f64) of
+        // each of the four jets stay inside `out`; unaligned stores.
+        unsafe {
+            let [u, v, du, dv, ddu, ddv] = j;
+            let t0 = _mm256_unpacklo_pd(u, v); // u0 v0 u2 v2
+            let t1 = _mm256_unpackhi_pd(u, v); // u1 v1 u3 v3
+            let t2 = _mm256_unpacklo_pd(du, dv); // du0 dv0 du2 dv2
+            let t3 = _mm256_unpackhi_pd(du, dv); // du1 dv1 du3 dv3
+            let s0 = _mm256_unpacklo_pd(ddu, ddv); // ddu0 ddv0 ddu2 ddv2
+            let s1 = _mm256_unpackhi_pd(ddu, ddv); // ddu1 ddv1 ddu3 ddv3
+            let p = out.as_mut_ptr().cast::<f64>();
+            _mm256_storeu_pd(p, _mm256_permute2f128_pd::<0x20>(t0, t2));
+            _mm_storeu_pd(p.add(4), _mm256_castpd256_pd128(s0));
+            _mm256_storeu_pd(p.add(6), _mm256_permute2f128_pd::<0x20>(t1, t3));
+            _mm_storeu_pd(p.add(10), _mm256_castpd256_pd128(s1));
+            _mm256_storeu_pd(p.add(12), _mm256_permute2f128_pd::<0x31>(t0, t2));
+            _mm_storeu_pd(p.add(16), _mm256_extractf128_pd::<1>(s0));
+            _mm256_storeu_pd(p.add(18), _mm256_permute2f128_pd::<0x31>(t1, t3));
+            _mm_storeu_pd(p.add(22), _mm256_extractf128_pd::<1>(s1));
         }
     }
 }
@@ -303,8 +435,9 @@ macro_rules! per_lane {
 /// Entries of the knot window and of the reciprocals of one span, up to cubics.
 const ROOM: usize = 6;
 
-/// Groups of [`LANES`] points: the spans in order (hint carried), then the jets lane-wide. A
-/// last, short group fills its unused lanes with its last point (computed, not stored).
+/// Groups of [`LANES`] points: the spans in order (hint carried; one test per point when the
+/// group stays in the hinted span), then the jets lane-wide. A last, short group fills its
+/// unused lanes with its last point (computed, not stored).
 ///
 /// # Safety
 /// As [`jets_block_with`].
@@ -319,59 +452,120 @@ unsafe fn blocks<T: Lane, const P: usize, const N: usize, const RAT: bool>(
     let (ts, out) = (&ts[..len], &mut out[..len]);
     let mut whole = ts.chunks_exact(LANES).zip(out.chunks_exact_mut(LANES));
     for (t, o) in &mut whole {
-        let t: [f64; LANES] = per_lane!(|l| t[l]);
-        let spans: [usize; LANES] = per_lane!(|l| c.knots.find_span(t[l], hint));
-        // SAFETY: passed on from the caller.
-        unsafe { lanes::<T, P, N, RAT>(c, t, &spans, o) };
+        let t: &[f64; LANES] = t.try_into().expect("chunks of LANES");
+        // SAFETY (both): passed on from the caller.
+        let tv = unsafe { T::load(t) };
+        unsafe { group::<T, P, N, RAT>(c, t, tv, LANES, hint, o) };
     }
     let rest = len % LANES;
     if rest > 0 {
         let (t, o) = (&ts[len - rest..], &mut out[len - rest..]);
         let mut tl = [t[rest - 1]; LANES];
-        let mut spans = [0; LANES];
-        for l in 0..rest {
-            tl[l] = t[l];
-            spans[l] = c.knots.find_span(tl[l], hint);
+        tl[..rest].copy_from_slice(t);
+        // SAFETY (both): passed on from the caller.
+        let tv = unsafe { T::from_array(tl) };
+        unsafe { group::<T, P, N, RAT>(c, &tl, tv, rest, hint, o) };
+    }
+}
+
+/// One group: `t` its parameters (`len` of them, the others repeating the last), `tv` the same
+/// lane-wide. When every lane lies in the hinted span (the first test of `find_span`, which then
+/// returns the hint and keeps it) one vector comparison and no search; otherwise the spans by
+/// [`KnotVector::group_spans`].
+///
+/// # Safety
+/// As [`jets_block_with`].
+#[inline(always)]
+unsafe fn group<T: Lane, const P: usize, const N: usize, const RAT: bool>(
+    c: &CurveParts<'_>,
+    t: &[f64; LANES],
+    tv: T,
+    len: usize,
+    hint: &mut SpanHint,
+    out: &mut [CurveJet],
+) {
+    if let Some(h) = hint.0 {
+        // As in `group_spans`: h ≤ n, so x < u_{h+1} covers `find_span`'s test x < u_{n+1}.
+        if h >= P && h < c.knots.count() {
+            let k = c.knots.knots();
+            if tv.within(k[h], k[h + 1]) {
+                // SAFETY: passed on from the caller.
+                unsafe { lanes::<T, P, N, RAT, true>(c, tv, &[h; LANES], out) };
+                return;
+            }
         }
-        for l in rest..LANES {
-            spans[l] = spans[rest - 1];
+    }
+    let (spans, same) = c.knots.group_spans(t, len, hint);
+    // SAFETY (both): passed on from the caller.
+    if same {
+        unsafe { lanes::<T, P, N, RAT, true>(c, tv, &spans, out) };
+    } else {
+        unsafe { lanes::<T, P, N, RAT, false>(c, tv, &spans, out) };
+    }
+}
+
+/// Lane-wide value `i` of the per-lane slices `x`: gathered lane by lane, or with `SAME` (every
+/// lane reads the same slice) lane 0's value broadcast.
+///
+/// # Safety
+/// As [`jets_block_with`].
+#[inline(always)]
+unsafe fn pick<T: Lane, const SAME: bool>(x: &[&[f64]; LANES], i: usize) -> T {
+    // SAFETY: passed on from the caller.
+    unsafe {
+        if SAME {
+            T::splat(x[0][i])
+        } else {
+            T::from_array(per_lane!(|l| x[l][i]))
         }
-        // SAFETY: passed on from the caller.
-        unsafe { lanes::<T, P, N, RAT>(c, tl, &spans, o) };
     }
 }
 
 /// The jets of one group into `out` (its first `out.len()` ≤ [`LANES`] lanes):
 /// `basis_rows_in::<N, P, Reciprocals>` for order 2 and `eval::<2, N, P, true>` of
-/// `NurbsCurve`, operation for operation, each lane on its own span.
+/// `NurbsCurve`, operation for operation, each lane on its own span. With `SAME` the caller
+/// promises that every lane has the span of lane 0: the knots, reciprocals, control points and
+/// weights are then read once and broadcast instead of gathered lane by lane (the same values).
 ///
 /// # Safety
 /// As [`jets_block_with`].
 #[inline(always)]
-unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool>(
+unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool, const SAME: bool>(
     c: &CurveParts<'_>,
-    t: [f64; LANES],
+    t: T,
     spans: &[usize; LANES],
     out: &mut [CurveJet],
 ) {
     debug_assert!(P < N && 2 * P <= ROOM && P * (P + 1) / 2 <= ROOM);
-    // SAFETY (every `T` constructor below): passed on from the caller.
+    debug_assert!(!SAME || spans.iter().all(|&s| s == spans[0]));
+    // SAFETY (every `T` constructor and `pick` below): passed on from the caller.
     let zero = unsafe { T::splat(0.0) };
     let per = P * (P + 1) / 2;
     let knots = c.knots.knots();
-    // Lane l reads the 2P knots u_{s+1−P} ..= u_{s+P} of its span s (kw as in basis_rows_in)
-    // and the span's reciprocals; one bounds check per lane and array.
-    let kw: [&[f64]; LANES] = per_lane!(|l| &knots[spans[l] + 1 - P..spans[l] + P + 1]);
-    let rw: [&[f64]; LANES] = per_lane!(|l| &c.recip[(spans[l] - P) * per..][..per]);
+    // Lane l reads the 2P knots u_{s+1−P} ..= u_{s+P} of its span s (kw as in basis_rows_in),
+    // the span's reciprocals, control points and weights; one bounds check per lane and slice
+    // (with `SAME`, lane 0's only).
+    let mut kw: [&[f64]; LANES] = [&[]; LANES];
+    let mut rw: [&[f64]; LANES] = [&[]; LANES];
+    let mut xs: [&[f64]; LANES] = [&[]; LANES];
+    let mut ws: [&[f64]; LANES] = [&[]; LANES];
+    for l in 0..if SAME { 1 } else { LANES } {
+        let s = spans[l];
+        kw[l] = &knots[s + 1 - P..s + P + 1];
+        rw[l] = &c.recip[(s - P) * per..][..per];
+        xs[l] = c.weighted[s - P..][..P + 1].as_flattened();
+        if RAT {
+            ws[l] = &c.weights[s - P..][..P + 1];
+        }
+    }
     let mut kv = [zero; ROOM];
     for (i, k) in kv.iter_mut().enumerate().take(2 * P) {
-        *k = unsafe { T::from_array(per_lane!(|l| kw[l][i])) };
+        *k = unsafe { pick::<T, SAME>(&kw, i) };
     }
     let mut rc = [zero; ROOM];
     for (i, r) in rc.iter_mut().enumerate().take(per) {
-        *r = unsafe { T::from_array(per_lane!(|l| rw[l][i])) };
+        *r = unsafe { pick::<T, SAME>(&rw, i) };
     }
-    let t = unsafe { T::from_array(t) };
 
     // --- basis_rows_in (Cox–de Boor with reciprocals) ---
     let mut row = [zero; N];
@@ -407,20 +601,15 @@ unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool>(
     let rows = [row, d1, d2];
 
     // --- the sums over the span's control points ---
-    let firsts: [usize; LANES] = per_lane!(|l| spans[l] - P);
-    let pts: [&[[f64; 2]]; LANES] = per_lane!(|l| &c.weighted[firsts[l]..][..P + 1]);
-    let ws: [&[f64]; LANES] = if RAT {
-        per_lane!(|l| &c.weights[firsts[l]..][..P + 1])
-    } else {
-        [&[]; LANES]
-    };
     let mut a = [[zero; 2]; 3];
     let mut w = [zero; 3];
+    // `r` selects the control point and the basis functions' entry alike.
+    #[allow(clippy::needless_range_loop)]
     for r in 0..P + 1 {
-        let x = unsafe { T::from_array(per_lane!(|l| pts[l][r][0])) };
-        let y = unsafe { T::from_array(per_lane!(|l| pts[l][r][1])) };
+        let x = unsafe { pick::<T, SAME>(&xs, 2 * r) };
+        let y = unsafe { pick::<T, SAME>(&xs, 2 * r + 1) };
         let wi = if RAT {
-            unsafe { T::from_array(per_lane!(|l| ws[l][r])) }
+            unsafe { pick::<T, SAME>(&ws, r) }
         } else {
             zero
         };
@@ -451,24 +640,7 @@ unsafe fn lanes<T: Lane, const P: usize, const N: usize, const RAT: bool>(
     } else {
         [a0[0], a0[1], a1[0], a1[1], a2[0], a2[1]]
     };
-    let (pu, pv, d1u, d1v, d2u, d2v) = (
-        pu.to_array(),
-        pv.to_array(),
-        d1u.to_array(),
-        d1v.to_array(),
-        d2u.to_array(),
-        d2v.to_array(),
-    );
-    for (l, o) in out.iter_mut().enumerate().take(LANES) {
-        *o = CurveJet {
-            u: pu[l],
-            v: pv[l],
-            du: d1u[l],
-            dv: d1v[l],
-            ddu: d2u[l],
-            ddv: d2v[l],
-        };
-    }
+    T::put_jets([pu, pv, d1u, d1v, d2u, d2v], out);
 }
 
 /// `derivative_row` of `basis_rows_in` lane-wide: out[r] = p (carry − lower[r]·rec), the

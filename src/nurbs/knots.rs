@@ -158,6 +158,42 @@ impl KnotVector {
         self.search_and_remember(u, hint)
     }
 
+    /// The knot spans of a group of `L` parameters `x` (lanes from `len` on, `len` ≥ 1, repeat
+    /// the last point's span) and whether they are all the same, with `hint` carried and left
+    /// as by [`Self::find_span`] point after point. When every point lies in the hinted span
+    /// (u_h ≤ x < u_{h+1}, the hint's first test in `find_span`, which then returns h and keeps
+    /// the hint), one test per point and no search.
+    #[inline(always)]
+    pub(crate) fn group_spans<const L: usize>(
+        &self,
+        x: &[f64; L],
+        len: usize,
+        hint: &mut SpanHint,
+    ) -> ([usize; L], bool) {
+        debug_assert!((1..=L).contains(&len));
+        if let Some(h) = hint.0 {
+            // h ≤ n, so u_{h+1} ≤ u_{n+1}: x < u_{h+1} covers `find_span`'s test x < u_{n+1}.
+            if h >= self.degree && h < self.count {
+                let k = &self.knots;
+                let (lo, hi) = (k[h], k[h + 1]);
+                // Non-short-circuit `&`: one branch; a NaN fails the test and is searched.
+                if x.iter().fold(true, |all, &x| all & (lo <= x) & (x < hi)) {
+                    return ([h; L], true);
+                }
+            }
+        }
+        let mut spans = [0; L];
+        for l in 0..L {
+            spans[l] = if l < len {
+                self.find_span(x[l], hint)
+            } else {
+                spans[len - 1]
+            };
+        }
+        let same = spans.iter().fold(true, |all, &s| all & (s == spans[0]));
+        (spans, same)
+    }
+
     /// The search of [`Self::find_span`] when the hint misses. Left to the optimiser: kept out
     /// of line (`inline(never)`) it cost random-order evaluation 5–10 % (speed report, surface
     /// and curve jets at random parameters, three interleaved runs).

@@ -33,7 +33,9 @@ pub(crate) trait QuadOps {
     unsafe fn load(q: &Quad) -> Self::V;
     /// acc + a · x, component by component (a multiplication, then an addition).
     unsafe fn madd(acc: Self::V, a: f64, x: Self::V) -> Self::V;
-    /// The components.
+    /// The components (the tests read results with it; the evaluations store with
+    /// [`Self::store3`]).
+    #[cfg(test)]
     unsafe fn store(v: Self::V) -> [f64; 4];
     /// [a, a, a, a].
     unsafe fn splat(a: f64) -> Self::V;
@@ -72,6 +74,7 @@ impl QuadOps for Scalar {
             acc[3] + a * x[3],
         ]
     }
+    #[cfg(test)]
     #[inline(always)]
     unsafe fn store(v: [f64; 4]) -> [f64; 4] {
         v
@@ -138,6 +141,7 @@ mod x86 {
                 )
             }
         }
+        #[cfg(test)]
         #[inline(always)]
         unsafe fn store(v: Self::V) -> [f64; 4] {
             let mut out = [0.0; 4];
@@ -221,6 +225,7 @@ mod x86 {
         unsafe { _mm256_add_pd(acc, _mm256_mul_pd(_mm256_set1_pd(a), x)) }
     }
 
+    #[cfg(test)]
     #[target_feature(enable = "avx")]
     #[inline]
     #[allow(unused_unsafe)]
@@ -300,6 +305,7 @@ mod x86 {
             // SAFETY: as above.
             unsafe { avx_madd(acc, a, x) }
         }
+        #[cfg(test)]
         #[inline(always)]
         unsafe fn store(v: __m256d) -> [f64; 4] {
             // SAFETY: as above.

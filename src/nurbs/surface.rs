@@ -382,35 +382,17 @@ impl NurbsSurface {
                 basis_rows_in::<N, Q, _>(self.v_knots.knots(), q, span_v, v, K, &Direct),
             )
         };
-        let h = self.tensor_sums::<K, N, M>(p, q, span_u, span_v, &nu, &nv);
-        self.quotient::<K>(&h)
+        let h = self.tensor_sums_v::<K, N, M>(p, q, span_u, span_v, &nu, &nv);
+        let mut jet = SurfaceJet::default();
+        self.quotient_into::<K, M>(&h, &mut jet);
+        jet
     }
 
     /// The homogeneous partials h\[0\] = A, h\[1\] = Au, h\[2\] = Av, h\[3\] = Auu,
-    /// h\[4\] = Auv, h\[5\] = Avv, each [x, y, z, w], up to order K (higher ones zero): the
-    /// tensor-product sums (A3.6) of the basis rows `nu` (degree `p`, span `span_u`) and `nv`
-    /// (degree `q`, span `span_v`) over the homogeneous net. `M` as in [`Self::eval`].
-    #[inline(always)]
-    fn tensor_sums<const K: usize, const N: usize, M: QuadOps>(
-        &self,
-        p: usize,
-        q: usize,
-        span_u: usize,
-        span_v: usize,
-        nu: &[[f64; N]; 3],
-        nv: &[[f64; N]; 3],
-    ) -> [[f64; 4]; 6] {
-        let h = self.tensor_sums_v::<K, N, M>(p, q, span_u, span_v, nu, nv);
-        let mut hs = [[0.0f64; 4]; 6];
-        for (o, &x) in hs.iter_mut().zip(&h).take(if K == 0 { 1 } else { 3 * K }) {
-            // SAFETY: the caller chose `M` for this processor.
-            *o = unsafe { M::store(x) };
-        }
-        hs
-    }
-
-    /// [`Self::tensor_sums`] left in vector values of `M` (entries above order K zero), for
-    /// callers that go on in vector form ([`Self::quotient_into`]).
+    /// h\[4\] = Auv, h\[5\] = Avv, each [x, y, z, w] in one vector value of `M`, up to order K
+    /// (higher ones zero): the tensor-product sums (A3.6) of the basis rows `nu` (degree `p`,
+    /// span `span_u`) and `nv` (degree `q`, span `span_v`) over the homogeneous net. `M` as in
+    /// [`Self::eval`].
     #[inline(always)]
     fn tensor_sums_v<const K: usize, const N: usize, M: QuadOps>(
         &self,
@@ -459,11 +441,14 @@ impl NurbsSurface {
         h
     }
 
-    /// [`Self::quotient`] in vector form, written straight into `out`: the jet from the
-    /// homogeneous partials `h` of [`Self::tensor_sums_v`], each formula applied to the four
-    /// components [x, y, z, w] at once (the w results are dropped). Per x, y, z component the
-    /// operations of [`Self::quotient`] in the same order (1/w is one division, broadcast), so
-    /// the same bits. Entries above order K are zero. `M` as in [`Self::eval`].
+    /// The jet from the homogeneous partials `h` of [`Self::tensor_sums_v`], written straight
+    /// into `out`: S = A directly for a non-rational surface, the quotient rule (A4.4, the
+    /// formulas at the top of this module) otherwise; entries above order K zero. Each formula
+    /// is applied to the four components [x, y, z, w] at once (the w results are dropped); per
+    /// x, y, z component the operations are those of the formulas as written, left to right
+    /// (1/w is one division, broadcast; 2 wu and 2 wv are formed first), the arithmetic of the
+    /// scalar reference `quotient` of the tests, bit for bit (tested). `M` as in
+    /// [`Self::eval`].
     #[inline(always)]
     fn quotient_into<const K: usize, M: QuadOps>(&self, h: &[M::V; 6], out: &mut SurfaceJet) {
         // SAFETY (every `M::` call): the caller chose `M` for this processor.
@@ -517,9 +502,11 @@ impl NurbsSurface {
         }
     }
 
-    /// The jet from the homogeneous partials `h` of [`Self::tensor_sums`]: S = A directly for a
-    /// non-rational surface, the quotient rule (A4.4) otherwise; entries above order K zero.
-    #[inline(always)]
+    /// The scalar reference of [`Self::quotient_into`] (the one-point path's arithmetic before
+    /// it went to vector form): the jet from the homogeneous partials `h`, each [x, y, z, w],
+    /// with S = A directly for a non-rational surface, the quotient rule (A4.4) otherwise;
+    /// entries above order K zero.
+    #[cfg(test)]
     fn quotient<const K: usize>(&self, h: &[[f64; 4]; 6]) -> SurfaceJet {
         let v3 = |a: &[f64; 4]| Vec3::new(a[0], a[1], a[2]);
         if !self.rational {
@@ -689,5 +676,93 @@ mod tests {
             }
         }
         println!("worst relative difference, reciprocals vs division: {worst:e}");
+    }
+
+    /// `quotient_into` with `M` on partials `h`, for order K.
+    fn vector_quotient<const K: usize, M: QuadOps>(
+        s: &NurbsSurface,
+        h: &[[f64; 4]; 6],
+    ) -> SurfaceJet {
+        let mut jet = SurfaceJet {
+            p: Vec3::repeat(f64::NAN),
+            su: Vec3::repeat(f64::NAN),
+            sv: Vec3::repeat(f64::NAN),
+            suu: Vec3::repeat(f64::NAN),
+            suv: Vec3::repeat(f64::NAN),
+            svv: Vec3::repeat(f64::NAN),
+        };
+        // SAFETY: the callers pass `Avx` only on an AVX2 processor.
+        let hv = h.map(|x| unsafe { M::load(&Quad(x)) });
+        s.quotient_into::<K, M>(&hv, &mut jet);
+        jet
+    }
+
+    fn jet_bits(j: &SurfaceJet) -> Vec<u64> {
+        [j.p, j.su, j.sv, j.suu, j.suv, j.svv]
+            .iter()
+            .flat_map(|v| v.iter().map(|c| c.to_bits()).collect::<Vec<_>>())
+            .collect()
+    }
+
+    // Common practice: applied to [x, y, z, w] at once, the quotient rule gives, component by
+    // component, the bits of the scalar formulas (IEEE operations are correctly rounded, so the
+    // same operations in the same order give the same bits), every entry written (none left
+    // from before), for orders 0 to 2, rational and not, and each vector arithmetic; partials
+    // of mixed signs and magnitudes with entries above the order zero (as the tensor sums
+    // leave them).
+    #[test]
+    fn vector_quotient_gives_the_bits_of_the_scalar_formulas() {
+        let mut st = 41u64;
+        let pts = [[0.0, 0.0, 0.0]; 4];
+        for rational in [false, true] {
+            let s = NurbsSurface::new(&NurbsSurfaceData {
+                degree_u: 1,
+                degree_v: 1,
+                count_u: 2,
+                count_v: 2,
+                knots_u: &[0.0, 0.0, 1.0, 1.0],
+                knots_v: &[0.0, 0.0, 1.0, 1.0],
+                points: &pts,
+                weights: rational.then_some(&[1.0, 2.0, 0.5, 1.5][..]),
+            })
+            .unwrap();
+            for _ in 0..200 {
+                let mut h = [[0.0; 4]; 6];
+                for x in h.iter_mut().flatten() {
+                    *x = (lcg(&mut st) - 0.3) * 10f64.powi((lcg(&mut st) * 12.0) as i32 - 6);
+                }
+                h[0][3] = 0.2 + 3.0 * lcg(&mut st);
+                for k in 0..3 {
+                    let mut hk = h;
+                    for e in hk.iter_mut().skip(if k == 0 { 1 } else { 3 * k }) {
+                        *e = [0.0; 4];
+                    }
+                    let want = jet_bits(&match k {
+                        0 => s.quotient::<0>(&hk),
+                        1 => s.quotient::<1>(&hk),
+                        _ => s.quotient::<2>(&hk),
+                    });
+                    fn all<M: QuadOps>(s: &NurbsSurface, k: usize, h: &[[f64; 4]; 6]) -> Vec<u64> {
+                        jet_bits(&match k {
+                            0 => vector_quotient::<0, M>(s, h),
+                            1 => vector_quotient::<1, M>(s, h),
+                            _ => vector_quotient::<2, M>(s, h),
+                        })
+                    }
+                    assert_eq!(
+                        all::<Scalar>(&s, k, &hk),
+                        want,
+                        "rational {rational}, order {k}"
+                    );
+                    #[cfg(target_arch = "x86_64")]
+                    {
+                        assert_eq!(all::<Sse2>(&s, k, &hk), want, "rational {rational}");
+                        if std::arch::is_x86_feature_detected!("avx2") {
+                            assert_eq!(all::<Avx>(&s, k, &hk), want, "rational {rational}");
+                        }
+                    }
+                }
+            }
+        }
     }
 }

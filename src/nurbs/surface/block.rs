@@ -20,7 +20,6 @@ use super::super::quad::Scalar as Sse2;
 use super::super::quad::{Avx, Sse2};
 use super::NurbsSurface;
 use crate::jet::{DerivOrder, SurfaceJet};
-use crate::nurbs::{KnotVector, SpanHint};
 use crate::surface::SurfaceHint;
 
 /// Points evaluated together: the lanes of the basis rows. Four fill
@@ -138,8 +137,8 @@ impl NurbsSurface {
             }
             // The spans in point order, each direction with its own hint, as a loop of
             // one-point evaluations searches them (the u hint never depends on v).
-            let (span_u, same_u) = group_spans(&self.u_knots, &xu, len, &mut hint.u);
-            let (span_v, same_v) = group_spans(&self.v_knots, &xv, len, &mut hint.v);
+            let (span_u, same_u) = self.u_knots.group_spans(&xu, len, &mut hint.u);
+            let (span_v, same_v) = self.v_knots.group_spans(&xv, len, &mut hint.v);
             let (ru, rv) = (&self.u_recip[..], &self.v_recip[..]);
             let nu = if same_u {
                 basis_rows_lanes::<N, P, GROUP, true>(knots_u, ru, &span_u, Lanes(xu), K)
@@ -172,41 +171,6 @@ impl NurbsSurface {
             }
         }
     }
-}
-
-/// The knot spans of the group's parameters `x` in one direction (lanes from `len` on repeat
-/// the last point) and whether they are all the same, with `hint` carried and left as by
-/// [`KnotVector::find_span`] point after point. When every point lies in the hinted span
-/// (u_h ≤ x < u_{h+1}, the hint's first test in `find_span`, which then returns h and keeps
-/// the hint), one test per point and no search.
-#[inline(always)]
-fn group_spans(
-    kv: &KnotVector,
-    x: &[f64; GROUP],
-    len: usize,
-    hint: &mut SpanHint,
-) -> ([usize; GROUP], bool) {
-    if let Some(h) = hint.0 {
-        // h ≤ n, so u_{h+1} ≤ u_{n+1}: x < u_{h+1} covers `find_span`'s test x < u_{n+1}.
-        if h >= kv.degree() && h < kv.count() {
-            let k = kv.knots();
-            let (lo, hi) = (k[h], k[h + 1]);
-            // Non-short-circuit `&`: one branch; a NaN fails the test and is searched.
-            if x.iter().fold(true, |all, &x| all & (lo <= x) & (x < hi)) {
-                return ([h; GROUP], true);
-            }
-        }
-    }
-    let mut spans = [0; GROUP];
-    for l in 0..GROUP {
-        spans[l] = if l < len {
-            kv.find_span(x[l], hint)
-        } else {
-            spans[len - 1]
-        };
-    }
-    let same = spans.iter().fold(true, |all, &s| all & (s == spans[0]));
-    (spans, same)
 }
 
 /// Lane `l` of basis rows.
