@@ -32,6 +32,9 @@ use strake::{
 const N: usize = 4096;
 /// Points of the path in the parallel cases (enough work to amortise starting a thread).
 const N_PARALLEL: usize = 65536;
+/// Points of the long parallel cases: a longer path, over which starting the second thread
+/// (and waking its core from idle) weighs less.
+const N_PARALLEL_LONG: usize = 1 << 20;
 /// Rounds; each case reports its median.
 const ROUNDS: usize = 31;
 /// Each timed sample lasts at least this long (repetitions of the case).
@@ -467,6 +470,8 @@ fn main() {
     let out_c = RefCell::new(vec![StrakeFrame::default(); N]);
     let out_par = RefCell::new(vec![exact[0]; N_PARALLEL]);
     let out_par_c = RefCell::new(vec![StrakeFrame::default(); N_PARALLEL]);
+    let ts_long = path_ts(N_PARALLEL_LONG);
+    let out_long = RefCell::new(vec![exact[0]; N_PARALLEL_LONG]);
     let ud = &surface as *const strake::NurbsSurface as *mut std::ffi::c_void;
     let jets_c = RefCell::new(vec![StrakeSurfaceJet::default(); N]);
     let jets_block = RefCell::new(vec![SurfaceJet::default(); N]);
@@ -622,6 +627,20 @@ fn main() {
         Case::new("parallel: C, native, 2 threads", N_PARALLEL, || {
             c_frames_at_parallel(c_native, c_curve, &ts_par, 2, &mut out_par_c.borrow_mut())
         }),
+        Case::new(
+            "parallel, long path: frames_at_parallel, 1 thread",
+            N_PARALLEL_LONG,
+            || {
+                frames_at_parallel(&cs, &ts_long, &mut out_long.borrow_mut(), 1).unwrap();
+            },
+        ),
+        Case::new(
+            "parallel, long path: frames_at_parallel, 2 threads",
+            N_PARALLEL_LONG,
+            || {
+                frames_at_parallel(&cs, &ts_long, &mut out_long.borrow_mut(), 2).unwrap();
+            },
+        ),
     ];
     // STRAKE_SPEED_ONLY=text keeps only the cases whose name contains `text` and prints them
     // alone (no ratios, no floors): for profiling one case.
@@ -634,7 +653,7 @@ fn main() {
     let wall = wall.elapsed().as_secs_f64();
 
     println!(
-        "\n{N} path points per case ({N_PARALLEL} in the parallel cases); median of {ROUNDS} interleaved rounds, quartiles in brackets; {wall:.1} s"
+        "\n{N} path points per case ({N_PARALLEL} in the parallel cases, {N_PARALLEL_LONG} in the long ones); median of {ROUNDS} interleaved rounds, quartiles in brackets; {wall:.1} s"
     );
     println!("{:<44} {:>10}", "case", "ns/point");
     for c in &cases {
@@ -697,6 +716,12 @@ fn main() {
         g("parallel: frames_at_parallel, 1 thread"),
         g("parallel: frames_at_parallel, 2 threads"),
         "target >= 1.8",
+    );
+    ratio(
+        "parallel speed-up, frames_at_parallel, long path",
+        g("parallel, long path: frames_at_parallel, 1 thread"),
+        g("parallel, long path: frames_at_parallel, 2 threads"),
+        "",
     );
     ratio(
         "parallel speed-up, C strake_frames_at_parallel 2 vs 1",
