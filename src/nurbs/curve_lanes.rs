@@ -51,26 +51,32 @@ trait Lane: Copy + Add<Output = Self> + Sub<Output = Self> + Mul<Output = Self> 
     /// ddv]: a transposition, no arithmetic.
     #[inline(always)]
     fn put_jets(j: [Self; 6], out: &mut [CurveJet]) {
-        // No `array::map`: it is not reliably inlined.
-        let [a, b, c, d, e, f] = j;
-        let j = [
-            a.to_array(),
-            b.to_array(),
-            c.to_array(),
-            d.to_array(),
-            e.to_array(),
-            f.to_array(),
-        ];
-        for (l, o) in out.iter_mut().enumerate().take(LANES) {
-            *o = CurveJet {
-                u: j[0][l],
-                v: j[1][l],
-                du: j[2][l],
-                dv: j[3][l],
-                ddu: j[4][l],
-                ddv: j[5][l],
-            };
-        }
+        put_jets_by_lane(j, out)
+    }
+}
+
+/// [`Lane::put_jets`] lane by lane, through arrays (the fallback of every lane type).
+#[inline(always)]
+fn put_jets_by_lane<T: Lane>(j: [T; 6], out: &mut [CurveJet]) {
+    // No `array::map`: it is not reliably inlined.
+    let [a, b, c, d, e, f] = j;
+    let j = [
+        a.to_array(),
+        b.to_array(),
+        c.to_array(),
+        d.to_array(),
+        e.to_array(),
+        f.to_array(),
+    ];
+    for (l, o) in out.iter_mut().enumerate().take(LANES) {
+        *o = CurveJet {
+            u: j[0][l],
+            v: j[1][l],
+            du: j[2][l],
+            dv: j[3][l],
+            ddu: j[4][l],
+            ddv: j[5][l],
+        };
     }
 }
 
@@ -267,28 +273,10 @@ mod x86 {
         }
         #[inline(always)]
         fn put_jets(j: [Avx4; 6], out: &mut [CurveJet]) {
-            let [a, b, c, d, e, f] = j;
             if out.len() < LANES {
-                let j = [
-                    a.to_array(),
-                    b.to_array(),
-                    c.to_array(),
-                    d.to_array(),
-                    e.to_array(),
-                    f.to_array(),
-                ];
-                for (l, o) in out.iter_mut().enumerate() {
-                    *o = CurveJet {
-                        u: j[0][l],
-                        v: j[1][l],
-                        du: j[2][l],
-                        dv: j[3][l],
-                        ddu: j[4][l],
-                        ddv: j[5][l],
-                    };
-                }
-                return;
+                return super::put_jets_by_lane(j, out);
             }
+            let [a, b, c, d, e, f] = j;
             // SAFETY: an `Avx4` exists only on an AVX2 processor; `out` holds four jets.
             unsafe { put4([a.0, b.0, c.0, d.0, e.0, f.0], &mut out[..LANES]) }
         }
