@@ -128,6 +128,49 @@ pub struct DarbouxFrame {
     pub conditioning: Conditioning,
 }
 
+impl DarbouxFrame {
+    /// Every number of the frame, 30 f64 in the order of its memory layout: u, v, the point
+    /// (x, y, z), T, B, N, κn, κg, τg, speed, k1, k2, d1, d2, mean and Gaussian curvature, the
+    /// surface conditioning figure and the curve speed figure. For writing a frame out as a
+    /// row of numbers, or comparing frames bit for bit (`PartialEq` takes −0 and +0 as equal).
+    pub fn to_array(&self) -> [f64; 30] {
+        let p = &self.principal;
+        let [point, t, b, n, d1, d2] = [self.point, self.t, self.b, self.n, p.d1, p.d2];
+        [
+            self.u,
+            self.v,
+            point.x,
+            point.y,
+            point.z,
+            t.x,
+            t.y,
+            t.z,
+            b.x,
+            b.y,
+            b.z,
+            n.x,
+            n.y,
+            n.z,
+            self.normal_curvature,
+            self.geodesic_curvature,
+            self.geodesic_torsion,
+            self.speed,
+            p.k1,
+            p.k2,
+            d1.x,
+            d1.y,
+            d1.z,
+            d2.x,
+            d2.y,
+            d2.z,
+            p.mean,
+            p.gaussian,
+            self.conditioning.surface,
+            self.conditioning.curve,
+        ]
+    }
+}
+
 /// Computes the Darboux frame and invariants from a surface jet and a curve jet.
 ///
 /// `t` is only used in error messages. Errors: `NonFinite` (input jets, or an overflowing
@@ -250,4 +293,28 @@ pub fn space_curvature(f: &DarbouxFrame) -> f64 {
 #[inline]
 pub fn principal_angle(f: &DarbouxFrame) -> f64 {
     f.t.dot(&f.principal.d2).atan2(f.t.dot(&f.principal.d1))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // Common practice: `to_array` lists the numbers in the order they lie in memory
+    // (`#[repr(C)]`), every one of them once.
+    #[test]
+    fn to_array_is_the_memory_order() {
+        let mut raw = [0.0f64; 30];
+        for (i, x) in raw.iter_mut().enumerate() {
+            *x = i as f64 + 0.5;
+        }
+        assert_eq!(
+            std::mem::size_of::<DarbouxFrame>(),
+            std::mem::size_of_val(&raw)
+        );
+        // SAFETY: a DarbouxFrame is 30 f64 (`#[repr(C)]`, size checked above); any bits are
+        // valid f64.
+        let frame: DarbouxFrame = unsafe { std::mem::transmute(raw) };
+        assert_eq!(frame.to_array(), raw);
+        assert_eq!(frame.principal.d2.z, 25.5);
+    }
 }

@@ -47,27 +47,8 @@ fn reference<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
 }
 
 /// Every f64 of a frame, for a bitwise comparison (PartialEq would let −0 equal +0).
-fn bits(f: &DarbouxFrame) -> Vec<u64> {
-    let v = |x: &Vec3| [x.x, x.y, x.z];
-    let p = &f.principal;
-    let mut all = vec![
-        f.u,
-        f.v,
-        f.normal_curvature,
-        f.geodesic_curvature,
-        f.geodesic_torsion,
-        f.speed,
-        p.k1,
-        p.k2,
-        p.mean,
-        p.gaussian,
-        f.conditioning.surface,
-        f.conditioning.curve,
-    ];
-    for x in [&f.point, &f.t, &f.b, &f.n, &p.d1, &p.d2] {
-        all.extend(v(x));
-    }
-    all.into_iter().map(f64::to_bits).collect()
+fn bits(f: &DarbouxFrame) -> [u64; 30] {
+    f.to_array().map(f64::to_bits)
 }
 
 /// Runs `frames_at` (and, without failures, the parallel batch) and compares with the one-point
