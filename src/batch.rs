@@ -18,7 +18,7 @@
 //! callback may be called at samples after the first failing one (never with such a t), and
 //! the hints may have moved past the failing sample (they only ever affect speed).
 //!
-//! Nothing is allocated: the chunk's jets and frames live on the stack (about 28 KiB).
+//! Nothing is allocated: the chunk's jets and the kernel's scratch live on the stack (about 20 KiB).
 
 use crate::curve::UvCurve;
 use crate::error::StrakeError;
@@ -38,17 +38,16 @@ pub(crate) const CHUNK: usize = crate::frame_block::MAX_POINTS;
 /// Where [`frames_blocked_into`] puts the frames.
 pub(crate) trait FrameSink {
     /// Room for the frames of the samples `base .. base + len`, for the kernel to write them in
-    /// place (a sink that keeps the frames as they are, in an array); `None` to receive every
-    /// frame through [`Self::put`] instead.
-    fn room(&mut self, base: usize, len: usize) -> Option<FrameSlots<'_>>;
+    /// place.
+    fn room(&mut self, base: usize, len: usize) -> FrameSlots<'_>;
     /// The kernel wrote the frame of sample `index` (at parameter `t`) into [`Self::room`], and
     /// it is final.
     #[inline]
     fn placed(&mut self, index: usize, t: f64) {
         let _ = (index, t);
     }
-    /// The frame of sample `index` (at parameter `t`), unless the kernel wrote it into
-    /// [`Self::room`].
+    /// The frame of sample `index` (at parameter `t`), computed by the one-point path because
+    /// the kernel flagged it.
     fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame);
 }
 
@@ -59,14 +58,14 @@ pub(crate) struct IntoSlice<'a>(pub(crate) &'a mut [DarbouxFrame]);
 
 impl FrameSink for IntoSlice<'_> {
     #[inline]
-    fn room(&mut self, base: usize, len: usize) -> Option<FrameSlots<'_>> {
+    fn room(&mut self, base: usize, len: usize) -> FrameSlots<'_> {
         let room = &mut self.0[base..base + len];
         // SAFETY: the same memory seen as possibly uninitialised frames; only whole frames are
         // written through it (`FrameKernel::frames` writes every f64 of each), so the array
         // stays initialised.
         let room =
             unsafe { &mut *(room as *mut [DarbouxFrame] as *mut [MaybeUninit<DarbouxFrame>]) };
-        Some(FrameSlots::of(room))
+        FrameSlots::of(room)
     }
     #[inline]
     fn put(&mut self, index: usize, _: f64, frame: &DarbouxFrame) {
@@ -120,7 +119,6 @@ where
     let mut cj = [CurveJet::default(); CHUNK];
     let mut sj = [SurfaceJet::default(); CHUNK];
     let mut kernel = FrameKernel::new();
-    let mut frames = [MaybeUninit::<DarbouxFrame>::uninit(); CHUNK];
     let mut base = 0;
     while base < count {
         let len = CHUNK.min(count - base);
@@ -180,29 +178,12 @@ where
         }
         if good > 0 {
             let (sg, cg) = (&sj[..good], &cj[..good]);
-            let (bits, direct) = match sink.room(base, good) {
-                Some(room) => (kernel.frames(sg, cg, orientation, &scales, room), true),
-                None => (
-                    kernel.frames(
-                        sg,
-                        cg,
-                        orientation,
-                        &scales,
-                        FrameSlots::of(&mut frames[..good]),
-                    ),
-                    false,
-                ),
-            };
+            let bits = kernel.frames(sg, cg, orientation, &scales, sink.room(base, good));
             for i in 0..good {
                 // A lane with a non-finite jet is flagged by the kernel; the one-point path
                 // then reports the jet's `NonFinite` error.
                 if bits & (1 << i) != 0 {
-                    if direct {
-                        sink.placed(base + i, ts[i]);
-                    } else {
-                        // SAFETY: `FrameKernel::frames` wrote every frame of `..good`.
-                        sink.put(base + i, ts[i], unsafe { frames[i].assume_init_ref() });
-                    }
+                    sink.placed(base + i, ts[i]);
                 } else {
                     let frame =
                         one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {

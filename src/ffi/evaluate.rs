@@ -128,18 +128,18 @@ pub(crate) struct IntoScratch<'a>(&'a mut [MaybeUninit<StrakeFrame>]);
 
 impl crate::batch::FrameSink for IntoScratch<'_> {
     #[inline]
-    fn room(&mut self, base: usize, len: usize) -> Option<crate::frame_block::FrameSlots<'_>> {
+    fn room(&mut self, base: usize, len: usize) -> crate::frame_block::FrameSlots<'_> {
         let room = &mut self.0[base..base + len];
         let first = room.as_mut_ptr() as *mut u8;
         // SAFETY: C frame i of `room` holds a `DarbouxFrame` at byte offset 8, aligned for it
         // (the layout checked above); the frames are disjoint and borrowed from `self`.
-        Some(unsafe {
+        unsafe {
             crate::frame_block::FrameSlots::from_raw(
                 first.add(std::mem::offset_of!(StrakeFrame, u)),
                 std::mem::size_of::<StrakeFrame>(),
                 len,
             )
-        })
+        }
     }
 
     #[inline]
