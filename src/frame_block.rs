@@ -976,9 +976,9 @@ mod aos {
         let (svv1, svv2) = sp(16);
         let (du, dv) = cp(2);
         let (ddu, ddv) = cp(4);
-        // The first stores after every load: the compiler does not move loads through raw
-        // pointers above stores through others (the padded copies), and loads first measured
-        // faster (fewer spills of loaded halves).
+        // The first stores after every load: with the stores first the compiler kept the later
+        // loads after them (stores through other raw pointers), and loads first measured
+        // faster (speed report: 23.2 against 24.2 ns per point).
         sink.put(0, u, v);
         sink.put(2, px, py);
         let input = LanesIn {
