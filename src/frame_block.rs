@@ -394,6 +394,14 @@ unsafe fn frames_of_group<T: Lane>(
     unsafe { frame_math(&input, orientation, s, &mut out) }
 }
 
+/// Stores the three lane values of a vector into `w` at lanes `at ..`.
+#[inline(always)]
+fn store3<T: Lane>(v: [T; 3], w: &mut W3, at: usize) {
+    for (v, w) in v.into_iter().zip(w.iter_mut()) {
+        v.store(w, at);
+    }
+}
+
 /// Stores results into a [`BlockOutput`] at lanes `at ..`.
 struct SoaOut<'a> {
     y: &'a mut BlockOutput,
@@ -404,11 +412,7 @@ impl<T: Lane> LanesOut<T> for SoaOut<'_> {
     #[inline(always)]
     fn surface(&mut self, r: SurfaceLanes<T>) {
         let (y, at) = (&mut *self.y, self.at);
-        let put3 = |v: [T; 3], w: &mut W3| {
-            for (v, w) in v.into_iter().zip(w.iter_mut()) {
-                v.store(w, at);
-            }
-        };
+        let put3 = |v: [T; 3], w: &mut W3| store3(v, w, at);
         put3(r.d1, &mut y.d1);
         put3(r.d2, &mut y.d2);
         put3(r.n, &mut y.n);
@@ -427,11 +431,7 @@ impl<T: Lane> LanesOut<T> for SoaOut<'_> {
     #[inline(always)]
     fn curve(&mut self, r: CurveLanes<T>) {
         let (y, at) = (&mut *self.y, self.at);
-        let put3 = |v: [T; 3], w: &mut W3| {
-            for (v, w) in v.into_iter().zip(w.iter_mut()) {
-                v.store(w, at);
-            }
-        };
+        let put3 = |v: [T; 3], w: &mut W3| store3(v, w, at);
         put3(r.tan, &mut y.t);
         put3(r.b, &mut y.b);
         for (v, w) in [
@@ -1156,27 +1156,7 @@ mod tests {
             v_extent: 3.0,
             t_extent: 0.5,
         };
-        let all_bits = |f: &DarbouxFrame| {
-            let p = &f.principal;
-            let mut v = vec![
-                f.u,
-                f.v,
-                f.normal_curvature,
-                f.geodesic_curvature,
-                f.geodesic_torsion,
-                f.speed,
-                p.k1,
-                p.k2,
-                p.mean,
-                p.gaussian,
-                f.conditioning.surface,
-                f.conditioning.curve,
-            ];
-            for x in [&f.point, &f.t, &f.b, &f.n, &p.d1, &p.d2] {
-                v.extend([x.x, x.y, x.z]);
-            }
-            v.into_iter().map(f64::to_bits).collect::<Vec<_>>()
-        };
+        let all_bits = |f: &DarbouxFrame| f.to_array().map(f64::to_bits);
         let mut kernels = vec![FrameKernel::new()];
         #[cfg(target_arch = "x86_64")]
         kernels.push(FrameKernel {
@@ -1309,25 +1289,7 @@ mod tests {
                     assert_eq!(a.ok(i), want.is_ok(), "lane {i}: {want:?}");
                     if let Ok(w) = want {
                         for (p, q) in [(fa, w), (fb, w)] {
-                            let bits = |f: &DarbouxFrame| {
-                                [
-                                    f.normal_curvature,
-                                    f.geodesic_curvature,
-                                    f.geodesic_torsion,
-                                    f.speed,
-                                    f.principal.k1,
-                                    f.principal.k2,
-                                    f.principal.gaussian,
-                                    f.conditioning.surface,
-                                    f.conditioning.curve,
-                                    f.t.x,
-                                    f.b.y,
-                                    f.n.z,
-                                    f.principal.d1.x,
-                                    f.principal.d2.z,
-                                ]
-                                .map(f64::to_bits)
-                            };
+                            let bits = |f: &DarbouxFrame| f.to_array().map(f64::to_bits);
                             assert_eq!(bits(&p), bits(&q), "lane {i}");
                         }
                     }
