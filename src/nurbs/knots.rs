@@ -229,3 +229,19 @@ impl KnotVector {
         lo
     }
 }
+
+/// A knot vector for unit tests: degree `deg`, `n` control points, clamped for odd degrees and
+/// unclamped for even ones, random spacing from `crate::math::lcg`, a double interior knot.
+#[cfg(test)]
+pub(crate) fn random_test_knots(deg: usize, n: usize, st: &mut u64) -> Vec<f64> {
+    let mut k: Vec<f64> = Vec::new();
+    let mut x = 0.0;
+    for i in 0..n + deg + 1 {
+        let clamped = deg % 2 == 1 && (i <= deg || i > n);
+        if !(clamped || i == deg + 2) {
+            x += 0.05 + crate::math::lcg(st);
+        }
+        k.push(x);
+    }
+    k
+}

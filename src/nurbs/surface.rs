@@ -612,18 +612,7 @@ mod tests {
             (9, 2),
         ] {
             let (nu, nv) = (p + 4, q + 5);
-            let knots = |deg: usize, n: usize, st: &mut u64| -> Vec<f64> {
-                let mut k: Vec<f64> = Vec::new();
-                let mut x = 0.0;
-                for i in 0..n + deg + 1 {
-                    let clamped = deg % 2 == 1 && (i <= deg || i > n);
-                    if !(clamped || i == deg + 2) {
-                        x += 0.05 + lcg(st);
-                    }
-                    k.push(x);
-                }
-                k
-            };
+            let knots = crate::nurbs::knots::random_test_knots;
             let ku = knots(p, nu, &mut st);
             let kv = knots(q, nv, &mut st);
             let pts: Vec<[f64; 3]> = (0..nu * nv)

@@ -195,20 +195,7 @@ mod tests {
 
     use crate::math::lcg;
 
-    /// A knot vector for degree `deg` and `n` control points: clamped for odd degrees,
-    /// unclamped for even ones, random spacing, a double interior knot.
-    fn knots(deg: usize, n: usize, st: &mut u64) -> Vec<f64> {
-        let mut k: Vec<f64> = Vec::new();
-        let mut x = 0.0;
-        for i in 0..n + deg + 1 {
-            let clamped = deg % 2 == 1 && (i <= deg || i > n);
-            if !(clamped || i == deg + 2) {
-                x += 0.05 + lcg(st);
-            }
-            k.push(x);
-        }
-        k
-    }
+    use crate::nurbs::knots::random_test_knots as knots;
 
     fn surface(p: usize, q: usize, rational: bool, st: &mut u64) -> NurbsSurface {
         let (nu, nv) = (p + 5, q + 4);
