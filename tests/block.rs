@@ -17,18 +17,9 @@ use strake::{
     SurfaceSource, UvCurve, Vec3,
 };
 
-/// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
-struct Lcg(u64);
-
-impl Lcg {
-    fn next(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (self.0 >> 11) as f64 / (1u64 << 53) as f64
-    }
-}
+#[path = "support/lcg.rs"]
+mod lcg;
+use lcg::Lcg;
 
 /// The one-point path, sample after sample with carried hints (the loop the batch replaces).
 fn reference<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(

@@ -8,21 +8,9 @@ use strake::{
     CurveJet, CurveOnSurface, FnCurve, Hints, Interval, NurbsCurve, SpanHint, StrakeError, UvCurve,
 };
 
-/// 64-bit LCG (Knuth's MMIX constants; common practice) for reproducible inputs.
-struct Lcg(u64);
-
-impl Lcg {
-    fn next(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (self.0 >> 11) as f64 / (1u64 << 53) as f64
-    }
-    fn below(&mut self, n: usize) -> usize {
-        ((self.next() * n as f64) as usize).min(n - 1)
-    }
-}
+#[path = "support/lcg.rs"]
+mod lcg;
+use lcg::Lcg;
 
 /// A curve of degree `p` with 9 control points: clamped or not, a double interior knot, random
 /// knot spacing and control points, weights when `rational`.

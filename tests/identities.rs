@@ -13,20 +13,9 @@ use strake::{
     SurfacePoint, SurfaceSource, darboux_frame, principal_angle,
 };
 
-/// A small deterministic generator (64-bit LCG, Knuth's MMIX constants), enough to vary inputs.
-struct Lcg(u64);
-impl Lcg {
-    fn next(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (self.0 >> 11) as f64 / (1u64 << 53) as f64
-    }
-    fn range(&mut self, lo: f64, hi: f64) -> f64 {
-        lo + (hi - lo) * self.next()
-    }
-}
+#[path = "support/lcg.rs"]
+mod lcg;
+use lcg::Lcg;
 
 /// (surface jet, scales) samples from three surfaces at pseudo-random points.
 fn samples() -> Vec<(SurfaceJet, ParamScales, f64, f64)> {

@@ -7,19 +7,9 @@ use strake::path::{CurveOnSurface, Hints};
 use strake::surface::{FnSurface, SurfaceHint, SurfaceSource};
 use strake::{Orientation, StrakeError, uv_line};
 
-/// A small deterministic generator (64-bit LCG, Knuth's MMIX constants; common practice) so the
-/// test data does not depend on a crate.
-struct Lcg(u64);
-
-impl Lcg {
-    fn next(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (self.0 >> 11) as f64 / (1u64 << 53) as f64
-    }
-}
+#[path = "support/lcg.rs"]
+mod lcg;
+use lcg::Lcg;
 
 /// A bicubic rational 8 × 8 wavy sheet (a "wing skin") with non-uniform knots in u, a double
 /// interior knot in v and weights in [0.5, 2].

@@ -582,6 +582,36 @@ impl SurfaceSource for NurbsSurface {
     }
 }
 
+/// A surface for unit tests: degrees (p, q), nu × nv control points with coordinates and
+/// weights drawn from `crate::math::lcg` (weights in [0.3, 2.3), used when `rational`), knot
+/// vectors from [`super::knots::random_test_knots`].
+#[cfg(test)]
+pub(crate) fn random_test_surface(
+    p: usize,
+    q: usize,
+    nu: usize,
+    nv: usize,
+    rational: bool,
+    st: &mut u64,
+) -> NurbsSurface {
+    use crate::math::lcg;
+    let ku = super::knots::random_test_knots(p, nu, st);
+    let kv = super::knots::random_test_knots(q, nv, st);
+    let pts: Vec<[f64; 3]> = (0..nu * nv).map(|_| [lcg(st), lcg(st), lcg(st)]).collect();
+    let ws: Vec<f64> = (0..nu * nv).map(|_| 0.3 + 2.0 * lcg(st)).collect();
+    NurbsSurface::new(&NurbsSurfaceData {
+        degree_u: p,
+        degree_v: q,
+        count_u: nu,
+        count_v: nv,
+        knots_u: &ku,
+        knots_v: &kv,
+        points: &pts,
+        weights: rational.then_some(&ws[..]),
+    })
+    .unwrap()
+}
+
 #[cfg(test)]
 mod tests {
     use super::super::quad::Scalar;
@@ -611,25 +641,7 @@ mod tests {
             (3, 7),
             (9, 2),
         ] {
-            let (nu, nv) = (p + 4, q + 5);
-            let knots = crate::nurbs::knots::random_test_knots;
-            let ku = knots(p, nu, &mut st);
-            let kv = knots(q, nv, &mut st);
-            let pts: Vec<[f64; 3]> = (0..nu * nv)
-                .map(|_| [lcg(&mut st), lcg(&mut st), lcg(&mut st)])
-                .collect();
-            let ws: Vec<f64> = (0..nu * nv).map(|_| 0.3 + 2.0 * lcg(&mut st)).collect();
-            let s = NurbsSurface::new(&NurbsSurfaceData {
-                degree_u: p,
-                degree_v: q,
-                count_u: nu,
-                count_v: nv,
-                knots_u: &ku,
-                knots_v: &kv,
-                points: &pts,
-                weights: Some(&ws),
-            })
-            .unwrap();
+            let s = random_test_surface(p, q, p + 4, q + 5, true, &mut st);
             let (du, dv) = (s.u_knots.domain(), s.v_knots.domain());
             let mut h = SurfaceHint::default();
             for i in 0..200 {

@@ -188,32 +188,15 @@ fn lane<const N: usize>(rows: &[[L; N]; 3], l: usize) -> [[f64; N]; 3] {
 #[cfg(test)]
 mod tests {
     use super::super::super::quad::Scalar;
-    use super::super::NurbsSurfaceData;
     use super::*;
     use crate::nurbs::SpanHint;
     use crate::surface::SurfaceSource;
 
     use crate::math::lcg;
 
-    use crate::nurbs::knots::random_test_knots as knots;
-
+    /// A random surface with (p + 5) × (q + 4) control points.
     fn surface(p: usize, q: usize, rational: bool, st: &mut u64) -> NurbsSurface {
-        let (nu, nv) = (p + 5, q + 4);
-        let ku = knots(p, nu, st);
-        let kv = knots(q, nv, st);
-        let pts: Vec<[f64; 3]> = (0..nu * nv).map(|_| [lcg(st), lcg(st), lcg(st)]).collect();
-        let ws: Vec<f64> = (0..nu * nv).map(|_| 0.3 + 2.0 * lcg(st)).collect();
-        NurbsSurface::new(&NurbsSurfaceData {
-            degree_u: p,
-            degree_v: q,
-            count_u: nu,
-            count_v: nv,
-            knots_u: &ku,
-            knots_v: &kv,
-            points: &pts,
-            weights: rational.then_some(&ws[..]),
-        })
-        .unwrap()
+        super::super::random_test_surface(p, q, p + 5, q + 4, rational, st)
     }
 
     /// A parameter in `kv`'s domain: mostly marching forward (so that hints hit), sometimes
