@@ -12,7 +12,7 @@ mod common;
 
 use common::{Lcg, POINTS, wing_skin};
 use criterion::{Criterion, Throughput, black_box, criterion_group, criterion_main};
-use strake::jet::{DerivOrder, SurfaceJet};
+use strake::geometry::jet::{DerivOrder, SurfaceJet};
 use strake::surface::{SurfaceHint, SurfaceSource};
 
 fn bench(c: &mut Criterion) {

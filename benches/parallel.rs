@@ -1,5 +1,5 @@
 //! The parallel batch entry points on the host's number of threads: the same 65 536-sample path
-//! (`benches/common`) through `strake::parallel::frames_at_parallel` and through the C ABI's
+//! (`benches/common`) through `CurveOnSurface::frames_at_parallel` and through the C ABI's
 //! `strake_frames_at_parallel` with a native surface, on 1 thread (the serial batch) and on 2
 //! (scoped threads started and joined within the call).
 
@@ -9,7 +9,6 @@ mod common;
 use common::*;
 use criterion::{Criterion, Throughput, black_box, criterion_group, criterion_main};
 use strake::ffi::StrakeFrame;
-use strake::parallel::frames_at_parallel;
 use strake::{CurveOnSurface, Hints};
 
 const N: usize = 65536;
@@ -29,7 +28,8 @@ fn bench(c: &mut Criterion) {
     for threads in [1, 2] {
         g.bench_function(format!("frames_at_parallel_{threads}_threads"), |b| {
             b.iter(|| {
-                frames_at_parallel(&cs, black_box(&ts), &mut out, threads).unwrap();
+                cs.frames_at_parallel(black_box(&ts), &mut out, threads)
+                    .unwrap();
                 black_box(&mut out);
             })
         });

@@ -6,8 +6,8 @@ use criterion::{Criterion, Throughput, criterion_group, criterion_main};
 use std::hint::black_box;
 use strake::analytic::torus;
 use strake::nurbs::interpolate::{Parametrization, interpolate};
-use strake::projection::{ProjectionOptions, project_points};
-use strake::sampling::{
+use strake::paths::projection::{ProjectionOptions, project_points};
+use strake::paths::sampling::{
     ChordalOptions, DEFAULT_ARC_TOLERANCE, sample_chordal, sample_even_arc, sample_even_t,
 };
 use strake::{CurveOnSurface, DerivOrder, SurfaceHint, SurfaceSource};

@@ -28,13 +28,13 @@
 //!
 //! To evaluate below the refusal limits, the surface point is built with
 //! [`SurfacePoint::new_with_limit`] (limit 0), and the speed figure, which is proportional to
-//! the t extent and to nothing else, is kept above [`strake::frame::STALLED_CURVE_LIMIT`] by
+//! the t extent and to nothing else, is kept above [`strake::geometry::frame::STALLED_CURVE_LIMIT`] by
 //! passing a t extent of 1e30; the figures printed are those of the true extents.
 
 use std::collections::HashMap;
-use strake::frame::{curve_speed_figure, darboux_frame_at};
-use strake::math::vec3;
-use strake::principal::surface_conditioning;
+use strake::geometry::frame::{curve_speed_figure, darboux_frame_at};
+use strake::geometry::math::vec3;
+use strake::geometry::principal::surface_conditioning;
 use strake::{
     CurveJet, DerivOrder, Orientation, ParamScales, SurfaceJet, SurfacePoint, SurfaceSource,
     analytic,

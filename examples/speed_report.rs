@@ -20,9 +20,8 @@ use std::cell::RefCell;
 use std::hint::black_box;
 use std::time::Instant;
 use strake::ffi::{StrakeFrame, StrakeSurfaceJet, strake_curve_free, strake_surface_free};
-use strake::jet::{CurveJet, DerivOrder, SurfaceJet};
+use strake::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use strake::nurbs::SpanHint;
-use strake::parallel::frames_at_parallel;
 use strake::surface::{SurfaceHint, SurfaceSource};
 use strake::{
     CurveOnSurface, DarbouxFrame, Hints, Orientation, UvCurve, darboux_frame, darboux_frames,
@@ -612,13 +611,15 @@ fn main() {
             c_frames_at(c_batch, c_line, &ts, &mut out_c.borrow_mut())
         }),
         Case::new("parallel: frames_at_parallel, 1 thread", N_PARALLEL, || {
-            frames_at_parallel(&cs, &ts_par, &mut out_par.borrow_mut(), 1).unwrap();
+            cs.frames_at_parallel(&ts_par, &mut out_par.borrow_mut(), 1)
+                .unwrap();
         }),
         Case::new(
             "parallel: frames_at_parallel, 2 threads",
             N_PARALLEL,
             || {
-                frames_at_parallel(&cs, &ts_par, &mut out_par.borrow_mut(), 2).unwrap();
+                cs.frames_at_parallel(&ts_par, &mut out_par.borrow_mut(), 2)
+                    .unwrap();
             },
         ),
         Case::new("parallel: C, native, 1 thread", N_PARALLEL, || {
@@ -631,14 +632,16 @@ fn main() {
             "parallel, long path: frames_at_parallel, 1 thread",
             N_PARALLEL_LONG,
             || {
-                frames_at_parallel(&cs, &ts_long, &mut out_long.borrow_mut(), 1).unwrap();
+                cs.frames_at_parallel(&ts_long, &mut out_long.borrow_mut(), 1)
+                    .unwrap();
             },
         ),
         Case::new(
             "parallel, long path: frames_at_parallel, 2 threads",
             N_PARALLEL_LONG,
             || {
-                frames_at_parallel(&cs, &ts_long, &mut out_long.borrow_mut(), 2).unwrap();
+                cs.frames_at_parallel(&ts_long, &mut out_long.borrow_mut(), 2)
+                    .unwrap();
             },
         ),
     ];

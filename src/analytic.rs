@@ -2,9 +2,9 @@
 //! cylinder, torus, plane and Monge patches. Each returns a [`FnSurface`].
 
 use crate::error::Result;
-use crate::jet::{DerivOrder, Interval, SurfaceJet};
-use crate::math::Vec3;
-use crate::principal::Orientation;
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::math::Vec3;
+use crate::geometry::principal::Orientation;
 use crate::surface::FnSurface;
 use std::f64::consts::{PI, TAU};
 

@@ -81,7 +81,7 @@ pub enum StrakeError {
         u: f64,
         /// Surface parameter v.
         v: f64,
-        /// The conditioning figure that fell below the threshold (see [`crate::frame`]).
+        /// The conditioning figure that fell below the threshold (see [`crate::geometry::frame`]).
         conditioning: f64,
     },
     /// The curve stalls at this parameter: its velocity vanishes relative to its scale, so
@@ -89,7 +89,7 @@ pub enum StrakeError {
     StalledCurve {
         /// Curve parameter t.
         t: f64,
-        /// The speed figure that fell below the threshold (see [`crate::frame`]).
+        /// The speed figure that fell below the threshold (see [`crate::geometry::frame`]).
         speed_figure: f64,
     },
     /// An input point of a batch (points to interpolate, points to project) was refused;

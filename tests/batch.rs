@@ -2,7 +2,6 @@
 //! the failing index.
 
 use strake::analytic::torus;
-use strake::parallel::frames_at_parallel;
 use strake::{
     CurveJet, CurveOnSurface, DarbouxFrame, FnCurve, Hints, Interval, NurbsCurve, StrakeError,
 };
@@ -43,7 +42,7 @@ fn serial_batch_even_and_parallel_agree_with_single_frames() {
     assert_eq!(even, single);
     for threads in [1, 2, 3, 8] {
         let mut par = vec![blank; n];
-        frames_at_parallel(&cs, &ts, &mut par, threads).unwrap();
+        cs.frames_at_parallel(&ts, &mut par, threads).unwrap();
         assert_eq!(par, single, "threads = {threads}");
     }
 }
@@ -58,7 +57,7 @@ fn failures_report_the_lowest_index() {
     ts[2100] = 1.5;
     ts[2900] = f64::NAN;
     let mut out: Vec<DarbouxFrame> = vec![cs.frame(0.0, &mut Hints::default()).unwrap(); n];
-    let e = frames_at_parallel(&cs, &ts, &mut out, 2).unwrap_err();
+    let e = cs.frames_at_parallel(&ts, &mut out, 2).unwrap_err();
     assert_eq!(e.index, 2100);
     assert!(matches!(
         e.error,
@@ -67,7 +66,7 @@ fn failures_report_the_lowest_index() {
     let e = cs.frames_at(&ts, &mut out).unwrap_err();
     assert_eq!(e.index, 2100);
     assert!(e.to_string().contains("sample 2100"));
-    assert!(frames_at_parallel(&cs, &ts, &mut out, 0).is_err());
+    assert!(cs.frames_at_parallel(&ts, &mut out, 0).is_err());
     assert!(cs.frames_at(&ts[..10], &mut out).is_err());
 }
 
@@ -92,7 +91,7 @@ fn pieces_over_threads_report_the_lowest_failure() {
     for threads in [2, 3, 4] {
         for _ in 0..5 {
             let mut out = vec![blank; n];
-            let e = frames_at_parallel(&cs, &ts, &mut out, threads).unwrap_err();
+            let e = cs.frames_at_parallel(&ts, &mut out, threads).unwrap_err();
             assert_eq!(e.index, 9_100, "threads = {threads}: {e}");
             assert!(matches!(e.error, StrakeError::NonFinite { .. }), "{e}");
             assert_eq!(out[..9_100], want[..9_100], "threads = {threads}");
@@ -124,7 +123,7 @@ fn a_panic_in_any_worker_reaches_the_caller() {
         let blank = cs.frame(0.5, &mut Hints::default()).unwrap();
         let mut out = vec![blank; n];
         let r = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-            frames_at_parallel(&cs, &ts, &mut out, 2)
+            cs.frames_at_parallel(&ts, &mut out, 2)
         }));
         let payload = r.expect_err("the worker's panic must reach the caller");
         let text = payload

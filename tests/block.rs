@@ -10,7 +10,6 @@
 
 use std::f64::consts::{PI, TAU};
 use strake::analytic::{monge, plane, saddle, sphere, torus};
-use strake::parallel::frames_at_parallel;
 use strake::{
     CurveJet, CurveOnSurface, DarbouxFrame, DerivOrder, FnCurve, FnSurface, Hints, Interval,
     NurbsCurve, NurbsSurface, NurbsSurfaceData, Orientation, SampleError, StrakeError, SurfaceJet,
@@ -80,7 +79,7 @@ fn same<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     if want_err.is_none() {
         for threads in [2, 3] {
             let mut par = vec![blank; ts.len()];
-            frames_at_parallel(cs, ts, &mut par, threads).unwrap();
+            cs.frames_at_parallel(ts, &mut par, threads).unwrap();
             for (a, b) in par.iter().zip(&want) {
                 assert_eq!(bits(a), bits(b), "parallel, {threads} threads");
             }

@@ -12,7 +12,7 @@ use std::f64::consts::{FRAC_1_SQRT_2, PI, TAU};
 use std::ptr;
 use strake::analytic::{cylinder, plane as plane_surface, sphere as sphere_surface, torus};
 use strake::ffi::*;
-use strake::sampling::{ChordalOptions, sample_chordal, sample_even_arc, sample_even_t};
+use strake::paths::sampling::{ChordalOptions, sample_chordal, sample_even_arc, sample_even_t};
 use strake::{
     CurveOnSurface, EndDerivatives, FitOptions, Hints, NurbsCurve, Parametrization, PathSample,
     ProjectionOptions, SurfaceSource, UvCurve, interpolate, project_points,

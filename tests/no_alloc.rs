@@ -11,7 +11,6 @@ use std::ffi::c_void;
 use std::sync::atomic::{AtomicUsize, Ordering};
 use strake::analytic::torus;
 use strake::ffi::*;
-use strake::parallel::frames_at_parallel;
 use strake::{
     CurveJet, CurveOnSurface, DarbouxFrame, DerivOrder, Hints, NurbsCurve, NurbsSurface,
     NurbsSurfaceData, Orientation, SpanHint, SurfaceHint, SurfaceJet, SurfaceSource, UvCurve,
@@ -127,14 +126,14 @@ fn evaluation_paths_do_not_allocate() {
     assert_eq!(a, 0, "darboux_frames allocated {a} times");
 
     // The parallel batch: none on one thread; per call (thread handles) on two.
-    let (r, a) = count(|| frames_at_parallel(&cs, &ts, &mut out, 1));
+    let (r, a) = count(|| cs.frames_at_parallel(&ts, &mut out, 1));
     r.unwrap();
     assert_eq!(a, 0, "frames_at_parallel(1 thread) allocated {a} times");
     let ts2: Vec<f64> = (0..2 * n).map(|i| i as f64 / (2 * n - 1) as f64).collect();
     let mut out2 = vec![out[0]; 2 * n];
-    let (r, a1) = count(|| frames_at_parallel(&cs, &ts, &mut out, 2));
+    let (r, a1) = count(|| cs.frames_at_parallel(&ts, &mut out, 2));
     r.unwrap();
-    let (r, a2) = count(|| frames_at_parallel(&cs, &ts2, &mut out2, 2));
+    let (r, a2) = count(|| cs.frames_at_parallel(&ts2, &mut out2, 2));
     r.unwrap();
     assert_eq!(
         a1,

@@ -38,11 +38,11 @@
 
 use std::f64::consts::{FRAC_PI_2, TAU};
 use strake::curve::uv_line;
-use strake::jet::{DerivOrder, SurfaceJet};
-use strake::math::Vec3;
+use strake::geometry::jet::{DerivOrder, SurfaceJet};
+use strake::geometry::math::Vec3;
 use strake::nurbs::conics::{self, CircleForm};
 use strake::nurbs::{NurbsCurve, NurbsSurface, SpanHint};
-use strake::path::{CurveOnSurface, Hints};
+use strake::paths::curve_on_surface::{CurveOnSurface, Hints};
 use strake::surface::SurfaceHint;
 
 /// Angle map of a circle or arc made of equal rational quadratic arcs.

@@ -1,9 +1,9 @@
 //! The native NURBS surface as a surface source: agreement with the same surface through the
 //! closure path, validation on creation, domain checks, and span hints.
 
-use strake::jet::{DerivOrder, Interval, SurfaceJet};
+use strake::geometry::jet::{DerivOrder, Interval, SurfaceJet};
 use strake::nurbs::{MAX_DEGREE, NurbsSurface, NurbsSurfaceData, SpanHint};
-use strake::path::{CurveOnSurface, Hints};
+use strake::paths::curve_on_surface::{CurveOnSurface, Hints};
 use strake::surface::{FnSurface, SurfaceHint, SurfaceSource};
 use strake::{Orientation, StrakeError, uv_line};
 

@@ -9,7 +9,7 @@
 //! The tests read the committed data; no Python is needed. One optional test reruns the
 //! generator when python3 with scipy and sympy is available and checks the committed data.
 
-use strake::jet::DerivOrder;
+use strake::geometry::jet::DerivOrder;
 use strake::nurbs::{KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, SpanHint, basis_rows};
 use strake::surface::SurfaceHint;
 

@@ -9,7 +9,7 @@
 
 use std::f64::consts::{PI, TAU};
 use strake::analytic::{cylinder, monge, plane, torus};
-use strake::projection::{FitOptions, ProjectionOptions, project_curve, project_points};
+use strake::paths::projection::{FitOptions, ProjectionOptions, project_curve, project_points};
 use strake::{
     CurveOnSurface, DerivOrder, Hints, NurbsCurve, StrakeError, SurfaceHint, SurfaceSource,
     UvCurve, Vec3, uv_curve_through_points,

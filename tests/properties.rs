@@ -19,7 +19,7 @@
 
 use proptest::prelude::*;
 use proptest::test_runner::RngSeed;
-use strake::math::vec3;
+use strake::geometry::math::vec3;
 use strake::{
     CurveJet, DarbouxFrame, Orientation, ParamScales, SurfaceJet, Vec3, darboux_frame,
     principal_angle,

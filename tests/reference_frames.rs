@@ -19,7 +19,7 @@ use reference::{
 };
 use std::process::Command;
 use strake::analytic;
-use strake::math::{arr3, vec3};
+use strake::geometry::math::{arr3, vec3};
 use strake::{
     CurveJet, CurveOnSurface, DarbouxFrame, FnCurve, Hints, Interval, Orientation, ParamScales,
     SurfaceJet, SurfaceSource, darboux_frame,

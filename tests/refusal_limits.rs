@@ -3,9 +3,9 @@
 //! accuracy measured in `docs/accuracy.md` (relative error below 1e-6 even with jets that carry
 //! an evaluator's rounding error), checked against closed forms.
 
-use strake::frame::STALLED_CURVE_LIMIT;
-use strake::math::vec3;
-use strake::principal::DEGENERATE_SURFACE_LIMIT;
+use strake::geometry::frame::STALLED_CURVE_LIMIT;
+use strake::geometry::math::vec3;
+use strake::geometry::principal::DEGENERATE_SURFACE_LIMIT;
 use strake::{
     CurveJet, DerivOrder, Orientation, ParamScales, StrakeError, SurfaceJet, SurfaceSource,
     analytic, darboux_frame,

@@ -3,7 +3,7 @@
 
 use std::f64::consts::{PI, TAU};
 use strake::analytic::{cylinder, plane, sphere, torus};
-use strake::sampling::{
+use strake::paths::sampling::{
     ChordalOptions, DEFAULT_ARC_TOLERANCE, SampleSink, SinkFn, arc_length, chord_length_for,
     sample_chordal, sample_even_arc, sample_even_t,
 };

@@ -11,8 +11,8 @@ use strake::ffi::{
     StrakeSurfaceJet, strake_curve_new_nurbs, strake_frames_at, strake_frames_at_parallel,
     strake_surface_from_batch_callback, strake_surface_from_callback, strake_surface_new_nurbs,
 };
-use strake::frame::{ParamScales, darboux_frame};
-use strake::jet::{CurveJet, DerivOrder, SurfaceJet};
+use strake::geometry::frame::{ParamScales, darboux_frame};
+use strake::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use strake::nurbs::{NurbsCurve, NurbsSurface, NurbsSurfaceData, SpanHint};
 use strake::surface::SurfaceHint;
 use strake::{DarbouxFrame, Orientation, Result, UvCurve};

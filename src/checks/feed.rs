@@ -10,7 +10,7 @@
 //! mm/s², jerk in mm/s³, curvature in 1/mm.
 
 use crate::error::{Result, StrakeError};
-use crate::frame::{DarbouxFrame, space_curvature};
+use crate::geometry::frame::{DarbouxFrame, space_curvature};
 
 /// Machine limits for the feed rule.
 #[derive(Debug, Clone, Copy, PartialEq)]

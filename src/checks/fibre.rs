@@ -13,7 +13,7 @@
 //! 35(21) (2016) 1527–1542). Use your own material's qualified limits.
 
 use crate::error::{Result, StrakeError};
-use crate::frame::DarbouxFrame;
+use crate::geometry::frame::DarbouxFrame;
 
 /// Limits for a fibre course (lengths in the host's unit).
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -23,7 +23,7 @@
 use super::cutter::{Cutter, ToolSide};
 use super::tool_axis::ToolAngles;
 use crate::error::Result;
-use crate::frame::DarbouxFrame;
+use crate::geometry::frame::DarbouxFrame;
 
 /// The local gouge situation at one sample.
 #[derive(Debug, Clone, Copy, PartialEq)]

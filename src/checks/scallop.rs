@@ -22,7 +22,7 @@
 
 use super::cutter::ToolSide;
 use crate::error::{Result, StrakeError};
-use crate::frame::DarbouxFrame;
+use crate::geometry::frame::DarbouxFrame;
 
 /// The curvature across the path, concave toward the tool: κ = s κn(B), the normal curvature
 /// in the direction B = N × T (across the path, in the tangent plane) times the tool-side sign

@@ -8,7 +8,7 @@
 //! (e.g. a curvature against the inverse of the smallest radius).
 
 use crate::error::{Result, StrakeError};
-use crate::path::PathSample;
+use crate::paths::curve_on_surface::PathSample;
 
 /// Where a sample lies along a path: what the summaries need of it. Implemented by
 /// [`PathSample`] (and by the C ABI's sample struct).

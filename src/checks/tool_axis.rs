@@ -12,8 +12,8 @@
 
 use super::cutter::ToolSide;
 use crate::error::{Result, StrakeError};
-use crate::frame::DarbouxFrame;
-use crate::math::Vec3;
+use crate::geometry::frame::DarbouxFrame;
+use crate::geometry::math::Vec3;
 
 /// Lead and tilt angles (radians).
 #[derive(Debug, Clone, Copy, PartialEq)]

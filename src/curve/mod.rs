@@ -3,7 +3,7 @@
 //! C ABI).
 
 use crate::error::{Result, StrakeError};
-use crate::jet::{CurveJet, DerivOrder, Interval};
+use crate::geometry::jet::{CurveJet, DerivOrder, Interval};
 use crate::nurbs::{NurbsCurve, SpanHint};
 
 /// A curve t ↦ (u(t), v(t)) in a surface's parameter plane.

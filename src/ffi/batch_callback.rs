@@ -7,10 +7,10 @@ use super::guard::{Failure, guard, output};
 use super::status::StrakeStatus;
 use super::surface::{StrakeSurface, callback_domain, publish};
 use super::types::StrakeSurfaceJet;
-use crate::batch::CHUNK;
+use crate::engine::batch::CHUNK;
 use crate::error::{Result, StrakeError};
-use crate::jet::{DerivOrder, Interval, SurfaceJet};
-use crate::principal::Orientation;
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
 use std::ffi::c_void;
 

@@ -25,7 +25,7 @@ use crate::checks::{
     scallop_height_approx, step_over_for_scallop, step_over_for_scallop_approx, tool_axis,
     violations,
 };
-use crate::frame::DarbouxFrame;
+use crate::geometry::frame::DarbouxFrame;
 use std::mem::MaybeUninit;
 use std::ptr::NonNull;
 

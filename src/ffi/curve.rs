@@ -8,7 +8,7 @@ use super::surface::finite;
 use super::types::StrakeCurveJet;
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
-use crate::jet::{CurveJet, Interval};
+use crate::geometry::jet::{CurveJet, Interval};
 use crate::nurbs::{NurbsCurve, SpanHint};
 use std::ffi::c_void;
 

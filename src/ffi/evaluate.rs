@@ -4,7 +4,7 @@
 //! Outputs are written only on success. The batch calls evaluate into one scratch buffer
 //! allocated per call (never per point), and copy it to the host's array once every sample has
 //! succeeded; a failure names the sample's index and parameter. They evaluate a block of points
-//! at a time (`crate::batch`; the frame kernel writes straight into the scratch buffer's C
+//! at a time (`crate::engine::batch`; the frame kernel writes straight into the scratch buffer's C
 //! frames) with the results of `strake_frame_at` at each parameter, bit for bit.
 
 use super::curve::StrakeCurve;
@@ -13,9 +13,9 @@ use super::status::StrakeStatus;
 use super::surface::{StrakeSurface, orientation};
 use super::types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurfaceJet};
 use crate::error::StrakeError;
-use crate::frame::{ParamScales, darboux_frame};
-use crate::jet::{CurveJet, SurfaceJet};
-use crate::path::{CurveOnSurface, Hints};
+use crate::geometry::frame::{ParamScales, darboux_frame};
+use crate::geometry::jet::{CurveJet, SurfaceJet};
+use crate::paths::curve_on_surface::{CurveOnSurface, Hints};
 use std::mem::MaybeUninit;
 
 /// Computes the frame at curve parameter `t` of `curve` lying on `surface`.
@@ -79,7 +79,7 @@ pub(crate) unsafe fn publish_frames(
 // layout (both `#[repr(C)]`; `[f64; 3]` and `Vec3` are three f64 x, y, z), so the frame kernel
 // can write a `DarbouxFrame` at the C frame's `u` (`IntoScratch`).
 const _: () = {
-    use crate::frame::DarbouxFrame;
+    use crate::geometry::frame::DarbouxFrame;
     use std::mem::{offset_of, size_of};
     const T: usize = offset_of!(StrakeFrame, u);
     assert!(offset_of!(StrakeFrame, curve_param) == 0 && T == size_of::<f64>());
@@ -126,15 +126,15 @@ const _: () = {
 /// one-point path are converted by [`StrakeFrame::new`].
 pub(crate) struct IntoScratch<'a>(&'a mut [MaybeUninit<StrakeFrame>]);
 
-impl crate::batch::FrameSink for IntoScratch<'_> {
+impl crate::engine::batch::FrameSink for IntoScratch<'_> {
     #[inline]
-    fn room(&mut self, base: usize, len: usize) -> crate::frame_block::FrameSlots<'_> {
+    fn room(&mut self, base: usize, len: usize) -> crate::engine::frame_block::FrameSlots<'_> {
         let room = &mut self.0[base..base + len];
         let first = room.as_mut_ptr() as *mut u8;
         // SAFETY: C frame i of `room` holds a `DarbouxFrame` at byte offset 8, aligned for it
         // (the layout checked above); the frames are disjoint and borrowed from `self`.
         unsafe {
-            crate::frame_block::FrameSlots::from_raw(
+            crate::engine::frame_block::FrameSlots::from_raw(
                 first.add(std::mem::offset_of!(StrakeFrame, u)),
                 std::mem::size_of::<StrakeFrame>(),
                 len,
@@ -150,12 +150,12 @@ impl crate::batch::FrameSink for IntoScratch<'_> {
     }
 
     #[inline]
-    fn put(&mut self, index: usize, t: f64, frame: &crate::frame::DarbouxFrame) {
+    fn put(&mut self, index: usize, t: f64, frame: &crate::geometry::frame::DarbouxFrame) {
         self.0[index] = MaybeUninit::new(StrakeFrame::new(t, frame));
     }
 }
 
-impl crate::batch::SinkSlice for MaybeUninit<StrakeFrame> {
+impl crate::engine::batch::SinkSlice for MaybeUninit<StrakeFrame> {
     type Sink<'a> = IntoScratch<'a>;
     #[inline]
     fn sink(slice: &mut [Self]) -> IntoScratch<'_> {
@@ -164,7 +164,7 @@ impl crate::batch::SinkSlice for MaybeUninit<StrakeFrame> {
 }
 
 /// Evaluates `count` samples with parameters `t_of(i)` into a scratch buffer (a block of
-/// points at a time, see `crate::batch`), then copies them to `out`.
+/// points at a time, see `crate::engine::batch`), then copies them to `out`.
 fn batch(
     surface: &StrakeSurface,
     curve: &StrakeCurve,
@@ -174,8 +174,10 @@ fn batch(
 ) -> Result<(), Failure> {
     let pair = CurveOnSurface::new(surface.source(), curve.curve());
     let mut scratch = scratch(count)?;
-    crate::batch::frames_blocked_into(
-        &pair,
+    crate::engine::batch::frames_blocked_into(
+        pair.surface(),
+        pair.curve(),
+        pair.scales(),
         count,
         &mut Hints::default(),
         t_of,

@@ -10,7 +10,7 @@
 use super::message;
 use super::status::StrakeStatus;
 use crate::error::StrakeError;
-use crate::path::SampleError;
+use crate::paths::curve_on_surface::SampleError;
 use std::any::Any;
 use std::mem::MaybeUninit;
 use std::panic::{AssertUnwindSafe, catch_unwind};

@@ -8,8 +8,8 @@ use super::guard::{Failure, check_count, guard, input, input_slice, output};
 use super::status::StrakeStatus;
 use super::surface::StrakeSurface;
 use super::types::StrakeFrame;
-use crate::parallel::frames_parallel_with;
-use crate::path::CurveOnSurface;
+use crate::engine::parallel::frames_parallel_with;
+use crate::paths::curve_on_surface::CurveOnSurface;
 use std::mem::MaybeUninit;
 use std::ptr::NonNull;
 
@@ -77,7 +77,9 @@ pub unsafe extern "C" fn strake_frames_at_parallel(
         let mut buf = scratch(count)?;
         let dest = SharedOut(slot);
         frames_parallel_with(
-            &pair,
+            pair.surface(),
+            pair.curve(),
+            pair.scales(),
             threads as usize,
             |i| ts[i],
             &mut buf,

@@ -12,7 +12,7 @@ use super::status::StrakeStatus;
 use super::surface::StrakeSurface;
 use super::types::{StrakeParametrization, StrakeProjection, StrakeProjectionOptions};
 use crate::nurbs::{EndDerivatives, NurbsCurve, Parametrization, interpolate};
-use crate::projection::{
+use crate::paths::projection::{
     FitOptions, Projection, ProjectionOptions, project_curve, project_points,
     uv_curve_through_points,
 };

@@ -17,8 +17,8 @@ use super::guard::{Failure, OutBuffer, guard, input, out_buffer, output};
 use super::status::StrakeStatus;
 use super::surface::{StrakeSurface, finite};
 use super::types::StrakeSample;
-use crate::path::{CurveOnSurface, PathSample};
-use crate::sampling::{
+use crate::paths::curve_on_surface::{CurveOnSurface, PathSample};
+use crate::paths::sampling::{
     ChordalOptions, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
 use std::mem::MaybeUninit;

@@ -10,8 +10,8 @@ use super::guard::{Failure, guard, input_slice, non_null, output};
 use super::status::StrakeStatus;
 use super::types::StrakeSurfaceJet;
 use crate::error::{NonFiniteSource, Result, StrakeError};
-use crate::jet::{DerivOrder, Interval, SurfaceJet};
-use crate::principal::Orientation;
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
 use std::ffi::c_void;
 

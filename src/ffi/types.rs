@@ -6,12 +6,12 @@ use crate::checks::summary::PathPosition;
 use crate::checks::tool_axis::ToolAxis;
 use crate::checks::{Extremes, FibreState, GougeState, Violation};
 use crate::error::{NonFiniteSource, StrakeError};
-use crate::frame::{Conditioning, DarbouxFrame, ParamScales};
-use crate::jet::{CurveJet, SurfaceJet};
-use crate::math::{arr3, vec3};
-use crate::path::PathSample;
-use crate::principal::PrincipalCurvatures;
-use crate::projection::Projection;
+use crate::geometry::frame::{Conditioning, DarbouxFrame, ParamScales};
+use crate::geometry::jet::{CurveJet, SurfaceJet};
+use crate::geometry::math::{arr3, vec3};
+use crate::geometry::principal::PrincipalCurvatures;
+use crate::paths::curve_on_surface::PathSample;
+use crate::paths::projection::Projection;
 
 /// A surface point S(u, v) with its partial derivatives, filled by a host surface callback
 /// (or passed to `strake_frame_from_jets`). Each entry is an (x, y, z) triple in the host's

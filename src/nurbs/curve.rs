@@ -19,7 +19,7 @@ use super::basis::{
 use super::curve_lanes::{CurveParts, jets_block};
 use super::knots::{KnotVector, SpanHint};
 use crate::error::{Result, StrakeError};
-use crate::jet::{CurveJet, DerivOrder, Interval};
+use crate::geometry::jet::{CurveJet, DerivOrder, Interval};
 
 /// A NURBS curve in D dimensions. Immutable after creation, so it can be evaluated from many
 /// threads at once.
@@ -304,7 +304,7 @@ impl NurbsCurve<2> {
 mod tests {
     use super::*;
 
-    use crate::math::lcg;
+    use crate::geometry::math::lcg;
 
     // Common practice: multiplying by per-span reciprocals of the knot differences gives the
     // same point and derivatives as dividing (the arithmetic of `basis_rows`, The NURBS Book

@@ -10,7 +10,7 @@
 //! the knots, reciprocals and control points each lane reads are gathered from its own span.
 
 use super::knots::{KnotVector, SpanHint};
-use crate::jet::CurveJet;
+use crate::geometry::jet::CurveJet;
 use std::ops::{Add, Mul, Sub};
 
 /// Points evaluated together: four doubles fill one 256-bit AVX register, so a lane-wide value
@@ -131,7 +131,7 @@ impl Lane for Plain {
 mod x86 {
     //! One 256-bit AVX vector per lane-wide value.
     use super::{LANES, Lane};
-    use crate::jet::CurveJet;
+    use crate::geometry::jet::CurveJet;
     use std::arch::x86_64::*;
     use std::ops::{Add, Mul, Sub};
 
@@ -656,10 +656,10 @@ fn derivative_row<T: Lane, const N: usize>(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::jet::DerivOrder;
+    use crate::geometry::jet::DerivOrder;
     use crate::nurbs::NurbsCurve;
 
-    use crate::math::lcg;
+    use crate::geometry::math::lcg;
 
     // Common practice: the lanes in plain arrays (the build without AVX2; on an AVX2 machine
     // the integration tests only reach the AVX lanes) give the bits of the one-point

@@ -342,7 +342,7 @@ pub fn interpolate_with_parameters<const D: usize>(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::jet::DerivOrder;
+    use crate::geometry::jet::DerivOrder;
 
     fn eval<const D: usize>(c: &NurbsCurve<D>, t: f64) -> [f64; D] {
         c.derivs(t, DerivOrder::Position, &mut SpanHint::default())

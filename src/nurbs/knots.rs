@@ -2,7 +2,7 @@
 //! with a hint so that marching along a path does not search from scratch.
 
 use crate::error::{Result, StrakeError};
-use crate::jet::Interval;
+use crate::geometry::jet::Interval;
 
 /// Highest degree strake accepts. Basis functions live in fixed-size stack arrays of
 /// `MAX_DEGREE + 1` entries so that evaluation never allocates.
@@ -231,7 +231,7 @@ impl KnotVector {
 }
 
 /// A knot vector for unit tests: degree `deg`, `n` control points, clamped for odd degrees and
-/// unclamped for even ones, random spacing from `crate::math::lcg`, a double interior knot.
+/// unclamped for even ones, random spacing from `crate::geometry::math::lcg`, a double interior knot.
 #[cfg(test)]
 pub(crate) fn random_test_knots(deg: usize, n: usize, st: &mut u64) -> Vec<f64> {
     let mut k: Vec<f64> = Vec::new();
@@ -239,7 +239,7 @@ pub(crate) fn random_test_knots(deg: usize, n: usize, st: &mut u64) -> Vec<f64> 
     for i in 0..n + deg + 1 {
         let clamped = deg % 2 == 1 && (i <= deg || i > n);
         if !(clamped || i == deg + 2) {
-            x += 0.05 + crate::math::lcg(st);
+            x += 0.05 + crate::geometry::math::lcg(st);
         }
         k.push(x);
     }

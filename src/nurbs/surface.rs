@@ -31,9 +31,9 @@ use super::quad::Scalar as Sse2;
 use super::quad::{Avx, Sse2};
 use super::quad::{Quad, QuadOps};
 use crate::error::{Result, StrakeError};
-use crate::jet::{DerivOrder, Interval, SurfaceJet};
-use crate::math::Vec3;
-use crate::principal::Orientation;
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::math::Vec3;
+use crate::geometry::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
 
 mod block;
@@ -583,7 +583,7 @@ impl SurfaceSource for NurbsSurface {
 }
 
 /// A surface for unit tests: degrees (p, q), nu × nv control points with coordinates and
-/// weights drawn from `crate::math::lcg` (weights in [0.3, 2.3), used when `rational`), knot
+/// weights drawn from `crate::geometry::math::lcg` (weights in [0.3, 2.3), used when `rational`), knot
 /// vectors from [`super::knots::random_test_knots`].
 #[cfg(test)]
 pub(crate) fn random_test_surface(
@@ -594,7 +594,7 @@ pub(crate) fn random_test_surface(
     rational: bool,
     st: &mut u64,
 ) -> NurbsSurface {
-    use crate::math::lcg;
+    use crate::geometry::math::lcg;
     let ku = super::knots::random_test_knots(p, nu, st);
     let kv = super::knots::random_test_knots(q, nv, st);
     let pts: Vec<[f64; 3]> = (0..nu * nv).map(|_| [lcg(st), lcg(st), lcg(st)]).collect();
@@ -617,7 +617,7 @@ mod tests {
     use super::super::quad::Scalar;
     use super::*;
 
-    use crate::math::lcg;
+    use crate::geometry::math::lcg;
 
     // Common practice: multiplying by per-span reciprocals of the knot differences gives the
     // same jets as dividing (the reference arithmetic of `basis_rows`) to 1e-13 relative, for

@@ -3,8 +3,8 @@
 
 use super::{SurfaceHint, SurfaceSource};
 use crate::error::Result;
-use crate::jet::{DerivOrder, Interval, SurfaceJet};
-use crate::principal::Orientation;
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::principal::Orientation;
 
 /// A surface whose jet comes from a closure `f(u, v, order)`.
 pub struct FnSurface<F> {

@@ -6,9 +6,9 @@ mod closure;
 pub use closure::FnSurface;
 
 use crate::error::{Result, StrakeError};
-use crate::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::principal::Orientation;
 use crate::nurbs::SpanHint;
-use crate::principal::Orientation;
 
 /// Remembered knot spans in u and v, for surfaces that have them; ignored by others.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]

@@ -1,5 +1,5 @@
 //! A reproducible generator for test inputs: the 64-bit linear congruential generator with
-//! Knuth's MMIX constants (common practice; the same as `strake::math::lcg` in the unit tests),
+//! Knuth's MMIX constants (common practice; the same as `strake::geometry::math::lcg` in the unit tests),
 //! so that the test data does not depend on a crate.
 
 #![allow(dead_code)]

@@ -19,7 +19,7 @@ use super::super::quad::Scalar as Sse2;
 #[cfg(target_arch = "x86_64")]
 use super::super::quad::{Avx, Sse2};
 use super::NurbsSurface;
-use crate::jet::{DerivOrder, SurfaceJet};
+use crate::geometry::jet::{DerivOrder, SurfaceJet};
 use crate::surface::SurfaceHint;
 
 /// Points evaluated together: the lanes of the basis rows. Four fill
@@ -192,7 +192,7 @@ mod tests {
     use crate::nurbs::SpanHint;
     use crate::surface::SurfaceSource;
 
-    use crate::math::lcg;
+    use crate::geometry::math::lcg;
 
     /// A random surface with (p + 5) × (q + 4) control points.
     fn surface(p: usize, q: usize, rational: bool, st: &mut u64) -> NurbsSurface {

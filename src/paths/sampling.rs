@@ -45,10 +45,10 @@
 
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
-use crate::frame::space_curvature;
-use crate::jet::DerivOrder;
-use crate::math::Vec3;
-use crate::path::{CurveOnSurface, Hints, PathSample, SampleError};
+use crate::geometry::frame::space_curvature;
+use crate::geometry::jet::DerivOrder;
+use crate::geometry::math::Vec3;
+use crate::paths::curve_on_surface::{CurveOnSurface, Hints, PathSample, SampleError};
 use crate::surface::SurfaceSource;
 
 /// Abscissae of the 5-point Gauss–Legendre rule on [−1, 1]: 0, ±(1/3)√(5 − 2√(10/7)),

@@ -10,11 +10,10 @@
 //! operating system gives one of them less time (another program on the same core); with
 //! pieces, the faster thread takes more of them.
 
-use crate::batch::{CHUNK, SinkSlice};
 use crate::curve::UvCurve;
-use crate::error::StrakeError;
-use crate::frame::DarbouxFrame;
-use crate::path::{CurveOnSurface, Hints, SampleError};
+use crate::engine::batch::{CHUNK, SinkSlice};
+use crate::engine::batch::{Hints, SampleError};
+use crate::geometry::frame::ParamScales;
 use crate::surface::SurfaceSource;
 use std::panic::{AssertUnwindSafe, catch_unwind};
 use std::sync::atomic::{AtomicUsize, Ordering};
@@ -40,41 +39,6 @@ fn piece_len(n: usize, threads: usize) -> usize {
     want.clamp(CHUNK, MAX_PIECE).div_ceil(CHUNK) * CHUNK
 }
 
-/// Frames at each of `ts` into `out` (same length), over at most `threads` scoped threads
-/// (pieces of the samples handed out in order to whichever thread is free, each piece with its
-/// own span hints), each piece evaluated like [`CurveOnSurface::frames_at`] (the same bits as
-/// one point at a time, whatever the number of threads). `threads` = 0 is refused; 1 runs on
-/// the calling thread. Fewer threads are started when there are fewer than
-/// [`MIN_SAMPLES_PER_THREAD`] samples per thread. A panic in a worker (e.g. in a Rust closure
-/// surface) is resumed on the calling thread. On failure the error of the lowest failing index
-/// is returned; `out` then holds the frames of the samples before it (as
-/// [`CurveOnSurface::frames_at`] would leave them), while later entries may hold anything: the
-/// frames of pieces done by other threads, the caller's old values, or, from the failing sample
-/// to the end of its chunk of 64, meaningless numbers.
-pub fn frames_at_parallel<S, C>(
-    cs: &CurveOnSurface<'_, S, C>,
-    ts: &[f64],
-    out: &mut [DarbouxFrame],
-    threads: usize,
-) -> Result<(), SampleError>
-where
-    S: SurfaceSource + ?Sized,
-    C: UvCurve + ?Sized,
-{
-    if threads == 0 || ts.len() != out.len() {
-        return Err(SampleError {
-            index: 0,
-            t: f64::NAN,
-            error: StrakeError::InvalidArgument(format!(
-                "threads = {threads}, {} parameters, room for {} frames: need threads >= 1 and equal counts",
-                ts.len(),
-                out.len()
-            )),
-        });
-    }
-    frames_parallel_with(cs, threads, |i| ts[i], out, |_, _| {})
-}
-
 /// What a worker brings back: the first error of its pieces (its lowest failing index, pieces
 /// being taken in increasing order), or the payload of a panic.
 type WorkerEnd = std::thread::Result<Option<SampleError>>;
@@ -82,15 +46,17 @@ type WorkerEnd = std::thread::Result<Option<SampleError>>;
 /// The engine of the parallel batches: sample i has parameter `t_of(i)` and its frame goes to
 /// `out[i]` (written in place by the batch kernel through [`SinkSlice::sink`] of the piece it
 /// lies in), i < `out.len()`; `threads` ≥ 1 (capped as
-/// in [`frames_at_parallel`]). Pieces handed out in order to whichever thread is free; the
-/// calling thread is one of the workers. Errors as in [`frames_at_parallel`].
+/// in [`crate::CurveOnSurface::frames_at_parallel`]). Pieces handed out in order to whichever thread is free; the
+/// calling thread is one of the workers. Errors as in [`crate::CurveOnSurface::frames_at_parallel`].
 ///
 /// When every piece has succeeded, `publish(first, piece)` is called once for each piece
 /// (`first` the index of its first sample), by the worker threads, so that copying the results
 /// to their final place runs in parallel too (the C calls write the host's array only on
 /// success). It is not called at all when any sample fails or any worker panics.
 pub(crate) fn frames_parallel_with<S, C, T, F, P>(
-    cs: &CurveOnSurface<'_, S, C>,
+    surface: &S,
+    curve: &C,
+    scales: ParamScales,
     threads: usize,
     t_of: F,
     out: &mut [T],
@@ -107,8 +73,10 @@ where
     let threads = threads.min(n.div_ceil(MIN_SAMPLES_PER_THREAD)).max(1);
     let t_of = &t_of;
     let run = move |first: usize, oc: &mut [T]| {
-        crate::batch::frames_blocked_into(
-            cs,
+        crate::engine::batch::frames_blocked_into(
+            surface,
+            curve,
+            scales,
             oc.len(),
             &mut Hints::default(),
             |i| t_of(first + i),

@@ -1,7 +1,7 @@
 //! The Darboux frame and invariants of a block of points at once, in structure-of-arrays form.
 //!
-//! The same formulas as [`crate::principal::SurfacePoint::new`] and
-//! [`crate::frame::darboux_frame_at`], in the same order of operations, written once over a
+//! The same formulas as [`crate::geometry::principal::SurfacePoint::new`] and
+//! [`crate::geometry::frame::darboux_frame_at`], in the same order of operations, written once over a
 //! lane-wide type ([`Lane`]) with no branches (the choices become selects), so that the square
 //! roots and divisions of several points overlap instead of waiting on each other (one point at
 //! a time, the frame is bound by their latency). On AVX2 processors ([`FrameKernel`]) the points
@@ -26,13 +26,15 @@
 // vectorised as reliably.
 #![allow(clippy::needless_range_loop)]
 
+use crate::engine::batch::SampleError;
+use crate::engine::lanes::{LANES, Lane, Mask, W, W3};
 use crate::error::StrakeError;
-use crate::frame::{Conditioning, DarbouxFrame, ParamScales, STALLED_CURVE_LIMIT, darboux_frame};
-use crate::jet::{CurveJet, SurfaceJet};
-use crate::lanes::{LANES, Lane, Mask, W, W3};
-use crate::math::Vec3;
-use crate::path::SampleError;
-use crate::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
+use crate::geometry::frame::{
+    Conditioning, DarbouxFrame, ParamScales, STALLED_CURVE_LIMIT, darboux_frame,
+};
+use crate::geometry::jet::{CurveJet, SurfaceJet};
+use crate::geometry::math::Vec3;
+use crate::geometry::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
 use std::marker::PhantomData;
 use std::mem::{MaybeUninit, size_of};
 use std::ops::{Div, Mul};
@@ -264,7 +266,7 @@ pub(crate) fn frames_of_block(
     frames_of_block_portable(x, orientation, s, y)
 }
 
-/// The kernel on AVX registers ([`crate::lanes::x86::Avx4`]), four groups of four lanes.
+/// The kernel on AVX registers ([`crate::engine::lanes::x86::Avx4`]), four groups of four lanes.
 ///
 /// # Safety
 /// The processor must support AVX2.
@@ -276,7 +278,7 @@ unsafe fn frames_of_block_avx2(
     s: &ParamScales,
     y: &mut BlockOutput,
 ) {
-    use crate::lanes::x86::Avx4;
+    use crate::engine::lanes::x86::Avx4;
     for at in (0..BLOCK).step_by(Avx4::N) {
         // SAFETY: the caller promises AVX2.
         unsafe { frames_of_group::<Avx4>(x, orientation, s, y, at) };
@@ -828,7 +830,7 @@ impl FrameKernel {
 #[cfg(target_arch = "x86_64")]
 mod aos {
     use super::*;
-    use crate::lanes::x86::{Avx4, Mask4};
+    use crate::engine::lanes::x86::{Avx4, Mask4};
     use std::mem::{offset_of, size_of};
 
     /// Size of an f64 in bytes.
@@ -1057,7 +1059,7 @@ mod aos {
 }
 
 /// Frames from jets the caller has evaluated, many at once: `out[i]` is
-/// [`crate::frame::darboux_frame`]`(&surface[i], &curve[i], orientation, scales, ts[i])`, bit
+/// [`crate::geometry::frame::darboux_frame`]`(&surface[i], &curve[i], orientation, scales, ts[i])`, bit
 /// for bit, computed a block of [`BLOCK`] points at a time in structure-of-arrays form (the
 /// square roots and divisions of several points overlap). `ts` are the curve parameters, used
 /// only in error messages.
@@ -1136,11 +1138,11 @@ pub(crate) fn finite_rest(s: &SurfaceJet, c: &CurveJet) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::math::Vec3;
+    use crate::geometry::math::Vec3;
 
-    /// A reproducible value in [−0.5, 0.5) (`crate::math::lcg`).
+    /// A reproducible value in [−0.5, 0.5) (`crate::geometry::math::lcg`).
     fn lcg(state: &mut u64) -> f64 {
-        crate::math::lcg(state) - 0.5
+        crate::geometry::math::lcg(state) - 0.5
     }
 
     // Common practice: `FrameKernel::frames` as the batch entry points call it (on AVX2 the

@@ -1,15 +1,15 @@
 //! Frames along a path a block of points at a time: the engine behind every batch entry point
-//! ([`CurveOnSurface::frames_at`], [`CurveOnSurface::frames_even`], the parallel batch and the C
+//! ([`crate::CurveOnSurface::frames_at`], [`crate::CurveOnSurface::frames_even`], the parallel batch and the C
 //! batch calls).
 //!
 //! For each chunk of up to [`CHUNK`] samples: the curve jets of the chunk in one call
 //! ([`UvCurve::jets_in_domain_block`], span hint carried; NURBS curves evaluate several points
 //! at once), the surface jets of the chunk in one call ([`SurfaceSource::jets_in_domain_block`],
 //! which a host's batch callback answers in one call too), then the frame math of the chunk
-//! ([`crate::frame_block::FrameKernel`]: on AVX2 four points at a time, the jets transposed
+//! ([`crate::engine::frame_block::FrameKernel`]: on AVX2 four points at a time, the jets transposed
 //! straight into AVX registers and the frames straight out of them; elsewhere a block of
-//! [`crate::frame_block::BLOCK`] points in structure-of-arrays form). The results are the bits
-//! of the one-point path ([`CurveOnSurface::frame`]), and so are the errors: a lane the kernel
+//! [`crate::engine::frame_block::BLOCK`] points in structure-of-arrays form). The results are the bits
+//! of the one-point path ([`crate::CurveOnSurface::frame`]), and so are the errors: a lane the kernel
 //! flags is evaluated again by the one-point path from the same jets, and samples are reported
 //! in order, so the first failing sample and its error are those of a point-by-point loop.
 //! Only a failure of a block evaluation as a whole (a host's batch callback) has no
@@ -21,19 +21,48 @@
 //! Nothing is allocated: the chunk's jets and the kernel's scratch live on the stack (about 20 KiB).
 
 use crate::curve::UvCurve;
+use crate::engine::frame_block::{FrameKernel, FrameSlots};
 use crate::error::StrakeError;
-use crate::frame::{DarbouxFrame, darboux_frame_at};
-use crate::frame_block::{FrameKernel, FrameSlots};
-use crate::jet::{CurveJet, DerivOrder, SurfaceJet};
-use crate::path::{CurveOnSurface, Hints, SampleError};
-use crate::principal::SurfacePoint;
+use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
+use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
+use crate::geometry::principal::SurfacePoint;
+use crate::nurbs::SpanHint;
+use crate::surface::SurfaceHint;
 use crate::surface::SurfaceSource;
 use std::mem::MaybeUninit;
+
+/// Per-caller evaluation state: span hints for the surface and the curve.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Hints {
+    /// Surface hint.
+    pub surface: SurfaceHint,
+    /// Curve hint.
+    pub curve: SpanHint,
+}
+
+/// A failure inside a batch: the index of the sample that failed and why.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SampleError {
+    /// Index of the failing sample in the caller's array.
+    pub index: usize,
+    /// Curve parameter of the failing sample.
+    pub t: f64,
+    /// What went wrong there.
+    pub error: StrakeError,
+}
+
+impl std::fmt::Display for SampleError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "sample {} (t = {}): {}", self.index, self.t, self.error)
+    }
+}
+
+impl std::error::Error for SampleError {}
 
 /// Samples per call of [`SurfaceSource::jets_in_domain_block`] (so a host's batch callback gets
 /// up to this many points per call): one call of the frame kernel (sixteen groups of four on
 /// AVX2, four blocks of sixteen elsewhere).
-pub(crate) const CHUNK: usize = crate::frame_block::MAX_POINTS;
+pub(crate) const CHUNK: usize = crate::engine::frame_block::MAX_POINTS;
 
 /// Where [`frames_blocked_into`] puts the frames.
 pub(crate) trait FrameSink {
@@ -97,7 +126,9 @@ impl SinkSlice for DarbouxFrame {
 /// written into its room) and returns its index, parameter and error. `hints` is carried
 /// through and left where the last sample put it.
 pub(crate) fn frames_blocked_into<S, C>(
-    cs: &CurveOnSurface<'_, S, C>,
+    surface: &S,
+    curve: &C,
+    scales: ParamScales,
     count: usize,
     hints: &mut Hints,
     t_of: impl Fn(usize) -> f64,
@@ -107,9 +138,6 @@ where
     S: SurfaceSource + ?Sized,
     C: UvCurve + ?Sized,
 {
-    let surface = cs.surface();
-    let curve = cs.curve();
-    let scales = cs.scales();
     let orientation = surface.orientation();
     let (ud, vd) = (surface.u_domain(), surface.v_domain());
     let td = curve.domain();
@@ -186,10 +214,12 @@ where
                     sink.placed(base + i, ts[i]);
                 } else {
                     let frame =
-                        one_point(cs, &sj[i], &cj[i], ts[i]).map_err(|error| SampleError {
-                            index: base + i,
-                            t: ts[i],
-                            error,
+                        one_point(surface, &scales, &sj[i], &cj[i], ts[i]).map_err(|error| {
+                            SampleError {
+                                index: base + i,
+                                t: ts[i],
+                                error,
+                            }
                         })?;
                     sink.put(base + i, ts[i], &frame);
                 }
@@ -227,28 +257,27 @@ fn narrow(
     }
 }
 
-/// The one-point path from given jets (what [`CurveOnSurface::frame`] does after evaluating
+/// The one-point path from given jets (what [`crate::CurveOnSurface::frame`] does after evaluating
 /// them): the exact error of a lane the block kernel flagged.
 #[cold]
 #[inline(never)]
-fn one_point<S, C>(
-    cs: &CurveOnSurface<'_, S, C>,
+fn one_point<S>(
+    surface: &S,
+    scales: &ParamScales,
     sj: &SurfaceJet,
     cj: &CurveJet,
     t: f64,
 ) -> crate::error::Result<DarbouxFrame>
 where
     S: SurfaceSource + ?Sized,
-    C: UvCurve + ?Sized,
 {
-    let scales = cs.scales();
     let sp = SurfacePoint::new(
         sj,
-        cs.surface().orientation(),
+        surface.orientation(),
         cj.u,
         cj.v,
         scales.u_extent,
         scales.v_extent,
     )?;
-    darboux_frame_at(sj, &sp, cj, &scales, t)
+    darboux_frame_at(sj, &sp, cj, scales, t)
 }

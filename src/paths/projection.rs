@@ -51,12 +51,12 @@
 
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
-use crate::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
-use crate::math::{Vec3, vec3};
+use crate::geometry::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
+use crate::geometry::math::{Vec3, vec3};
+use crate::geometry::principal::{DEGENERATE_SURFACE_LIMIT, surface_conditioning};
 use crate::nurbs::interpolate::{Parametrization, check_points_finite, interpolation_parameters};
 use crate::nurbs::{NurbsCurve, SpanHint};
-use crate::path::SampleError;
-use crate::principal::{DEGENERATE_SURFACE_LIMIT, surface_conditioning};
+use crate::paths::curve_on_surface::SampleError;
 use crate::surface::{SurfaceHint, SurfaceSource};
 
 /// How many of the nearest grid nodes the coarse search starts Newton's method from.

@@ -2,7 +2,7 @@
 //! frame computation.
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
-use crate::math::{Vec3, all_finite};
+use crate::geometry::math::{Vec3, all_finite};
 
 /// How many derivatives a surface or curve must supply.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]

@@ -21,9 +21,9 @@
 //! Nothing here allocates or performs I/O.
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
-use crate::jet::{CurveJet, SurfaceJet};
-use crate::math::{Vec3, all_finite};
-pub use crate::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
+use crate::geometry::jet::{CurveJet, SurfaceJet};
+use crate::geometry::math::{Vec3, all_finite};
+pub use crate::geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 
 /// Below this speed figure f (see [`curve_speed_figure`]) a curve point is refused as stalled
 /// ([`StrakeError::StalledCurve`]).
@@ -85,8 +85,8 @@ pub fn curve_speed_figure(jet: &CurveJet, s: &ParamScales) -> f64 {
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[repr(C)]
 pub struct Conditioning {
-    /// The surface conditioning figure (see [`crate::principal::surface_conditioning`]); 1 is
-    /// ideal, refusal below [`crate::principal::DEGENERATE_SURFACE_LIMIT`].
+    /// The surface conditioning figure (see [`crate::geometry::principal::surface_conditioning`]); 1 is
+    /// ideal, refusal below [`crate::geometry::principal::DEGENERATE_SURFACE_LIMIT`].
     pub surface: f64,
     /// The curve speed figure (see [`curve_speed_figure`]); refusal below
     /// [`STALLED_CURVE_LIMIT`].

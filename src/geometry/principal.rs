@@ -13,8 +13,8 @@
 //! umbilics (do Carmo §3-3 gives k = H ± √(H² − K), which loses half the digits there).
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
-use crate::jet::SurfaceJet;
-use crate::math::{Vec3, all_finite};
+use crate::geometry::jet::SurfaceJet;
+use crate::geometry::math::{Vec3, all_finite};
 
 /// Which way the unit normal points.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]

@@ -3,12 +3,12 @@
 //! next and allocates nothing per point.
 
 use crate::curve::UvCurve;
+pub use crate::engine::batch::{Hints, SampleError};
 use crate::error::{Result, StrakeError};
-use crate::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
-use crate::jet::DerivOrder;
-use crate::nurbs::SpanHint;
-use crate::principal::SurfacePoint;
-use crate::surface::{SurfaceHint, SurfaceSource};
+use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
+use crate::geometry::jet::DerivOrder;
+use crate::geometry::principal::SurfacePoint;
+use crate::surface::SurfaceSource;
 
 /// One sample of a path: where it is along the curve and its frame there.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -22,39 +22,11 @@ pub struct PathSample {
     pub frame: DarbouxFrame,
 }
 
-/// A failure inside a batch: the index of the sample that failed and why.
-#[derive(Debug, Clone, PartialEq)]
-pub struct SampleError {
-    /// Index of the failing sample in the caller's array.
-    pub index: usize,
-    /// Curve parameter of the failing sample.
-    pub t: f64,
-    /// What went wrong there.
-    pub error: StrakeError,
-}
-
-impl std::fmt::Display for SampleError {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(f, "sample {} (t = {}): {}", self.index, self.t, self.error)
-    }
-}
-
-impl std::error::Error for SampleError {}
-
 /// A curve on a surface: the pair the frame is computed for. Borrowing, cheap to build.
 pub struct CurveOnSurface<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> {
     surface: &'a S,
     curve: &'a C,
     scales: ParamScales,
-}
-
-/// Per-caller evaluation state: span hints for the surface and the curve.
-#[derive(Debug, Clone, Copy, Default)]
-pub struct Hints {
-    /// Surface hint.
-    pub surface: SurfaceHint,
-    /// Curve hint.
-    pub curve: SpanHint,
 }
 
 impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C> {
@@ -91,7 +63,7 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     ///
     /// Errors: every error of [`UvCurve::checked_jet`], [`SurfaceSource::checked_jet`] (the
     /// curve leaving the surface's domain gives `OutOfDomain` for u or v) and
-    /// [`crate::frame::darboux_frame`].
+    /// [`crate::geometry::frame::darboux_frame`].
     #[inline]
     pub fn frame(&self, t: f64, hints: &mut Hints) -> Result<DarbouxFrame> {
         let cj = self.curve.checked_jet(t, &mut hints.curve)?;
@@ -134,12 +106,14 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
                 )),
             });
         }
-        crate::batch::frames_blocked_into(
-            self,
+        crate::engine::batch::frames_blocked_into(
+            self.surface,
+            self.curve,
+            self.scales,
             ts.len(),
             &mut Hints::default(),
             |i| ts[i],
-            &mut crate::batch::IntoSlice(out),
+            &mut crate::engine::batch::IntoSlice(out),
         )
     }
 
@@ -149,12 +123,53 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     pub fn frames_even(&self, out: &mut [DarbouxFrame]) -> std::result::Result<(), SampleError> {
         let n = out.len();
         let dom = self.curve.domain();
-        crate::batch::frames_blocked_into(
-            self,
+        crate::engine::batch::frames_blocked_into(
+            self.surface,
+            self.curve,
+            self.scales,
             n,
             &mut Hints::default(),
             |i| dom.even(i, n),
-            &mut crate::batch::IntoSlice(out),
+            &mut crate::engine::batch::IntoSlice(out),
+        )
+    }
+
+    /// Frames at each of `ts` into `out` (same length), over at most `threads` scoped threads
+    /// (pieces of the samples handed out in order to whichever thread is free, each piece with its
+    /// own span hints), each piece evaluated like [`Self::frames_at`] (the same bits as
+    /// one point at a time, whatever the number of threads). `threads` = 0 is refused; 1 runs on
+    /// the calling thread. Fewer threads are started when there are fewer than
+    /// [`crate::engine::parallel::MIN_SAMPLES_PER_THREAD`] samples per thread. A panic in a worker (e.g. in a Rust closure
+    /// surface) is resumed on the calling thread. On failure the error of the lowest failing index
+    /// is returned; `out` then holds the frames of the samples before it (as
+    /// [`Self::frames_at`] would leave them), while later entries may hold anything: the
+    /// frames of pieces done by other threads, the caller's old values, or, from the failing sample
+    /// to the end of its chunk of 64, meaningless numbers.
+    pub fn frames_at_parallel(
+        &self,
+        ts: &[f64],
+        out: &mut [DarbouxFrame],
+        threads: usize,
+    ) -> std::result::Result<(), SampleError> {
+        if threads == 0 || ts.len() != out.len() {
+            return Err(SampleError {
+                index: 0,
+                t: f64::NAN,
+                error: StrakeError::InvalidArgument(format!(
+                    "threads = {threads}, {} parameters, room for {} frames: need threads >= 1 and equal counts",
+                    ts.len(),
+                    out.len()
+                )),
+            });
+        }
+        crate::engine::parallel::frames_parallel_with(
+            self.surface,
+            self.curve,
+            self.scales,
+            threads,
+            |i| ts[i],
+            out,
+            |_, _| {},
         )
     }
 }
