@@ -611,6 +611,12 @@ fn scallop_height_keeps_its_digits_for_huge_cutter_radii() {
             );
             let back = step_over_for_scallop(r * s, base * s, k / s).unwrap();
             assert!(rel(back, w * s) < 1e-9, "{s}: {back}");
+            let a0 = scallop_height_approx(r, w, k).unwrap();
+            let a = scallop_height_approx(r * s, w * s, k / s).unwrap();
+            assert!(rel(a, a0 * s) < 1e-13, "approx {s}: {a}");
+            let w0 = step_over_for_scallop_approx(r, a0, k).unwrap();
+            let wa = step_over_for_scallop_approx(r * s, a0 * s, k / s).unwrap();
+            assert!(rel(wa, w0 * s) < 1e-13, "approx {s}: {wa}");
         }
     }
 }

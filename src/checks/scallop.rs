@@ -65,6 +65,19 @@ fn check(name: &str, x: f64, positive: bool) -> Result<()> {
     }
 }
 
+/// A computed result, refused when it overflowed (a step-over far wider than the cutter).
+fn finite_result(what: &'static str, x: f64) -> Result<f64> {
+    if x.is_finite() {
+        Ok(x)
+    } else {
+        Err(StrakeError::NonFinite {
+            source: crate::error::NonFiniteSource::Result,
+            what,
+            value: x,
+        })
+    }
+}
+
 fn concave_fit(r: f64, kappa: f64) -> Result<()> {
     if kappa * r >= 1.0 {
         return Err(StrakeError::InvalidArgument(format!(
@@ -143,7 +156,9 @@ pub fn scallop_height_approx(r: f64, w: f64, kappa: f64) -> Result<f64> {
     check("step-over", w, true)?;
     check("cross-path curvature", kappa, false)?;
     concave_fit(r, kappa)?;
-    Ok(w * w / 8.0 * (1.0 / r - kappa))
+    // (w/8)(w/r)(1 − κ r): no square of a length, so no overflow at extreme scales.
+    let h = (w / 8.0) * (w / r) * (1.0 - kappa * r);
+    finite_result("approximate scallop height", h)
 }
 
 /// The largest step-over (arc length across the path) that keeps the exact scallop height at
@@ -199,7 +214,9 @@ pub fn step_over_for_scallop_approx(r: f64, h: f64, kappa: f64) -> Result<f64> {
     check("scallop height", h, true)?;
     check("cross-path curvature", kappa, false)?;
     concave_fit(r, kappa)?;
-    Ok((8.0 * h / (1.0 / r - kappa)).sqrt())
+    // √(8h) √(r/(1 − κ r)), scaled as above.
+    let w = (8.0 * h).sqrt() * (r / (1.0 - kappa * r)).sqrt();
+    finite_result("approximate step-over", w)
 }
 
 /// The step-over for a target scallop height with a given cutter and axis: see

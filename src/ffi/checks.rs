@@ -17,15 +17,15 @@ use super::status::StrakeStatus;
 use super::types::{
     StrakeCutter, StrakeCutterKind, StrakeCutterRadii, StrakeCutterStepOver, StrakeExtremes,
     StrakeFeedLimits, StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState,
-    StrakeRearGouge, StrakeSample, StrakeScallop, StrakeStepOver, StrakeToolAngles,
-    StrakeToolAxis, StrakeToolSide, StrakeTowEdges, StrakeViolation,
+    StrakeRearGouge, StrakeSample, StrakeScallop, StrakeStepOver, StrakeToolAngles, StrakeToolAxis,
+    StrakeToolSide, StrakeTowEdges, StrakeViolation,
 };
 use crate::checks::{
     Cutter, FeedLimits, FibreLimits, ToolAngles, ToolSide, cross_path_curvature,
-    curvature_limited_feed, cutter_radii, extremes, feed_path, fibre_path, fibre_state,
-    gouge_path, gouge_state, rear_gouge, rear_gouge_path, scallop_height, scallop_height_approx,
-    scallop_path, step_over_for_cutter, step_over_for_scallop, step_over_for_scallop_approx,
-    step_over_path, tool_axis, tool_axis_path, tow_edges, tow_edges_path, violations,
+    curvature_limited_feed, cutter_radii, extremes, feed_path, fibre_path, fibre_state, gouge_path,
+    gouge_state, rear_gouge, rear_gouge_path, scallop_height, scallop_height_approx, scallop_path,
+    step_over_for_cutter, step_over_for_scallop, step_over_for_scallop_approx, step_over_path,
+    tool_axis, tool_axis_path, tow_edges, tow_edges_path, violations,
 };
 use crate::error::StrakeError;
 use crate::geometry::frame::DarbouxFrame;
@@ -316,7 +316,10 @@ pub unsafe extern "C" fn strake_check_fibre(
         let f = unsafe { self::frame(frame)? };
         let l = unsafe { input(limits, "limits")? };
         let slot = output(out, "out")?;
-        put(slot, StrakeFibreState::from(&fibre_state(&f, &fibre_limits(l))?));
+        put(
+            slot,
+            StrakeFibreState::from(&fibre_state(&f, &fibre_limits(l))?),
+        );
         Ok(())
     })
 }
