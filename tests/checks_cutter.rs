@@ -48,8 +48,8 @@ fn positive_tilt_leans_left_of_travel_seen_from_the_tool_on_either_side() {
         let (lead, tilt) = (0.3, -0.25);
         let a = tool_axis(&f, side, &angles(lead, tilt)).unwrap();
         let want = [lead.sin(), lead.cos() * tilt.sin(), lead.cos() * tilt.cos()];
-        for k in 0..3 {
-            assert!((a.local[k] - want[k]).abs() < 1e-15);
+        for (got, want) in a.local.iter().zip(want) {
+            assert!((got - want).abs() < 1e-15);
         }
         assert!((a.space - tf.to_space(want)).norm() < 1e-15);
         assert!((a.space.norm() - 1.0).abs() < 1e-15);
@@ -110,7 +110,7 @@ fn envelope(cutter: &Cutter, ang: &ToolAngles, y: f64) -> f64 {
         let (aa, bb) = (rad * e1.y, rad * e2.y);
         let m = aa.hypot(bb);
         let cc = (y - centre.y) / m;
-        if !(cc.abs() <= 1.0) {
+        if cc.is_nan() || cc.abs() > 1.0 {
             return f64::INFINITY;
         }
         let phi0 = bb.atan2(aa);

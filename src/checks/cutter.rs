@@ -158,7 +158,7 @@ pub struct CutterRadii {
 }
 
 /// The radii of curvature of `cutter` at its contact point with the axis set by `angles`, in
-/// the tool-side frame (T, b_t, n_t) of [`super::tool_axis`].
+/// the tool-side frame (T, b_t, n_t) of [`mod@super::tool_axis`].
 ///
 /// Derivation (the tests check it against a sampled cutter): the cutter is the torus of major
 /// radius R and corner radius r about the axis a. Its contact point with a surface of normal

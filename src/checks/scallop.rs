@@ -198,11 +198,11 @@ pub fn step_over_for_scallop(r: f64, h: f64, kappa: f64) -> Result<f64> {
     // θ/2 = 2 asin(√((1 − cos(θ/2))/2)), with the root taken factor by factor (d rc may be
     // 1e600 for a nearly flat surface).
     let num = h1 * (2.0 - h1);
-    if !(num >= 0.0) {
+    if num.is_nan() || num < 0.0 {
         return Err(too_high());
     }
     let x = num.sqrt() / (2.0 * d.sqrt() * rc.sqrt());
-    if !(x <= 1.0) {
+    if x.is_nan() || x > 1.0 {
         return Err(too_high());
     }
     Ok(r * (4.0 * rho * x.asin()))
