@@ -471,7 +471,9 @@ typedef struct StrakeGougeState {
   /**
    * Effective cutting radius across the direction in which the axis is inclined by beta
    * from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
-   * INFINITY for a flat or toroidal cutter with its axis along the normal).
+   * INFINITY for a flat or toroidal cutter with its axis along the normal). Across the path
+   * only for pure lead: scallop and step-over need `StrakeCutterRadii.across_path`
+   * (`strake_cutter_radii`).
    */
   double effective_radius_cross;
   /**

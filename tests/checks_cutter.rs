@@ -180,6 +180,10 @@ fn radius_across_the_path_matches_the_swept_outline_of_the_sampled_cutter() {
         let want = 1.0 + 4.0 * deg(lead).sin().powi(2) / beta.sin().powi(3);
         assert!(rel(rr.across_path, want) < 1e-13);
         let brute = brute_across_radius(&c, &ang, rr.across_path.min(5.0));
+        eprintln!(
+            "across lead {lead} tilt {tilt}: {} brute {brute} section {}",
+            rr.across_path, rr.across_section
+        );
         assert!(
             rel(rr.across_path, brute) < 2e-4,
             "lead {lead} tilt {tilt}: {} vs brute {brute}",
@@ -250,6 +254,7 @@ fn scallop_of_a_tilted_toroidal_cutter_matches_two_profile_intersection() {
         let w = 0.1 * rr.across_path;
         let brute = brute_scallop_plane(&c, &ang, w);
         let model = scallop_height(rr.across_path, w, 0.0).unwrap();
+        eprintln!("scallop {lead}/{tilt} w {w}: model {model} brute {brute}");
         assert!(
             rel(model, brute) < 0.02,
             "{lead}/{tilt}: {model} vs {brute}"
@@ -398,6 +403,7 @@ fn flat_cutter_around_a_concave_arc_needs_the_chord_lead() {
         let lead = up.min_lead.unwrap();
         assert!((lead - want).abs() < 1e-9, "{cutter:?}: {lead} vs {want}");
         let brute = brute_min_lead(&cutter, &f, side, 0.0, 1e-9, &depth);
+        eprintln!("arc {cutter:?}: lib {lead} brute {brute} exact {want}");
         assert!(
             (brute - want).abs() < 2e-4,
             "{cutter:?}: brute {brute} vs {want}"
@@ -457,6 +463,7 @@ fn smallest_safe_lead_against_brute_force_distance() {
         let g = gouge_state(&f, ToolSide::AlongNormal, &c, &angles(0.0, tilt)).unwrap();
         let lib = g.min_lead.unwrap();
         let brute = brute_min_lead(&c, &f, ToolSide::AlongNormal, tilt, 1e-9, &inside);
+        eprintln!("sphere tilt {tilt}: lib {lib} brute {brute}");
         assert!(
             (lib - brute).abs() < 5e-4,
             "sphere tilt {tilt}: {lib} vs {brute}"
@@ -474,6 +481,7 @@ fn smallest_safe_lead_against_brute_force_distance() {
             .min_lead
             .unwrap();
         let brute = brute_min_lead(&c, &f, ToolSide::AlongNormal, tilt, 1e-9, &tdepth);
+        eprintln!("torus tilt {tilt}: lib {lib} brute {brute}");
         assert!(
             lib >= brute - 5e-4 && lib - brute < deg(1.0),
             "torus tilt {tilt}: {lib} vs {brute}"
@@ -494,11 +502,13 @@ fn smallest_safe_lead_against_brute_force_distance() {
     if lib.gouges {
         let lead = lib.min_lead.unwrap();
         let brute = brute_min_lead(&c, &f, side, 0.0, 1e-9, &tdepth);
+        eprintln!("NURBS torus: lib {lead} brute {brute}");
         assert!(
             lead >= brute - 5e-4 && lead - brute < deg(1.0),
             "NURBS torus: {lead} vs {brute}"
         );
     } else {
+        eprintln!("NURBS torus: no gouging at zero lead");
         assert!(penetration(&c, &f, side, &angles(0.0, 0.0), &tdepth) < 1e-9);
     }
 }

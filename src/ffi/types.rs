@@ -454,7 +454,9 @@ pub struct StrakeGougeState {
     pub concave_radius: f64,
     /// Effective cutting radius across the direction in which the axis is inclined by beta
     /// from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
-    /// INFINITY for a flat or toroidal cutter with its axis along the normal).
+    /// INFINITY for a flat or toroidal cutter with its axis along the normal). Across the path
+    /// only for pure lead: scallop and step-over need `StrakeCutterRadii.across_path`
+    /// (`strake_cutter_radii`).
     pub effective_radius_cross: f64,
     /// Effective cutting radius along the inclination: the corner radius r (0 for a flat-end
     /// mill).
