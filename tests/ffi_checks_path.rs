@@ -518,3 +518,74 @@ fn new_functions_refuse_null_and_bad_arguments_by_name() {
     }
     assert!(gv.iter().all(|g| *g == StrakeGougeState::default()));
 }
+
+// Issue 16 through the C ABI: a non-orthonormal frame gives no non-unit axis (refused, named);
+// a subnormal cutter radius no NaN margin (refused, named); a tow width of 1e300 no infinite
+// strain (NON_FINITE, named); a huge ball radius on a convex cross-section keeps its digits.
+#[test]
+fn extreme_inputs_through_the_c_abi_are_refused_or_exact() {
+    let (samples, frames) = path();
+    let mut f = samples[3].frame;
+    let mut axis = StrakeToolAxis {
+        local: [S; 3],
+        space: [S; 3],
+    };
+    // Tilt the tangent toward N by 1e-3 (still unit): T·N = 1e-3.
+    let (t, n) = (f.tangent, f.normal);
+    let c = (1.0f64 - 1e-6).sqrt();
+    f.tangent = [0, 1, 2].map(|k| c * t[k] + 1e-3 * n[k]);
+    let keep = axis;
+    // SAFETY: valid pointers.
+    let st = unsafe { strake_tool_axis(&f, ALONG, &ANG, &mut axis) };
+    expect(st, IA, &["not orthogonal"]);
+    assert_eq!(axis, keep);
+    let tiny = StrakeCutter {
+        kind: StrakeCutterKind::Ball as u32,
+        radius: 4e-320,
+        corner_radius: 0.0,
+    };
+    let mut g = StrakeGougeState::default();
+    // SAFETY: valid pointers.
+    let st = unsafe { strake_check_gouge(&samples[3].frame, ALONG, &tiny, &ANG, &mut g) };
+    expect(st, IA, &["cutter radius", "subnormal"]);
+    let limits = StrakeFibreLimits {
+        tow_width: 1e300,
+        min_steering_radius: 1.0,
+        max_twist_rate: 1.0,
+    };
+    let mut fs = StrakeFibreState::default();
+    // SAFETY: valid pointers.
+    let st = unsafe { strake_check_fibre(&samples[3].frame, &limits, &mut fs) };
+    expect(st, NF, &["edge strain"]);
+    // Huge ball on this torus path: the C result equals the Rust one, which keeps its digits
+    // (tests/checks_cutter.rs), and is finite.
+    // With the tool on the −N side the cross-section is convex wherever it is concave from the
+    // N side; take a sample where it is convex as the tool sees it.
+    let side = [ToolSide::AlongNormal, ToolSide::AgainstNormal];
+    let (i, code, k) = (0..frames.len())
+        .flat_map(|i| {
+            side.map(|s| {
+                (
+                    i,
+                    u32::from(s == ToolSide::AgainstNormal),
+                    cross_path_curvature(&frames[i], s),
+                )
+            })
+        })
+        .find(|&(_, _, k)| k < -1e-4)
+        .expect("a convex cross-section");
+    let mut sc = StrakeScallop::default();
+    // SAFETY: valid pointers.
+    let st = unsafe { strake_check_scallop(&samples[i].frame, code, 1e200, 0.5, &mut sc) };
+    assert_eq!(st, OK, "{}", message());
+    // A ball of radius 1e200 is a straight line across the path at this scale: tangent lines of
+    // adjacent passes on a circle of radius ρ meet at h = ρ (1/cos(θ/2) − 1), θ = w/ρ (circle
+    // geometry; the ball's own curvature changes it by O(ρ/r) = 1e-198).
+    let rho = -1.0 / k;
+    let want = rho * (1.0 / (0.25 / rho).cos() - 1.0);
+    assert!(
+        (sc.height - want).abs() < 1e-9 * want,
+        "{} vs {want}",
+        sc.height
+    );
+}
