@@ -16,6 +16,7 @@ pub mod curve;
 pub mod engine;
 pub mod error;
 pub mod ffi;
+pub mod geodesics;
 pub mod geometry;
 pub mod nurbs;
 pub mod paths;
@@ -24,6 +25,10 @@ pub mod surface;
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
 pub use error::{NonFiniteSource, Result, StrakeError};
+pub use geodesics::hermite::HermiteUvCurve;
+pub use geodesics::trace::{
+    DomainSide, Geodesic, GeodesicEnd, StartDirection, TraceOptions, TraceStats, trace_geodesic,
+};
 pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
