@@ -26,6 +26,10 @@ pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
 pub use error::{NonFiniteSource, Result, StrakeError};
 pub use geodesics::hermite::HermiteUvCurve;
+pub use geodesics::offset::{
+    OffsetDistance, OffsetOptions, OffsetPiece, OffsetSample, OffsetSide, PathInterval,
+    SurfaceOffset, offset_path,
+};
 pub use geodesics::trace::{
     DomainSide, Geodesic, GeodesicEnd, StartDirection, TraceOptions, TraceStats, trace_geodesic,
 };

@@ -14,6 +14,6 @@
 // pub mod between;
 pub mod christoffel;
 pub mod hermite;
-// pub mod offset;
+pub mod offset;
 pub mod rk;
 pub mod trace;
