@@ -468,7 +468,7 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     let mut pieces_pts: Vec<(Vec<OffsetSample>, Vec<Option<OffsetSample>>)> = Vec::new();
     let mut loops = Vec::new();
     for (run, rm) in runs.into_iter().zip(run_mids) {
-        split_loops(run, rm, &mut pieces_pts, &mut loops);
+        split_loops(&mut ev, run, rm, &mut pieces_pts, &mut loops)?;
     }
     // Fit.
     let mut pieces = Vec::new();
@@ -574,16 +574,67 @@ fn lerp_sample(a: &OffsetSample, b: &OffsetSample, w: f64) -> OffsetSample {
 
 type PiecePoints = (Vec<OffsetSample>, Vec<Option<OffsetSample>>);
 
-fn split_loops(
+/// The crossing of the offset with itself near the crossing of the polygon segments
+/// a0→a1 and b0→b1 at (α, β), refined by Newton's method on (t_a, t_b) for
+/// uv(t_a) = uv(t_b) with true offset points (secant slopes from the segments).
+fn refine_crossing<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    ev: &mut Eval<'_, S, C>,
+    seg_a: (&OffsetSample, &OffsetSample),
+    seg_b: (&OffsetSample, &OffsetSample),
+    alpha: f64,
+    beta: f64,
+) -> Result<(OffsetSample, OffsetSample)> {
+    let slope = |p: &OffsetSample, q: &OffsetSample| {
+        let dt = q.t - p.t;
+        [(q.u - p.u) / dt, (q.v - p.v) / dt]
+    };
+    let mut a_best = lerp_sample(seg_a.0, seg_a.1, alpha);
+    let mut b_best = lerp_sample(seg_b.0, seg_b.1, beta);
+    let (da, db) = (slope(seg_a.0, seg_a.1), slope(seg_b.0, seg_b.1));
+    let (mut ta, mut tb) = (a_best.t, b_best.t);
+    let wa = (seg_a.1.t - seg_a.0.t).abs();
+    let wb = (seg_b.1.t - seg_b.0.t).abs();
+    let mut best = f64::INFINITY;
+    for _ in 0..8 {
+        let (Ok(a), Ok(b)) = (ev.at(ta)?, ev.at(tb)?) else {
+            break;
+        };
+        let r = [a.u - b.u, a.v - b.v];
+        let size = r[0].hypot(r[1]);
+        if size < best {
+            best = size;
+            a_best = a;
+            b_best = b;
+        } else {
+            break;
+        }
+        if size == 0.0 {
+            break;
+        }
+        // [da, −db] (δa, δb)ᵀ = −r
+        let det = -da[0] * db[1] + db[0] * da[1];
+        if det == 0.0 {
+            break;
+        }
+        let dta = (-r[0] * -db[1] + db[0] * -r[1]) / det;
+        let dtb = (da[0] * -r[1] - da[1] * -r[0]) / det;
+        ta = (ta + dta).clamp(seg_a.0.t - wa, seg_a.1.t + wa);
+        tb = (tb + dtb).clamp(seg_b.0.t - wb, seg_b.1.t + wb);
+    }
+    Ok((a_best, b_best))
+}
+
+fn split_loops<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    ev: &mut Eval<'_, S, C>,
     run: Vec<OffsetSample>,
     mids: Vec<Option<OffsetSample>>,
     out: &mut Vec<PiecePoints>,
     loops: &mut Vec<PathInterval>,
-) {
+) -> Result<()> {
     let n = run.len();
     if n < 3 {
         out.push((run, mids));
-        return;
+        return Ok(());
     }
     let backward: Vec<bool> = (0..n - 1)
         .map(|i| {
@@ -643,8 +694,8 @@ fn split_loops(
         }
         match found {
             Some((j, k, al, be)) => {
-                let ca = lerp_sample(&run[j], &run[j + 1], al);
-                let cb = lerp_sample(&run[k], &run[k + 1], be);
+                let (ca, cb) =
+                    refine_crossing(ev, (&run[j], &run[j + 1]), (&run[k], &run[k + 1]), al, be)?;
                 loops.push(PathInterval { t0: ca.t, t1: cb.t });
                 emit(start, j, lead, Some(ca), out);
                 // The corner starts the next piece (same point, later path parameter).
@@ -670,6 +721,7 @@ fn split_loops(
     if start < n {
         emit(start, n - 1, lead, None, out);
     }
+    Ok(())
 }
 
 /// Largest space distance from the midpoint offsets to the fitted curve (nearest point on the
