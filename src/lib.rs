@@ -25,6 +25,7 @@ pub mod surface;
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
 pub use error::{NonFiniteSource, Result, StrakeError};
+pub use geodesics::between::{BetweenOptions, GeodesicBetween, geodesic_between};
 pub use geodesics::hermite::HermiteUvCurve;
 pub use geodesics::offset::{
     OffsetDistance, OffsetOptions, OffsetPiece, OffsetSample, OffsetSide, PathInterval,

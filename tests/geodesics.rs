@@ -342,3 +342,74 @@ fn error_shrinks_with_the_tolerance() {
         last = worst;
     }
 }
+
+/// Geodesic distance on a sphere: R times the central angle, arccos(p·q / R²) (do Carmo
+/// §4-4; REFERENCES.md, geodesics). On a cylinder: the plane distance after unrolling.
+#[test]
+fn distance_between_points_matches_closed_forms() {
+    use strake::{BetweenOptions, geodesic_between};
+    let r = 1.5;
+    let s = sphere(r);
+    for (p, q) in [
+        ((1.0, 1.0), (2.5, 2.0)),
+        ((3.0, 0.4), (4.0, 0.5)),
+        ((0.5, 1.5), (5.5, 1.7)),
+    ] {
+        let g = geodesic_between(&s, p, q, &BetweenOptions::new(1e-9)).unwrap();
+        let (a, b) = (jet(&s, p.0, p.1).p, jet(&s, q.0, q.1).p);
+        let exact = r * (a.dot(&b) / (r * r)).clamp(-1.0, 1.0).acos();
+        println!(
+            "sphere {p:?} -> {q:?}: distance {} exact {exact} ({} iterations)",
+            g.distance, g.iterations
+        );
+        // (0.5 → 5.5 in u: the shortest path crosses the seam u = 0, outside the chart; the
+        // geodesic found stays in the domain: the other arc of the same great circle,
+        // 2πR − R·angle.)
+        if (q.0 - p.0) < PI {
+            assert!(
+                (g.distance - exact).abs() < 1e-8,
+                "{} vs {exact}",
+                g.distance
+            );
+        } else {
+            assert!(
+                (g.distance - (TAU * r - exact)).abs() < 1e-8,
+                "{} vs the long arc",
+                g.distance
+            );
+        }
+        assert!(g.miss <= 1e-9);
+    }
+    let c = cylinder(2.0, -5.0, 5.0);
+    let g = geodesic_between(&c, (0.5, -1.0), (2.0, 1.5), &BetweenOptions::new(1e-10)).unwrap();
+    let exact = (2.0f64 * 1.5).hypot(2.5);
+    assert!(
+        (g.distance - exact).abs() < 1e-9,
+        "{} vs {exact}",
+        g.distance
+    );
+}
+
+#[test]
+fn between_refusals_name_what_was_reached() {
+    use strake::{BetweenOptions, geodesic_between};
+    let s = sphere(1.0);
+    let e = geodesic_between(&s, (1.0, 1.0), (1.0, 1.0), &BetweenOptions::new(1e-9)).unwrap_err();
+    assert!(matches!(e, StrakeError::InvalidArgument(_)), "{e}");
+    let e = geodesic_between(&s, (1.0, 1.0), (1.0, 0.0), &BetweenOptions::new(1e-9)).unwrap_err();
+    assert!(matches!(e, StrakeError::DegenerateSurface { .. }), "{e}");
+    let e = geodesic_between(&s, (1.0, 1.0), (9.0, 1.0), &BetweenOptions::new(1e-9)).unwrap_err();
+    assert!(
+        matches!(e, StrakeError::OutOfDomain { value, .. } if value == 9.0),
+        "{e}"
+    );
+    // One Newton iteration is not enough for a long curved geodesic: a status naming the
+    // miss reached, never the unconverged curve.
+    let mut o = BetweenOptions::new(1e-12);
+    o.max_iterations = 1;
+    let e = geodesic_between(&s, (1.0, 0.5), (3.0, 2.5), &o).unwrap_err();
+    assert!(
+        matches!(e, StrakeError::GeodesicNotFound { .. }) && e.to_string().contains("miss"),
+        "{e}"
+    );
+}

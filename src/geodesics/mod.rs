@@ -11,7 +11,7 @@
 //! curve is a piecewise quintic Hermite curve in (u, v) parametrised by arc length
 //! ([`hermite::HermiteUvCurve`]), usable wherever a [`crate::UvCurve`] is.
 
-// pub mod between;
+pub mod between;
 pub mod christoffel;
 pub mod hermite;
 pub mod offset;
