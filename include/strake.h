@@ -39,8 +39,8 @@
  * message, see `strake_last_error_message`.
  *
  * ABI policy: every value keeps its number for the life of the library. Values are grouped by
- * area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 90-99
- * internal). New values take the next free number of their group; a retired value stays listed
+ * area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 50-54
+ * geodesics and offsets, 90-99 internal). New values take the next free number of their group; a retired value stays listed
  * here as a comment and its number is never given to anything else. Hosts should treat an
  * unknown non-zero value as a failure (a newer library may add values).
  *
@@ -135,6 +135,24 @@ enum StrakeStatus
    * in `strake_last_callback_code`.
    */
   STRAKE_STATUS_CURVE_CALLBACK_FAILED = 31,
+  /**
+   * 50: a geodesic trace could not go on: its error estimate stayed above the tolerance
+   * while the step shrank to its floor, or it used up its step cap (the message names the
+   * arc length and (u, v) reached).
+   */
+  STRAKE_STATUS_GEODESIC_INCOMPLETE = 50,
+  /**
+   * 51: no geodesic between the two points was found: shooting did not converge, or
+   * converged to a geodesic longer than the straight parameter line, which cannot be the
+   * shortest (the message names the residual and the length reached).
+   */
+  STRAKE_STATUS_GEODESIC_NOT_FOUND = 51,
+  /**
+   * 52: the construction leaves the surface at once: a geodesic starting on the boundary
+   * heading out, or an offset of which no part lies on the surface (the message names the
+   * value).
+   */
+  STRAKE_STATUS_LEAVES_SURFACE = 52,
   /**
    * 90: a bug in strake: a panic was caught at the C boundary. The message says where.
    * Please report it; the handles passed in are still valid.
@@ -241,6 +259,12 @@ typedef uint32_t StrakeCutterKind;
  * one handle may be evaluated from many threads at once, and used with any surface.
  */
 typedef struct StrakeCurve StrakeCurve;
+
+/**
+ * An opaque offset of a path on a surface: made by `strake_offset_new`, released by
+ * `strake_offset_free`. Immutable; may be read from many threads at once.
+ */
+typedef struct StrakeOffset StrakeOffset;
 
 /**
  * An opaque surface: created by `strake_surface_from_callback`, released by
@@ -775,6 +799,171 @@ typedef struct StrakeParamScales {
 } StrakeParamScales;
 
 /**
+ * Options of a geodesic trace or of the geodesic between two points.
+ */
+typedef struct StrakeGeodesicOptions {
+  /**
+   * Error allowed per step in space (host length unit), > 0. For
+   * `strake_geodesic_between`: the largest distance from the geodesic's end to the
+   * target; its traces run at a hundredth of it.
+   */
+  double tolerance;
+  /**
+   * Most step attempts of a trace; 0 for the default (100000). For
+   * `strake_geodesic_between`: most Newton iterations per solve; 0 for the default (30).
+   */
+  size_t max_steps;
+} StrakeGeodesicOptions;
+
+/**
+ * What a geodesic trace did.
+ */
+typedef struct StrakeGeodesicInfo {
+  /**
+   * Why it ended: a `StrakeGeodesicEnd` value.
+   */
+  uint32_t end;
+  /**
+   * The domain side where it ended: a `StrakeDomainSide` value (0 unless `end` is 1).
+   */
+  uint32_t side;
+  /**
+   * Length traced (host length unit); the curve's domain is [0, length], t = arc length.
+   */
+  double length;
+  /**
+   * Surface parameter u at the end.
+   */
+  double u;
+  /**
+   * Surface parameter v at the end.
+   */
+  double v;
+  /**
+   * The end point S(u, v).
+   */
+  double point[3];
+  /**
+   * The unit tangent at the end.
+   */
+  double tangent[3];
+  /**
+   * Accepted steps.
+   */
+  size_t accepted_steps;
+  /**
+   * Rejected step attempts.
+   */
+  size_t rejected_steps;
+  /**
+   * Surface evaluations (second-order jets) spent.
+   */
+  size_t jets;
+} StrakeGeodesicInfo;
+
+/**
+ * Options of an offset; zeros give the defaults.
+ */
+typedef struct StrakeOffsetOptions {
+  /**
+   * Largest space distance between an interval's midpoint offset and its prediction from
+   * the neighbouring points (host length unit), > 0.
+   */
+  double chord_tolerance;
+  /**
+   * Error per step of each geodesic trace; 0 for chord_tolerance / 1000.
+   */
+  double trace_tolerance;
+  /**
+   * Evenly spaced path parameters to start with; 0 for 17, else at least 2.
+   */
+  size_t samples;
+  /**
+   * Most offset points computed in all; 0 for 20000.
+   */
+  size_t max_samples;
+} StrakeOffsetOptions;
+
+/**
+ * Counts and figures of an offset.
+ */
+typedef struct StrakeOffsetSummary {
+  /**
+   * Connected pieces (`strake_offset_piece_curve`, `strake_offset_piece_points`).
+   */
+  size_t pieces;
+  /**
+   * Path intervals whose offset leaves the surface (`strake_offset_exits`).
+   */
+  size_t exits;
+  /**
+   * Path intervals whose offset formed a loop and was cut (`strake_offset_loops`).
+   */
+  size_t loops;
+  /**
+   * Offset points kept in all pieces.
+   */
+  size_t points;
+  /**
+   * Largest measured distance between a piece's curve and offset points not used to fit
+   * it (host length unit).
+   */
+  double fit_error;
+  /**
+   * Geodesics traced.
+   */
+  size_t traces;
+  /**
+   * Surface jets the traces evaluated.
+   */
+  size_t jets;
+} StrakeOffsetSummary;
+
+/**
+ * One offset point.
+ */
+typedef struct StrakeOffsetPoint {
+  /**
+   * Path parameter of the path point it belongs to.
+   */
+  double t;
+  /**
+   * Geodesic distance from that path point (host length unit).
+   */
+  double distance;
+  /**
+   * Surface parameter u.
+   */
+  double u;
+  /**
+   * Surface parameter v.
+   */
+  double v;
+  /**
+   * The point in space.
+   */
+  double point[3];
+  /**
+   * The path's unit tangent carried to the point along the geodesic.
+   */
+  double carried_tangent[3];
+} StrakeOffsetPoint;
+
+/**
+ * An interval of path parameters [t0, t1].
+ */
+typedef struct StrakePathInterval {
+  /**
+   * Start.
+   */
+  double t0;
+  /**
+   * End.
+   */
+  double t1;
+} StrakePathInterval;
+
+/**
  * The description of a NURBS surface, as the host's arrays.
  *
  * Control point (i, j), i = 0..count_u − 1 along u and j = 0..count_v − 1 along v, is
@@ -1245,6 +1434,182 @@ StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
                                     int32_t flip_normal,
                                     const struct StrakeParamScales *scales,
                                     struct StrakeFrame *out);
+
+/**
+ * Traces the geodesic of `surface` from (u, v) in a start direction for arc length `length`
+ * (host length unit): the geodesic equations with the surface's Christoffel symbols,
+ * integrated by an embedded Runge-Kutta 5(4) pair with the error measured in space.
+ *
+ * - `direction_kind` / `direction`: a `StrakeDirectionKind` value and 1 (angle), 3 (space
+ *   vector) or 2 ((du, dv)) doubles.
+ * - `options`: `tolerance` > 0 is the error allowed per step in space; `max_steps` caps
+ *   the step attempts (0: 100000).
+ *
+ * On success writes a new curve handle to `*out_curve` (free with `strake_curve_free`): the
+ * geodesic in the parameter plane, t = arc length in [0, info.length], C2, usable with every
+ * curve function (frames, sampling, checks; its geodesic curvature is 0 to the tolerance).
+ * When `out_info` is not NULL it receives why the trace ended: at the length, at the domain
+ * boundary (the end lies exactly on it), or before a degenerate point; these are all
+ * STRAKE_STATUS_OK, so read `info.end` to know whether the full length was traced.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `direction`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (`direction_kind` unknown, a zero direction or one along the normal,
+ * `length` or `tolerance` not positive, naming the value); NON_FINITE; OUT_OF_DOMAIN (start
+ * outside the domain, naming u or v); DEGENERATE_SURFACE (start at a degenerate point);
+ * LEAVES_SURFACE (start on the boundary heading out); GEODESIC_INCOMPLETE (the tolerance
+ * cannot be met or the step cap is used up; the message names the arc length and (u, v)
+ * reached); SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `direction` NULL or the number of doubles above;
+ * `options` NULL or valid; `out_curve` NULL or a writable `StrakeCurve *`; `out_info` NULL
+ * or writable.
+ */
+StrakeStatus strake_geodesic_trace(const struct StrakeSurface *surface,
+                                   double u,
+                                   double v,
+                                   uint32_t direction_kind,
+                                   const double *direction,
+                                   double length,
+                                   const struct StrakeGeodesicOptions *options,
+                                   struct StrakeCurve **out_curve,
+                                   struct StrakeGeodesicInfo *out_info);
+
+/**
+ * The geodesic of `surface` from (u0, v0) to (u1, v1) and the geodesic distance between
+ * them, by shooting: Newton's method on the start angle and the length from the straight
+ * parameter line, with continuation when that fails.
+ *
+ * `options.tolerance` > 0 is the largest space distance left between the geodesic's end and
+ * the target (host length unit); the traces run at a hundredth of it; `options.max_steps`
+ * caps the Newton iterations per solve (0: 30). Seams are not crossed: on a closed surface
+ * the result is the shortest geodesic within the parameter domain.
+ *
+ * On success writes the distance to `*out_distance` and, when `out_curve` is not NULL, a new
+ * curve handle (t = arc length from (u0, v0), free with `strake_curve_free`).
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `options`, `out_distance`);
+ * INVALID_ARGUMENT (points that coincide, a bad tolerance); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE (either point); GEODESIC_NOT_FOUND (shooting failed, or found a
+ * geodesic longer than the straight parameter line, which cannot be the shortest: the
+ * message names the miss, angle and length reached); GEODESIC_INCOMPLETE;
+ * SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `options` NULL or valid; `out_curve` NULL or a writable
+ * `StrakeCurve *`; `out_distance` NULL or a writable double.
+ */
+StrakeStatus strake_geodesic_between(const struct StrakeSurface *surface,
+                                     double u0,
+                                     double v0,
+                                     double u1,
+                                     double v1,
+                                     const struct StrakeGeodesicOptions *options,
+                                     struct StrakeCurve **out_curve,
+                                     double *out_distance);
+
+/**
+ * The offset of `curve` on `surface`: the curve at geodesic distance d to the left (B side)
+ * or right of it, computed point by point as the end of the geodesic leaving the path
+ * perpendicularly, sampled adaptively, trimmed where it leaves the surface and where it forms
+ * loops (d beyond the radius of geodesic curvature on a concave side).
+ *
+ * - `side`: a `StrakeOffsetSide` value.
+ * - Distance: `distance_t` NULL and `distance_count` = 1: the constant `distances[0]`;
+ *   otherwise `distance_count` distances at the strictly increasing path parameters
+ *   `distance_t`, linear between them and held beyond the ends. Finite and >= 0.
+ * - `options`: see `StrakeOffsetOptions` (zeros except `chord_tolerance` give defaults).
+ *
+ * On success writes a new handle to `*out` (free with `strake_offset_free`); read it with
+ * `strake_offset_summary`, `strake_offset_piece_curve`, `strake_offset_piece_points`,
+ * `strake_offset_exits` and `strake_offset_loops`.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `curve`, `distances`, `options`,
+ * `out`); INVALID_ARGUMENT (`side` unknown, a distance negative or not finite, parameters not
+ * increasing, bad options; naming the index and value); LEAVES_SURFACE (no part of the
+ * offset lies on the surface; naming the distance); NOT_CONVERGED (`max_samples` used up);
+ * GEODESIC_INCOMPLETE; every error of `strake_frame_at` on the path. Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `distance_t` NULL or `distance_count` doubles; `distances` NULL or
+ * `distance_count` doubles; `options` NULL or valid; `out` NULL or a writable
+ * `StrakeOffset *`.
+ */
+StrakeStatus strake_offset_new(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               uint32_t side,
+                               const double *distance_t,
+                               const double *distances,
+                               size_t distance_count,
+                               const struct StrakeOffsetOptions *options,
+                               struct StrakeOffset **out);
+
+/**
+ * Releases an offset. NULL is a no-op. Curve handles made from it stay valid.
+ *
+ * # Safety
+ * `offset` must be NULL or a handle from `strake_offset_new` not yet freed.
+ */
+void strake_offset_free(struct StrakeOffset *offset);
+
+/**
+ * Counts and figures of an offset into `*out`. Errors: NULL_POINTER. Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `out` NULL or writable.
+ */
+StrakeStatus strake_offset_summary(const struct StrakeOffset *offset,
+                                   struct StrakeOffsetSummary *out);
+
+/**
+ * A new curve handle for piece `index` of an offset: a cubic B-spline in (u, v) on t in
+ * [0, 1] through the piece's points (free with `strake_curve_free`; it outlives the offset).
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`index` not below the piece count). Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_offset_piece_curve(const struct StrakeOffset *offset,
+                                       size_t index,
+                                       struct StrakeCurve **out);
+
+/**
+ * The points of piece `index` of an offset, in path order, through the buffer protocol
+ * (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL sets `*count` to the number needed).
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`index`); BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `buf` NULL or room for `capacity` points; `count` NULL or writable.
+ */
+StrakeStatus strake_offset_piece_points(const struct StrakeOffset *offset,
+                                        size_t index,
+                                        struct StrakeOffsetPoint *buf,
+                                        size_t capacity,
+                                        size_t *count);
+
+/**
+ * The path intervals whose offset leaves the surface (or meets a degenerate point), through
+ * the buffer protocol. Errors: NULL_POINTER; BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * As `strake_offset_piece_points`.
+ */
+StrakeStatus strake_offset_exits(const struct StrakeOffset *offset,
+                                 struct StrakePathInterval *buf,
+                                 size_t capacity,
+                                 size_t *count);
+
+/**
+ * The path intervals whose offset formed a loop and was cut off, through the buffer
+ * protocol. Errors: NULL_POINTER; BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * As `strake_offset_piece_points`.
+ */
+StrakeStatus strake_offset_loops(const struct StrakeOffset *offset,
+                                 struct StrakePathInterval *buf,
+                                 size_t capacity,
+                                 size_t *count);
 
 /**
  * Copies the message of the last failed call on this thread into `buf`.

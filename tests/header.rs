@@ -176,6 +176,15 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_surface_from_callback",
         "strake_surface_set_knot_lines",
         "strake_version",
+        "strake_geodesic_trace",
+        "strake_geodesic_between",
+        "strake_offset_new",
+        "strake_offset_free",
+        "strake_offset_summary",
+        "strake_offset_piece_curve",
+        "strake_offset_piece_points",
+        "strake_offset_exits",
+        "strake_offset_loops",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

@@ -34,6 +34,7 @@ pub mod batch_callback;
 pub mod checks;
 pub mod curve;
 pub mod evaluate;
+pub mod geodesics;
 pub mod message;
 pub mod nurbs_surface;
 pub mod parallel;
@@ -54,6 +55,11 @@ pub use curve::{
     strake_curve_new_nurbs,
 };
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
+pub use geodesics::{
+    StrakeOffset, strake_geodesic_between, strake_geodesic_trace, strake_offset_exits,
+    strake_offset_free, strake_offset_loops, strake_offset_new, strake_offset_piece_curve,
+    strake_offset_piece_points, strake_offset_summary,
+};
 pub use message::{strake_last_callback_code, strake_last_error_message};
 pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
 pub use parallel::strake_frames_at_parallel;
@@ -75,5 +81,10 @@ pub use types::{
     StrakeParametrization, StrakeProjection, StrakeProjectionOptions, StrakeSample, StrakeScallop,
     StrakeStepOver, StrakeSurfaceJet, StrakeToolAngles, StrakeToolAxis, StrakeToolSide,
     StrakeViolation,
+};
+pub use types::{
+    StrakeDirectionKind, StrakeDomainSide, StrakeGeodesicEnd, StrakeGeodesicInfo,
+    StrakeGeodesicOptions, StrakeOffsetOptions, StrakeOffsetPoint, StrakeOffsetSide,
+    StrakeOffsetSummary, StrakePathInterval,
 };
 pub use version::strake_version;

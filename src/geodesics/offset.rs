@@ -158,17 +158,17 @@ impl OffsetOptions {
 
     /// Errors (`InvalidArgument`, naming the field) for a bad option.
     pub fn check(&self) -> Result<()> {
+        if !(self.chord_tolerance.is_finite() && self.chord_tolerance > 0.0) {
+            return Err(StrakeError::InvalidArgument(format!(
+                "chord_tolerance = {} must be positive and finite",
+                self.chord_tolerance
+            )));
+        }
         self.trace.check()?;
         if self.samples < 2 || self.max_samples < self.samples {
             return Err(StrakeError::InvalidArgument(format!(
                 "samples = {} must be at least 2 and max_samples = {} at least samples",
                 self.samples, self.max_samples
-            )));
-        }
-        if !(self.chord_tolerance.is_finite() && self.chord_tolerance > 0.0) {
-            return Err(StrakeError::InvalidArgument(format!(
-                "chord_tolerance = {} must be positive and finite",
-                self.chord_tolerance
             )));
         }
         Ok(())
