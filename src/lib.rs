@@ -20,6 +20,7 @@ pub mod geodesics;
 pub mod geometry;
 pub mod nurbs;
 pub mod paths;
+pub mod planning;
 pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
@@ -51,5 +52,9 @@ pub use paths::projection::{
 };
 pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
+};
+pub use planning::courses::{
+    CourseCheck, CourseGap, CourseGaps, FieldCourse, adjacent_course, course_check, course_gaps,
+    fixed_angle_course, natural_course,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
