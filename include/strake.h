@@ -733,72 +733,6 @@ typedef struct StrakeViolation {
 } StrakeViolation;
 
 /**
- * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
- * derivatives with respect to the curve parameter t; filled by a host curve callback (or
- * passed to `strake_frame_from_jets`). strake zeroes it before calling the host.
- */
-typedef struct StrakeCurveJet {
-  /**
-   * u(t).
-   */
-  double u;
-  /**
-   * v(t).
-   */
-  double v;
-  /**
-   * du/dt.
-   */
-  double du;
-  /**
-   * dv/dt.
-   */
-  double dv;
-  /**
-   * d2u/dt2.
-   */
-  double ddu;
-  /**
-   * d2v/dt2.
-   */
-  double ddv;
-} StrakeCurveJet;
-
-/**
- * A host curve evaluator: t -> (u(t), v(t)) in the surface's parameter plane.
- *
- * Called with the host's `user_data`, a parameter t inside the domain given at creation and a
- * jet that strake has set to zero; fill u, v and their first and second derivatives with
- * respect to t and return 0, or return a non-zero code to report a failure (strake returns
- * `STRAKE_STATUS_CURVE_CALLBACK_FAILED` and passes the code back). Entries must be finite.
- * The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
- */
-typedef int32_t (*StrakeCurveFn)(void *user_data,
-                                 double t,
-                                 struct StrakeCurveJet *out);
-
-/**
- * The widths of the parameter domains, for `strake_frame_from_jets`: degeneracy is judged
- * relative to them (a surface point is degenerate when |Su x Sv| is small against |Su| u_extent
- * and |Sv| v_extent; a curve stalls when (du/u_extent, dv/v_extent) t_extent is small). Each
- * must be positive and finite. With handles strake takes them from the domains.
- */
-typedef struct StrakeParamScales {
-  /**
-   * Width of the surface's u domain (u_max - u_min).
-   */
-  double u_extent;
-  /**
-   * Width of the surface's v domain (v_max - v_min).
-   */
-  double v_extent;
-  /**
-   * Width of the curve's t domain (t_max - t_min).
-   */
-  double t_extent;
-} StrakeParamScales;
-
-/**
  * Options of a geodesic trace or of the geodesic between two points.
  */
 typedef struct StrakeGeodesicOptions {
@@ -883,6 +817,128 @@ typedef struct StrakeOffsetOptions {
    */
   size_t max_samples;
 } StrakeOffsetOptions;
+
+/**
+ * A gap or an overlap between neighbouring courses' band edges (`strake_course_gaps`).
+ */
+typedef struct StrakeCourseGap {
+  /**
+   * Start, as a parameter of course A.
+   */
+  double t0;
+  /**
+   * End, as a parameter of course A.
+   */
+  double t1;
+  /**
+   * 1 for an overlap (the bands cover each other), 0 for a gap.
+   */
+  int32_t overlap;
+  /**
+   * Largest width inside the interval (host length unit, >= 0).
+   */
+  double worst;
+} StrakeCourseGap;
+
+/**
+ * Steering and twist along a course (`strake_course_check`).
+ */
+typedef struct StrakeCourseCheck {
+  /**
+   * Largest steering curvature |kg| (1/length).
+   */
+  double max_steering_curvature;
+  /**
+   * Smallest steering radius 1/|kg| (INFINITY along a geodesic).
+   */
+  double min_steering_radius;
+  /**
+   * Largest tow-edge strain (w/2)|kg|.
+   */
+  double max_edge_strain;
+  /**
+   * Largest |tg| (radians per length).
+   */
+  double max_twist_rate;
+  /**
+   * Samples where the steering radius is below the limit.
+   */
+  size_t steering_violations;
+  /**
+   * Samples where |tg| exceeds the limit.
+   */
+  size_t twist_violations;
+  /**
+   * Course length (host length unit).
+   */
+  double length;
+} StrakeCourseCheck;
+
+/**
+ * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
+ * derivatives with respect to the curve parameter t; filled by a host curve callback (or
+ * passed to `strake_frame_from_jets`). strake zeroes it before calling the host.
+ */
+typedef struct StrakeCurveJet {
+  /**
+   * u(t).
+   */
+  double u;
+  /**
+   * v(t).
+   */
+  double v;
+  /**
+   * du/dt.
+   */
+  double du;
+  /**
+   * dv/dt.
+   */
+  double dv;
+  /**
+   * d2u/dt2.
+   */
+  double ddu;
+  /**
+   * d2v/dt2.
+   */
+  double ddv;
+} StrakeCurveJet;
+
+/**
+ * A host curve evaluator: t -> (u(t), v(t)) in the surface's parameter plane.
+ *
+ * Called with the host's `user_data`, a parameter t inside the domain given at creation and a
+ * jet that strake has set to zero; fill u, v and their first and second derivatives with
+ * respect to t and return 0, or return a non-zero code to report a failure (strake returns
+ * `STRAKE_STATUS_CURVE_CALLBACK_FAILED` and passes the code back). Entries must be finite.
+ * The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
+ */
+typedef int32_t (*StrakeCurveFn)(void *user_data,
+                                 double t,
+                                 struct StrakeCurveJet *out);
+
+/**
+ * The widths of the parameter domains, for `strake_frame_from_jets`: degeneracy is judged
+ * relative to them (a surface point is degenerate when |Su x Sv| is small against |Su| u_extent
+ * and |Sv| v_extent; a curve stalls when (du/u_extent, dv/v_extent) t_extent is small). Each
+ * must be positive and finite. With handles strake takes them from the domains.
+ */
+typedef struct StrakeParamScales {
+  /**
+   * Width of the surface's u domain (u_max - u_min).
+   */
+  double u_extent;
+  /**
+   * Width of the surface's v domain (v_max - v_min).
+   */
+  double v_extent;
+  /**
+   * Width of the curve's t domain (t_max - t_min).
+   */
+  double t_extent;
+} StrakeParamScales;
 
 /**
  * Counts and figures of an offset.
@@ -1304,6 +1360,101 @@ StrakeStatus strake_path_violations(const struct StrakeSample *samples,
                                     struct StrakeViolation *buf,
                                     size_t capacity,
                                     size_t *count);
+
+/**
+ * A fixed-angle course from (u, v): its unit tangent keeps the angle `angle` (radians) to the
+ * reference direction e, the space direction `axis` (3 doubles) projected onto the tangent
+ * plane, counted toward N x e: T = cos(angle) e + sin(angle) (N x e). Integrated for arc
+ * length `length` with the error per step `options.tolerance` in space.
+ *
+ * On success writes a new curve handle to `*out_curve` (t = arc length) and, when `out_info`
+ * is not NULL, why it ended (`end` 0: the length; 1: the domain side `side`, exactly on
+ * it; 2: where the axis runs along the normal); `point`, `tangent`, `u`, `v` give the end.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `axis`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (a zero axis or one along the normal at the start, `length` or
+ * `tolerance` not positive, naming the values); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE; LEAVES_SURFACE; GEODESIC_INCOMPLETE; SURFACE_CALLBACK_FAILED.
+ * Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or live; `axis` NULL or 3 doubles; `options` NULL or valid; `out_curve`
+ * NULL or a writable `StrakeCurve *`; `out_info` NULL or writable.
+ */
+StrakeStatus strake_course_fixed_angle(const struct StrakeSurface *surface,
+                                       double u,
+                                       double v,
+                                       const double *axis,
+                                       double angle,
+                                       double length,
+                                       const struct StrakeGeodesicOptions *options,
+                                       struct StrakeCurve **out_curve,
+                                       struct StrakeGeodesicInfo *out_info);
+
+/**
+ * The adjacent course one tow band `band_width` to `side` (a `StrakeOffsetSide` value) of
+ * `course`: its geodesic parallel at that distance, as an offset handle (read and free it
+ * like one from `strake_offset_new`, whose errors and options apply; INVALID_ARGUMENT also
+ * for a band width not positive and finite).
+ *
+ * # Safety
+ * Handles NULL or live; `options` NULL or valid; `out` NULL or a writable `StrakeOffset *`.
+ */
+StrakeStatus strake_course_adjacent(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *course,
+                                    double band_width,
+                                    uint32_t side,
+                                    const struct StrakeOffsetOptions *options,
+                                    struct StrakeOffset **out);
+
+/**
+ * Gaps and overlaps between the bands of width `band_width` centred on courses `a` and `b`
+ * (`b` to `side` of `a`): at `samples` even parameters of `a` the geodesic perpendicular
+ * to `a` meets the edge of `b`'s band (its geodesic parallel at band_width/2); the width
+ * across `a` from `a`'s edge to it is a gap (> 0) or an overlap (< 0). Intervals where its
+ * size exceeds `tolerance` go to the buffer (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL
+ * sets `*count` to the number needed); `*unmatched` (when not NULL) receives the number of
+ * samples where no edge of `b` was met within 3 band widths. `options.tolerance` is the error
+ * per step of the traces.
+ *
+ * Errors: NULL_POINTER (`surface`, `a`, `b`, `options`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`side`, `band_width` or `tolerance` not positive, fewer than 2
+ * samples); BUFFER_TOO_SMALL; the errors of the traces and of `a`'s frames. Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `options` NULL or valid; `buf` NULL or room for `capacity`; `count`
+ * NULL or writable; `unmatched` NULL or writable.
+ */
+StrakeStatus strake_course_gaps(const struct StrakeSurface *surface,
+                                const struct StrakeCurve *a,
+                                const struct StrakeCurve *b,
+                                uint32_t side,
+                                double band_width,
+                                size_t samples,
+                                double tolerance,
+                                const struct StrakeGeodesicOptions *options,
+                                struct StrakeCourseGap *buf,
+                                size_t capacity,
+                                size_t *count,
+                                size_t *unmatched);
+
+/**
+ * Steering and twist along `course` at `samples` (>= 2) even parameters, with the limits of
+ * `strake_check_fibre`, summarised into `*out` (largest |kg|, smallest steering radius,
+ * largest edge strain and |tg|, violation counts, length).
+ *
+ * Errors: NULL_POINTER (`surface`, `course`, `limits`, `out`); INVALID_ARGUMENT (a limit not
+ * positive and finite, fewer than 2 samples); every error of `strake_frame_at` on the course.
+ * Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `limits` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_course_check(const struct StrakeSurface *surface,
+                                 const struct StrakeCurve *course,
+                                 const struct StrakeFibreLimits *limits,
+                                 size_t samples,
+                                 struct StrakeCourseCheck *out);
 
 /**
  * Creates a NURBS curve of degree `degree` in the surface's parameter plane.

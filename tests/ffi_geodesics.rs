@@ -566,3 +566,303 @@ fn new_statuses_are_named() {
     assert_eq!(StrakeStatus::GeodesicNotFound as u32, 51);
     assert_eq!(StrakeStatus::LeavesSurface as u32, 52);
 }
+
+/// Courses through the C ABI on a cylinder of radius 2 (callback): a fixed-angle course
+/// about the axis is a helix (do Carmo §4-4), a geodesic; its adjacent course is the parallel
+/// helix, which leaves no gap; a copy turned about the axis by more than a band width leaves
+/// a gap of the exact width (the cylinder unrolled: the helices are parallel lines).
+#[test]
+fn courses_through_the_c_abi() {
+    let mut r = 2.0f64;
+    let s = surface(
+        Some(cylinder),
+        (&raw mut r).cast(),
+        (0.0, 6.2),
+        (-5.0, 5.0),
+        0,
+    );
+    let axis = [0.0, 0.0, 1.0];
+    let o = opts(1e-11);
+    let alpha = 0.5f64;
+    let mut c = ptr::null_mut();
+    let mut info = StrakeGeodesicInfo::default();
+    // SAFETY: valid pointers.
+    unsafe {
+        let st = strake_course_fixed_angle(
+            s,
+            5.0,
+            -1.0,
+            axis.as_ptr(),
+            alpha,
+            3.0,
+            &o,
+            &mut c,
+            &mut info,
+        );
+        expect(st, StrakeStatus::Ok, &[]);
+    }
+    assert_eq!(info.end, StrakeGeodesicEnd::Length as u32);
+    close("tangent z", info.tangent[2], alpha.cos(), 1e-9, 1.0);
+    let limits = StrakeFibreLimits {
+        tow_width: 0.1,
+        min_steering_radius: 10.0,
+        max_twist_rate: 1.0,
+    };
+    let mut chk = StrakeCourseCheck::default();
+    // SAFETY: valid pointers.
+    unsafe {
+        expect(
+            strake_course_check(s, c, &limits, 20, &mut chk),
+            StrakeStatus::Ok,
+            &[],
+        );
+    }
+    assert!(
+        chk.max_steering_curvature < 1e-6 && chk.steering_violations == 0,
+        "{chk:?}"
+    );
+    // Helix on a cylinder: |tg| = sin α cos α / R (REFERENCES.md closed forms).
+    close(
+        "twist",
+        chk.max_twist_rate,
+        alpha.sin() * alpha.cos() / r,
+        1e-6,
+        1.0,
+    );
+    close("length", chk.length, 3.0, 1e-9, 1.0);
+    let w = 0.2;
+    let mut adj = ptr::null_mut();
+    let mut adj_curve = ptr::null_mut();
+    let mut gaps = [StrakeCourseGap::default(); 4];
+    let mut n = 0usize;
+    let mut unmatched = 9usize;
+    // SAFETY: valid pointers and buffers.
+    unsafe {
+        let st = strake_course_adjacent(s, c, w, 0, &offset_options(1e-8), &mut adj);
+        expect(st, StrakeStatus::Ok, &[]);
+        expect(
+            strake_offset_piece_curve(adj, 0, &mut adj_curve),
+            StrakeStatus::Ok,
+            &[],
+        );
+        let st = strake_course_gaps(
+            s,
+            c,
+            adj_curve,
+            0,
+            w,
+            21,
+            1e-6,
+            &o,
+            gaps.as_mut_ptr(),
+            4,
+            &mut n,
+            &mut unmatched,
+        );
+        expect(st, StrakeStatus::Ok, &[]);
+        assert_eq!((n, unmatched), (0, 0));
+    }
+    // A copy turned by Δu about the axis: the unrolled distance between the lines is
+    // R Δu sin(angle between the helix and the circumference) = R Δu cos α... measured
+    // across: the helix makes the angle α with the axis, so across it R Δu cos α.
+    let du = 0.15;
+    let shifted = {
+        // Left of the helix: B = N x T; N outward, T = cos α z + sin α (N x z) has a
+        // decreasing-u part, so its left is toward increasing u... check by the sign found.
+        let mut pts = Vec::new();
+        for i in 0..=40 {
+            let f = frame_at(s, c, 3.0 * i as f64 / 40.0);
+            pts.push([f.u + du, f.v]);
+        }
+        let mut out = ptr::null_mut();
+        // SAFETY: valid points.
+        let st = unsafe {
+            strake_curve_through_uv_points(
+                pts.as_ptr().cast(),
+                pts.len(),
+                3,
+                0,
+                ptr::null(),
+                ptr::null(),
+                &mut out,
+            )
+        };
+        expect(st, StrakeStatus::Ok, &[]);
+        out
+    };
+    let expected = r * du * alpha.cos() - w;
+    let mut found = None;
+    for side in [0u32, 1] {
+        // SAFETY: valid pointers and buffers.
+        let st = unsafe {
+            strake_course_gaps(
+                s,
+                c,
+                shifted,
+                side,
+                w,
+                11,
+                1e-6,
+                &o,
+                gaps.as_mut_ptr(),
+                4,
+                &mut n,
+                &mut unmatched,
+            )
+        };
+        expect(st, StrakeStatus::Ok, &[]);
+        if unmatched < 11 && n > 0 {
+            found = Some(gaps[0]);
+        }
+    }
+    let g = found.expect("the shifted course is found on one side");
+    assert_eq!(g.overlap, 0);
+    close("gap width", g.worst, expected, 1e-6, 1.0);
+    // Statuses.
+    let mut chk2 = StrakeCourseCheck {
+        length: -3.0,
+        ..Default::default()
+    };
+    let mut c2 = sentinel_curve();
+    // SAFETY: NULLs and bad values on purpose.
+    unsafe {
+        expect(
+            strake_course_check(s, c, &limits, 1, &mut chk2),
+            StrakeStatus::InvalidArgument,
+            &["samples = 1"],
+        );
+        expect(
+            strake_course_check(s, c, ptr::null(), 5, &mut chk2),
+            StrakeStatus::NullPointer,
+            &["limits"],
+        );
+        let bad = StrakeFibreLimits {
+            tow_width: 0.0,
+            ..limits
+        };
+        expect(
+            strake_course_check(s, c, &bad, 5, &mut chk2),
+            StrakeStatus::InvalidArgument,
+            &["tow_width"],
+        );
+        assert_eq!(chk2.length, -3.0);
+        let zero = [0.0; 3];
+        expect(
+            strake_course_fixed_angle(
+                s,
+                5.0,
+                0.0,
+                zero.as_ptr(),
+                0.3,
+                1.0,
+                &o,
+                &mut c2,
+                ptr::null_mut(),
+            ),
+            StrakeStatus::InvalidArgument,
+            &["(0, 0, 0)"],
+        );
+        let radial = [1.0, 0.0, 0.0];
+        expect(
+            strake_course_fixed_angle(
+                s,
+                0.0 + 1e-9,
+                0.0,
+                radial.as_ptr(),
+                0.3,
+                1.0,
+                &o,
+                &mut c2,
+                ptr::null_mut(),
+            ),
+            StrakeStatus::InvalidArgument,
+            &["along the normal"],
+        );
+        expect(
+            strake_course_fixed_angle(
+                s,
+                5.0,
+                0.0,
+                ptr::null(),
+                0.3,
+                1.0,
+                &o,
+                &mut c2,
+                ptr::null_mut(),
+            ),
+            StrakeStatus::NullPointer,
+            &["axis"],
+        );
+        assert_eq!(c2, sentinel_curve());
+        expect(
+            strake_course_gaps(
+                s,
+                c,
+                shifted,
+                3,
+                w,
+                11,
+                1e-6,
+                &o,
+                gaps.as_mut_ptr(),
+                4,
+                &mut n,
+                ptr::null_mut(),
+            ),
+            StrakeStatus::InvalidArgument,
+            &["`side` = 3"],
+        );
+        expect(
+            strake_course_gaps(
+                s,
+                c,
+                ptr::null(),
+                0,
+                w,
+                11,
+                1e-6,
+                &o,
+                gaps.as_mut_ptr(),
+                4,
+                &mut n,
+                ptr::null_mut(),
+            ),
+            StrakeStatus::NullPointer,
+            &["b"],
+        );
+        expect(
+            strake_course_gaps(
+                s,
+                c,
+                shifted,
+                0,
+                0.0,
+                11,
+                1e-6,
+                &o,
+                gaps.as_mut_ptr(),
+                4,
+                &mut n,
+                ptr::null_mut(),
+            ),
+            StrakeStatus::InvalidArgument,
+            &["band_width = 0"],
+        );
+        let mut adj2 = 0x10 as *mut StrakeOffset;
+        expect(
+            strake_course_adjacent(s, c, -1.0, 0, &offset_options(1e-6), &mut adj2),
+            StrakeStatus::InvalidArgument,
+            &["band_width = -1"],
+        );
+        expect(
+            strake_course_adjacent(s, c, 0.1, 0, ptr::null(), &mut adj2),
+            StrakeStatus::NullPointer,
+            &["options"],
+        );
+        assert_eq!(adj2, 0x10 as *mut StrakeOffset);
+        strake_curve_free(shifted);
+        strake_curve_free(adj_curve);
+        strake_offset_free(adj);
+    }
+    free(s, c);
+}

@@ -185,6 +185,10 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_offset_piece_points",
         "strake_offset_exits",
         "strake_offset_loops",
+        "strake_course_fixed_angle",
+        "strake_course_adjacent",
+        "strake_course_gaps",
+        "strake_course_check",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

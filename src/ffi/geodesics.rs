@@ -215,6 +215,29 @@ pub struct StrakeOffset {
     offset: SurfaceOffset,
 }
 
+impl StrakeOffset {
+    /// Wraps an offset of the Rust API.
+    pub fn new(offset: SurfaceOffset) -> Self {
+        StrakeOffset { offset }
+    }
+}
+
+/// The offset options of the Rust API for the C options (zeros give the defaults), checked.
+pub(crate) fn offset_options(o: &StrakeOffsetOptions) -> Result<OffsetOptions, Failure> {
+    let mut opts = OffsetOptions::new(o.chord_tolerance);
+    if o.trace_tolerance != 0.0 {
+        opts.trace = TraceOptions::new(o.trace_tolerance);
+    }
+    if o.samples != 0 {
+        opts.samples = o.samples;
+    }
+    if o.max_samples != 0 {
+        opts.max_samples = o.max_samples;
+    }
+    opts.check()?;
+    Ok(opts)
+}
+
 /// The offset of `curve` on `surface`: the curve at geodesic distance d to the left (B side)
 /// or right of it, computed point by point as the end of the geodesic leaving the path
 /// perpendicularly, sampled adaptively, trimmed where it leaves the surface and where it forms
@@ -286,16 +309,7 @@ pub unsafe extern "C" fn strake_offset_new(
                 )));
             }
         };
-        let mut opts = OffsetOptions::new(o.chord_tolerance);
-        if o.trace_tolerance != 0.0 {
-            opts.trace = TraceOptions::new(o.trace_tolerance);
-        }
-        if o.samples != 0 {
-            opts.samples = o.samples;
-        }
-        if o.max_samples != 0 {
-            opts.max_samples = o.max_samples;
-        }
+        let opts = offset_options(o)?;
         let offset = offset_path(s.source(), c.curve(), side, &distance, &opts)?;
         // SAFETY: checked non-null and aligned.
         unsafe {

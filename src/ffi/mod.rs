@@ -32,6 +32,7 @@ pub(crate) mod guard;
 
 pub mod batch_callback;
 pub mod checks;
+pub mod courses;
 pub mod curve;
 pub mod evaluate;
 pub mod geodesics;
@@ -49,6 +50,9 @@ pub use batch_callback::{StrakeSurfaceBatchFn, strake_surface_from_batch_callbac
 pub use checks::{
     strake_check_feed, strake_check_fibre, strake_check_gouge, strake_check_scallop,
     strake_check_step_over, strake_path_extremes, strake_path_violations, strake_tool_axis,
+};
+pub use courses::{
+    strake_course_adjacent, strake_course_check, strake_course_fixed_angle, strake_course_gaps,
 };
 pub use curve::{
     StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
@@ -75,6 +79,7 @@ pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
     strake_surface_set_knot_lines,
 };
+pub use types::{StrakeCourseCheck, StrakeCourseGap};
 pub use types::{
     StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
     StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,

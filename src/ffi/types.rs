@@ -811,3 +811,37 @@ pub struct StrakePathInterval {
     /// End.
     pub t1: f64,
 }
+
+/// A gap or an overlap between neighbouring courses' band edges (`strake_course_gaps`).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCourseGap {
+    /// Start, as a parameter of course A.
+    pub t0: f64,
+    /// End, as a parameter of course A.
+    pub t1: f64,
+    /// 1 for an overlap (the bands cover each other), 0 for a gap.
+    pub overlap: i32,
+    /// Largest width inside the interval (host length unit, >= 0).
+    pub worst: f64,
+}
+
+/// Steering and twist along a course (`strake_course_check`).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCourseCheck {
+    /// Largest steering curvature |kg| (1/length).
+    pub max_steering_curvature: f64,
+    /// Smallest steering radius 1/|kg| (INFINITY along a geodesic).
+    pub min_steering_radius: f64,
+    /// Largest tow-edge strain (w/2)|kg|.
+    pub max_edge_strain: f64,
+    /// Largest |tg| (radians per length).
+    pub max_twist_rate: f64,
+    /// Samples where the steering radius is below the limit.
+    pub steering_violations: usize,
+    /// Samples where |tg| exceeds the limit.
+    pub twist_violations: usize,
+    /// Course length (host length unit).
+    pub length: f64,
+}

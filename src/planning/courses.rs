@@ -597,7 +597,9 @@ fn crossing_distance<B: UvCurve + ?Sized>(
             let d = [q0[0] - p0[0], q0[1] - p0[1]];
             let al = (d[0] * sv[1] - d[1] * sv[0]) / den;
             let be = (d[0] * r[1] - d[1] * r[0]) / den;
-            if !((0.0..=1.0).contains(&al) && (0.0..=1.0).contains(&be)) {
+            // A little slack at B's ends: the perpendicular of A's last sample meets the edge
+            // of an adjacent course at its very end, within round-off.
+            if !((0.0..=1.0).contains(&al) && (-1e-6..=1.0 + 1e-6).contains(&be)) {
                 continue;
             }
             let mut s = w[0].0 + al * (w[1].0 - w[0].0);
