@@ -252,6 +252,128 @@ typedef uint32_t StrakeCutterKind;
 #endif // __cplusplus
 
 /**
+ * The kinds of start direction: the values of `direction_kind` in `strake_geodesic_trace`.
+ */
+enum StrakeDirectionKind
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: `direction` points to 1 double, an angle θ (radians) from e1 = Su/|Su| toward
+   * e2 = N x e1: the direction cos θ e1 + sin θ e2.
+   */
+  STRAKE_DIRECTION_KIND_ANGLE = 0,
+  /**
+   * 1: `direction` points to 3 doubles, a direction in space; its component along the
+   * normal is removed.
+   */
+  STRAKE_DIRECTION_KIND_SPACE = 1,
+  /**
+   * 2: `direction` points to 2 doubles (du, dv) in the parameter plane.
+   */
+  STRAKE_DIRECTION_KIND_PARAMETER = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeDirectionKind StrakeDirectionKind;
+#else
+typedef uint32_t StrakeDirectionKind;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Why a geodesic trace ended: the values of `StrakeGeodesicInfo.end`.
+ */
+enum StrakeGeodesicEnd
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: it reached the length asked.
+   */
+  STRAKE_GEODESIC_END_LENGTH = 0,
+  /**
+   * 1: it left the parameter domain; the end lies exactly on the side `side`.
+   */
+  STRAKE_GEODESIC_END_BOUNDARY = 1,
+  /**
+   * 2: it stopped before a degenerate point (a pole, a collapsed edge).
+   */
+  STRAKE_GEODESIC_END_DEGENERATE = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeGeodesicEnd StrakeGeodesicEnd;
+#else
+typedef uint32_t StrakeGeodesicEnd;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Sides of the parameter domain: the values of `StrakeGeodesicInfo.side`.
+ */
+enum StrakeDomainSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: no side (the trace did not end at the boundary).
+   */
+  STRAKE_DOMAIN_SIDE_NONE = 0,
+  /**
+   * 1: u = u_min.
+   */
+  STRAKE_DOMAIN_SIDE_U_MIN = 1,
+  /**
+   * 2: u = u_max.
+   */
+  STRAKE_DOMAIN_SIDE_U_MAX = 2,
+  /**
+   * 3: v = v_min.
+   */
+  STRAKE_DOMAIN_SIDE_V_MIN = 3,
+  /**
+   * 4: v = v_max.
+   */
+  STRAKE_DOMAIN_SIDE_V_MAX = 4,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeDomainSide StrakeDomainSide;
+#else
+typedef uint32_t StrakeDomainSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Sides of a path: the values of `side` in `strake_offset_new`.
+ */
+enum StrakeOffsetSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: toward B = N x T (left of the direction of travel, seen from N).
+   */
+  STRAKE_OFFSET_SIDE_LEFT = 0,
+  /**
+   * 1: toward -B.
+   */
+  STRAKE_OFFSET_SIDE_RIGHT = 1,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeOffsetSide StrakeOffsetSide;
+#else
+typedef uint32_t StrakeOffsetSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
  * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
  * `strake_curve_from_callback`, `strake_curve_through_uv_points`,
  * `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
