@@ -35,6 +35,10 @@
 //! distance measured between the curve and the offset points of the interval midpoints that
 //! were computed but not kept.
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
 use crate::geodesics::trace::{GeodesicEnd, StartDirection, TraceOptions, trace_geodesic};

@@ -26,6 +26,10 @@
 //! nodes to the accuracy of the state, and between them to the interpolant's O(h⁴) error in
 //! the second derivative (measured in the tests and `docs/geodesics.md`).
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geodesics::christoffel::geodesic_acceleration;
 use crate::geodesics::hermite::HermiteUvCurve;

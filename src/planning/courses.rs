@@ -29,6 +29,10 @@
 //! - Checks ([`course_check`]): [`fibre_state`] at even samples of the course: steering
 //!   curvature |κg|, edge strain (w/2)|κg|, twist rate τg, and whether the limits are passed.
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 use crate::checks::fibre::{FibreLimits, fibre_state};
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
@@ -110,6 +114,10 @@ fn field(
     Ok([p, q, pp, qq])
 }
 
+/// One evaluation of the field: the field and the jet, or a refusal: `Some(ratio)` where the
+/// field or the surface degenerates, `None` outside the domain.
+type FieldEval = std::result::Result<([f64; 4], SurfaceJet), Option<f64>>;
+
 /// A fixed-angle course from (u, v): tangent at angle `angle` (radians) from the projection of
 /// the space direction `axis` onto the tangent plane, toward N × e (see the module docs), for
 /// arc length `length`, with the error per step `opts.tolerance` in space.
@@ -134,7 +142,7 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
             axis.x, axis.y, axis.z
         )));
     }
-    if !angle.is_finite() || !(length.is_finite() && length > 0.0) {
+    if !(angle.is_finite() && length.is_finite() && length > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
             "angle = {angle} must be finite and length = {length} positive and finite"
         )));
@@ -147,30 +155,29 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
     let mut hint = SurfaceHint::default();
     let mut jets = 0usize;
     // One evaluation: Ok(Ok(field, jet)), Ok(Err(Some(ratio))) degenerate, Ok(Err(None)) outside.
-    let mut eval =
-        |y: [f64; 2]| -> Result<std::result::Result<([f64; 4], SurfaceJet), Option<f64>>> {
-            let mut x = y;
-            for k in 0..2 {
-                if !x[k].is_finite() || x[k] < lo[k] - snap[k] || x[k] > hi[k] + snap[k] {
-                    return Ok(Err(None));
-                }
-                x[k] = x[k].clamp(lo[k], hi[k]);
+    let mut eval = |y: [f64; 2]| -> Result<FieldEval> {
+        let mut x = y;
+        for k in 0..2 {
+            if !x[k].is_finite() || x[k] < lo[k] - snap[k] || x[k] > hi[k] + snap[k] {
+                return Ok(Err(None));
             }
-            let jet = surface.jet_in_domain(x[0], x[1], DerivOrder::Second, &mut hint)?;
-            jets += 1;
-            jet.check_finite()?;
-            let sp = match SurfacePoint::new(&jet, orient, x[0], x[1], ud.width(), vd.width()) {
-                Ok(sp) => sp,
-                Err(StrakeError::DegenerateSurface { conditioning, .. }) => {
-                    return Ok(Err(Some(conditioning.min(DEGENERATE_SURFACE_LIMIT))));
-                }
-                Err(e) => return Err(e),
-            };
-            Ok(match field(&jet, &sp, &axis, cos_a, sin_a) {
-                Ok(f) => Ok((f, jet)),
-                Err(r) => Err(Some(r)),
-            })
+            x[k] = x[k].clamp(lo[k], hi[k]);
+        }
+        let jet = surface.jet_in_domain(x[0], x[1], DerivOrder::Second, &mut hint)?;
+        jets += 1;
+        jet.check_finite()?;
+        let sp = match SurfacePoint::new(&jet, orient, x[0], x[1], ud.width(), vd.width()) {
+            Ok(sp) => sp,
+            Err(StrakeError::DegenerateSurface { conditioning, .. }) => {
+                return Ok(Err(Some(conditioning.min(DEGENERATE_SURFACE_LIMIT))));
+            }
+            Err(e) => return Err(e),
         };
+        Ok(match field(&jet, &sp, &axis, cos_a, sin_a) {
+            Ok(f) => Ok((f, jet)),
+            Err(r) => Err(Some(r)),
+        })
+    };
     let j0 = surface.checked_jet(u, v, DerivOrder::Second, &mut SurfaceHint::default())?;
     let sp0 = SurfacePoint::new(&j0, orient, u, v, ud.width(), vd.width())?;
     let f0 = field(&j0, &sp0, &axis, cos_a, sin_a).map_err(|r| {
@@ -447,8 +454,7 @@ pub fn course_gaps<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + 
     tolerance: f64,
     trace: &TraceOptions,
 ) -> Result<CourseGaps> {
-    if !(band_width.is_finite() && band_width > 0.0)
-        || !(tolerance.is_finite() && tolerance > 0.0)
+    if !(band_width.is_finite() && band_width > 0.0 && tolerance.is_finite() && tolerance > 0.0)
         || samples < 2
     {
         return Err(StrakeError::InvalidArgument(format!(
