@@ -79,6 +79,8 @@ struct Raw {
     plan_setup: Vec<f64>,
     /// Per course: index, start u, v, length, end, side, end u, v.
     plan_courses: Vec<Vec<f64>>,
+    /// Per course: index, largest |kg|, largest |tg|, steering and twist violations.
+    plan_checks: Vec<Vec<f64>>,
     /// Per gap: pair index, index, t0, t1, overlap, worst.
     plan_gaps: Vec<Vec<f64>>,
     /// The parallel course: length, smallest steering radius, largest twist, violations.
@@ -146,6 +148,7 @@ fn parse_raw(text: &str) -> Raw {
             "plan_setup" => r.plan_setup = numbers(rest),
             "plan_course" => r.plan_courses.push(numbers(rest)),
             "plan_gap" => r.plan_gaps.push(numbers(rest)),
+            "plan_check" => r.plan_checks.push(numbers(rest)),
             "plan_parallel" => r.plan_parallel = numbers(rest),
             other => panic!("unexpected line `{other}` in the raw output"),
         }
@@ -961,6 +964,29 @@ fn demo_courses_match_the_rust_api() {
         );
         courses.push(g);
     }
+    let limits = strake::checks::fibre::FibreLimits {
+        tow_width: raw.course_setup[3],
+        min_steering_radius: raw.course_setup[4],
+        max_twist_rate: raw.course_setup[5],
+    };
+    assert_eq!(raw.plan_checks.len(), 4);
+    for (k, c) in raw.plan_checks.iter().enumerate() {
+        let chk = course_check(&wing, &courses[k].curve, &limits, 101).unwrap();
+        // A natural course is a geodesic: no steering (to the trace's accuracy).
+        assert!(
+            c[1] < 1e-6 && chk.max_steering_curvature < 1e-6,
+            "course {k}: kg {}",
+            c[1]
+        );
+        assert!(
+            (c[2] - chk.max_twist_rate).abs() < 1e-9,
+            "course {k}: twist"
+        );
+        assert_eq!(
+            (c[3], c[4]),
+            (chk.steering_violations as f64, chk.twist_violations as f64)
+        );
+    }
     for k in 1..4 {
         let gaps = course_gaps(
             &wing,
@@ -998,11 +1024,6 @@ fn demo_courses_match_the_rust_api() {
         &OffsetOptions::new(1e-3),
     )
     .unwrap();
-    let limits = strake::checks::fibre::FibreLimits {
-        tow_width: raw.course_setup[3],
-        min_steering_radius: raw.course_setup[4],
-        max_twist_rate: raw.course_setup[5],
-    };
     let chk = course_check(&wing, &par.pieces[0].curve, &limits, 101).unwrap();
     assert!((chk.length - raw.plan_parallel[0]).abs() < 1e-6 * chk.length);
     assert!(

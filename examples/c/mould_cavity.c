@@ -656,13 +656,24 @@ static int plan_courses(int raw)
             bad = fail("strake_frame_at (course start)", status);
             break;
         }
+        /* The steering and twist checks on every course. */
+        status = strake_course_check(skin, course[k], &FIBRE, 101, &check);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_course_check", status);
+            break;
+        }
         if (raw) {
             printf("plan_course %d %.17g %.17g %.17g %u %u %.17g %.17g\n", k, f.u, f.v, info[k].length, info[k].end,
                    info[k].side, info[k].u, info[k].v);
+            printf("plan_check %d %.17g %.17g %zu %zu\n", k, check.max_steering_curvature, check.max_twist_rate,
+                   check.steering_violations, check.twist_violations);
         } else {
             printf("  course %d: from (%6.1f, %5.1f) to (%6.1f, %5.1f), %7.1f mm, ends %s\n", k, f.u, f.v, info[k].u,
                    info[k].v, info[k].length,
                    info[k].end == STRAKE_GEODESIC_END_BOUNDARY ? "at the panel edge" : "at its length");
+            printf("            |kg| up to %.1e 1/mm (geodesic), twist up to %.4f rad/m, %zu of 101 samples above "
+                   "the twist limit\n",
+                   check.max_steering_curvature, 1000.0 * check.max_twist_rate, check.twist_violations);
         }
     }
     for (k = 1; k < PLAN_COURSES && !bad; k++) {

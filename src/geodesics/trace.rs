@@ -14,16 +14,18 @@
 //! - at the domain boundary ([`GeodesicEnd::Boundary`]): the step is aimed at the crossing
 //!   predicted from the local quadratic (u + u's + u''s²/2), refined step after step, and the
 //!   last point is put exactly on the boundary once it is within 1e-11 of the domain width;
-//! - never across a knot line of the surface ([`SurfaceSource::u_breaks`], `v_breaks`),
-//!   where the parametrisation's second derivatives may jump: steps are aimed at the line
-//!   like at the boundary, a step that would jump over one is refused, and the node on the
-//!   line is doubled so that the curve's second derivative can jump with the surface's;
 //! - before a degenerate point ([`GeodesicEnd::Degenerate`]): a stage whose surface
 //!   conditioning figure is below [`DEGENERATE_SURFACE_LIMIT`] is refused, the step halved,
 //!   and the trace ends when the step falls below its floor;
 //! - with [`StrakeError::GeodesicIncomplete`] when the error cannot be brought below the
 //!   tolerance with a step above its floor (1e-13 of the surface's size) or the step cap is
 //!   used up: never a loop, never a silent wrong curve.
+//!
+//! No step crosses a knot line of the surface ([`SurfaceSource::u_breaks`], `v_breaks`),
+//! where the parametrisation's second derivatives may jump: steps are aimed just short of the
+//! line (by a thousandth of the way) and then onto it, a step that would jump over one is
+//! refused, and the node on the line is doubled so that the curve's second derivative can
+//! jump with the surface's.
 //!
 //! The curve is the quintic Hermite interpolant of the accepted nodes (value, u', v' and the
 //! geodesic acceleration at each), parametrised by arc length: its frame has κg = 0 at the
@@ -273,6 +275,25 @@ impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
             })
         })
     }
+}
+
+/// Appends the node of an accepted step at arc length `s`, or, when the step is below a
+/// thousandth of the last segment (the last approaches to the boundary or to a knot line),
+/// moves the last node there instead: segments that short would leave the curve's parameter
+/// at the rounding level of the arc length. Not across a doubled node (a knot line).
+pub(crate) fn push_node(knots: &mut Vec<f64>, nodes: &mut Vec<CurveJet>, s: f64, node: CurveJet) {
+    let n = knots.len();
+    if n >= 2 {
+        let last = knots[n - 1] - knots[n - 2];
+        let doubled = n >= 3 && knots[n - 2] == knots[n - 3];
+        if last > 0.0 && !doubled && s - knots[n - 1] < 1e-3 * last {
+            knots[n - 1] = s;
+            nodes[n - 1] = node;
+            return;
+        }
+    }
+    knots.push(s);
+    nodes.push(node);
 }
 
 /// The unit parameter velocity (u', v') (|Su u' + Sv v'| = 1) of a start direction at a
@@ -561,16 +582,21 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
                 }
             }
         }
+        let doubled_here = far_side.is_some();
         if let Some((fb, jb)) = far_side {
-            knots.push(s);
-            nodes.push(CurveJet {
-                u: y[0],
-                v: y[1],
-                du: y[2],
-                dv: y[3],
-                ddu: f[2],
-                ddv: f[3],
-            });
+            push_node(
+                &mut knots,
+                &mut nodes,
+                s,
+                CurveJet {
+                    u: y[0],
+                    v: y[1],
+                    du: y[2],
+                    dv: y[3],
+                    ddu: f[2],
+                    ddv: f[3],
+                },
+            );
             f = [y[2], y[3], fb[2], fb[3]];
             jet = jb;
         }
@@ -599,15 +625,21 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
                 jet = jb;
             }
         }
-        knots.push(s);
-        nodes.push(CurveJet {
+        let node = CurveJet {
             u: y[0],
             v: y[1],
             du: y[2],
             dv: y[3],
             ddu: f[2],
             ddv: f[3],
-        });
+        };
+        if doubled_here {
+            // The far side's copy of the node on the knot line: always a node of its own.
+            knots.push(s);
+            nodes.push(node);
+        } else {
+            push_node(&mut knots, &mut nodes, s, node);
+        }
         if let Some(side) = side {
             end = GeodesicEnd::Boundary(side);
             break;

@@ -366,8 +366,7 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
                 f = fb;
             }
         }
-        knots.push(s);
-        nodes.push(node(y, f));
+        crate::geodesics::trace::push_node(&mut knots, &mut nodes, s, node(y, f));
         if let Some(side) = side {
             end = GeodesicEnd::Boundary(side);
             break;
