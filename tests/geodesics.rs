@@ -213,11 +213,18 @@ fn exits_land_exactly_on_the_boundary() {
     // rounding level of the arc length, and stalled the arc-length quadrature of a 2.3 m
     // course in the C demo).
     let k = g.curve.knots();
-    let shortest = k.windows(2).map(|w| w[1] - w[0]).fold(f64::INFINITY, f64::min);
+    let shortest = k
+        .windows(2)
+        .map(|w| w[1] - w[0])
+        .fold(f64::INFINITY, f64::min);
     assert!(shortest > 1e-6 * g.length, "shortest segment {shortest:e}");
     let path = CurveOnSurface::new(&s, &g.curve);
     let l = strake::arc_length(&path, 0.0, g.length, 1e-12).unwrap();
-    assert!((l - g.length).abs() < 1e-9, "arc length {l} vs {}", g.length);
+    assert!(
+        (l - g.length).abs() < 1e-9,
+        "arc length {l} vs {}",
+        g.length
+    );
 }
 
 /// On a sphere, a meridian runs into the pole, a degenerate point of the parametrisation:
