@@ -39,8 +39,8 @@
  * message, see `strake_last_error_message`.
  *
  * ABI policy: every value keeps its number for the life of the library. Values are grouped by
- * area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 90-99
- * internal). New values take the next free number of their group; a retired value stays listed
+ * area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 50-54
+ * geodesics and offsets, 90-99 internal). New values take the next free number of their group; a retired value stays listed
  * here as a comment and its number is never given to anything else. Hosts should treat an
  * unknown non-zero value as a failure (a newer library may add values).
  *
@@ -135,6 +135,24 @@ enum StrakeStatus
    * in `strake_last_callback_code`.
    */
   STRAKE_STATUS_CURVE_CALLBACK_FAILED = 31,
+  /**
+   * 50: a geodesic trace could not go on: its error estimate stayed above the tolerance
+   * while the step shrank to its floor, or it used up its step cap (the message names the
+   * arc length and (u, v) reached).
+   */
+  STRAKE_STATUS_GEODESIC_INCOMPLETE = 50,
+  /**
+   * 51: no geodesic between the two points was found: shooting did not converge, or
+   * converged to a geodesic longer than the straight parameter line, which cannot be the
+   * shortest (the message names the residual and the length reached).
+   */
+  STRAKE_STATUS_GEODESIC_NOT_FOUND = 51,
+  /**
+   * 52: the construction leaves the surface at once: a geodesic starting on the boundary
+   * heading out, or an offset of which no part lies on the surface (the message names the
+   * value).
+   */
+  STRAKE_STATUS_LEAVES_SURFACE = 52,
   /**
    * 90: a bug in strake: a panic was caught at the C boundary. The message says where.
    * Please report it; the handles passed in are still valid.
@@ -234,6 +252,128 @@ typedef uint32_t StrakeCutterKind;
 #endif // __cplusplus
 
 /**
+ * The kinds of start direction: the values of `direction_kind` in `strake_geodesic_trace`.
+ */
+enum StrakeDirectionKind
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: `direction` points to 1 double, an angle θ (radians) from e1 = Su/|Su| toward
+   * e2 = N x e1: the direction cos θ e1 + sin θ e2.
+   */
+  STRAKE_DIRECTION_KIND_ANGLE = 0,
+  /**
+   * 1: `direction` points to 3 doubles, a direction in space; its component along the
+   * normal is removed.
+   */
+  STRAKE_DIRECTION_KIND_SPACE = 1,
+  /**
+   * 2: `direction` points to 2 doubles (du, dv) in the parameter plane.
+   */
+  STRAKE_DIRECTION_KIND_PARAMETER = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeDirectionKind StrakeDirectionKind;
+#else
+typedef uint32_t StrakeDirectionKind;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Why a geodesic trace ended: the values of `StrakeGeodesicInfo.end`.
+ */
+enum StrakeGeodesicEnd
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: it reached the length asked.
+   */
+  STRAKE_GEODESIC_END_LENGTH = 0,
+  /**
+   * 1: it left the parameter domain; the end lies exactly on the side `side`.
+   */
+  STRAKE_GEODESIC_END_BOUNDARY = 1,
+  /**
+   * 2: it stopped before a degenerate point (a pole, a collapsed edge).
+   */
+  STRAKE_GEODESIC_END_DEGENERATE = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeGeodesicEnd StrakeGeodesicEnd;
+#else
+typedef uint32_t StrakeGeodesicEnd;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Sides of the parameter domain: the values of `StrakeGeodesicInfo.side`.
+ */
+enum StrakeDomainSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: no side (the trace did not end at the boundary).
+   */
+  STRAKE_DOMAIN_SIDE_NONE = 0,
+  /**
+   * 1: u = u_min.
+   */
+  STRAKE_DOMAIN_SIDE_U_MIN = 1,
+  /**
+   * 2: u = u_max.
+   */
+  STRAKE_DOMAIN_SIDE_U_MAX = 2,
+  /**
+   * 3: v = v_min.
+   */
+  STRAKE_DOMAIN_SIDE_V_MIN = 3,
+  /**
+   * 4: v = v_max.
+   */
+  STRAKE_DOMAIN_SIDE_V_MAX = 4,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeDomainSide StrakeDomainSide;
+#else
+typedef uint32_t StrakeDomainSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Sides of a path: the values of `side` in `strake_offset_new`.
+ */
+enum StrakeOffsetSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: toward B = N x T (left of the direction of travel, seen from N).
+   */
+  STRAKE_OFFSET_SIDE_LEFT = 0,
+  /**
+   * 1: toward -B.
+   */
+  STRAKE_OFFSET_SIDE_RIGHT = 1,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeOffsetSide StrakeOffsetSide;
+#else
+typedef uint32_t StrakeOffsetSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
  * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
  * `strake_curve_from_callback`, `strake_curve_through_uv_points`,
  * `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
@@ -241,6 +381,12 @@ typedef uint32_t StrakeCutterKind;
  * one handle may be evaluated from many threads at once, and used with any surface.
  */
 typedef struct StrakeCurve StrakeCurve;
+
+/**
+ * An opaque offset of a path on a surface: made by `strake_offset_new`, released by
+ * `strake_offset_free`. Immutable; may be read from many threads at once.
+ */
+typedef struct StrakeOffset StrakeOffset;
 
 /**
  * An opaque surface: created by `strake_surface_from_callback`, released by
@@ -434,12 +580,9 @@ typedef struct StrakeCutter {
  * Lead and tilt angles of the tool axis (radians, each strictly inside (-pi/2, pi/2)).
  *
  * The axis a (from the cutter tip toward the spindle) is
- * a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t, in the tool-side frame:
- * n_t = N when the tool is on the N side and -N otherwise, b_t = n_t x T (B on the N side, -B
- * on the other): lead leans the axis from the tool-side normal toward the feed direction T,
- * tilt then toward b_t, the left of travel seen from the tool, whichever side it is on. Both
- * 0: the axis along the tool-side normal. (Changed: tilt used to lean toward B on both
- * sides.)
+ * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, with n_t = N when the
+ * tool is on the N side and -N otherwise: lead leans the axis from the tool-side normal toward
+ * the feed direction T, tilt then toward B. Both 0: the axis along the tool-side normal.
  */
 typedef struct StrakeToolAngles {
   /**
@@ -447,7 +590,7 @@ typedef struct StrakeToolAngles {
    */
   double lead;
   /**
-   * Tilt angle (radians): toward b_t = n_t x T (left of travel seen from the tool).
+   * Tilt angle (radians): toward the side direction B.
    */
   double tilt;
 } StrakeToolAngles;
@@ -471,9 +614,7 @@ typedef struct StrakeGougeState {
   /**
    * Effective cutting radius across the direction in which the axis is inclined by beta
    * from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
-   * INFINITY for a flat or toroidal cutter with its axis along the normal). Across the path
-   * only for pure lead: scallop and step-over need `StrakeCutterRadii.across_path`
-   * (`strake_cutter_radii`).
+   * INFINITY for a flat or toroidal cutter with its axis along the normal).
    */
   double effective_radius_cross;
   /**
@@ -487,20 +628,16 @@ typedef struct StrakeGougeState {
    */
   double margin;
   /**
-   * 1 when the cutter gouges locally (margin below zero beyond round-off) or at the rear
-   * (the bottom or the heel inside the material, see `strake_check_rear_gouge`), else 0.
-   * (Changed: it used to see local gouging only.)
+   * 1 when the cutter gouges locally (margin below zero beyond round-off), else 0.
    */
   int32_t gouges;
   /**
-   * 1 when some lead angle in [0, pi/2) avoids local and rear gouging at the given tilt; 0
-   * when none does (the cutter is too large for the concavity whatever its inclination).
+   * 1 when some lead angle in [0, pi/2) avoids local gouging at the given tilt; 0 when none
+   * does (the cutter is too large for the concavity whatever its inclination).
    */
   int32_t has_min_lead;
   /**
-   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise. (Changed:
-   * it used to avoid local gouging only, which let the heel of a flat or toroidal cutter
-   * into the material.)
+   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise.
    */
   double min_lead;
 } StrakeGougeState;
@@ -593,9 +730,7 @@ typedef struct StrakeFibreState {
    */
   double steering_radius;
   /**
-   * The larger tow-edge strain magnitude, max(|e_left|, |e_right|) of `StrakeTowEdges`
-   * (dimensionless), including the Gaussian-curvature term. (Changed: it was (w/2)|kg|,
-   * which reads 0 along a great circle of a sphere where both edges shorten.)
+   * Tow-edge strain (w/2)|kg| (dimensionless): one edge stretched, the other compressed.
    */
   double edge_strain;
   /**
@@ -615,17 +750,12 @@ typedef struct StrakeFibreState {
 
 /**
  * The tool axis at one sample (unit vector from the cutter tip toward the spindle).
- *
- * Changed: the components were along (T, B, N) in a field `darboux`; they are now along the
- * tool-side frame (T, b_t, n_t) in `local` (n_t = N and b_t = B on the N side, n_t = -N and
- * b_t = -B on the other side), and the tilt leans toward b_t.
  */
 typedef struct StrakeToolAxis {
   /**
-   * Components along the tool-side frame (T, b_t, n_t): (sin(lead), cos(lead) sin(tilt),
-   * cos(lead) cos(tilt)).
+   * Components along (T, B, N) of the sample's frame (along N, not the tool-side normal).
    */
-  double local[3];
+  double darboux[3];
   /**
    * The axis in space: the three components above times T, B and N, summed.
    */
@@ -725,127 +855,146 @@ typedef struct StrakeViolation {
 } StrakeViolation;
 
 /**
- * The cutter's radii of curvature at its contact point for given lead and tilt (host length
- * unit), from `strake_cutter_radii`.
+ * Options of a geodesic trace or of the geodesic between two points.
  */
-typedef struct StrakeCutterRadii {
+typedef struct StrakeGeodesicOptions {
   /**
-   * Radius of the profile the cutter sweeps across the path (the outline of the cutter seen
-   * along T, at the contact point): r + R sin(lead)^2 / sin(beta)^3, the radius scallop and
-   * step-over need. r for a ball; INFINITY for a flat or toroidal cutter upright (its flat
-   * bottom touches); 0 for a flat cutter tilted without lead (its sharp corner cuts across).
+   * Error allowed per step in space (host length unit), > 0. For
+   * `strake_geodesic_between`: the largest distance from the geodesic's end to the
+   * target; its traces run at a hundredth of it.
    */
-  double across_path;
+  double tolerance;
   /**
-   * Radius of the cutter's normal section in the direction b_t (Euler's formula on the
-   * torus's principal curvatures 1/r and sin(beta)/(R + r sin(beta))).
+   * Most step attempts of a trace; 0 for the default (100000). For
+   * `strake_geodesic_between`: most Newton iterations per solve; 0 for the default (30).
    */
-  double across_section;
-  /**
-   * Radius of the cutter's normal section along T.
-   */
-  double along_path;
-  /**
-   * R/sin(beta) + r: normal to the inclination plane (across the path only for pure lead).
-   */
-  double inclination_plane;
-  /**
-   * Inclination beta of the axis from the tool-side normal (radians).
-   */
-  double inclination;
-  /**
-   * 1 when the flat bottom (centred on the axis), not the corner, touches: R > 0 and the
-   * axis along the normal; else 0.
-   */
-  int32_t flat_bottom_contact;
-} StrakeCutterRadii;
+  size_t max_steps;
+} StrakeGeodesicOptions;
 
 /**
- * Rear (heel) gouging of a flat or toroidal cutter's bottom at one sample.
+ * What a geodesic trace did.
  */
-typedef struct StrakeRearGouge {
+typedef struct StrakeGeodesicInfo {
   /**
-   * Smallest normalised clearance of the bottom's rim over the surface (dimensionless, like
-   * a sine; negative: inside the material). 1 for a ball-end mill; -DBL_MAX when the corner
-   * does not fit the concavity (the cutter gouges locally anyway).
+   * Why it ended: a `StrakeGeodesicEnd` value.
    */
-  double margin;
+  uint32_t end;
   /**
-   * Depth of the deepest rim point inside the material (host length unit; 0 when clear).
+   * The domain side where it ended: a `StrakeDomainSide` value (0 unless `end` is 1).
    */
-  double depth;
+  uint32_t side;
   /**
-   * Rim angle of the worst point (radians; 0 at the contact point, pi at the heel).
+   * Length traced (host length unit); the curve's domain is [0, length], t = arc length.
    */
-  double worst_angle;
+  double length;
   /**
-   * 1 when the bottom or the heel is inside the material, else 0.
+   * Surface parameter u at the end.
    */
-  int32_t gouges;
-} StrakeRearGouge;
+  double u;
+  /**
+   * Surface parameter v at the end.
+   */
+  double v;
+  /**
+   * The end point S(u, v).
+   */
+  double point[3];
+  /**
+   * The unit tangent at the end.
+   */
+  double tangent[3];
+  /**
+   * Accepted steps.
+   */
+  size_t accepted_steps;
+  /**
+   * Rejected step attempts.
+   */
+  size_t rejected_steps;
+  /**
+   * Surface evaluations (second-order jets) spent.
+   */
+  size_t jets;
+} StrakeGeodesicInfo;
 
 /**
- * The strain of the two edges of a tow or tape centred on a course at one sample
- * (dimensionless; negative = compressed, relative to the centreline).
+ * Options of an offset; zeros give the defaults.
  */
-typedef struct StrakeTowEdges {
+typedef struct StrakeOffsetOptions {
   /**
-   * Left edge (y = +w/2, on the B side): -kg w/2 - K w^2/8.
+   * Largest space distance between an interval's midpoint offset and its prediction from
+   * the neighbouring points (host length unit), > 0.
    */
-  double left;
+  double chord_tolerance;
   /**
-   * Right edge (y = -w/2): +kg w/2 - K w^2/8.
+   * Error per step of each geodesic trace; 0 for chord_tolerance / 1000.
    */
-  double right;
+  double trace_tolerance;
   /**
-   * Steering part (w/2)|kg|.
+   * Evenly spaced path parameters to start with; 0 for 17, else at least 2.
    */
-  double steering_term;
+  size_t samples;
   /**
-   * Gaussian-curvature part -K w^2/8 (both edges).
+   * Most offset points computed in all; 0 for 20000.
    */
-  double gaussian_term;
-  /**
-   * 1 when the left edge is compressed, else 0.
-   */
-  int32_t left_compressed;
-  /**
-   * 1 when the right edge is compressed, else 0.
-   */
-  int32_t right_compressed;
-} StrakeTowEdges;
+  size_t max_samples;
+} StrakeOffsetOptions;
 
 /**
- * The step-over for a target scallop height with a given cutter and axis at one sample (host
- * length unit), from `strake_check_step_over_cutter`.
+ * A gap or an overlap between neighbouring courses' band edges (`strake_course_gaps`).
  */
-typedef struct StrakeCutterStepOver {
+typedef struct StrakeCourseGap {
   /**
-   * Curvature across the path, concave toward the tool (as in `StrakeScallop`).
+   * Start, as a parameter of course A.
    */
-  double cross_curvature;
+  double t0;
   /**
-   * The step-over to use: min(model, width_limit).
+   * End, as a parameter of course A.
    */
-  double step_over;
+  double t1;
   /**
-   * Circle-geometry step-over for the swept profile's radius across the path (INFINITY when
-   * that model sets no limit: a flat bottom on a plane, a sharp corner).
+   * 1 for an overlap (the bands cover each other), 0 for a gap.
    */
-  double model;
+  int32_t overlap;
   /**
-   * The width the cutter cuts at the scallop height (exact on a plane).
+   * Largest width inside the interval (host length unit, >= 0).
    */
-  double width_limit;
+  double worst;
+} StrakeCourseGap;
+
+/**
+ * Steering and twist along a course (`strake_course_check`).
+ */
+typedef struct StrakeCourseCheck {
   /**
-   * The radius across the path used by the model.
+   * Largest steering curvature |kg| (1/length).
    */
-  double radius_across;
+  double max_steering_curvature;
   /**
-   * 1 when the width limit set the step-over, else 0.
+   * Smallest steering radius 1/|kg| (INFINITY along a geodesic).
    */
-  int32_t limited_by_width;
-} StrakeCutterStepOver;
+  double min_steering_radius;
+  /**
+   * Largest tow-edge strain (w/2)|kg|.
+   */
+  double max_edge_strain;
+  /**
+   * Largest |tg| (radians per length).
+   */
+  double max_twist_rate;
+  /**
+   * Samples where the steering radius is below the limit.
+   */
+  size_t steering_violations;
+  /**
+   * Samples where |tg| exceeds the limit.
+   */
+  size_t twist_violations;
+  /**
+   * Course length (host length unit).
+   */
+  double length;
+} StrakeCourseCheck;
 
 /**
  * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
@@ -912,6 +1061,85 @@ typedef struct StrakeParamScales {
    */
   double t_extent;
 } StrakeParamScales;
+
+/**
+ * Counts and figures of an offset.
+ */
+typedef struct StrakeOffsetSummary {
+  /**
+   * Connected pieces (`strake_offset_piece_curve`, `strake_offset_piece_points`).
+   */
+  size_t pieces;
+  /**
+   * Path intervals whose offset leaves the surface (`strake_offset_exits`).
+   */
+  size_t exits;
+  /**
+   * Path intervals whose offset formed a loop and was cut (`strake_offset_loops`).
+   */
+  size_t loops;
+  /**
+   * Offset points kept in all pieces.
+   */
+  size_t points;
+  /**
+   * Largest measured distance between a piece's curve and offset points not used to fit
+   * it (host length unit).
+   */
+  double fit_error;
+  /**
+   * Geodesics traced.
+   */
+  size_t traces;
+  /**
+   * Surface jets the traces evaluated.
+   */
+  size_t jets;
+} StrakeOffsetSummary;
+
+/**
+ * One offset point.
+ */
+typedef struct StrakeOffsetPoint {
+  /**
+   * Path parameter of the path point it belongs to.
+   */
+  double t;
+  /**
+   * Geodesic distance from that path point (host length unit).
+   */
+  double distance;
+  /**
+   * Surface parameter u.
+   */
+  double u;
+  /**
+   * Surface parameter v.
+   */
+  double v;
+  /**
+   * The point in space.
+   */
+  double point[3];
+  /**
+   * The path's unit tangent carried to the point along the geodesic.
+   */
+  double carried_tangent[3];
+} StrakeOffsetPoint;
+
+/**
+ * An interval of path parameters [t0, t1].
+ */
+typedef struct StrakePathInterval {
+  /**
+   * Start.
+   */
+  double t0;
+  /**
+   * End.
+   */
+  double t1;
+} StrakePathInterval;
 
 /**
  * The description of a NURBS surface, as the host's arrays.
@@ -1085,12 +1313,9 @@ StrakeStatus strake_surface_from_batch_callback(StrakeSurfaceBatchFn f,
  * in every tangent direction, it bends away from the surface at least as fast as the surface
  * bends toward it. For a ball-end mill of radius r this is r max(s k1, s k2) <= 1: the largest
  * ball free of local gouging has the radius `out->concave_radius`. For flat and toroidal
- * cutters the effective radius across the inclination plane is R/sin(beta) + r (beta the
- * axis's inclination from the tool-side normal; across the path only for pure lead, see
- * `strake_cutter_radii`). `out->gouges` also covers rear gouging (the bottom and the heel,
- * `strake_check_rear_gouge`), and `out->min_lead` is the smallest lead angle (at the given
- * tilt) that avoids local and rear gouging together. (Changed: both used to see local
- * gouging only.)
+ * cutters the effective radius across the inclination is R/sin(beta) + r (beta the axis's
+ * inclination from the tool-side normal), and `out->min_lead` is the smallest lead angle (at
+ * the given tilt) that avoids local gouging.
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
  * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field, named);
@@ -1111,10 +1336,8 @@ StrakeStatus strake_check_gouge(const struct StrakeFrame *frame,
  * The scallop height left at the sample `frame` between this pass and an adjacent one a
  * step-over `step_over` away (arc length across the path), for a cutter of radius
  * `cutter_radius` across the path (the ball radius of a ball-end mill; for flat and toroidal
- * cutters the radius of the profile they sweep across the path,
- * `StrakeCutterRadii.across_path` from `strake_cutter_radii`, not the inclination-plane
- * radius `effective_radius_cross`), with the tool on `tool_side`.
- * `strake_check_step_over_cutter` also limits the step-over by the width the cutter cuts.
+ * cutters their effective radius across the path, a common approximation), with the tool on
+ * `tool_side`.
  *
  * In the plane across the path the surface is its osculating circle of curvature
  * kappa = s kn(B) (`out->cross_curvature`, concave toward the tool when positive). Exact
@@ -1139,10 +1362,8 @@ StrakeStatus strake_check_scallop(const struct StrakeFrame *frame,
 /**
  * The largest step-over (arc length across the path) that keeps the scallop height at the
  * sample `frame` at or below `scallop_height`, for a cutter of radius `cutter_radius` across
- * the path (`StrakeCutterRadii.across_path` for flat and toroidal cutters), with the tool on
- * `tool_side`: the inverse of `strake_check_scallop` (on a plane w = 2 sqrt(h (2r - h))).
- * `out->step_over_approx` = sqrt(8 h / (1/r - kappa)). Not limited by the width the cutter
- * cuts: use `strake_check_step_over_cutter` for that.
+ * the path, with the tool on `tool_side`: the inverse of `strake_check_scallop` (on a plane
+ * w = 2 sqrt(h (2r - h))). `out->step_over_approx` = sqrt(8 h / (1/r - kappa)).
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
  * `strake_check_scallop`, with `scallop_height` required positive and finite and reachable
@@ -1179,16 +1400,13 @@ StrakeStatus strake_check_feed(const struct StrakeFrame *frame,
 
 /**
  * Steering and twist of a fibre course at the sample `frame`: steering curvature |kg| and
- * radius 1/|kg| (INFINITY along a geodesic), the larger tow-edge strain magnitude including
- * the Gaussian-curvature term (`strake_check_tow_edges`; was (w/2)|kg| alone) for the tow
- * width w,
+ * radius 1/|kg| (INFINITY along a geodesic), tow-edge strain (w/2)|kg| for the tow width w,
  * twist rate tg (radians per length: the tangent plane turns about the course at that rate,
  * and the tow or the compaction roller with it), and whether the limits are exceeded.
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
  * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length, a limit not positive and finite, named; NON_FINITE for an
- * edge strain that overflows). Thread-safe.
+ * frame vector not unit length, a limit not positive and finite, named). Thread-safe.
  *
  * # Safety
  * Each pointer NULL or valid for its type; `out` writable.
@@ -1199,17 +1417,13 @@ StrakeStatus strake_check_fibre(const struct StrakeFrame *frame,
 
 /**
  * The tool axis at the sample `frame` for lead and tilt `angles` with the tool on `tool_side`:
- * a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t in the tool-side frame,
- * n_t = N on the N side and -N otherwise, b_t = n_t x T (unit vector from the cutter tip
- * toward the spindle; `out->local` its components along (T, b_t, n_t), `out->space` the unit
- * vector). A positive tilt leans the axis to the left of travel seen from the tool on either
- * side. (Changed: tilt used to lean toward B on both sides, and the components were along
- * (T, B, N).) The frame's T and N are re-orthonormalised, so the axis is unit to round-off.
+ * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, n_t = N on the N side and
+ * -N otherwise (unit vector from the cutter tip toward the spindle).
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
  * NULL_POINTER (`frame`, `angles`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length, tangent and normal not orthogonal to 1e-6, `tool_side` not 0
- * or 1, an angle outside (-pi/2, pi/2)). Thread-safe.
+ * frame vector not unit length, `tool_side` not 0 or 1, an angle outside (-pi/2, pi/2)).
+ * Thread-safe.
  *
  * # Safety
  * Each pointer NULL or valid for its type; `out` writable.
@@ -1270,203 +1484,99 @@ StrakeStatus strake_path_violations(const struct StrakeSample *samples,
                                     size_t *count);
 
 /**
- * The cutter's radii of curvature at its contact point for the axis set by `angles` (lead
- * toward T, tilt toward b_t, see `StrakeToolAngles`); pure cutter geometry, no frame needed.
+ * A fixed-angle course from (u, v): its unit tangent keeps the angle `angle` (radians) to the
+ * reference direction e, the space direction `axis` (3 doubles) projected onto the tangent
+ * plane, counted toward N x e: T = cos(angle) e + sin(angle) (N x e). Integrated for arc
+ * length `length` with the error per step `options.tolerance` in space.
  *
- * `out->across_path` is the radius of the profile the cutter sweeps across the path (the
- * outline of the cutter seen along the feed direction, at the contact point):
- * r + R sin(lead)^2 / sin(beta)^3 with R the major and r the corner radius of the cutter's
- * torus (see `StrakeCutter`) and beta the inclination, cos(beta) = cos(lead) cos(tilt). This
- * is the radius to pass as `cutter_radius` to `strake_check_scallop` and
- * `strake_check_step_over` for flat and toroidal cutters; not `effective_radius_cross` of
- * `StrakeGougeState`, which is across the inclination plane (a 5/1 mm toroidal cutter at 10
- * degrees of tilt: 24.0 mm there, 1 mm across the path). Host length unit.
+ * On success writes a new curve handle to `*out_curve` (t = arc length) and, when `out_info`
+ * is not NULL, why it ended (`end` 0: the length; 1: the domain side `side`, exactly on
+ * it; 2: where the axis runs along the normal); `point`, `tangent`, `u`, `v` give the end.
  *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`cutter`, `angles`, `out`); INVALID_ARGUMENT (an unknown `cutter->kind`, a
- * radius not positive and finite or subnormal, a corner radius above the radius, an angle
- * outside (-pi/2, pi/2)). Thread-safe.
+ * Errors (nothing written): NULL_POINTER (`surface`, `axis`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (a zero axis or one along the normal at the start, `length` or
+ * `tolerance` not positive, naming the values); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE; LEAVES_SURFACE; GEODESIC_INCOMPLETE; SURFACE_CALLBACK_FAILED.
+ * Thread-safe.
  *
  * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
+ * `surface` NULL or live; `axis` NULL or 3 doubles; `options` NULL or valid; `out_curve`
+ * NULL or a writable `StrakeCurve *`; `out_info` NULL or writable.
  */
-StrakeStatus strake_cutter_radii(const struct StrakeCutter *cutter,
-                                 const struct StrakeToolAngles *angles,
-                                 struct StrakeCutterRadii *out);
+StrakeStatus strake_course_fixed_angle(const struct StrakeSurface *surface,
+                                       double u,
+                                       double v,
+                                       const double *axis,
+                                       double angle,
+                                       double length,
+                                       const struct StrakeGeodesicOptions *options,
+                                       struct StrakeCurve **out_curve,
+                                       struct StrakeGeodesicInfo *out_info);
 
 /**
- * Rear (heel) gouging of a flat or toroidal cutter at the sample `frame`: whether the rest of
- * its bottom, up to the heel, stays out of the material when the front touches. The cutter is
- * the solid swept by a disc of radius R and a ball of radius r, so it stays out exactly when
- * the disc of corner-circle centres stays on the tool side of the surface offset by r; the
- * disc's rim is checked against that offset surface at second order in every direction and
- * with the exact osculating arc (exact on a circular arc concave along the feed: a flat
- * cutter of radius 5 around a concave arc of radius 20 needs asin(5/20) = 14.48 degrees of
- * lead). With the axis along the normal the flat bottom touches (centred on the axis). A
- * ball-end mill has no bottom (`margin` 1, never gouges here).
- *
- * What it does not see: the holder and shank, the flank above the corner, the cutter against
- * the part away from this sample, the surface between samples.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
- * `strake_check_gouge`, and INVALID_ARGUMENT for a frame whose tangent and normal are not
- * orthogonal to 1e-6. Thread-safe.
+ * The adjacent course one tow band `band_width` to `side` (a `StrakeOffsetSide` value) of
+ * `course`: its geodesic parallel at that distance, as an offset handle (read and free it
+ * like one from `strake_offset_new`, whose errors and options apply; INVALID_ARGUMENT also
+ * for a band width not positive and finite).
  *
  * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
+ * Handles NULL or live; `options` NULL or valid; `out` NULL or a writable `StrakeOffset *`.
  */
-StrakeStatus strake_check_rear_gouge(const struct StrakeFrame *frame,
-                                     uint32_t tool_side,
-                                     const struct StrakeCutter *cutter,
-                                     const struct StrakeToolAngles *angles,
-                                     struct StrakeRearGouge *out);
+StrakeStatus strake_course_adjacent(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *course,
+                                    double band_width,
+                                    uint32_t side,
+                                    const struct StrakeOffsetOptions *options,
+                                    struct StrakeOffset **out);
 
 /**
- * The strain of the two edges of a tow or tape of width `tow_width` centred on the course at
- * the sample `frame`: e(y) = -kg y - K y^2/2 at y = +w/2 (left of travel, the B side) and
- * y = -w/2 (right), K the Gaussian curvature (second order in w: the edges are geodesic
- * parallels of the course). Negative = compressed; which edge is compressed is reported. A
- * 150 mm tape along a great circle of a 1 m sphere: both edges at -0.28 %.
+ * Gaps and overlaps between the bands of width `band_width` centred on courses `a` and `b`
+ * (`b` to `side` of `a`): at `samples` even parameters of `a` the geodesic perpendicular
+ * to `a` meets the edge of `b`'s band (its geodesic parallel at band_width/2); the width
+ * across `a` from `a`'s edge to it is a gap (> 0) or an overlap (< 0). Intervals where its
+ * size exceeds `tolerance` go to the buffer (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL
+ * sets `*count` to the number needed); `*unmatched` (when not NULL) receives the number of
+ * samples where no edge of `b` was met within 3 band widths. `options.tolerance` is the error
+ * per step of the traces.
  *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field; or a strain that overflows, e.g.
- * a width of 1e300); INVALID_ARGUMENT (a frame vector not unit length, `tow_width` not
- * positive and finite). Thread-safe.
+ * Errors: NULL_POINTER (`surface`, `a`, `b`, `options`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`side`, `band_width` or `tolerance` not positive, fewer than 2
+ * samples); BUFFER_TOO_SMALL; the errors of the traces and of `a`'s frames. Thread-safe.
  *
  * # Safety
- * `frame` NULL or valid; `out` NULL or writable.
+ * Handles NULL or live; `options` NULL or valid; `buf` NULL or room for `capacity`; `count`
+ * NULL or writable; `unmatched` NULL or writable.
  */
-StrakeStatus strake_check_tow_edges(const struct StrakeFrame *frame,
-                                    double tow_width,
-                                    struct StrakeTowEdges *out);
+StrakeStatus strake_course_gaps(const struct StrakeSurface *surface,
+                                const struct StrakeCurve *a,
+                                const struct StrakeCurve *b,
+                                uint32_t side,
+                                double band_width,
+                                size_t samples,
+                                double tolerance,
+                                const struct StrakeGeodesicOptions *options,
+                                struct StrakeCourseGap *buf,
+                                size_t capacity,
+                                size_t *count,
+                                size_t *unmatched);
 
 /**
- * The largest step-over at the sample `frame` that keeps the scallop height at or below
- * `scallop_height`, for `cutter` with its axis set by `angles`, with the tool on `tool_side`:
- * the circle model of `strake_check_step_over` with the radius of the profile the cutter
- * sweeps across the path (`StrakeCutterRadii.across_path`), limited by the width the cutter
- * actually cuts at that height (exact on a plane; conservative on a surface concave across
- * the path). A flat 10 mm cutter at 5 degrees of lead and a 0.5 mm scallop: 10 mm, not the
- * model's 15.1 mm.
+ * Steering and twist along `course` at `samples` (>= 2) even parameters, with the limits of
+ * `strake_check_fibre`, summarised into `*out` (largest |kg|, smallest steering radius,
+ * largest edge strain and |tg|, violation counts, length).
  *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field);
- * INVALID_ARGUMENT (as for `strake_check_gouge`, and `scallop_height` not positive and finite
- * or unreachable, a cross-section the cutter's profile does not fit). Thread-safe.
+ * Errors: NULL_POINTER (`surface`, `course`, `limits`, `out`); INVALID_ARGUMENT (a limit not
+ * positive and finite, fewer than 2 samples); every error of `strake_frame_at` on the course.
+ * Thread-safe.
  *
  * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
+ * Handles NULL or live; `limits` NULL or valid; `out` NULL or writable.
  */
-StrakeStatus strake_check_step_over_cutter(const struct StrakeFrame *frame,
-                                           uint32_t tool_side,
-                                           const struct StrakeCutter *cutter,
-                                           const struct StrakeToolAngles *angles,
-                                           double scallop_height,
-                                           struct StrakeCutterStepOver *out);
-
-/**
- * `strake_check_gouge` at every sample of a path (see the note above the path functions).
- *
- * # Safety
- * `samples` NULL or `sample_count` valid samples; `cutter`, `angles` NULL or valid; `out`
- * NULL or room for `sample_count` results.
- */
-StrakeStatus strake_check_gouge_path(const struct StrakeSample *samples,
-                                     size_t sample_count,
-                                     uint32_t tool_side,
-                                     const struct StrakeCutter *cutter,
-                                     const struct StrakeToolAngles *angles,
-                                     struct StrakeGougeState *out);
-
-/**
- * `strake_check_rear_gouge` at every sample of a path.
- *
- * # Safety
- * As for `strake_check_gouge_path`.
- */
-StrakeStatus strake_check_rear_gouge_path(const struct StrakeSample *samples,
-                                          size_t sample_count,
-                                          uint32_t tool_side,
-                                          const struct StrakeCutter *cutter,
-                                          const struct StrakeToolAngles *angles,
-                                          struct StrakeRearGouge *out);
-
-/**
- * `strake_check_scallop` at every sample of a path.
- *
- * # Safety
- * `samples` NULL or `sample_count` valid samples; `out` NULL or room for `sample_count`
- * results.
- */
-StrakeStatus strake_check_scallop_path(const struct StrakeSample *samples,
-                                       size_t sample_count,
-                                       uint32_t tool_side,
-                                       double cutter_radius,
-                                       double step_over,
-                                       struct StrakeScallop *out);
-
-/**
- * `strake_check_step_over_cutter` at every sample of a path.
- *
- * # Safety
- * As for `strake_check_gouge_path`.
- */
-StrakeStatus strake_check_step_over_cutter_path(const struct StrakeSample *samples,
-                                                size_t sample_count,
-                                                uint32_t tool_side,
-                                                const struct StrakeCutter *cutter,
-                                                const struct StrakeToolAngles *angles,
-                                                double scallop_height,
-                                                struct StrakeCutterStepOver *out);
-
-/**
- * `strake_check_feed` at every sample of a path: `out[i]` the highest feed at sample i.
- *
- * # Safety
- * `samples` NULL or `sample_count` valid samples; `limits` NULL or valid; `out` NULL or room
- * for `sample_count` doubles.
- */
-StrakeStatus strake_check_feed_path(const struct StrakeSample *samples,
-                                    size_t sample_count,
-                                    const struct StrakeFeedLimits *limits,
-                                    double *out);
-
-/**
- * `strake_check_fibre` at every sample of a path.
- *
- * # Safety
- * `samples` NULL or `sample_count` valid samples; `limits` NULL or valid; `out` NULL or room
- * for `sample_count` results.
- */
-StrakeStatus strake_check_fibre_path(const struct StrakeSample *samples,
-                                     size_t sample_count,
-                                     const struct StrakeFibreLimits *limits,
-                                     struct StrakeFibreState *out);
-
-/**
- * `strake_check_tow_edges` at every sample of a path.
- *
- * # Safety
- * `samples` NULL or `sample_count` valid samples; `out` NULL or room for `sample_count`
- * results.
- */
-StrakeStatus strake_check_tow_edges_path(const struct StrakeSample *samples,
-                                         size_t sample_count,
-                                         double tow_width,
-                                         struct StrakeTowEdges *out);
-
-/**
- * `strake_tool_axis` at every sample of a path.
- *
- * # Safety
- * `samples` NULL or `sample_count` valid samples; `angles` NULL or valid; `out` NULL or room
- * for `sample_count` results.
- */
-StrakeStatus strake_tool_axis_path(const struct StrakeSample *samples,
-                                   size_t sample_count,
-                                   uint32_t tool_side,
-                                   const struct StrakeToolAngles *angles,
-                                   struct StrakeToolAxis *out);
+StrakeStatus strake_course_check(const struct StrakeSurface *surface,
+                                 const struct StrakeCurve *course,
+                                 const struct StrakeFibreLimits *limits,
+                                 size_t samples,
+                                 struct StrakeCourseCheck *out);
 
 /**
  * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
@@ -1597,6 +1707,182 @@ StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
                                     int32_t flip_normal,
                                     const struct StrakeParamScales *scales,
                                     struct StrakeFrame *out);
+
+/**
+ * Traces the geodesic of `surface` from (u, v) in a start direction for arc length `length`
+ * (host length unit): the geodesic equations with the surface's Christoffel symbols,
+ * integrated by an embedded Runge-Kutta 5(4) pair with the error measured in space.
+ *
+ * - `direction_kind` / `direction`: a `StrakeDirectionKind` value and 1 (angle), 3 (space
+ *   vector) or 2 ((du, dv)) doubles.
+ * - `options`: `tolerance` > 0 is the error allowed per step in space; `max_steps` caps
+ *   the step attempts (0: 100000).
+ *
+ * On success writes a new curve handle to `*out_curve` (free with `strake_curve_free`): the
+ * geodesic in the parameter plane, t = arc length in [0, info.length], C2, usable with every
+ * curve function (frames, sampling, checks; its geodesic curvature is 0 to the tolerance).
+ * When `out_info` is not NULL it receives why the trace ended: at the length, at the domain
+ * boundary (the end lies exactly on it), or before a degenerate point; these are all
+ * STRAKE_STATUS_OK, so read `info.end` to know whether the full length was traced.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `direction`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (`direction_kind` unknown, a zero direction or one along the normal,
+ * `length` or `tolerance` not positive, naming the value); NON_FINITE; OUT_OF_DOMAIN (start
+ * outside the domain, naming u or v); DEGENERATE_SURFACE (start at a degenerate point);
+ * LEAVES_SURFACE (start on the boundary heading out); GEODESIC_INCOMPLETE (the tolerance
+ * cannot be met or the step cap is used up; the message names the arc length and (u, v)
+ * reached); SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `direction` NULL or the number of doubles above;
+ * `options` NULL or valid; `out_curve` NULL or a writable `StrakeCurve *`; `out_info` NULL
+ * or writable.
+ */
+StrakeStatus strake_geodesic_trace(const struct StrakeSurface *surface,
+                                   double u,
+                                   double v,
+                                   uint32_t direction_kind,
+                                   const double *direction,
+                                   double length,
+                                   const struct StrakeGeodesicOptions *options,
+                                   struct StrakeCurve **out_curve,
+                                   struct StrakeGeodesicInfo *out_info);
+
+/**
+ * The geodesic of `surface` from (u0, v0) to (u1, v1) and the geodesic distance between
+ * them, by shooting: Newton's method on the start angle and the length from the straight
+ * parameter line, with continuation when that fails.
+ *
+ * `options.tolerance` > 0 is the largest space distance left between the geodesic's end and
+ * the target (host length unit); the traces run at a hundredth of it; `options.max_steps`
+ * caps the Newton iterations per solve (0: 30). Seams are not crossed: on a closed surface
+ * the result is the shortest geodesic within the parameter domain.
+ *
+ * On success writes the distance to `*out_distance` and, when `out_curve` is not NULL, a new
+ * curve handle (t = arc length from (u0, v0), free with `strake_curve_free`).
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `options`, `out_distance`);
+ * INVALID_ARGUMENT (points that coincide, a bad tolerance); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE (either point); GEODESIC_NOT_FOUND (shooting failed, or found a
+ * geodesic longer than the straight parameter line, which cannot be the shortest: the
+ * message names the miss, angle and length reached); GEODESIC_INCOMPLETE;
+ * SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `options` NULL or valid; `out_curve` NULL or a writable
+ * `StrakeCurve *`; `out_distance` NULL or a writable double.
+ */
+StrakeStatus strake_geodesic_between(const struct StrakeSurface *surface,
+                                     double u0,
+                                     double v0,
+                                     double u1,
+                                     double v1,
+                                     const struct StrakeGeodesicOptions *options,
+                                     struct StrakeCurve **out_curve,
+                                     double *out_distance);
+
+/**
+ * The offset of `curve` on `surface`: the curve at geodesic distance d to the left (B side)
+ * or right of it, computed point by point as the end of the geodesic leaving the path
+ * perpendicularly, sampled adaptively, trimmed where it leaves the surface and where it forms
+ * loops (d beyond the radius of geodesic curvature on a concave side).
+ *
+ * - `side`: a `StrakeOffsetSide` value.
+ * - Distance: `distance_t` NULL and `distance_count` = 1: the constant `distances[0]`;
+ *   otherwise `distance_count` distances at the strictly increasing path parameters
+ *   `distance_t`, linear between them and held beyond the ends. Finite and >= 0.
+ * - `options`: see `StrakeOffsetOptions` (zeros except `chord_tolerance` give defaults).
+ *
+ * On success writes a new handle to `*out` (free with `strake_offset_free`); read it with
+ * `strake_offset_summary`, `strake_offset_piece_curve`, `strake_offset_piece_points`,
+ * `strake_offset_exits` and `strake_offset_loops`.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `curve`, `distances`, `options`,
+ * `out`); INVALID_ARGUMENT (`side` unknown, a distance negative or not finite, parameters not
+ * increasing, bad options; naming the index and value); LEAVES_SURFACE (no part of the
+ * offset lies on the surface; naming the distance); NOT_CONVERGED (`max_samples` used up);
+ * GEODESIC_INCOMPLETE; every error of `strake_frame_at` on the path. Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `distance_t` NULL or `distance_count` doubles; `distances` NULL or
+ * `distance_count` doubles; `options` NULL or valid; `out` NULL or a writable
+ * `StrakeOffset *`.
+ */
+StrakeStatus strake_offset_new(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               uint32_t side,
+                               const double *distance_t,
+                               const double *distances,
+                               size_t distance_count,
+                               const struct StrakeOffsetOptions *options,
+                               struct StrakeOffset **out);
+
+/**
+ * Releases an offset. NULL is a no-op. Curve handles made from it stay valid.
+ *
+ * # Safety
+ * `offset` must be NULL or a handle from `strake_offset_new` not yet freed.
+ */
+void strake_offset_free(struct StrakeOffset *offset);
+
+/**
+ * Counts and figures of an offset into `*out`. Errors: NULL_POINTER. Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `out` NULL or writable.
+ */
+StrakeStatus strake_offset_summary(const struct StrakeOffset *offset,
+                                   struct StrakeOffsetSummary *out);
+
+/**
+ * A new curve handle for piece `index` of an offset: a cubic B-spline in (u, v) on t in
+ * [0, 1] through the piece's points (free with `strake_curve_free`; it outlives the offset).
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`index` not below the piece count). Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_offset_piece_curve(const struct StrakeOffset *offset,
+                                       size_t index,
+                                       struct StrakeCurve **out);
+
+/**
+ * The points of piece `index` of an offset, in path order, through the buffer protocol
+ * (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL sets `*count` to the number needed).
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`index`); BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `buf` NULL or room for `capacity` points; `count` NULL or writable.
+ */
+StrakeStatus strake_offset_piece_points(const struct StrakeOffset *offset,
+                                        size_t index,
+                                        struct StrakeOffsetPoint *buf,
+                                        size_t capacity,
+                                        size_t *count);
+
+/**
+ * The path intervals whose offset leaves the surface (or meets a degenerate point), through
+ * the buffer protocol. Errors: NULL_POINTER; BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * As `strake_offset_piece_points`.
+ */
+StrakeStatus strake_offset_exits(const struct StrakeOffset *offset,
+                                 struct StrakePathInterval *buf,
+                                 size_t capacity,
+                                 size_t *count);
+
+/**
+ * The path intervals whose offset formed a loop and was cut off, through the buffer
+ * protocol. Errors: NULL_POINTER; BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * As `strake_offset_piece_points`.
+ */
+StrakeStatus strake_offset_loops(const struct StrakeOffset *offset,
+                                 struct StrakePathInterval *buf,
+                                 size_t capacity,
+                                 size_t *count);
 
 /**
  * Copies the message of the last failed call on this thread into `buf`.

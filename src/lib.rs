@@ -16,14 +16,25 @@ pub mod curve;
 pub mod engine;
 pub mod error;
 pub mod ffi;
+pub mod geodesics;
 pub mod geometry;
 pub mod nurbs;
 pub mod paths;
+pub mod planning;
 pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
 pub use error::{NonFiniteSource, Result, StrakeError};
+pub use geodesics::between::{BetweenOptions, GeodesicBetween, geodesic_between};
+pub use geodesics::hermite::HermiteUvCurve;
+pub use geodesics::offset::{
+    OffsetDistance, OffsetOptions, OffsetPiece, OffsetSample, OffsetSide, PathInterval,
+    SurfaceOffset, offset_path,
+};
+pub use geodesics::trace::{
+    DomainSide, Geodesic, GeodesicEnd, StartDirection, TraceOptions, TraceStats, trace_geodesic,
+};
 pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
@@ -41,5 +52,9 @@ pub use paths::projection::{
 };
 pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
+};
+pub use planning::courses::{
+    CourseCheck, CourseGap, CourseGaps, FieldCourse, adjacent_course, course_check, course_gaps,
+    fixed_angle_course, natural_course,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

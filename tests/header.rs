@@ -188,6 +188,19 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_check_fibre_path",
         "strake_check_tow_edges_path",
         "strake_tool_axis_path",
+        "strake_geodesic_trace",
+        "strake_geodesic_between",
+        "strake_offset_new",
+        "strake_offset_free",
+        "strake_offset_summary",
+        "strake_offset_piece_curve",
+        "strake_offset_piece_points",
+        "strake_offset_exits",
+        "strake_offset_loops",
+        "strake_course_fixed_angle",
+        "strake_course_adjacent",
+        "strake_course_gaps",
+        "strake_course_check",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

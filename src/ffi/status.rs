@@ -7,8 +7,8 @@ use crate::error::StrakeError;
 /// message, see `strake_last_error_message`.
 ///
 /// ABI policy: every value keeps its number for the life of the library. Values are grouped by
-/// area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 90-99
-/// internal). New values take the next free number of their group; a retired value stays listed
+/// area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 50-54
+/// geodesics and offsets, 90-99 internal). New values take the next free number of their group; a retired value stays listed
 /// here as a comment and its number is never given to anything else. Hosts should treat an
 /// unknown non-zero value as a failure (a newer library may add values).
 ///
@@ -68,6 +68,18 @@ pub enum StrakeStatus {
     /// 31: the host's curve callback returned a non-zero code; the code is in the message and
     /// in `strake_last_callback_code`.
     CurveCallbackFailed = 31,
+    /// 50: a geodesic trace could not go on: its error estimate stayed above the tolerance
+    /// while the step shrank to its floor, or it used up its step cap (the message names the
+    /// arc length and (u, v) reached).
+    GeodesicIncomplete = 50,
+    /// 51: no geodesic between the two points was found: shooting did not converge, or
+    /// converged to a geodesic longer than the straight parameter line, which cannot be the
+    /// shortest (the message names the residual and the length reached).
+    GeodesicNotFound = 51,
+    /// 52: the construction leaves the surface at once: a geodesic starting on the boundary
+    /// heading out, or an offset of which no part lies on the surface (the message names the
+    /// value).
+    LeavesSurface = 52,
     /// 90: a bug in strake: a panic was caught at the C boundary. The message says where.
     /// Please report it; the handles passed in are still valid.
     InternalPanic = 90,
@@ -93,11 +105,14 @@ impl StrakeStatus {
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
             StrakeError::AtSample { error, .. } => StrakeStatus::of(error),
+            StrakeError::GeodesicIncomplete { .. } => StrakeStatus::GeodesicIncomplete,
+            StrakeError::GeodesicNotFound { .. } => StrakeStatus::GeodesicNotFound,
+            StrakeError::LeavesSurface { .. } => StrakeStatus::LeavesSurface,
         }
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 17] = [
+    pub const ALL: [StrakeStatus; 20] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -114,6 +129,9 @@ impl StrakeStatus {
         StrakeStatus::NotConverged,
         StrakeStatus::SurfaceCallbackFailed,
         StrakeStatus::CurveCallbackFailed,
+        StrakeStatus::GeodesicIncomplete,
+        StrakeStatus::GeodesicNotFound,
+        StrakeStatus::LeavesSurface,
         StrakeStatus::InternalPanic,
     ];
 
@@ -136,6 +154,9 @@ impl StrakeStatus {
             StrakeStatus::NotConverged => c"STRAKE_STATUS_NOT_CONVERGED",
             StrakeStatus::SurfaceCallbackFailed => c"STRAKE_STATUS_SURFACE_CALLBACK_FAILED",
             StrakeStatus::CurveCallbackFailed => c"STRAKE_STATUS_CURVE_CALLBACK_FAILED",
+            StrakeStatus::GeodesicIncomplete => c"STRAKE_STATUS_GEODESIC_INCOMPLETE",
+            StrakeStatus::GeodesicNotFound => c"STRAKE_STATUS_GEODESIC_NOT_FOUND",
+            StrakeStatus::LeavesSurface => c"STRAKE_STATUS_LEAVES_SURFACE",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }
     }
