@@ -1273,6 +1273,25 @@ size_t strake_last_error_message(char *buf,
 int32_t strake_last_callback_code(void);
 
 /**
+ * Lets a host callback say why it fails: call it from inside a surface or curve callback,
+ * on the thread that runs the callback, right before returning a non-zero code. strake then
+ * puts the text into its error message ("host surface callback failed with code 3: TEXT"),
+ * which `strake_last_error_message` returns on the thread that made the failing call (also
+ * when a parallel call ran the callback on a worker thread). The C++ and Python wrappers pass
+ * an exception's text this way.
+ *
+ * `message` is UTF-8 text (invalid bytes are replaced by U+FFFD), copied at once; text beyond
+ * 1024 bytes is cut and marked with "...". NULL forgets a report made earlier. A report is
+ * used by the next failing callback on this thread within the same strake call, then
+ * forgotten; a report left by a callback that then returned 0 is dropped when the next strake
+ * call starts. Cannot fail; never writes through `message`.
+ *
+ * # Safety
+ * `message` must be NULL or a NUL-terminated string.
+ */
+void strake_callback_report(const char *message);
+
+/**
  * Creates a NURBS surface evaluated by strake itself (exact derivatives to second order,
  * no allocation per evaluation). `flip_normal` = 0 takes N along Su × Sv, 1 the reverse.
  *
@@ -1547,6 +1566,31 @@ StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
                                double *out);
 
 /**
+ * Computes the frames at the host's `count` curve parameters `ts`, each with its arc length
+ * from the start of the curve's domain: `out[i].frame` is what `strake_frames_at` gives at
+ * `ts[i]`, and `out[i].arc_length` = s(ts[i]) = integral of |c'(t)| dt from t_min to ts[i]
+ * (adaptive Gauss-Legendre quadrature between consecutive parameters to the relative tolerance
+ * `arc_tolerance`, e.g. 1e-10, summed; signed, so a parameter below the one before it gets a
+ * smaller s). The result feeds `strake_path_extremes` and `strake_path_violations` directly:
+ * a host with its own parameters evaluates the path once.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index and t. Errors: those of `strake_frames_at`, plus
+ * INVALID_ARGUMENT (`arc_tolerance` not positive and finite) and NOT_CONVERGED (the
+ * quadrature between two samples, which also names the sample). Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `ts` NULL or `count` doubles; `out` NULL or room
+ * for `count` samples, not overlapping `ts`.
+ */
+StrakeStatus strake_samples_at(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               const double *ts,
+                               size_t count,
+                               double arc_tolerance,
+                               struct StrakeSample *out);
+
+/**
  * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",
  * for logs; "STRAKE_STATUS_UNKNOWN" for a number this version does not define. The string is
  * owned by the library and must not be freed. Never fails; thread-safe.
@@ -1613,6 +1657,29 @@ StrakeStatus strake_surface_from_callback(StrakeSurfaceFn f,
  * freed.
  */
 void strake_surface_free(struct StrakeSurface *surface);
+
+/**
+ * Evaluates `surface` at `count` parameter pairs: `out[i]` is the point S(u_i, v_i) and its
+ * partial derivatives up to `order` (0: the point; 1: and Su, Sv; 2: and Suu, Suv, Svv), at
+ * (u_i, v_i) = (`uv[2 i]`, `uv[2 i + 1]`). Entries above `order` are set to zero. Lengths are
+ * in the host's unit, derivatives per unit of the surface parameters; for a host callback
+ * surface these are the callback's own values, checked.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing point's index. Errors: NULL_POINTER (`surface`, `uv`, `out`);
+ * INVALID_ARGUMENT (`count` of 0 or too large, `order` above 2); NON_FINITE (a parameter, or
+ * an entry the callback filled); OUT_OF_DOMAIN ((u, v) outside the surface's domain: never
+ * clamped); SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `uv` NULL or `2 * count` doubles; `out` NULL or room for
+ * `count` jets, not overlapping `uv`.
+ */
+StrakeStatus strake_surface_evaluate(const struct StrakeSurface *surface,
+                                     const double *uv,
+                                     size_t count,
+                                     uint32_t order,
+                                     struct StrakeSurfaceJet *out);
 
 /**
  * The version of the library actually loaded, as "MAJOR.MINOR.PATCH" (a static NUL-terminated

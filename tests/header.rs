@@ -176,6 +176,9 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_surface_from_callback",
         "strake_surface_set_knot_lines",
         "strake_version",
+        "strake_callback_report",
+        "strake_samples_at",
+        "strake_surface_evaluate",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

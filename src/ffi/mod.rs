@@ -41,6 +41,7 @@ pub mod path_curves;
 pub mod sampling;
 pub mod status;
 pub mod surface;
+pub mod surface_evaluate;
 pub mod types;
 pub mod version;
 
@@ -54,7 +55,7 @@ pub use curve::{
     strake_curve_new_nurbs,
 };
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
-pub use message::{strake_last_callback_code, strake_last_error_message};
+pub use message::{strake_callback_report, strake_last_callback_code, strake_last_error_message};
 pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
 pub use parallel::strake_frames_at_parallel;
 pub use path_curves::{
@@ -63,12 +64,14 @@ pub use path_curves::{
 };
 pub use sampling::{
     strake_arc_length, strake_sample_chordal, strake_sample_even_arc, strake_sample_even_t,
+    strake_samples_at,
 };
 pub use status::{StrakeStatus, strake_status_name};
 pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
     strake_surface_set_knot_lines,
 };
+pub use surface_evaluate::strake_surface_evaluate;
 pub use types::{
     StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
     StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,
