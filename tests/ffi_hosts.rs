@@ -86,6 +86,7 @@ fn callback_surface_gives_the_callbacks_jet_to_the_order_asked() {
 // u (1-v) P10 + u v P11 (The NURBS Book eq. 3.11 with degree 1), so Su, Sv and Suv are the
 // corner differences and Suu = Svv = 0 exactly.
 #[test]
+#[allow(clippy::needless_range_loop)] // k indexes the coordinates of five arrays
 fn bilinear_nurbs_patch_matches_its_closed_form() {
     let p = [
         [0.0, 0.0, 0.0],

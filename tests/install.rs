@@ -26,7 +26,19 @@ fn root() -> PathBuf {
 fn scratch() -> &'static Path {
     static DIR: OnceLock<PathBuf> = OnceLock::new();
     DIR.get_or_init(|| {
-        let dir = std::env::temp_dir().join(format!("strake-install-test-{}", std::process::id()));
+        let base = std::env::temp_dir();
+        // Leftovers of earlier runs whose process has ended.
+        if let Ok(entries) = std::fs::read_dir(&base) {
+            for e in entries.flatten() {
+                let name = e.file_name().to_string_lossy().into_owned();
+                if let Some(pid) = name.strip_prefix("strake-install-test-") {
+                    if !Path::new("/proc").join(pid).exists() {
+                        let _ = std::fs::remove_dir_all(e.path());
+                    }
+                }
+            }
+        }
+        let dir = base.join(format!("strake-install-test-{}", std::process::id()));
         let _ = std::fs::remove_dir_all(&dir);
         std::fs::create_dir_all(&dir).expect("create the scratch directory");
         assert!(
@@ -263,4 +275,69 @@ fn cpp_wrapper_checks_pass_in_cpp17_and_cpp20() {
         let out = run(&mut Command::new(&exe));
         assert!(out.contains(" passed, 0 failed"), "{out}");
     }
+}
+
+/// The directory the Python package is installed into with pip (once per test binary).
+fn python_target() -> &'static Path {
+    static TARGET: OnceLock<PathBuf> = OnceLock::new();
+    TARGET.get_or_init(|| {
+        prefix(); // the release library is built by then: pip's cargo call has nothing to do
+        let target = scratch().join("python");
+        run(Command::new("python3")
+            .args(["-m", "pip", "install", "--quiet", "--no-deps"])
+            .args(["--disable-pip-version-check", "--no-warn-script-location"])
+            .arg("--target")
+            .arg(&target)
+            .arg(root().join("bindings/python"))
+            .env("CI", "1")
+            .env("PIP_ROOT_USER_ACTION", "ignore"));
+        assert!(target.join("strake_darboux/libstrake.so").is_file());
+        assert!(target.join("strake_darboux/py.typed").is_file());
+        target
+    })
+}
+
+fn python(script: &Path) -> Command {
+    let mut cmd = Command::new("python3");
+    cmd.arg(script)
+        .env("PYTHONPATH", python_target())
+        .env("PYTHONDONTWRITEBYTECODE", "1")
+        .current_dir(scratch());
+    cmd
+}
+
+#[test]
+fn python_package_installs_with_pip_and_its_tests_pass() {
+    let target = python_target();
+    let out = run(Command::new("python3")
+        .args(["-m", "pytest", "-q", "-p", "no:cacheprovider"])
+        .arg(root().join("bindings/python/tests"))
+        .env("PYTHONPATH", target)
+        .env("PYTHONDONTWRITEBYTECODE", "1")
+        .current_dir(scratch()));
+    let summary = out.lines().last().unwrap_or_default();
+    assert!(
+        summary.contains(" passed") && !summary.contains("failed") && !summary.contains("skipped"),
+        "{out}"
+    );
+    eprintln!("pytest: {summary}");
+}
+
+#[test]
+fn readme_python_example_evaluates_a_100k_point_path() {
+    let script = scratch().join("readme_example.py");
+    write(&script, &snippet("readme.py"));
+    let out = run(&mut python(&script));
+    assert!(out.starts_with("(100000,) "), "{out}");
+}
+
+#[test]
+fn python_example_runs_without_matplotlib() {
+    let out = run(&mut python(
+        &root().join("examples/python/wing_skin_course.py"),
+    ));
+    assert!(
+        out.contains("100000 samples") && out.contains("tightest steering radius"),
+        "{out}"
+    );
 }
