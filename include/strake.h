@@ -782,7 +782,7 @@ typedef struct StrakeParamScales {
  * use the same layout (`weights[i count_v + j]`). The surface is
  * S(u, v) = Σ N_i,p(u) N_j,q(v) w_ij P_ij / Σ N_i,p(u) N_j,q(v) w_ij over the domain
  * `[knots_u[degree_u], knots_u[count_u]] × [knots_v[degree_v], knots_v[count_v]]` (The NURBS
- * Book, 2nd ed., eq. 4.15, equation number from memory).
+ * Book, 2nd ed., chapter 4: the definition of a NURBS surface).
  */
 typedef struct StrakeNurbsSurfaceData {
   /**
@@ -909,6 +909,158 @@ typedef int32_t (*StrakeSurfaceFn)(void *user_data,
 extern "C" {
 #endif // __cplusplus
 
+/* ==== Version and errors ==================================================================
+ * The library's version, the name of a status, and what the last failure on this thread
+ * was. Host callbacks hand their own failure text back with strake_callback_report.
+ */
+
+/**
+ * The version of the library actually loaded, as "MAJOR.MINOR.PATCH" (a static NUL-terminated
+ * string owned by the library; do not free it). Compare it with STRAKE_VERSION_STRING from the
+ * header to detect a header/library mismatch. Never fails; thread-safe.
+ */
+const char *strake_version(void);
+
+/**
+ * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",
+ * for logs; "STRAKE_STATUS_UNKNOWN" for a number this version does not define. The string is
+ * owned by the library and must not be freed. Never fails; thread-safe.
+ */
+const char *strake_status_name(uint32_t status);
+
+/**
+ * Copies the message of the last failed call on this thread into `buf`.
+ *
+ * Returns the size needed to hold the whole message including its terminating NUL (1 when
+ * nothing has failed on this thread). When `buf` is NULL or `buf_len` is 0 nothing is written:
+ * call it that way to learn the size, allocate, and call again. Otherwise at most
+ * `buf_len - 1` bytes of the message are copied, cut at a UTF-8 character boundary, and a NUL
+ * is written after them; so the message was cut exactly when the value returned is larger
+ * than `buf_len`. The message is UTF-8 text (in practice ASCII) naming the function, what was
+ * wrong, and the index, value or sample where it was found.
+ *
+ * Successful calls do not clear the message; messages are per thread.
+ *
+ * # Safety
+ * `buf` must be NULL or point to at least `buf_len` writable bytes.
+ */
+size_t strake_last_error_message(char *buf,
+                                 size_t buf_len);
+
+/**
+ * The code returned by the host callback in the last call on this thread that failed with
+ * `STRAKE_STATUS_SURFACE_CALLBACK_FAILED` or `STRAKE_STATUS_CURVE_CALLBACK_FAILED`; 0 when
+ * no callback has failed on this thread. Not cleared by later calls.
+ */
+int32_t strake_last_callback_code(void);
+
+/**
+ * Lets a host callback say why it fails: call it from inside a surface or curve callback,
+ * on the thread that runs the callback, right before returning a non-zero code. strake then
+ * puts the text into its error message ("host surface callback failed with code 3: TEXT"),
+ * which `strake_last_error_message` returns on the thread that made the failing call (also
+ * when a parallel call ran the callback on a worker thread). The C++ and Python wrappers pass
+ * an exception's text this way.
+ *
+ * `message` is UTF-8 text (invalid bytes are replaced by U+FFFD), copied at once; text beyond
+ * 1024 bytes is cut and marked with "...". NULL forgets a report made earlier. A report is
+ * used by the next failing callback on this thread within the same strake call, then
+ * forgotten; a report left by a callback that then returned 0 is dropped when the next strake
+ * call starts. Cannot fail; never writes through `message`.
+ *
+ * # Safety
+ * `message` must be NULL or a NUL-terminated string.
+ */
+void strake_callback_report(const char *message);
+
+/* ==== Surfaces ============================================================================
+ * A surface strake holds: native NURBS data (copied), or the host's evaluator as a
+ * callback (one point or many points per call). Evaluating a surface handle gives the
+ * point and partial derivatives that the frame calls use.
+ */
+
+/**
+ * Declares where the surface's derivatives may jump: the distinct interior knots of the host's
+ * NURBS in u (`u_lines`, `u_count` values) and in v (`v_lines`, `v_count`), each finite,
+ * strictly inside the domain and strictly ascending. Arc length (`strake_arc_length` and the
+ * sampling calls) then splits its quadrature where a curve crosses these lines; without them a
+ * callback surface with repeated knots (e.g. rational conics) can fall short of a very tight
+ * tolerance there (about 1e-8 relative on a quadratic circle). A count of 0 (the pointer may
+ * then be NULL) goes back to what the surface knows itself: nothing for a callback surface,
+ * the knots of a native NURBS surface. Frames do not depend on it.
+ *
+ * Returns `STRAKE_STATUS_OK` and replaces both lists; otherwise the handle is unchanged.
+ * Errors: NULL_POINTER (`surface`, or a list with a count above 0); NON_FINITE (a value);
+ * INVALID_ARGUMENT (a value outside the open domain, or not above its predecessor). Not
+ * thread-safe on the same handle: no other call may use `surface` meanwhile.
+ *
+ * # Safety
+ * `surface` NULL or a live handle not in use by another thread; each list NULL or `count`
+ * readable doubles.
+ */
+StrakeStatus strake_surface_set_knot_lines(struct StrakeSurface *surface,
+                                           const double *u_lines,
+                                           size_t u_count,
+                                           const double *v_lines,
+                                           size_t v_count);
+
+/**
+ * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max].
+ *
+ * `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv| (e.g. to put the
+ * normal on the tool side). `user_data` is handed back to `f` unchanged and may be NULL. strake
+ * calls `f` only with (u, v) inside the domain; a curve that leaves the domain gives
+ * `STRAKE_STATUS_OUT_OF_DOMAIN` (no clamping).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+ * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (an empty or reversed range,
+ * `flip_normal` not 0 or 1).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeSurfaceFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_from_callback(StrakeSurfaceFn f,
+                                          void *user_data,
+                                          double u_min,
+                                          double u_max,
+                                          double v_min,
+                                          double v_max,
+                                          int32_t flip_normal,
+                                          struct StrakeSurface **out);
+
+/**
+ * Releases a surface. NULL is a no-op. The handle must not be used afterwards, nor be in use
+ * by another thread.
+ *
+ * # Safety
+ * `surface` must be NULL or a handle returned by a strake surface constructor and not yet
+ * freed.
+ */
+void strake_surface_free(struct StrakeSurface *surface);
+
+/**
+ * Creates a NURBS surface evaluated by strake itself (exact derivatives to second order,
+ * no allocation per evaluation). `flip_normal` = 0 takes N along Su × Sv, 1 the reverse.
+ *
+ * The arrays are copied; they may be freed after the call. Returns `STRAKE_STATUS_OK` and
+ * writes a new handle to `*out` (free it with `strake_surface_free`; it is used exactly like a
+ * callback surface); otherwise `*out` is left untouched. Errors: NULL_POINTER (`data`, any of
+ * its arrays but `weights`, `out`), INVALID_ARGUMENT (a count of 0 or too large, `flip_normal`
+ * not 0 or 1), INVALID_DEGREE (degree 0 or above 24, too few control points, knot count
+ * mismatch), INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty
+ * domain), INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive
+ * and finite). The message names the direction (u or v), index and value.
+ *
+ * # Safety
+ * `data` must be NULL or point to a valid description whose arrays hold the stated number of
+ * elements; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
+                                      int32_t flip_normal,
+                                      struct StrakeSurface **out);
+
 /**
  * Creates a surface evaluated by the host's batch callback `f` (many points per call) over
  * [u_min, u_max] x [v_min, v_max]; used exactly like a surface from
@@ -936,6 +1088,459 @@ StrakeStatus strake_surface_from_batch_callback(StrakeSurfaceBatchFn f,
                                                 double v_max,
                                                 int32_t flip_normal,
                                                 struct StrakeSurface **out);
+
+/**
+ * Evaluates `surface` at `count` parameter pairs: `out[i]` is the point S(u_i, v_i) and its
+ * partial derivatives up to `order` (0: the point; 1: and Su, Sv; 2: and Suu, Suv, Svv), at
+ * (u_i, v_i) = (`uv[2 i]`, `uv[2 i + 1]`). Entries above `order` are set to zero. Lengths are
+ * in the host's unit, derivatives per unit of the surface parameters; for a host callback
+ * surface these are the callback's own values, checked.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing point's index. Errors: NULL_POINTER (`surface`, `uv`, `out`);
+ * INVALID_ARGUMENT (`count` of 0 or too large, `order` above 2); NON_FINITE (a parameter, or
+ * an entry the callback filled); OUT_OF_DOMAIN ((u, v) outside the surface's domain: never
+ * clamped); SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `uv` NULL or `2 * count` doubles; `out` NULL or room for
+ * `count` jets, not overlapping `uv`.
+ */
+StrakeStatus strake_surface_evaluate(const struct StrakeSurface *surface,
+                                     const double *uv,
+                                     size_t count,
+                                     uint32_t order,
+                                     struct StrakeSurfaceJet *out);
+
+/* ==== Curves ==============================================================================
+ * The path as a curve (u(t), v(t)) in the surface's parameter plane: NURBS data, the
+ * host's callback, a curve through points in (u, v) or in space, a NURBS curve in space
+ * projected onto the surface; and the projection of points onto a surface.
+ */
+
+/**
+ * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
+ *
+ * - `knots`: `knot_count` non-decreasing finite knots; `knot_count` must be
+ *   `point_count + degree + 1`. Clamped and unclamped vectors are both accepted; the curve's
+ *   domain is `[knots[degree], knots[point_count]]`.
+ * - `uv_points`: `2 * point_count` values, u then v for each control point.
+ * - `weights`: NULL for a non-rational curve, else `point_count` positive finite weights.
+ *
+ * The data are copied; the arrays may be freed after the call. Returns `STRAKE_STATUS_OK` and
+ * writes a new handle to `*out` (free it with `strake_curve_free`); otherwise `*out` is left
+ * untouched. Errors: NULL_POINTER (`knots`, `uv_points`, `out`), INVALID_ARGUMENT (a count of 0
+ * or too large), INVALID_DEGREE (degree 0 or above 24, too few points, knot count mismatch),
+ * INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty domain),
+ * INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive and
+ * finite). The message names the offending index and value.
+ *
+ * # Safety
+ * Each pointer must be NULL or point to the number of valid elements stated above; `out` must
+ * be NULL or point to a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_new_nurbs(uint32_t degree,
+                                    const double *knots,
+                                    size_t knot_count,
+                                    const double *uv_points,
+                                    size_t point_count,
+                                    const double *weights,
+                                    struct StrakeCurve **out);
+
+/**
+ * Creates a curve evaluated by the host's callback `f` over [t_min, t_max]. `user_data` is
+ * handed back to `f` unchanged and may be NULL; strake calls `f` only with t in the domain.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
+ * untouched. Errors: NULL_POINTER (`f`, `out`), NON_FINITE (a domain end), INVALID_ARGUMENT
+ * (an empty or reversed range).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeCurveFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_from_callback(StrakeCurveFn f,
+                                        void *user_data,
+                                        double t_min,
+                                        double t_max,
+                                        struct StrakeCurve **out);
+
+/**
+ * Releases a curve. NULL is a no-op. The handle must not be used afterwards, nor be in use by
+ * another thread.
+ *
+ * # Safety
+ * `curve` must be NULL or a handle returned by a strake curve constructor and not yet freed.
+ */
+void strake_curve_free(struct StrakeCurve *curve);
+
+/**
+ * Creates a curve in the surface's parameter plane through `point_count` points
+ * (u0, v0, u1, v1, ...): the B-spline of degree `degree` (3: a C2 cubic) interpolating them,
+ * on t in [0, 1] (The NURBS Book A9.1: parameters by `parametrization`, knots by averaging).
+ *
+ * `start_derivative` and `end_derivative` are NULL (free ends) or both point to 2 doubles
+ * (du/dt, dv/dt) the curve must have at t = 0 and t = 1; with the chord-length
+ * parametrization a derivative of about the length of the point polygon (in the parameter
+ * plane) keeps the speed even. The data are copied.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_curve_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER
+ * (`uv_points`, `out`); INVALID_ARGUMENT (`point_count` of 0, too few points for the degree
+ * (degree + 1, or degree - 1 and at least 2 with end derivatives), two consecutive points
+ * that coincide (the message names the point's index), only one of the two derivatives
+ * given, `parametrization` not 0 or 1); INVALID_DEGREE (degree 0 or above 24, end
+ * derivatives with degree 1); NON_FINITE (a coordinate, naming the point's index, or an end
+ * derivative).
+ *
+ * # Safety
+ * `uv_points` must be NULL or point to `2 * point_count` doubles; each derivative NULL or 2
+ * doubles; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_through_uv_points(const double *uv_points,
+                                            size_t point_count,
+                                            uint32_t degree,
+                                            uint32_t parametrization,
+                                            const double *start_derivative,
+                                            const double *end_derivative,
+                                            struct StrakeCurve **out);
+
+/**
+ * Creates a curve on `surface` through `point_count` points in space (x0, y0, z0, x1, ...),
+ * given in path order, e.g. contact points a host computed on its own copy of the surface:
+ * each point is projected onto the surface (point inversion, continuing from the previous foot
+ * point, across a seam declared periodic in `options`), and the foot points' (u, v) are
+ * interpolated by a B-spline of degree `degree` (3: a C2 cubic) in the parameter plane, on t
+ * in [0, 1], with parameters by `parametrization`. A path across a declared seam stays
+ * continuous; the curve's (u, v) are wrapped back into the domain when evaluated.
+ *
+ * `projections` is NULL, or an array of `point_count` that receives, on success, each point's
+ * foot point, (u, v) and distances (to see how far the host's points were from the surface).
+ *
+ * Returns `STRAKE_STATUS_OK`, writes `projections` (if given) and a new handle to `*out` (free
+ * it with `strake_curve_free`); otherwise nothing is written. Errors (the message names the
+ * point's index): NULL_POINTER (`surface`, `points`, `options`, `out`); INVALID_ARGUMENT
+ * (`point_count` of 0 or too few for the degree, a bad option, two consecutive points with
+ * the same foot point, `parametrization` not 0 or 1); INVALID_DEGREE; NON_FINITE (a
+ * coordinate); TOO_FAR_FROM_SURFACE (a point farther than `options->tolerance`, with its
+ * distance and foot point); NOT_CONVERGED (point inversion found no foot point);
+ * DEGENERATE_SURFACE (a foot point where the normal is undefined); the surface's own errors
+ * (SURFACE_CALLBACK_FAILED, OUT_OF_DOMAIN ...).
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
+ * or valid; `projections` NULL or room for `point_count` projections; `out` NULL or writable.
+ */
+StrakeStatus strake_curve_through_space_points(const struct StrakeSurface *surface,
+                                               const double *points,
+                                               size_t point_count,
+                                               const struct StrakeProjectionOptions *options,
+                                               uint32_t degree,
+                                               uint32_t parametrization,
+                                               struct StrakeProjection *projections,
+                                               struct StrakeCurve **out);
+
+/**
+ * Creates a curve on `surface` from a curve in space, a NURBS curve of degree `degree` given
+ * as for `strake_curve_new_nurbs` but with points in space (`points`: x, y, z per control
+ * point; `weights` NULL for a non-rational curve), projected onto the surface: the curve is
+ * sampled (max(4, 2 degree) samples per knot span), the samples are projected, their foot
+ * points interpolated by a C2 cubic in the parameter plane (chord length, t in [0, 1], not the
+ * space curve's parameter), and intervals whose midpoint lies farther than `fit_tolerance`
+ * (host length unit) from the fitted curve are halved until none does. Split a space curve
+ * with corners at its corners first: near a corner the fit converges slowly.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
+ * untouched. Errors: those of `strake_curve_new_nurbs` for the NURBS data; those of
+ * `strake_curve_through_space_points` for the projection, the message naming the sample's
+ * index and its parameter on the space curve; INVALID_ARGUMENT also for a `fit_tolerance`
+ * that is not positive, or not met at 100000 samples.
+ *
+ * # Safety
+ * As for `strake_curve_new_nurbs` (with 3 doubles per point), plus `surface` NULL or a live
+ * handle and `options` NULL or valid.
+ */
+StrakeStatus strake_curve_project_nurbs(const struct StrakeSurface *surface,
+                                        uint32_t degree,
+                                        const double *knots,
+                                        size_t knot_count,
+                                        const double *points,
+                                        size_t point_count,
+                                        const double *weights,
+                                        const struct StrakeProjectionOptions *options,
+                                        double fit_tolerance,
+                                        struct StrakeCurve **out);
+
+/**
+ * Projects `point_count` points in space (x, y, z each) onto `surface`, in order: each from
+ * the previous foot point (so points along a path are fast and stay continuous across a seam
+ * declared periodic in `options`), the first from a coarse search. `out[i]` receives point
+ * i's foot point, (u, v) (inside the domain) and distances.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..point_count]`; otherwise `out` is untouched.
+ * Errors (the message names the point's index): NULL_POINTER (`surface`, `points`,
+ * `options`, `out`); INVALID_ARGUMENT (`point_count` of 0 or too large, a bad option);
+ * NON_FINITE; TOO_FAR_FROM_SURFACE; NOT_CONVERGED; DEGENERATE_SURFACE; the surface's own
+ * errors.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
+ * or valid; `out` NULL or room for `point_count` projections, not overlapping `points`.
+ */
+StrakeStatus strake_surface_project_points(const struct StrakeSurface *surface,
+                                           const double *points,
+                                           size_t point_count,
+                                           const struct StrakeProjectionOptions *options,
+                                           struct StrakeProjection *out);
+
+/* ==== Frames ==============================================================================
+ * The Darboux frame and its invariants (kn, kg, tg) with the principal curvatures: at one
+ * t, at the host's array of t, at even t, over several threads, or from two jets.
+ */
+
+/**
+ * Computes the frame at curve parameter `t` of `curve` lying on `surface`.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t`, or a callback's jet entry);
+ * OUT_OF_DOMAIN (t outside the curve's domain, or the curve's (u, v) outside the surface's);
+ * DEGENERATE_SURFACE; STALLED_CURVE; SURFACE_CALLBACK_FAILED; CURVE_CALLBACK_FAILED.
+ *
+ * Thread-safe: any number of threads may evaluate the same handles at once.
+ *
+ * # Safety
+ * `surface` and `curve` must be NULL or live handles; `out` NULL or writable.
+ */
+StrakeStatus strake_frame_at(const struct StrakeSurface *surface,
+                             const struct StrakeCurve *curve,
+                             double t,
+                             struct StrakeFrame *out);
+
+/**
+ * Computes the frames at the `count` curve parameters `ts` (a whole path in one call):
+ * `out[i]` is the frame at `ts[i]`. The parameters need not be sorted, but marching in order
+ * is fastest.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index and t. Errors: those of `strake_frame_at`, plus
+ * NULL_POINTER (`ts`) and INVALID_ARGUMENT (`count` of 0 or too large).
+ *
+ * # Safety
+ * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
+ * two must not overlap.
+ */
+StrakeStatus strake_frames_at(const struct StrakeSurface *surface,
+                              const struct StrakeCurve *curve,
+                              const double *ts,
+                              size_t count,
+                              struct StrakeFrame *out);
+
+/**
+ * Computes the frames at `count` evenly spaced curve parameters from the start to the end of
+ * the curve's domain, both included (`count` = 1 gives the start only): t_i = t_min +
+ * (t_max - t_min) i/(count - 1), with the last exactly t_max. `out[i].curve_param` holds t_i.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index and t. Errors: those of `strake_frame_at`, plus
+ * INVALID_ARGUMENT (`count` of 0 or too large).
+ *
+ * # Safety
+ * `out` must be NULL or have room for `count` frames; handles as in `strake_frame_at`.
+ */
+StrakeStatus strake_frames_even(const struct StrakeSurface *surface,
+                                const struct StrakeCurve *curve,
+                                size_t count,
+                                struct StrakeFrame *out);
+
+/**
+ * Computes the frame from a surface jet and a curve jet directly, with no handles: the pure
+ * math, for hosts that evaluate both themselves. `surface_jet` must hold second-order
+ * derivatives at the curve jet's (u, v). `flip_normal` is 0 (N along Su x Sv) or 1 (reversed);
+ * `scales` gives the widths of the parameter domains against which degeneracy is judged.
+ * `out->curve_param` is set to 0.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (each pointer), INVALID_ARGUMENT (`flip_normal`, a scale not positive and
+ * finite), NON_FINITE (a jet entry), DEGENERATE_SURFACE, STALLED_CURVE. Thread-safe.
+ *
+ * # Safety
+ * Each pointer must be NULL or point to a valid value of its type; `out` writable.
+ */
+StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
+                                    const struct StrakeCurveJet *curve_jet,
+                                    int32_t flip_normal,
+                                    const struct StrakeParamScales *scales,
+                                    struct StrakeFrame *out);
+
+/**
+ * As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and
+ * `threads - 1` threads started for this call and joined before it returns (no thread pool,
+ * nothing left running). The samples are cut into pieces (a few hundred to 4096 samples) that
+ * go, in order, to whichever thread is free, so a thread the operating system slows down
+ * takes fewer of them. `threads` = 1 is
+ * the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
+ * threads are started when there are fewer than 256 samples per thread (starting a thread
+ * costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
+ * whatever the number of threads.
+ *
+ * Host callbacks (surface or curve) are then called from several threads at once: the
+ * callback and its `user_data` must allow that. A panic in a worker is reported as
+ * STRAKE_STATUS_INTERNAL_PANIC.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample with the lowest index, and its t. Errors: those of
+ * `strake_frames_at`, plus INVALID_ARGUMENT for `threads` = 0.
+ *
+ * # Safety
+ * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
+ * two must not overlap; handles as in `strake_frame_at`.
+ */
+StrakeStatus strake_frames_at_parallel(const struct StrakeSurface *surface,
+                                       const struct StrakeCurve *curve,
+                                       const double *ts,
+                                       size_t count,
+                                       uint32_t threads,
+                                       struct StrakeFrame *out);
+
+/* ==== Sampling ============================================================================
+ * Samples along a path with their arc length: at even t, even arc length, to a chord
+ * tolerance, or at the host's t; and the arc length between two parameters.
+ */
+
+/**
+ * Samples `curve` on `surface` at `n` evenly spaced curve parameters from the start to the
+ * end of the curve's domain, both included (`n` = 1 gives the start), each with its arc length
+ * from the start (adaptive Gauss-Legendre quadrature to the relative tolerance
+ * `arc_tolerance`, e.g. 1e-10).
+ *
+ * Buffer: `buf` with room for `capacity` samples (NULL when `capacity` is 0); on success
+ * `*count` = `n` samples are written. When `capacity` < `n`, returns
+ * `STRAKE_STATUS_BUFFER_TOO_SMALL` with `*count` = `n` and nothing written to `buf`, without
+ * evaluating anything.
+ *
+ * Errors: NULL_POINTER (`surface`, `curve`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`n` of 0, `arc_tolerance` not positive and finite, `capacity` too
+ * large); BUFFER_TOO_SMALL; and every error of `strake_frame_at` at a sample, the message
+ * naming the sample's index and t. On any failure but BUFFER_TOO_SMALL nothing is written,
+ * `*count` included. Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `buf` NULL or room for `capacity` samples; `count`
+ * NULL or a writable size_t.
+ */
+StrakeStatus strake_sample_even_t(const struct StrakeSurface *surface,
+                                  const struct StrakeCurve *curve,
+                                  size_t n,
+                                  double arc_tolerance,
+                                  struct StrakeSample *buf,
+                                  size_t capacity,
+                                  size_t *count);
+
+/**
+ * Samples `curve` on `surface` at `n` points evenly spaced in arc length from the start to the
+ * end of the curve, both included (`n` = 1 gives the start): sample i lies at arc length
+ * i L/(n - 1), L the curve's length, to the relative tolerance `arc_tolerance` (e.g. 1e-10) of
+ * L (quadrature, then Newton's method on s(t) for each sample).
+ *
+ * Buffer, errors and safety as for `strake_sample_even_t`, plus NOT_CONVERGED when the
+ * arc-length inversion fails (it does not on a curve whose speed stays positive).
+ *
+ * # Safety
+ * As for `strake_sample_even_t`.
+ */
+StrakeStatus strake_sample_even_arc(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *curve,
+                                    size_t n,
+                                    double arc_tolerance,
+                                    struct StrakeSample *buf,
+                                    size_t capacity,
+                                    size_t *count);
+
+/**
+ * Samples `curve` on `surface` adaptively: the chord between consecutive samples stays within
+ * `chord_tolerance` (host length unit) of the curve, and their arc-length spacing within
+ * `max_step` (0 or INFINITY: no limit). Steps follow the space curvature
+ * k = sqrt(kn^2 + kg^2): a chord of length L on radius 1/k deviates by
+ * 1/k - sqrt(1/k^2 - L^2/4), so L <= 2 sqrt(2 d/k - d^2) for tolerance d; each step is then
+ * verified by measuring the deviation at its quarters and shrunk if needed. The first sample
+ * is at the start of the curve's domain, the last at its end; arc lengths to the relative
+ * tolerance `arc_tolerance` (e.g. 1e-10).
+ *
+ * Buffer: as for `strake_sample_even_t`, except that the number of samples is known only
+ * after sampling: when it exceeds `capacity`, the whole path is still sampled to count them,
+ * `*count` receives the number needed, nothing is written to `buf`, and the call returns
+ * `STRAKE_STATUS_BUFFER_TOO_SMALL`. The result is deterministic: calling again with
+ * `capacity` >= `*count` writes exactly those samples. (A size query with `buf` = NULL,
+ * `capacity` = 0 costs one full sampling.)
+ *
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`chord_tolerance` not positive and finite,
+ * `max_step` negative or NaN, `arc_tolerance` not positive and finite, a tolerance below
+ * round-off so that steps shrink below 1e-13 of the domain, more than 10 million samples
+ * needed: the message names the sample that could not be placed); BUFFER_TOO_SMALL; and every
+ * error of `strake_frame_at` at a sample, naming its index and t. Thread-safe.
+ *
+ * # Safety
+ * As for `strake_sample_even_t`.
+ */
+StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
+                                   const struct StrakeCurve *curve,
+                                   double chord_tolerance,
+                                   double max_step,
+                                   double arc_tolerance,
+                                   struct StrakeSample *buf,
+                                   size_t capacity,
+                                   size_t *count);
+
+/**
+ * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
+ * (signed: negative when t1 < t0), in the host's length unit, to the relative tolerance
+ * `rel_tol` (e.g. 1e-10): s = integral of |c'(t)| dt by adaptive Gauss-Legendre quadrature.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t0`, `t1`); INVALID_ARGUMENT
+ * (`rel_tol` not positive and finite); OUT_OF_DOMAIN (a parameter outside the curve's domain);
+ * and the evaluation errors of `strake_frame_at`. Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `out` NULL or a writable double.
+ */
+StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               double t0,
+                               double t1,
+                               double rel_tol,
+                               double *out);
+
+/**
+ * Computes the frames at the host's `count` curve parameters `ts`, each with its arc length
+ * from the start of the curve's domain: `out[i].frame` is what `strake_frames_at` gives at
+ * `ts[i]`, and `out[i].arc_length` = s(ts[i]) = integral of |c'(t)| dt from t_min to ts[i]
+ * (adaptive Gauss-Legendre quadrature between consecutive parameters to the relative tolerance
+ * `arc_tolerance`, e.g. 1e-10, summed; signed, so a parameter below the one before it gets a
+ * smaller s). The result feeds `strake_path_extremes` and `strake_path_violations` directly:
+ * a host with its own parameters evaluates the path once.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index and t. Errors: those of `strake_frames_at`, plus
+ * INVALID_ARGUMENT (`arc_tolerance` not positive and finite) and NOT_CONVERGED (the
+ * quadrature between two samples, which also names the sample). Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `ts` NULL or `count` doubles; `out` NULL or room
+ * for `count` samples, not overlapping `ts`.
+ */
+StrakeStatus strake_samples_at(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               const double *ts,
+                               size_t count,
+                               double arc_tolerance,
+                               struct StrakeSample *out);
+
+/* ==== Checks ==============================================================================
+ * What a machining or fibre-placement engineer asks of a sample or a whole path: local
+ * gouging, scallop height and step-over, curvature-limited feed, fibre steering and
+ * twist, the tool axis; and path summaries (extremes, intervals over a limit).
+ */
 
 /**
  * The local gouge state of `cutter` at the sample `frame` (from strake), with the tool on
@@ -1115,578 +1720,6 @@ StrakeStatus strake_path_violations(const struct StrakeSample *samples,
                                     struct StrakeViolation *buf,
                                     size_t capacity,
                                     size_t *count);
-
-/**
- * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
- *
- * - `knots`: `knot_count` non-decreasing finite knots; `knot_count` must be
- *   `point_count + degree + 1`. Clamped and unclamped vectors are both accepted; the curve's
- *   domain is `[knots[degree], knots[point_count]]`.
- * - `uv_points`: `2 * point_count` values, u then v for each control point.
- * - `weights`: NULL for a non-rational curve, else `point_count` positive finite weights.
- *
- * The data are copied; the arrays may be freed after the call. Returns `STRAKE_STATUS_OK` and
- * writes a new handle to `*out` (free it with `strake_curve_free`); otherwise `*out` is left
- * untouched. Errors: NULL_POINTER (`knots`, `uv_points`, `out`), INVALID_ARGUMENT (a count of 0
- * or too large), INVALID_DEGREE (degree 0 or above 24, too few points, knot count mismatch),
- * INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty domain),
- * INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive and
- * finite). The message names the offending index and value.
- *
- * # Safety
- * Each pointer must be NULL or point to the number of valid elements stated above; `out` must
- * be NULL or point to a writable `StrakeCurve *`.
- */
-StrakeStatus strake_curve_new_nurbs(uint32_t degree,
-                                    const double *knots,
-                                    size_t knot_count,
-                                    const double *uv_points,
-                                    size_t point_count,
-                                    const double *weights,
-                                    struct StrakeCurve **out);
-
-/**
- * Creates a curve evaluated by the host's callback `f` over [t_min, t_max]. `user_data` is
- * handed back to `f` unchanged and may be NULL; strake calls `f` only with t in the domain.
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
- * untouched. Errors: NULL_POINTER (`f`, `out`), NON_FINITE (a domain end), INVALID_ARGUMENT
- * (an empty or reversed range).
- *
- * # Safety
- * `f` must be NULL or a function with the signature of [`StrakeCurveFn`] honouring its
- * contract; `out` must be NULL or point to a writable `StrakeCurve *`.
- */
-StrakeStatus strake_curve_from_callback(StrakeCurveFn f,
-                                        void *user_data,
-                                        double t_min,
-                                        double t_max,
-                                        struct StrakeCurve **out);
-
-/**
- * Releases a curve. NULL is a no-op. The handle must not be used afterwards, nor be in use by
- * another thread.
- *
- * # Safety
- * `curve` must be NULL or a handle returned by a strake curve constructor and not yet freed.
- */
-void strake_curve_free(struct StrakeCurve *curve);
-
-/**
- * Computes the frame at curve parameter `t` of `curve` lying on `surface`.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t`, or a callback's jet entry);
- * OUT_OF_DOMAIN (t outside the curve's domain, or the curve's (u, v) outside the surface's);
- * DEGENERATE_SURFACE; STALLED_CURVE; SURFACE_CALLBACK_FAILED; CURVE_CALLBACK_FAILED.
- *
- * Thread-safe: any number of threads may evaluate the same handles at once.
- *
- * # Safety
- * `surface` and `curve` must be NULL or live handles; `out` NULL or writable.
- */
-StrakeStatus strake_frame_at(const struct StrakeSurface *surface,
-                             const struct StrakeCurve *curve,
-                             double t,
-                             struct StrakeFrame *out);
-
-/**
- * Computes the frames at the `count` curve parameters `ts` (a whole path in one call):
- * `out[i]` is the frame at `ts[i]`. The parameters need not be sorted, but marching in order
- * is fastest.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
- * message names the failing sample's index and t. Errors: those of `strake_frame_at`, plus
- * NULL_POINTER (`ts`) and INVALID_ARGUMENT (`count` of 0 or too large).
- *
- * # Safety
- * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
- * two must not overlap.
- */
-StrakeStatus strake_frames_at(const struct StrakeSurface *surface,
-                              const struct StrakeCurve *curve,
-                              const double *ts,
-                              size_t count,
-                              struct StrakeFrame *out);
-
-/**
- * Computes the frames at `count` evenly spaced curve parameters from the start to the end of
- * the curve's domain, both included (`count` = 1 gives the start only): t_i = t_min +
- * (t_max - t_min) i/(count - 1), with the last exactly t_max. `out[i].curve_param` holds t_i.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
- * message names the failing sample's index and t. Errors: those of `strake_frame_at`, plus
- * INVALID_ARGUMENT (`count` of 0 or too large).
- *
- * # Safety
- * `out` must be NULL or have room for `count` frames; handles as in `strake_frame_at`.
- */
-StrakeStatus strake_frames_even(const struct StrakeSurface *surface,
-                                const struct StrakeCurve *curve,
-                                size_t count,
-                                struct StrakeFrame *out);
-
-/**
- * Computes the frame from a surface jet and a curve jet directly, with no handles: the pure
- * math, for hosts that evaluate both themselves. `surface_jet` must hold second-order
- * derivatives at the curve jet's (u, v). `flip_normal` is 0 (N along Su x Sv) or 1 (reversed);
- * `scales` gives the widths of the parameter domains against which degeneracy is judged.
- * `out->curve_param` is set to 0.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (each pointer), INVALID_ARGUMENT (`flip_normal`, a scale not positive and
- * finite), NON_FINITE (a jet entry), DEGENERATE_SURFACE, STALLED_CURVE. Thread-safe.
- *
- * # Safety
- * Each pointer must be NULL or point to a valid value of its type; `out` writable.
- */
-StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
-                                    const struct StrakeCurveJet *curve_jet,
-                                    int32_t flip_normal,
-                                    const struct StrakeParamScales *scales,
-                                    struct StrakeFrame *out);
-
-/**
- * Copies the message of the last failed call on this thread into `buf`.
- *
- * Returns the size needed to hold the whole message including its terminating NUL (1 when
- * nothing has failed on this thread). When `buf` is NULL or `buf_len` is 0 nothing is written:
- * call it that way to learn the size, allocate, and call again. Otherwise at most
- * `buf_len - 1` bytes of the message are copied, cut at a UTF-8 character boundary, and a NUL
- * is written after them; so the message was cut exactly when the value returned is larger
- * than `buf_len`. The message is UTF-8 text (in practice ASCII) naming the function, what was
- * wrong, and the index, value or sample where it was found.
- *
- * Successful calls do not clear the message; messages are per thread.
- *
- * # Safety
- * `buf` must be NULL or point to at least `buf_len` writable bytes.
- */
-size_t strake_last_error_message(char *buf,
-                                 size_t buf_len);
-
-/**
- * The code returned by the host callback in the last call on this thread that failed with
- * `STRAKE_STATUS_SURFACE_CALLBACK_FAILED` or `STRAKE_STATUS_CURVE_CALLBACK_FAILED`; 0 when
- * no callback has failed on this thread. Not cleared by later calls.
- */
-int32_t strake_last_callback_code(void);
-
-/**
- * Lets a host callback say why it fails: call it from inside a surface or curve callback,
- * on the thread that runs the callback, right before returning a non-zero code. strake then
- * puts the text into its error message ("host surface callback failed with code 3: TEXT"),
- * which `strake_last_error_message` returns on the thread that made the failing call (also
- * when a parallel call ran the callback on a worker thread). The C++ and Python wrappers pass
- * an exception's text this way.
- *
- * `message` is UTF-8 text (invalid bytes are replaced by U+FFFD), copied at once; text beyond
- * 1024 bytes is cut and marked with "...". NULL forgets a report made earlier. A report is
- * used by the next failing callback on this thread within the same strake call, then
- * forgotten; a report left by a callback that then returned 0 is dropped when the next strake
- * call starts. Cannot fail; never writes through `message`.
- *
- * # Safety
- * `message` must be NULL or a NUL-terminated string.
- */
-void strake_callback_report(const char *message);
-
-/**
- * Creates a NURBS surface evaluated by strake itself (exact derivatives to second order,
- * no allocation per evaluation). `flip_normal` = 0 takes N along Su × Sv, 1 the reverse.
- *
- * The arrays are copied; they may be freed after the call. Returns `STRAKE_STATUS_OK` and
- * writes a new handle to `*out` (free it with `strake_surface_free`; it is used exactly like a
- * callback surface); otherwise `*out` is left untouched. Errors: NULL_POINTER (`data`, any of
- * its arrays but `weights`, `out`), INVALID_ARGUMENT (a count of 0 or too large, `flip_normal`
- * not 0 or 1), INVALID_DEGREE (degree 0 or above 24, too few control points, knot count
- * mismatch), INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty
- * domain), INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive
- * and finite). The message names the direction (u or v), index and value.
- *
- * # Safety
- * `data` must be NULL or point to a valid description whose arrays hold the stated number of
- * elements; `out` must be NULL or point to a writable `StrakeSurface *`.
- */
-StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
-                                      int32_t flip_normal,
-                                      struct StrakeSurface **out);
-
-/**
- * As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and
- * `threads - 1` threads started for this call and joined before it returns (no thread pool,
- * nothing left running). The samples are cut into pieces (a few hundred to 4096 samples) that
- * go, in order, to whichever thread is free, so a thread the operating system slows down
- * takes fewer of them. `threads` = 1 is
- * the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
- * threads are started when there are fewer than 256 samples per thread (starting a thread
- * costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
- * whatever the number of threads.
- *
- * Host callbacks (surface or curve) are then called from several threads at once: the
- * callback and its `user_data` must allow that. A panic in a worker is reported as
- * STRAKE_STATUS_INTERNAL_PANIC.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
- * message names the failing sample with the lowest index, and its t. Errors: those of
- * `strake_frames_at`, plus INVALID_ARGUMENT for `threads` = 0.
- *
- * # Safety
- * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
- * two must not overlap; handles as in `strake_frame_at`.
- */
-StrakeStatus strake_frames_at_parallel(const struct StrakeSurface *surface,
-                                       const struct StrakeCurve *curve,
-                                       const double *ts,
-                                       size_t count,
-                                       uint32_t threads,
-                                       struct StrakeFrame *out);
-
-/**
- * Creates a curve in the surface's parameter plane through `point_count` points
- * (u0, v0, u1, v1, ...): the B-spline of degree `degree` (3: a C2 cubic) interpolating them,
- * on t in [0, 1] (The NURBS Book A9.1: parameters by `parametrization`, knots by averaging).
- *
- * `start_derivative` and `end_derivative` are NULL (free ends) or both point to 2 doubles
- * (du/dt, dv/dt) the curve must have at t = 0 and t = 1; with the chord-length
- * parametrization a derivative of about the length of the point polygon (in the parameter
- * plane) keeps the speed even. The data are copied.
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
- * `strake_curve_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER
- * (`uv_points`, `out`); INVALID_ARGUMENT (`point_count` of 0, too few points for the degree
- * (degree + 1, or degree - 1 and at least 2 with end derivatives), two consecutive points
- * that coincide (the message names the point's index), only one of the two derivatives
- * given, `parametrization` not 0 or 1); INVALID_DEGREE (degree 0 or above 24, end
- * derivatives with degree 1); NON_FINITE (a coordinate, naming the point's index, or an end
- * derivative).
- *
- * # Safety
- * `uv_points` must be NULL or point to `2 * point_count` doubles; each derivative NULL or 2
- * doubles; `out` NULL or a writable `StrakeCurve *`.
- */
-StrakeStatus strake_curve_through_uv_points(const double *uv_points,
-                                            size_t point_count,
-                                            uint32_t degree,
-                                            uint32_t parametrization,
-                                            const double *start_derivative,
-                                            const double *end_derivative,
-                                            struct StrakeCurve **out);
-
-/**
- * Creates a curve on `surface` through `point_count` points in space (x0, y0, z0, x1, ...),
- * given in path order, e.g. contact points a host computed on its own copy of the surface:
- * each point is projected onto the surface (point inversion, continuing from the previous foot
- * point, across a seam declared periodic in `options`), and the foot points' (u, v) are
- * interpolated by a B-spline of degree `degree` (3: a C2 cubic) in the parameter plane, on t
- * in [0, 1], with parameters by `parametrization`. A path across a declared seam stays
- * continuous; the curve's (u, v) are wrapped back into the domain when evaluated.
- *
- * `projections` is NULL, or an array of `point_count` that receives, on success, each point's
- * foot point, (u, v) and distances (to see how far the host's points were from the surface).
- *
- * Returns `STRAKE_STATUS_OK`, writes `projections` (if given) and a new handle to `*out` (free
- * it with `strake_curve_free`); otherwise nothing is written. Errors (the message names the
- * point's index): NULL_POINTER (`surface`, `points`, `options`, `out`); INVALID_ARGUMENT
- * (`point_count` of 0 or too few for the degree, a bad option, two consecutive points with
- * the same foot point, `parametrization` not 0 or 1); INVALID_DEGREE; NON_FINITE (a
- * coordinate); TOO_FAR_FROM_SURFACE (a point farther than `options->tolerance`, with its
- * distance and foot point); NOT_CONVERGED (point inversion found no foot point);
- * DEGENERATE_SURFACE (a foot point where the normal is undefined); the surface's own errors
- * (SURFACE_CALLBACK_FAILED, OUT_OF_DOMAIN ...).
- *
- * # Safety
- * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
- * or valid; `projections` NULL or room for `point_count` projections; `out` NULL or writable.
- */
-StrakeStatus strake_curve_through_space_points(const struct StrakeSurface *surface,
-                                               const double *points,
-                                               size_t point_count,
-                                               const struct StrakeProjectionOptions *options,
-                                               uint32_t degree,
-                                               uint32_t parametrization,
-                                               struct StrakeProjection *projections,
-                                               struct StrakeCurve **out);
-
-/**
- * Creates a curve on `surface` from a curve in space, a NURBS curve of degree `degree` given
- * as for `strake_curve_new_nurbs` but with points in space (`points`: x, y, z per control
- * point; `weights` NULL for a non-rational curve), projected onto the surface: the curve is
- * sampled (max(4, 2 degree) samples per knot span), the samples are projected, their foot
- * points interpolated by a C2 cubic in the parameter plane (chord length, t in [0, 1], not the
- * space curve's parameter), and intervals whose midpoint lies farther than `fit_tolerance`
- * (host length unit) from the fitted curve are halved until none does. Split a space curve
- * with corners at its corners first: near a corner the fit converges slowly.
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
- * untouched. Errors: those of `strake_curve_new_nurbs` for the NURBS data; those of
- * `strake_curve_through_space_points` for the projection, the message naming the sample's
- * index and its parameter on the space curve; INVALID_ARGUMENT also for a `fit_tolerance`
- * that is not positive, or not met at 100000 samples.
- *
- * # Safety
- * As for `strake_curve_new_nurbs` (with 3 doubles per point), plus `surface` NULL or a live
- * handle and `options` NULL or valid.
- */
-StrakeStatus strake_curve_project_nurbs(const struct StrakeSurface *surface,
-                                        uint32_t degree,
-                                        const double *knots,
-                                        size_t knot_count,
-                                        const double *points,
-                                        size_t point_count,
-                                        const double *weights,
-                                        const struct StrakeProjectionOptions *options,
-                                        double fit_tolerance,
-                                        struct StrakeCurve **out);
-
-/**
- * Projects `point_count` points in space (x, y, z each) onto `surface`, in order: each from
- * the previous foot point (so points along a path are fast and stay continuous across a seam
- * declared periodic in `options`), the first from a coarse search. `out[i]` receives point
- * i's foot point, (u, v) (inside the domain) and distances.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..point_count]`; otherwise `out` is untouched.
- * Errors (the message names the point's index): NULL_POINTER (`surface`, `points`,
- * `options`, `out`); INVALID_ARGUMENT (`point_count` of 0 or too large, a bad option);
- * NON_FINITE; TOO_FAR_FROM_SURFACE; NOT_CONVERGED; DEGENERATE_SURFACE; the surface's own
- * errors.
- *
- * # Safety
- * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
- * or valid; `out` NULL or room for `point_count` projections, not overlapping `points`.
- */
-StrakeStatus strake_surface_project_points(const struct StrakeSurface *surface,
-                                           const double *points,
-                                           size_t point_count,
-                                           const struct StrakeProjectionOptions *options,
-                                           struct StrakeProjection *out);
-
-/**
- * Samples `curve` on `surface` at `n` evenly spaced curve parameters from the start to the
- * end of the curve's domain, both included (`n` = 1 gives the start), each with its arc length
- * from the start (adaptive Gauss-Legendre quadrature to the relative tolerance
- * `arc_tolerance`, e.g. 1e-10).
- *
- * Buffer: `buf` with room for `capacity` samples (NULL when `capacity` is 0); on success
- * `*count` = `n` samples are written. When `capacity` < `n`, returns
- * `STRAKE_STATUS_BUFFER_TOO_SMALL` with `*count` = `n` and nothing written to `buf`, without
- * evaluating anything.
- *
- * Errors: NULL_POINTER (`surface`, `curve`, `count`; `buf` when `capacity` > 0);
- * INVALID_ARGUMENT (`n` of 0, `arc_tolerance` not positive and finite, `capacity` too
- * large); BUFFER_TOO_SMALL; and every error of `strake_frame_at` at a sample, the message
- * naming the sample's index and t. On any failure but BUFFER_TOO_SMALL nothing is written,
- * `*count` included. Thread-safe.
- *
- * # Safety
- * `surface`, `curve` NULL or live handles; `buf` NULL or room for `capacity` samples; `count`
- * NULL or a writable size_t.
- */
-StrakeStatus strake_sample_even_t(const struct StrakeSurface *surface,
-                                  const struct StrakeCurve *curve,
-                                  size_t n,
-                                  double arc_tolerance,
-                                  struct StrakeSample *buf,
-                                  size_t capacity,
-                                  size_t *count);
-
-/**
- * Samples `curve` on `surface` at `n` points evenly spaced in arc length from the start to the
- * end of the curve, both included (`n` = 1 gives the start): sample i lies at arc length
- * i L/(n - 1), L the curve's length, to the relative tolerance `arc_tolerance` (e.g. 1e-10) of
- * L (quadrature, then Newton's method on s(t) for each sample).
- *
- * Buffer, errors and safety as for `strake_sample_even_t`, plus NOT_CONVERGED when the
- * arc-length inversion fails (it does not on a curve whose speed stays positive).
- *
- * # Safety
- * As for `strake_sample_even_t`.
- */
-StrakeStatus strake_sample_even_arc(const struct StrakeSurface *surface,
-                                    const struct StrakeCurve *curve,
-                                    size_t n,
-                                    double arc_tolerance,
-                                    struct StrakeSample *buf,
-                                    size_t capacity,
-                                    size_t *count);
-
-/**
- * Samples `curve` on `surface` adaptively: the chord between consecutive samples stays within
- * `chord_tolerance` (host length unit) of the curve, and their arc-length spacing within
- * `max_step` (0 or INFINITY: no limit). Steps follow the space curvature
- * k = sqrt(kn^2 + kg^2): a chord of length L on radius 1/k deviates by
- * 1/k - sqrt(1/k^2 - L^2/4), so L <= 2 sqrt(2 d/k - d^2) for tolerance d; each step is then
- * verified by measuring the deviation at its quarters and shrunk if needed. The first sample
- * is at the start of the curve's domain, the last at its end; arc lengths to the relative
- * tolerance `arc_tolerance` (e.g. 1e-10).
- *
- * Buffer: as for `strake_sample_even_t`, except that the number of samples is known only
- * after sampling: when it exceeds `capacity`, the whole path is still sampled to count them,
- * `*count` receives the number needed, nothing is written to `buf`, and the call returns
- * `STRAKE_STATUS_BUFFER_TOO_SMALL`. The result is deterministic: calling again with
- * `capacity` >= `*count` writes exactly those samples. (A size query with `buf` = NULL,
- * `capacity` = 0 costs one full sampling.)
- *
- * Errors: NULL_POINTER; INVALID_ARGUMENT (`chord_tolerance` not positive and finite,
- * `max_step` negative or NaN, `arc_tolerance` not positive and finite, a tolerance below
- * round-off so that steps shrink below 1e-13 of the domain, more than 10 million samples
- * needed: the message names the sample that could not be placed); BUFFER_TOO_SMALL; and every
- * error of `strake_frame_at` at a sample, naming its index and t. Thread-safe.
- *
- * # Safety
- * As for `strake_sample_even_t`.
- */
-StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
-                                   const struct StrakeCurve *curve,
-                                   double chord_tolerance,
-                                   double max_step,
-                                   double arc_tolerance,
-                                   struct StrakeSample *buf,
-                                   size_t capacity,
-                                   size_t *count);
-
-/**
- * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
- * (signed: negative when t1 < t0), in the host's length unit, to the relative tolerance
- * `rel_tol` (e.g. 1e-10): s = integral of |c'(t)| dt by adaptive Gauss-Legendre quadrature.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t0`, `t1`); INVALID_ARGUMENT
- * (`rel_tol` not positive and finite); OUT_OF_DOMAIN (a parameter outside the curve's domain);
- * and the evaluation errors of `strake_frame_at`. Thread-safe.
- *
- * # Safety
- * `surface`, `curve` NULL or live handles; `out` NULL or a writable double.
- */
-StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
-                               const struct StrakeCurve *curve,
-                               double t0,
-                               double t1,
-                               double rel_tol,
-                               double *out);
-
-/**
- * Computes the frames at the host's `count` curve parameters `ts`, each with its arc length
- * from the start of the curve's domain: `out[i].frame` is what `strake_frames_at` gives at
- * `ts[i]`, and `out[i].arc_length` = s(ts[i]) = integral of |c'(t)| dt from t_min to ts[i]
- * (adaptive Gauss-Legendre quadrature between consecutive parameters to the relative tolerance
- * `arc_tolerance`, e.g. 1e-10, summed; signed, so a parameter below the one before it gets a
- * smaller s). The result feeds `strake_path_extremes` and `strake_path_violations` directly:
- * a host with its own parameters evaluates the path once.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
- * message names the failing sample's index and t. Errors: those of `strake_frames_at`, plus
- * INVALID_ARGUMENT (`arc_tolerance` not positive and finite) and NOT_CONVERGED (the
- * quadrature between two samples, which also names the sample). Thread-safe.
- *
- * # Safety
- * `surface`, `curve` NULL or live handles; `ts` NULL or `count` doubles; `out` NULL or room
- * for `count` samples, not overlapping `ts`.
- */
-StrakeStatus strake_samples_at(const struct StrakeSurface *surface,
-                               const struct StrakeCurve *curve,
-                               const double *ts,
-                               size_t count,
-                               double arc_tolerance,
-                               struct StrakeSample *out);
-
-/**
- * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",
- * for logs; "STRAKE_STATUS_UNKNOWN" for a number this version does not define. The string is
- * owned by the library and must not be freed. Never fails; thread-safe.
- */
-const char *strake_status_name(uint32_t status);
-
-/**
- * Declares where the surface's derivatives may jump: the distinct interior knots of the host's
- * NURBS in u (`u_lines`, `u_count` values) and in v (`v_lines`, `v_count`), each finite,
- * strictly inside the domain and strictly ascending. Arc length (`strake_arc_length` and the
- * sampling calls) then splits its quadrature where a curve crosses these lines; without them a
- * callback surface with repeated knots (e.g. rational conics) can fall short of a very tight
- * tolerance there (about 1e-8 relative on a quadratic circle). A count of 0 (the pointer may
- * then be NULL) goes back to what the surface knows itself: nothing for a callback surface,
- * the knots of a native NURBS surface. Frames do not depend on it.
- *
- * Returns `STRAKE_STATUS_OK` and replaces both lists; otherwise the handle is unchanged.
- * Errors: NULL_POINTER (`surface`, or a list with a count above 0); NON_FINITE (a value);
- * INVALID_ARGUMENT (a value outside the open domain, or not above its predecessor). Not
- * thread-safe on the same handle: no other call may use `surface` meanwhile.
- *
- * # Safety
- * `surface` NULL or a live handle not in use by another thread; each list NULL or `count`
- * readable doubles.
- */
-StrakeStatus strake_surface_set_knot_lines(struct StrakeSurface *surface,
-                                           const double *u_lines,
-                                           size_t u_count,
-                                           const double *v_lines,
-                                           size_t v_count);
-
-/**
- * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max].
- *
- * `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv| (e.g. to put the
- * normal on the tool side). `user_data` is handed back to `f` unchanged and may be NULL. strake
- * calls `f` only with (u, v) inside the domain; a curve that leaves the domain gives
- * `STRAKE_STATUS_OUT_OF_DOMAIN` (no clamping).
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
- * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
- * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (an empty or reversed range,
- * `flip_normal` not 0 or 1).
- *
- * # Safety
- * `f` must be NULL or a function with the signature of [`StrakeSurfaceFn`] honouring its
- * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
- */
-StrakeStatus strake_surface_from_callback(StrakeSurfaceFn f,
-                                          void *user_data,
-                                          double u_min,
-                                          double u_max,
-                                          double v_min,
-                                          double v_max,
-                                          int32_t flip_normal,
-                                          struct StrakeSurface **out);
-
-/**
- * Releases a surface. NULL is a no-op. The handle must not be used afterwards, nor be in use
- * by another thread.
- *
- * # Safety
- * `surface` must be NULL or a handle returned by a strake surface constructor and not yet
- * freed.
- */
-void strake_surface_free(struct StrakeSurface *surface);
-
-/**
- * Evaluates `surface` at `count` parameter pairs: `out[i]` is the point S(u_i, v_i) and its
- * partial derivatives up to `order` (0: the point; 1: and Su, Sv; 2: and Suu, Suv, Svv), at
- * (u_i, v_i) = (`uv[2 i]`, `uv[2 i + 1]`). Entries above `order` are set to zero. Lengths are
- * in the host's unit, derivatives per unit of the surface parameters; for a host callback
- * surface these are the callback's own values, checked.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
- * message names the failing point's index. Errors: NULL_POINTER (`surface`, `uv`, `out`);
- * INVALID_ARGUMENT (`count` of 0 or too large, `order` above 2); NON_FINITE (a parameter, or
- * an entry the callback filled); OUT_OF_DOMAIN ((u, v) outside the surface's domain: never
- * clamped); SURFACE_CALLBACK_FAILED. Thread-safe.
- *
- * # Safety
- * `surface` NULL or a live handle; `uv` NULL or `2 * count` doubles; `out` NULL or room for
- * `count` jets, not overlapping `uv`.
- */
-StrakeStatus strake_surface_evaluate(const struct StrakeSurface *surface,
-                                     const double *uv,
-                                     size_t count,
-                                     uint32_t order,
-                                     struct StrakeSurfaceJet *out);
-
-/**
- * The version of the library actually loaded, as "MAJOR.MINOR.PATCH" (a static NUL-terminated
- * string owned by the library; do not free it). Compare it with STRAKE_VERSION_STRING from the
- * header to detect a header/library mismatch. Never fails; thread-safe.
- */
-const char *strake_version(void);
 
 #ifdef __cplusplus
 }  // extern "C"
