@@ -132,6 +132,14 @@ pub enum StrakeError {
         /// the `what()` of a C++ exception), if any.
         message: Option<String>,
     },
+    /// A check over a whole path failed at one sample; `error` says why. The C ABI takes the
+    /// status from `error`.
+    AtSample {
+        /// Index of the sample in the caller's array.
+        index: usize,
+        /// What is wrong there.
+        error: Box<StrakeError>,
+    },
 }
 
 impl fmt::Display for StrakeError {
@@ -200,6 +208,7 @@ impl fmt::Display for StrakeError {
                     None => Ok(()),
                 }
             }
+            StrakeError::AtSample { index, error } => write!(f, "sample {index}: {error}"),
         }
     }
 }

@@ -75,6 +75,11 @@ struct Raw {
     course_setup: Vec<f64>,
     /// Per sample: t, arc length, steering curvature, edge strain, twist rate.
     course: Vec<[f64; 5]>,
+    /// Bull-nose radius, corner radius, lead, tilt, radius across the path, inclination-plane
+    /// radius.
+    rear_setup: Vec<f64>,
+    /// Per sample: t, arc length, rear margin, depth, gouges, has min lead, min lead.
+    rear: Vec<[f64; 7]>,
 }
 
 fn numbers(rest: &[&str]) -> Vec<f64> {
@@ -135,6 +140,8 @@ fn parse_raw(text: &str) -> Raw {
             "course_points" => r.course_points = triples(numbers(rest)),
             "course_setup" => r.course_setup = numbers(rest),
             "course_sample" => r.course.push(indexed(line, rest, r.course.len())),
+            "rear_setup" => r.rear_setup = numbers(rest),
+            "rear_sample" => r.rear.push(indexed(line, rest, r.rear.len())),
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }
@@ -566,7 +573,8 @@ fn rust_wing(w: &[f64]) -> impl strake::SurfaceSource + use<> {
 
 // The fibre course of the demo against the Rust API (the course projected onto the Rust wing
 // skin from the same NURBS data) and against the formulas of the composites trade
-// (REFERENCES.md): steering radius 1/|kg|, tow-edge strain (w/2)|kg|, twist rate tg. The
+// (REFERENCES.md): steering radius 1/|kg|, tow-edge strain (w/2)|kg| plus the Gaussian term,
+// twist rate tg. The
 // samples are evenly spaced in arc length, and the printed intervals are the Rust summaries of
 // the same values.
 #[test]
@@ -610,7 +618,17 @@ fn demo_fibre_course_matches_the_rust_api() {
         let f = pair.frame(t, &mut hints).unwrap();
         let kg = f.geodesic_curvature.abs();
         agree("steering curvature", c_steer, kg, 1e-8, 1e-3);
-        agree("edge strain", c_strain, 0.5 * tow * kg, 1e-8, 1e-3);
+        // Edge strain: the larger of |−kg y − K y²/2| at y = ±w/2 (geodesic parallels,
+        // REFERENCES.md; the steering part alone is (w/2)|kg|).
+        let (y, gauss) = (0.5 * tow, f.principal.k1 * f.principal.k2);
+        let edge = |y: f64| -f.geodesic_curvature * y - 0.5 * gauss * y * y;
+        agree(
+            "edge strain",
+            c_strain,
+            edge(y).abs().max(edge(-y).abs()),
+            1e-8,
+            1e-3,
+        );
         agree("twist rate", c_twist, f.geodesic_torsion, 1e-8, 1e-4);
         samples.push(PathSample {
             t,
@@ -878,4 +896,53 @@ fn readme_example_runs() {
         readme.contains(body),
         "README.md's C example differs from tests/c/readme_example.c"
     );
+}
+
+// The demo's bull-nose pass (rear gouging, through the _path functions) against the Rust API
+// at the same samples: the rear margin, depth and smallest safe lead sample for sample, the
+// radius across the path r + R sin²λ/sin³β (= r + R/sin λ for pure lead), and the printed
+// heel intervals as the Rust summary of the same margins.
+#[test]
+fn demo_rear_gouge_pass_matches_the_rust_checks() {
+    let raw = raw_output("mould_cavity_rear");
+    let [big, corner, lead, tilt, across, incl] = raw.rear_setup[..] else {
+        panic!("rear_setup has 6 numbers")
+    };
+    let cutter = Cutter::Toroidal {
+        radius: big,
+        corner_radius: corner,
+    };
+    let angles = ToolAngles { lead, tilt };
+    let want_across = corner + (big - corner) / lead.sin();
+    agree("radius across", across, want_across, 1e-12, 0.0);
+    agree("inclination-plane radius", incl, want_across, 1e-12, 0.0);
+    let surface = rust_surface(&raw);
+    let path = rust_pass(&raw, &surface);
+    let pair = CurveOnSurface::new(&surface, &path);
+    let mut hints = Hints::default();
+    let (mut samples, mut deficit) = (Vec::new(), Vec::new());
+    let length = raw.rear.last().unwrap()[1];
+    for r in &raw.rear {
+        let [t, s, margin, depth, gouges, has_lead, min_lead] = *r;
+        let f = pair.frame(t, &mut hints).unwrap();
+        let g = gouge_state(&f, ToolSide::AlongNormal, &cutter, &angles).unwrap();
+        agree("rear margin", margin, g.rear.margin, 1e-7, 1.0);
+        agree("rear depth", depth, g.rear.depth, 1e-7, 1e-3);
+        assert_eq!(gouges != 0.0, g.rear.gouges, "t = {t}");
+        assert_eq!(has_lead != 0.0, g.min_lead.is_some());
+        agree("min lead", min_lead, g.min_lead.unwrap_or(0.0), 1e-6, 1e-3);
+        samples.push(PathSample {
+            t,
+            arc_length: s,
+            frame: f,
+        });
+        deficit.push(-margin);
+    }
+    let mut rust = Vec::new();
+    violations(&samples, &deficit, 0.0, &mut rust).unwrap();
+    assert!(
+        !rust.is_empty(),
+        "the demo's bull-nose pass should rear-gouge somewhere"
+    );
+    same_intervals("rear", &printed(&raw, "rear"), &rust, length);
 }

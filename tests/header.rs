@@ -309,6 +309,18 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_callback_report",
         "strake_samples_at",
         "strake_surface_evaluate",
+        "strake_cutter_radii",
+        "strake_check_rear_gouge",
+        "strake_check_tow_edges",
+        "strake_check_step_over_cutter",
+        "strake_check_gouge_path",
+        "strake_check_rear_gouge_path",
+        "strake_check_scallop_path",
+        "strake_check_step_over_cutter_path",
+        "strake_check_feed_path",
+        "strake_check_fibre_path",
+        "strake_check_tow_edges_path",
+        "strake_tool_axis_path",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

@@ -92,6 +92,7 @@ impl StrakeStatus {
             StrakeError::AtPoint { error, .. } => StrakeStatus::of(error),
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
+            StrakeError::AtSample { error, .. } => StrakeStatus::of(error),
         }
     }
 
