@@ -51,6 +51,10 @@ using FibreLimits = StrakeFibreLimits;
 using FibreState = StrakeFibreState;
 using Extremes = StrakeExtremes;
 using Violation = StrakeViolation;
+using RearGouge = StrakeRearGouge;
+using CutterStepOver = StrakeCutterStepOver;
+using CutterRadii = StrakeCutterRadii;
+using TowEdges = StrakeTowEdges;
 
 /** A pointer and a count: the elements a call reads (View<const T>) or writes (View<T>). */
 template <class T>
@@ -490,6 +494,141 @@ inline std::vector<Violation> path_violations(View<const Sample> samples,
         return strake_path_violations(samples.data(), values.data(), samples.size(), limit, buf,
                                       cap, count);
     });
+}
+
+/* ---- Checks along a whole path (one result per sample, one call) --------------------- */
+
+namespace detail {
+template <class R>
+void same_size(View<const Sample> samples, View<R> out, const char *what) {
+    if (out.size() != samples.size())
+        throw std::invalid_argument(std::string("strake::") + what +
+                                    ": out must hold one result per sample");
+}
+}  // namespace detail
+
+/** check_gouge at every sample, into out (one result per sample). */
+inline void check_gouge_path(View<const Sample> samples, std::uint32_t tool_side,
+                             const Cutter &cutter, const ToolAngles &angles,
+                             View<GougeState> out) {
+    detail::same_size(samples, out, "check_gouge_path");
+    check(strake_check_gouge_path(samples.data(), samples.size(), tool_side, &cutter, &angles,
+                                  out.data()));
+}
+inline std::vector<GougeState> check_gouge_path(View<const Sample> samples,
+                                                std::uint32_t tool_side, const Cutter &cutter,
+                                                const ToolAngles &angles) {
+    std::vector<GougeState> out(samples.size());
+    check_gouge_path(samples, tool_side, cutter, angles, out);
+    return out;
+}
+
+/** Rear (heel) gouging of a flat or toroidal cutter at every sample. */
+inline void check_rear_gouge_path(View<const Sample> samples, std::uint32_t tool_side,
+                                  const Cutter &cutter, const ToolAngles &angles,
+                                  View<RearGouge> out) {
+    detail::same_size(samples, out, "check_rear_gouge_path");
+    check(strake_check_rear_gouge_path(samples.data(), samples.size(), tool_side, &cutter,
+                                       &angles, out.data()));
+}
+inline std::vector<RearGouge> check_rear_gouge_path(View<const Sample> samples,
+                                                    std::uint32_t tool_side,
+                                                    const Cutter &cutter,
+                                                    const ToolAngles &angles) {
+    std::vector<RearGouge> out(samples.size());
+    check_rear_gouge_path(samples, tool_side, cutter, angles, out);
+    return out;
+}
+
+/** check_scallop at every sample. */
+inline void check_scallop_path(View<const Sample> samples, std::uint32_t tool_side,
+                               double cutter_radius, double step_over, View<Scallop> out) {
+    detail::same_size(samples, out, "check_scallop_path");
+    check(strake_check_scallop_path(samples.data(), samples.size(), tool_side, cutter_radius,
+                                    step_over, out.data()));
+}
+inline std::vector<Scallop> check_scallop_path(View<const Sample> samples,
+                                               std::uint32_t tool_side, double cutter_radius,
+                                               double step_over) {
+    std::vector<Scallop> out(samples.size());
+    check_scallop_path(samples, tool_side, cutter_radius, step_over, out);
+    return out;
+}
+
+/** The largest step-over for a scallop height, for a cutter, at every sample. */
+inline void check_step_over_cutter_path(View<const Sample> samples, std::uint32_t tool_side,
+                                        const Cutter &cutter, const ToolAngles &angles,
+                                        double scallop_height, View<CutterStepOver> out) {
+    detail::same_size(samples, out, "check_step_over_cutter_path");
+    check(strake_check_step_over_cutter_path(samples.data(), samples.size(), tool_side,
+                                             &cutter, &angles, scallop_height, out.data()));
+}
+inline std::vector<CutterStepOver> check_step_over_cutter_path(View<const Sample> samples,
+                                                               std::uint32_t tool_side,
+                                                               const Cutter &cutter,
+                                                               const ToolAngles &angles,
+                                                               double scallop_height) {
+    std::vector<CutterStepOver> out(samples.size());
+    check_step_over_cutter_path(samples, tool_side, cutter, angles, scallop_height, out);
+    return out;
+}
+
+/** The highest feed at every sample. */
+inline void check_feed_path(View<const Sample> samples, const FeedLimits &limits,
+                            View<double> out) {
+    detail::same_size(samples, out, "check_feed_path");
+    check(strake_check_feed_path(samples.data(), samples.size(), &limits, out.data()));
+}
+inline std::vector<double> check_feed_path(View<const Sample> samples,
+                                           const FeedLimits &limits) {
+    std::vector<double> out(samples.size());
+    check_feed_path(samples, limits, out);
+    return out;
+}
+
+/** Steering and twist of a fibre course at every sample. */
+inline void check_fibre_path(View<const Sample> samples, const FibreLimits &limits,
+                             View<FibreState> out) {
+    detail::same_size(samples, out, "check_fibre_path");
+    check(strake_check_fibre_path(samples.data(), samples.size(), &limits, out.data()));
+}
+inline std::vector<FibreState> check_fibre_path(View<const Sample> samples,
+                                                const FibreLimits &limits) {
+    std::vector<FibreState> out(samples.size());
+    check_fibre_path(samples, limits, out);
+    return out;
+}
+
+/** The strain of a tow's two edges at every sample. */
+inline void check_tow_edges_path(View<const Sample> samples, double tow_width,
+                                 View<TowEdges> out) {
+    detail::same_size(samples, out, "check_tow_edges_path");
+    check(strake_check_tow_edges_path(samples.data(), samples.size(), tow_width, out.data()));
+}
+inline std::vector<TowEdges> check_tow_edges_path(View<const Sample> samples, double tow_width) {
+    std::vector<TowEdges> out(samples.size());
+    check_tow_edges_path(samples, tow_width, out);
+    return out;
+}
+
+/** The tool axis at every sample. */
+inline void tool_axis_path(View<const Sample> samples, std::uint32_t tool_side,
+                           const ToolAngles &angles, View<ToolAxis> out) {
+    detail::same_size(samples, out, "tool_axis_path");
+    check(strake_tool_axis_path(samples.data(), samples.size(), tool_side, &angles, out.data()));
+}
+inline std::vector<ToolAxis> tool_axis_path(View<const Sample> samples, std::uint32_t tool_side,
+                                            const ToolAngles &angles) {
+    std::vector<ToolAxis> out(samples.size());
+    tool_axis_path(samples, tool_side, angles, out);
+    return out;
+}
+
+/** The cutter's radii across and along the path for its axis inclination. */
+inline CutterRadii cutter_radii(const Cutter &cutter, const ToolAngles &angles) {
+    CutterRadii r{};
+    check(strake_cutter_radii(&cutter, &angles, &r));
+    return r;
 }
 
 }  // namespace strake

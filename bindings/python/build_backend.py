@@ -86,6 +86,9 @@ def build_wheel(wheel_directory, config_settings=None, metadata_directory=None):
                 files.append((f"{NAME}/{name}", f.read()))
     with open(lib, "rb") as f:
         files.append((f"{NAME}/libstrake.so", f.read()))
+    # The header: the package reads the layouts of the result structs from it.
+    with open(os.path.join(REPO, "include", "strake.h"), "rb") as f:
+        files.append((f"{NAME}/strake.h", f.read()))
     info = f"{DIST}-{VERSION}.dist-info"
     files.append((f"{info}/METADATA", _metadata().encode()))
     wheel = f"Wheel-Version: 1.0\nGenerator: strake build_backend\nRoot-Is-Purelib: false\nTag: {tag}\n"

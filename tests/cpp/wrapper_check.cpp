@@ -80,6 +80,32 @@ int main() {
     CHECK(strake::path_violations(samples, kn, 0.9).size() == 1);
     CHECK(strake::sample_even_t(s, line, 7).size() == 7);
 
+    // The whole-path checks give, sample for sample, what the one-frame checks give.
+    const strake::Cutter ball{STRAKE_CUTTER_KIND_BALL, 0.25, 0.0};
+    const strake::ToolAngles angles{0.05, 0.0};
+    std::vector<strake::GougeState> gouge =
+        strake::check_gouge_path(samples, STRAKE_TOOL_SIDE_ALONG_NORMAL, ball, angles);
+    std::vector<strake::ToolAxis> axes(samples.size());
+    strake::tool_axis_path(samples, STRAKE_TOOL_SIDE_ALONG_NORMAL, angles, axes);
+    bool agree = gouge.size() == samples.size();
+    for (std::size_t i = 0; agree && i < samples.size(); ++i) {
+        strake::GougeState one =
+            strake::check_gouge(samples[i].frame, STRAKE_TOOL_SIDE_ALONG_NORMAL, ball, angles);
+        strake::ToolAxis a = strake::tool_axis(samples[i].frame, STRAKE_TOOL_SIDE_ALONG_NORMAL, angles);
+        agree = one.margin == gouge[i].margin && one.concave_radius == gouge[i].concave_radius &&
+                one.gouges == gouge[i].gouges && one.min_lead == gouge[i].min_lead &&
+                std::memcmp(&a, &axes[i], sizeof a) == 0;
+    }
+    CHECK(agree);
+    CHECK(strake::check_scallop_path(samples, STRAKE_TOOL_SIDE_ALONG_NORMAL, 0.25, 0.1).size() == 5);
+    try {
+        std::vector<strake::TowEdges> few(2);
+        strake::check_tow_edges_path(samples, 0.01, few);
+        CHECK(false);
+    } catch (const std::invalid_argument &) {
+        CHECK(true);
+    }
+
     // Failures throw strake::Error with the status and strake's message.
     try {
         strake::frame_at(s, line, 1.5);

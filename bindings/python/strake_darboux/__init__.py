@@ -49,7 +49,25 @@ __all__ = [
     "path_extremes",
     "path_violations",
     "version",
+    "dtype",
+    "BALL",
+    "FLAT",
+    "TOROIDAL",
+    "ALONG_NORMAL",
+    "AGAINST_NORMAL",
+    "check_gouge_path",
+    "check_rear_gouge_path",
+    "check_scallop_path",
+    "check_step_over_cutter_path",
+    "check_feed_path",
+    "check_fibre_path",
+    "check_tow_edges_path",
+    "tool_axis_path",
 ]
+
+#: Cutter kinds (StrakeCutter.kind) and tool sides (the ``tool_side`` arguments).
+BALL, FLAT, TOROIDAL = 0, 1, 2
+ALONG_NORMAL, AGAINST_NORMAL = 0, 1
 
 ArrayLike = npt.ArrayLike
 SurfaceFunction = Callable[[float, float, int], ArrayLike]
@@ -405,3 +423,92 @@ def path_violations(samples: np.ndarray, values: ArrayLike, limit: float) -> np.
     s, v = _samples(samples, values)
     return _fill(lambda b, c, k: _lib.lib.strake_path_violations(s.ctypes.data, _ptr(v), s.size,
                                                                  float(limit), b, c, k), VIOLATION_DTYPE)
+
+
+def dtype(struct_name: str) -> np.dtype:
+    """The numpy dtype of a struct of strake.h, e.g. ``dtype("StrakeGougeState")``, read from
+    the header shipped with the package (fields, offsets and size as in C)."""
+    try:
+        return _lib.STRUCTS[struct_name]
+    except KeyError:
+        raise ArgumentError(2, f"strake.h has no struct `{struct_name}`") from None
+
+
+def _record(struct_name: str, value, arg: str) -> np.ndarray:
+    """A one-element array of the struct from a dict of its fields (all of them)."""
+    dt = dtype(struct_name)
+    if not isinstance(value, dict) or set(value) != set(dt.names):
+        raise ArgumentError(2, f"`{arg}` must be a dict with the fields {', '.join(dt.names)}")
+    rec = np.zeros(1, dtype=dt)
+    for k, v in value.items():
+        rec[k] = v
+    return rec
+
+
+def _path_call(fname: str, result: Optional[str], samples: np.ndarray, args: tuple,
+               out: Optional[np.ndarray]) -> np.ndarray:
+    s, _ = _samples(samples, np.zeros(len(samples)))
+    dt = np.dtype(np.float64) if result is None else dtype(result)
+    o = _out(out, s.size, dt)
+    _check(getattr(_lib.lib, fname)(s.ctypes.data, s.size, *args, o.ctypes.data))
+    return o
+
+
+def check_gouge_path(samples: np.ndarray, cutter: dict, angles: dict, tool_side: int = ALONG_NORMAL,
+                     out: Optional[np.ndarray] = None) -> np.ndarray:
+    """Local gouging at every sample (``strake_check_gouge_path``): StrakeGougeState records.
+    ``cutter`` = {"kind", "radius", "corner_radius"}, ``angles`` = {"lead", "tilt"} (radians)."""
+    c, a = _record("StrakeCutter", cutter, "cutter"), _record("StrakeToolAngles", angles, "angles")
+    return _path_call("strake_check_gouge_path", "StrakeGougeState", samples,
+                      (tool_side, c.ctypes.data, a.ctypes.data), out)
+
+
+def check_rear_gouge_path(samples: np.ndarray, cutter: dict, angles: dict,
+                          tool_side: int = ALONG_NORMAL, out: Optional[np.ndarray] = None) -> np.ndarray:
+    """Rear (heel) gouging of a flat or toroidal cutter at every sample: StrakeRearGouge records."""
+    c, a = _record("StrakeCutter", cutter, "cutter"), _record("StrakeToolAngles", angles, "angles")
+    return _path_call("strake_check_rear_gouge_path", "StrakeRearGouge", samples,
+                      (tool_side, c.ctypes.data, a.ctypes.data), out)
+
+
+def check_scallop_path(samples: np.ndarray, cutter_radius: float, step_over: float,
+                       tool_side: int = ALONG_NORMAL, out: Optional[np.ndarray] = None) -> np.ndarray:
+    """Scallop height at every sample for passes ``step_over`` apart: StrakeScallop records."""
+    return _path_call("strake_check_scallop_path", "StrakeScallop", samples,
+                      (tool_side, float(cutter_radius), float(step_over)), out)
+
+
+def check_step_over_cutter_path(samples: np.ndarray, cutter: dict, angles: dict, scallop_height: float,
+                                tool_side: int = ALONG_NORMAL,
+                                out: Optional[np.ndarray] = None) -> np.ndarray:
+    """The largest step-over for ``scallop_height`` at every sample: StrakeCutterStepOver."""
+    c, a = _record("StrakeCutter", cutter, "cutter"), _record("StrakeToolAngles", angles, "angles")
+    return _path_call("strake_check_step_over_cutter_path", "StrakeCutterStepOver", samples,
+                      (tool_side, c.ctypes.data, a.ctypes.data, float(scallop_height)), out)
+
+
+def check_feed_path(samples: np.ndarray, limits: dict, out: Optional[np.ndarray] = None) -> np.ndarray:
+    """The highest feed at every sample (float64): ``limits`` = {"feed", "max_acceleration",
+    "max_jerk"}."""
+    lim = _record("StrakeFeedLimits", limits, "limits")
+    return _path_call("strake_check_feed_path", None, samples, (lim.ctypes.data,), out)
+
+
+def check_fibre_path(samples: np.ndarray, limits: dict, out: Optional[np.ndarray] = None) -> np.ndarray:
+    """Steering and twist at every sample: StrakeFibreState records; ``limits`` =
+    {"tow_width", "min_steering_radius", "max_twist_rate"}."""
+    lim = _record("StrakeFibreLimits", limits, "limits")
+    return _path_call("strake_check_fibre_path", "StrakeFibreState", samples, (lim.ctypes.data,), out)
+
+
+def check_tow_edges_path(samples: np.ndarray, tow_width: float,
+                         out: Optional[np.ndarray] = None) -> np.ndarray:
+    """The strain of a tow's two edges at every sample: StrakeTowEdges records."""
+    return _path_call("strake_check_tow_edges_path", "StrakeTowEdges", samples, (float(tow_width),), out)
+
+
+def tool_axis_path(samples: np.ndarray, angles: dict, tool_side: int = ALONG_NORMAL,
+                   out: Optional[np.ndarray] = None) -> np.ndarray:
+    """The tool axis at every sample: StrakeToolAxis records (``local``, ``space``)."""
+    a = _record("StrakeToolAngles", angles, "angles")
+    return _path_call("strake_tool_axis_path", "StrakeToolAxis", samples, (tool_side, a.ctypes.data), out)

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import ctypes
 import os
+import re
 from ctypes import POINTER, c_char_p, c_double, c_int32, c_size_t, c_uint32, c_void_p
 
 import numpy as np
@@ -105,6 +106,37 @@ assert FRAME_DTYPE.itemsize == ctypes.sizeof(Frame)
 assert SAMPLE_DTYPE.itemsize == ctypes.sizeof(Sample)
 assert VIOLATION_DTYPE.itemsize == ctypes.sizeof(Violation)
 
+
+
+def parse_structs(header: str) -> dict:
+    """numpy dtypes (aligned as C lays them out) of every `typedef struct Strake... { }` of
+    strake.h: fields of double, int32_t, uint32_t, size_t, pointers, fixed arrays and nested
+    structs."""
+    scalar = {"double": np.float64, "int32_t": np.int32, "uint32_t": np.uint32, "size_t": np.uintp}
+    out: dict = {}
+    for m in re.finditer(r"typedef struct (Strake\w+) \{(.*?)\} \1;", header, re.S):
+        name, body = m.groups()
+        body = re.sub(r"/\*.*?\*/", "", body, flags=re.S)
+        fields = []
+        for decl in filter(None, (d.strip() for d in body.split(";"))):
+            mm = re.fullmatch(r"(?:const )?(struct \w+|\w+)\s*(\*?)\s*(\w+)(?:\[(\d+)\])?", decl)
+            if mm is None:
+                raise RuntimeError(f"strake.h: cannot read the field `{decl}` of {name}")
+            typ, ptr, field, count = mm.groups()
+            if ptr:
+                dt = np.dtype(np.uintp)
+            elif typ.startswith("struct "):
+                dt = out[typ[len("struct "):]]
+            else:
+                dt = np.dtype(scalar[typ])
+            fields.append((field, (dt, int(count))) if count else (field, dt))
+        out[name] = np.dtype(fields, align=True)
+    return out
+
+
+with open(os.path.join(_HERE, "strake.h"), encoding="utf-8") as _f:
+    STRUCTS = parse_structs(_f.read())
+
 SURFACE_FN = ctypes.CFUNCTYPE(c_int32, c_void_p, c_double, c_double, c_int32, POINTER(SurfaceJet))
 
 Status = c_uint32
@@ -147,3 +179,14 @@ _sig("strake_arc_length", Status, c_void_p, c_void_p, c_double, c_double, c_doub
 _sig("strake_path_extremes", Status, c_void_p, PD, c_size_t, POINTER(Extremes))
 _sig("strake_path_violations", Status, c_void_p, PD, c_size_t, c_double, c_void_p, c_size_t,
      POINTER(c_size_t))
+
+for _name in ("gouge", "rear_gouge"):
+    _sig(f"strake_check_{_name}_path", Status, c_void_p, c_size_t, c_uint32, c_void_p, c_void_p,
+         c_void_p)
+_sig("strake_check_scallop_path", Status, c_void_p, c_size_t, c_uint32, c_double, c_double, c_void_p)
+_sig("strake_check_step_over_cutter_path", Status, c_void_p, c_size_t, c_uint32, c_void_p, c_void_p,
+     c_double, c_void_p)
+_sig("strake_check_feed_path", Status, c_void_p, c_size_t, c_void_p, c_void_p)
+_sig("strake_check_fibre_path", Status, c_void_p, c_size_t, c_void_p, c_void_p)
+_sig("strake_check_tow_edges_path", Status, c_void_p, c_size_t, c_double, c_void_p)
+_sig("strake_tool_axis_path", Status, c_void_p, c_size_t, c_uint32, c_void_p, c_void_p)

@@ -134,3 +134,39 @@ def test_handles_free_themselves_and_refuse_use_after_close():
         sd.Surface.from_function(bowl, (-1, 1), (-1, 1))
     del s
     gc.collect()
+
+
+def test_dtypes_read_from_the_header_match_the_hand_written_layouts():
+    assert sd.dtype("StrakeFrame") == sd.FRAME_DTYPE
+    assert sd.dtype("StrakeSample") == sd.SAMPLE_DTYPE
+    assert sd.dtype("StrakeViolation").itemsize == sd.VIOLATION_DTYPE.itemsize
+    with pytest.raises(sd.ArgumentError, match="no struct"):
+        sd.dtype("StrakeNothing")
+
+
+def test_whole_path_checks_in_one_call(surface):
+    line = sd.Curve.line((-0.5, 0.0), (0.5, 0.0))
+    s = sd.samples_at(surface, line, np.linspace(0, 1, 1001))
+    kn = s["frame"]["normal_curvature"]
+    ball = {"kind": sd.BALL, "radius": 0.5, "corner_radius": 0.0}
+    angles = {"lead": 0.0, "tilt": 0.0}
+    g = sd.check_gouge_path(s, ball, angles)
+    assert g.shape == (1001,) and g.dtype == sd.dtype("StrakeGougeState")
+    # The bowl is concave toward a tool on the N side with k1 = k2 = 1 at the origin: a ball of
+    # radius 0.5 fits (margin 1/r - k = 2 - 1 = 1 there), a ball of radius 2 gouges.
+    assert g["margin"][500] == pytest.approx(1.0, rel=1e-12) and not g["gouges"].any()
+    big = sd.check_gouge_path(s, dict(ball, radius=2.0), angles)
+    assert big["gouges"][500] == 1
+    axes = sd.tool_axis_path(s, angles)
+    np.testing.assert_allclose(axes["space"], s["frame"]["normal"], atol=1e-15)
+    feed = sd.check_feed_path(s, {"feed": 1.0, "max_acceleration": 0.5, "max_jerk": 0.0})
+    np.testing.assert_allclose(feed, np.minimum(1.0, np.sqrt(0.5 / np.abs(kn))), rtol=1e-14)
+    out = np.empty(1001, dtype=sd.dtype("StrakeScallop"))
+    assert sd.check_scallop_path(s, 0.5, 0.1, out=out) is out
+    assert sd.check_fibre_path(s, {"tow_width": 0.01, "min_steering_radius": 1.0,
+                                   "max_twist_rate": 1.0}).shape == (1001,)
+    assert sd.check_tow_edges_path(s, 0.01).shape == (1001,)
+    with pytest.raises(sd.ArgumentError, match="fields"):
+        sd.check_gouge_path(s, {"radius": 1.0}, angles)
+    with pytest.raises(sd.ArgumentError):
+        sd.check_scallop_path(s, -1.0, 0.1)
