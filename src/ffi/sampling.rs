@@ -238,7 +238,7 @@ pub unsafe extern "C" fn strake_arc_length(
 
 /// Computes the frames at the host's `count` curve parameters `ts`, each with its arc length
 /// from the start of the curve's domain: `out[i].frame` is what `strake_frames_at` gives at
-/// `ts[i]`, and `out[i].arc_length` = s(ts[i]) = integral of |c'(t)| dt from t_min to ts[i]
+/// `ts[i]`, and `out[i].arc_length` = s(`ts[i]`) = integral of |c'(t)| dt from t_min to `ts[i]`
 /// (adaptive Gauss-Legendre quadrature between consecutive parameters to the relative tolerance
 /// `arc_tolerance`, e.g. 1e-10, summed; signed, so a parameter below the one before it gets a
 /// smaller s). The result feeds `strake_path_extremes` and `strake_path_violations` directly:
