@@ -580,9 +580,12 @@ typedef struct StrakeCutter {
  * Lead and tilt angles of the tool axis (radians, each strictly inside (-pi/2, pi/2)).
  *
  * The axis a (from the cutter tip toward the spindle) is
- * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, with n_t = N when the
- * tool is on the N side and -N otherwise: lead leans the axis from the tool-side normal toward
- * the feed direction T, tilt then toward B. Both 0: the axis along the tool-side normal.
+ * a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t, in the tool-side frame:
+ * n_t = N when the tool is on the N side and -N otherwise, b_t = n_t x T (B on the N side, -B
+ * on the other): lead leans the axis from the tool-side normal toward the feed direction T,
+ * tilt then toward b_t, the left of travel seen from the tool, whichever side it is on. Both
+ * 0: the axis along the tool-side normal. (Changed: tilt used to lean toward B on both
+ * sides.)
  */
 typedef struct StrakeToolAngles {
   /**
@@ -590,7 +593,7 @@ typedef struct StrakeToolAngles {
    */
   double lead;
   /**
-   * Tilt angle (radians): toward the side direction B.
+   * Tilt angle (radians): toward b_t = n_t x T (left of travel seen from the tool).
    */
   double tilt;
 } StrakeToolAngles;
@@ -614,7 +617,9 @@ typedef struct StrakeGougeState {
   /**
    * Effective cutting radius across the direction in which the axis is inclined by beta
    * from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
-   * INFINITY for a flat or toroidal cutter with its axis along the normal).
+   * INFINITY for a flat or toroidal cutter with its axis along the normal). Across the path
+   * only for pure lead: scallop and step-over need `StrakeCutterRadii.across_path`
+   * (`strake_cutter_radii`).
    */
   double effective_radius_cross;
   /**
@@ -628,16 +633,20 @@ typedef struct StrakeGougeState {
    */
   double margin;
   /**
-   * 1 when the cutter gouges locally (margin below zero beyond round-off), else 0.
+   * 1 when the cutter gouges locally (margin below zero beyond round-off) or at the rear
+   * (the bottom or the heel inside the material, see `strake_check_rear_gouge`), else 0.
+   * (Changed: it used to see local gouging only.)
    */
   int32_t gouges;
   /**
-   * 1 when some lead angle in [0, pi/2) avoids local gouging at the given tilt; 0 when none
-   * does (the cutter is too large for the concavity whatever its inclination).
+   * 1 when some lead angle in [0, pi/2) avoids local and rear gouging at the given tilt; 0
+   * when none does (the cutter is too large for the concavity whatever its inclination).
    */
   int32_t has_min_lead;
   /**
-   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise.
+   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise. (Changed:
+   * it used to avoid local gouging only, which let the heel of a flat or toroidal cutter
+   * into the material.)
    */
   double min_lead;
 } StrakeGougeState;
@@ -730,7 +739,9 @@ typedef struct StrakeFibreState {
    */
   double steering_radius;
   /**
-   * Tow-edge strain (w/2)|kg| (dimensionless): one edge stretched, the other compressed.
+   * The larger tow-edge strain magnitude, max(|e_left|, |e_right|) of `StrakeTowEdges`
+   * (dimensionless), including the Gaussian-curvature term. (Changed: it was (w/2)|kg|,
+   * which reads 0 along a great circle of a sphere where both edges shorten.)
    */
   double edge_strain;
   /**
@@ -750,12 +761,17 @@ typedef struct StrakeFibreState {
 
 /**
  * The tool axis at one sample (unit vector from the cutter tip toward the spindle).
+ *
+ * Changed: the components were along (T, B, N) in a field `darboux`; they are now along the
+ * tool-side frame (T, b_t, n_t) in `local` (n_t = N and b_t = B on the N side, n_t = -N and
+ * b_t = -B on the other side), and the tilt leans toward b_t.
  */
 typedef struct StrakeToolAxis {
   /**
-   * Components along (T, B, N) of the sample's frame (along N, not the tool-side normal).
+   * Components along the tool-side frame (T, b_t, n_t): (sin(lead), cos(lead) sin(tilt),
+   * cos(lead) cos(tilt)).
    */
-  double darboux[3];
+  double local[3];
   /**
    * The axis in space: the three components above times T, B and N, summed.
    */
@@ -853,6 +869,129 @@ typedef struct StrakeViolation {
    */
   double worst;
 } StrakeViolation;
+
+/**
+ * The cutter's radii of curvature at its contact point for given lead and tilt (host length
+ * unit), from `strake_cutter_radii`.
+ */
+typedef struct StrakeCutterRadii {
+  /**
+   * Radius of the profile the cutter sweeps across the path (the outline of the cutter seen
+   * along T, at the contact point): r + R sin(lead)^2 / sin(beta)^3, the radius scallop and
+   * step-over need. r for a ball; INFINITY for a flat or toroidal cutter upright (its flat
+   * bottom touches); 0 for a flat cutter tilted without lead (its sharp corner cuts across).
+   */
+  double across_path;
+  /**
+   * Radius of the cutter's normal section in the direction b_t (Euler's formula on the
+   * torus's principal curvatures 1/r and sin(beta)/(R + r sin(beta))).
+   */
+  double across_section;
+  /**
+   * Radius of the cutter's normal section along T.
+   */
+  double along_path;
+  /**
+   * R/sin(beta) + r: normal to the inclination plane (across the path only for pure lead).
+   */
+  double inclination_plane;
+  /**
+   * Inclination beta of the axis from the tool-side normal (radians).
+   */
+  double inclination;
+  /**
+   * 1 when the flat bottom (centred on the axis), not the corner, touches: R > 0 and the
+   * axis along the normal; else 0.
+   */
+  int32_t flat_bottom_contact;
+} StrakeCutterRadii;
+
+/**
+ * Rear (heel) gouging of a flat or toroidal cutter's bottom at one sample.
+ */
+typedef struct StrakeRearGouge {
+  /**
+   * Smallest normalised clearance of the bottom's rim over the surface (dimensionless, like
+   * a sine; negative: inside the material). 1 for a ball-end mill; -DBL_MAX when the corner
+   * does not fit the concavity (the cutter gouges locally anyway).
+   */
+  double margin;
+  /**
+   * Depth of the deepest rim point inside the material (host length unit; 0 when clear).
+   */
+  double depth;
+  /**
+   * Rim angle of the worst point (radians; 0 at the contact point, pi at the heel).
+   */
+  double worst_angle;
+  /**
+   * 1 when the bottom or the heel is inside the material, else 0.
+   */
+  int32_t gouges;
+} StrakeRearGouge;
+
+/**
+ * The strain of the two edges of a tow or tape centred on a course at one sample
+ * (dimensionless; negative = compressed, relative to the centreline).
+ */
+typedef struct StrakeTowEdges {
+  /**
+   * Left edge (y = +w/2, on the B side): -kg w/2 - K w^2/8.
+   */
+  double left;
+  /**
+   * Right edge (y = -w/2): +kg w/2 - K w^2/8.
+   */
+  double right;
+  /**
+   * Steering part (w/2)|kg|.
+   */
+  double steering_term;
+  /**
+   * Gaussian-curvature part -K w^2/8 (both edges).
+   */
+  double gaussian_term;
+  /**
+   * 1 when the left edge is compressed, else 0.
+   */
+  int32_t left_compressed;
+  /**
+   * 1 when the right edge is compressed, else 0.
+   */
+  int32_t right_compressed;
+} StrakeTowEdges;
+
+/**
+ * The step-over for a target scallop height with a given cutter and axis at one sample (host
+ * length unit), from `strake_check_step_over_cutter`.
+ */
+typedef struct StrakeCutterStepOver {
+  /**
+   * Curvature across the path, concave toward the tool (as in `StrakeScallop`).
+   */
+  double cross_curvature;
+  /**
+   * The step-over to use: min(model, width_limit).
+   */
+  double step_over;
+  /**
+   * Circle-geometry step-over for the swept profile's radius across the path (INFINITY when
+   * that model sets no limit: a flat bottom on a plane, a sharp corner).
+   */
+  double model;
+  /**
+   * The width the cutter cuts at the scallop height (exact on a plane).
+   */
+  double width_limit;
+  /**
+   * The radius across the path used by the model.
+   */
+  double radius_across;
+  /**
+   * 1 when the width limit set the step-over, else 0.
+   */
+  int32_t limited_by_width;
+} StrakeCutterStepOver;
 
 /**
  * Options of a geodesic trace or of the geodesic between two points.
@@ -1149,7 +1288,7 @@ typedef struct StrakePathInterval {
  * use the same layout (`weights[i count_v + j]`). The surface is
  * S(u, v) = Σ N_i,p(u) N_j,q(v) w_ij P_ij / Σ N_i,p(u) N_j,q(v) w_ij over the domain
  * `[knots_u[degree_u], knots_u[count_u]] × [knots_v[degree_v], knots_v[count_v]]` (The NURBS
- * Book, 2nd ed., eq. 4.15, equation number from memory).
+ * Book, 2nd ed., chapter 4: the definition of a NURBS surface).
  */
 typedef struct StrakeNurbsSurfaceData {
   /**
@@ -1276,6 +1415,158 @@ typedef int32_t (*StrakeSurfaceFn)(void *user_data,
 extern "C" {
 #endif // __cplusplus
 
+/* ==== Version and errors ==================================================================
+ * The library's version, the name of a status, and what the last failure on this thread
+ * was. Host callbacks hand their own failure text back with strake_callback_report.
+ */
+
+/**
+ * The version of the library actually loaded, as "MAJOR.MINOR.PATCH" (a static NUL-terminated
+ * string owned by the library; do not free it). Compare it with STRAKE_VERSION_STRING from the
+ * header to detect a header/library mismatch. Never fails; thread-safe.
+ */
+const char *strake_version(void);
+
+/**
+ * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",
+ * for logs; "STRAKE_STATUS_UNKNOWN" for a number this version does not define. The string is
+ * owned by the library and must not be freed. Never fails; thread-safe.
+ */
+const char *strake_status_name(uint32_t status);
+
+/**
+ * Copies the message of the last failed call on this thread into `buf`.
+ *
+ * Returns the size needed to hold the whole message including its terminating NUL (1 when
+ * nothing has failed on this thread). When `buf` is NULL or `buf_len` is 0 nothing is written:
+ * call it that way to learn the size, allocate, and call again. Otherwise at most
+ * `buf_len - 1` bytes of the message are copied, cut at a UTF-8 character boundary, and a NUL
+ * is written after them; so the message was cut exactly when the value returned is larger
+ * than `buf_len`. The message is UTF-8 text (in practice ASCII) naming the function, what was
+ * wrong, and the index, value or sample where it was found.
+ *
+ * Successful calls do not clear the message; messages are per thread.
+ *
+ * # Safety
+ * `buf` must be NULL or point to at least `buf_len` writable bytes.
+ */
+size_t strake_last_error_message(char *buf,
+                                 size_t buf_len);
+
+/**
+ * The code returned by the host callback in the last call on this thread that failed with
+ * `STRAKE_STATUS_SURFACE_CALLBACK_FAILED` or `STRAKE_STATUS_CURVE_CALLBACK_FAILED`; 0 when
+ * no callback has failed on this thread. Not cleared by later calls.
+ */
+int32_t strake_last_callback_code(void);
+
+/**
+ * Lets a host callback say why it fails: call it from inside a surface or curve callback,
+ * on the thread that runs the callback, right before returning a non-zero code. strake then
+ * puts the text into its error message ("host surface callback failed with code 3: TEXT"),
+ * which `strake_last_error_message` returns on the thread that made the failing call (also
+ * when a parallel call ran the callback on a worker thread). The C++ and Python wrappers pass
+ * an exception's text this way.
+ *
+ * `message` is UTF-8 text (invalid bytes are replaced by U+FFFD), copied at once; text beyond
+ * 1024 bytes is cut and marked with "...". NULL forgets a report made earlier. A report is
+ * used by the next failing callback on this thread within the same strake call, then
+ * forgotten; a report left by a callback that then returned 0 is dropped when the next strake
+ * call starts. Cannot fail; never writes through `message`.
+ *
+ * # Safety
+ * `message` must be NULL or a NUL-terminated string.
+ */
+void strake_callback_report(const char *message);
+
+/* ==== Surfaces ============================================================================
+ * A surface strake holds: native NURBS data (copied), or the host's evaluator as a
+ * callback (one point or many points per call). Evaluating a surface handle gives the
+ * point and partial derivatives that the frame calls use.
+ */
+
+/**
+ * Declares where the surface's derivatives may jump: the distinct interior knots of the host's
+ * NURBS in u (`u_lines`, `u_count` values) and in v (`v_lines`, `v_count`), each finite,
+ * strictly inside the domain and strictly ascending. Arc length (`strake_arc_length` and the
+ * sampling calls) then splits its quadrature where a curve crosses these lines; without them a
+ * callback surface with repeated knots (e.g. rational conics) can fall short of a very tight
+ * tolerance there (about 1e-8 relative on a quadratic circle). A count of 0 (the pointer may
+ * then be NULL) goes back to what the surface knows itself: nothing for a callback surface,
+ * the knots of a native NURBS surface. Frames do not depend on it.
+ *
+ * Returns `STRAKE_STATUS_OK` and replaces both lists; otherwise the handle is unchanged.
+ * Errors: NULL_POINTER (`surface`, or a list with a count above 0); NON_FINITE (a value);
+ * INVALID_ARGUMENT (a value outside the open domain, or not above its predecessor). Not
+ * thread-safe on the same handle: no other call may use `surface` meanwhile.
+ *
+ * # Safety
+ * `surface` NULL or a live handle not in use by another thread; each list NULL or `count`
+ * readable doubles.
+ */
+StrakeStatus strake_surface_set_knot_lines(struct StrakeSurface *surface,
+                                           const double *u_lines,
+                                           size_t u_count,
+                                           const double *v_lines,
+                                           size_t v_count);
+
+/**
+ * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max].
+ *
+ * `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv| (e.g. to put the
+ * normal on the tool side). `user_data` is handed back to `f` unchanged and may be NULL. strake
+ * calls `f` only with (u, v) inside the domain; a curve that leaves the domain gives
+ * `STRAKE_STATUS_OUT_OF_DOMAIN` (no clamping).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+ * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (an empty or reversed range,
+ * `flip_normal` not 0 or 1).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeSurfaceFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_from_callback(StrakeSurfaceFn f,
+                                          void *user_data,
+                                          double u_min,
+                                          double u_max,
+                                          double v_min,
+                                          double v_max,
+                                          int32_t flip_normal,
+                                          struct StrakeSurface **out);
+
+/**
+ * Releases a surface. NULL is a no-op. The handle must not be used afterwards, nor be in use
+ * by another thread.
+ *
+ * # Safety
+ * `surface` must be NULL or a handle returned by a strake surface constructor and not yet
+ * freed.
+ */
+void strake_surface_free(struct StrakeSurface *surface);
+
+/**
+ * Creates a NURBS surface evaluated by strake itself (exact derivatives to second order,
+ * no allocation per evaluation). `flip_normal` = 0 takes N along Su × Sv, 1 the reverse.
+ *
+ * The arrays are copied; they may be freed after the call. Returns `STRAKE_STATUS_OK` and
+ * writes a new handle to `*out` (free it with `strake_surface_free`; it is used exactly like a
+ * callback surface); otherwise `*out` is left untouched. Errors: NULL_POINTER (`data`, any of
+ * its arrays but `weights`, `out`), INVALID_ARGUMENT (a count of 0 or too large, `flip_normal`
+ * not 0 or 1), INVALID_DEGREE (degree 0 or above 24, too few control points, knot count
+ * mismatch), INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty
+ * domain), INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive
+ * and finite). The message names the direction (u or v), index and value.
+ *
+ * # Safety
+ * `data` must be NULL or point to a valid description whose arrays hold the stated number of
+ * elements; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
+                                      int32_t flip_normal,
+                                      struct StrakeSurface **out);
+
 /**
  * Creates a surface evaluated by the host's batch callback `f` (many points per call) over
  * [u_min, u_max] x [v_min, v_max]; used exactly like a surface from
@@ -1305,278 +1596,33 @@ StrakeStatus strake_surface_from_batch_callback(StrakeSurfaceBatchFn f,
                                                 struct StrakeSurface **out);
 
 /**
- * The local gouge state of `cutter` at the sample `frame` (from strake), with the tool on
- * `tool_side` and its axis set by `angles` (lead toward T, tilt toward B, see
- * `StrakeToolAngles`).
+ * Evaluates `surface` at `count` parameter pairs: `out[i]` is the point S(u_i, v_i) and its
+ * partial derivatives up to `order` (0: the point; 1: and Su, Sv; 2: and Suu, Suv, Svv), at
+ * (u_i, v_i) = (`uv[2 i]`, `uv[2 i + 1]`). Entries above `order` are set to zero. Lengths are
+ * in the host's unit, derivatives per unit of the surface parameters; for a host callback
+ * surface these are the callback's own values, checked.
  *
- * Second-order contact: the cutter does not cut into the surface near the contact point when,
- * in every tangent direction, it bends away from the surface at least as fast as the surface
- * bends toward it. For a ball-end mill of radius r this is r max(s k1, s k2) <= 1: the largest
- * ball free of local gouging has the radius `out->concave_radius`. For flat and toroidal
- * cutters the effective radius across the inclination is R/sin(beta) + r (beta the axis's
- * inclination from the tool-side normal), and `out->min_lead` is the smallest lead angle (at
- * the given tilt) that avoids local gouging.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field, named);
- * INVALID_ARGUMENT (a frame vector that is not unit length, `tool_side` not 0 or 1, an unknown
- * `cutter->kind`, a radius not positive and finite, a corner radius above the radius, an angle
- * outside (-pi/2, pi/2); the message names the field). Thread-safe.
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing point's index. Errors: NULL_POINTER (`surface`, `uv`, `out`);
+ * INVALID_ARGUMENT (`count` of 0 or too large, `order` above 2); NON_FINITE (a parameter, or
+ * an entry the callback filled); OUT_OF_DOMAIN ((u, v) outside the surface's domain: never
+ * clamped); SURFACE_CALLBACK_FAILED. Thread-safe.
  *
  * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
+ * `surface` NULL or a live handle; `uv` NULL or `2 * count` doubles; `out` NULL or room for
+ * `count` jets, not overlapping `uv`.
  */
-StrakeStatus strake_check_gouge(const struct StrakeFrame *frame,
-                                uint32_t tool_side,
-                                const struct StrakeCutter *cutter,
-                                const struct StrakeToolAngles *angles,
-                                struct StrakeGougeState *out);
+StrakeStatus strake_surface_evaluate(const struct StrakeSurface *surface,
+                                     const double *uv,
+                                     size_t count,
+                                     uint32_t order,
+                                     struct StrakeSurfaceJet *out);
 
-/**
- * The scallop height left at the sample `frame` between this pass and an adjacent one a
- * step-over `step_over` away (arc length across the path), for a cutter of radius
- * `cutter_radius` across the path (the ball radius of a ball-end mill; for flat and toroidal
- * cutters their effective radius across the path, a common approximation), with the tool on
- * `tool_side`.
- *
- * In the plane across the path the surface is its osculating circle of curvature
- * kappa = s kn(B) (`out->cross_curvature`, concave toward the tool when positive). Exact
- * circle geometry gives `out->height`; on a plane it is r - sqrt(r^2 - w^2/4).
- * `out->height_approx` = (w^2/8)(1/r - kappa). Host length unit.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a frame vector
- * not unit length, `tool_side` not 0 or 1, `cutter_radius` or `step_over` not positive and
- * finite, a cutter that does not fit the concave curvature (kappa r >= 1: it gouges), a
- * step-over so wide that adjacent passes do not overlap). Thread-safe.
- *
- * # Safety
- * `frame` NULL or valid; `out` NULL or writable.
+/* ==== Curves ==============================================================================
+ * The path as a curve (u(t), v(t)) in the surface's parameter plane: NURBS data, the
+ * host's callback, a curve through points in (u, v) or in space, a NURBS curve in space
+ * projected onto the surface; and the projection of points onto a surface.
  */
-StrakeStatus strake_check_scallop(const struct StrakeFrame *frame,
-                                  uint32_t tool_side,
-                                  double cutter_radius,
-                                  double step_over,
-                                  struct StrakeScallop *out);
-
-/**
- * The largest step-over (arc length across the path) that keeps the scallop height at the
- * sample `frame` at or below `scallop_height`, for a cutter of radius `cutter_radius` across
- * the path, with the tool on `tool_side`: the inverse of `strake_check_scallop` (on a plane
- * w = 2 sqrt(h (2r - h))). `out->step_over_approx` = sqrt(8 h / (1/r - kappa)).
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
- * `strake_check_scallop`, with `scallop_height` required positive and finite and reachable
- * (not above what the geometry allows). Thread-safe.
- *
- * # Safety
- * `frame` NULL or valid; `out` NULL or writable.
- */
-StrakeStatus strake_check_step_over(const struct StrakeFrame *frame,
-                                    uint32_t tool_side,
-                                    double cutter_radius,
-                                    double scallop_height,
-                                    struct StrakeStepOver *out);
-
-/**
- * The highest feed at the sample `frame`: min(feed, sqrt(a_max/k), (j_max/k^2)^(1/3)) with k
- * = sqrt(kn^2 + kg^2) the path's space curvature (normal acceleration v^2 k, and at constant
- * speed on the osculating circle jerk v^3 k^2); the programmed feed where k = 0. Writes it to
- * `*out` in the units of `limits` (e.g. mm/s with mm/s^2 and mm/s^3). Changes of curvature
- * along the path add jerk this local rule does not see: the machine's look-ahead must still
- * handle them.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length; `limits->feed` or `limits->max_acceleration` not positive and
- * finite; `limits->max_jerk` negative, NaN or infinite (0 means no jerk limit)). Thread-safe.
- *
- * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
- */
-StrakeStatus strake_check_feed(const struct StrakeFrame *frame,
-                               const struct StrakeFeedLimits *limits,
-                               double *out);
-
-/**
- * Steering and twist of a fibre course at the sample `frame`: steering curvature |kg| and
- * radius 1/|kg| (INFINITY along a geodesic), tow-edge strain (w/2)|kg| for the tow width w,
- * twist rate tg (radians per length: the tangent plane turns about the course at that rate,
- * and the tow or the compaction roller with it), and whether the limits are exceeded.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length, a limit not positive and finite, named). Thread-safe.
- *
- * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
- */
-StrakeStatus strake_check_fibre(const struct StrakeFrame *frame,
-                                const struct StrakeFibreLimits *limits,
-                                struct StrakeFibreState *out);
-
-/**
- * The tool axis at the sample `frame` for lead and tilt `angles` with the tool on `tool_side`:
- * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, n_t = N on the N side and
- * -N otherwise (unit vector from the cutter tip toward the spindle).
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`frame`, `angles`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length, `tool_side` not 0 or 1, an angle outside (-pi/2, pi/2)).
- * Thread-safe.
- *
- * # Safety
- * Each pointer NULL or valid for its type; `out` writable.
- */
-StrakeStatus strake_tool_axis(const struct StrakeFrame *frame,
-                              uint32_t tool_side,
-                              const struct StrakeToolAngles *angles,
-                              struct StrakeToolAxis *out);
-
-/**
- * Where a per-sample quantity is smallest and largest along a path: `values[i]` is the
- * quantity at `samples[i]` (samples as the sampling functions return them; only their
- * `frame.curve_param` and `arc_length` are read). Values may be infinite; ties give the first
- * sample.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`samples`, `values`, `out`); INVALID_ARGUMENT (`sample_count` of 0 or too
- * large, a NaN value, a sample whose t or arc length is not finite; the message names the
- * index). Thread-safe.
- *
- * # Safety
- * `samples` and `values` NULL or `sample_count` valid elements; `out` NULL or writable.
- */
-StrakeStatus strake_path_extremes(const struct StrakeSample *samples,
-                                  const double *values,
-                                  size_t sample_count,
-                                  struct StrakeExtremes *out);
-
-/**
- * Every interval along a path where a per-sample quantity exceeds `limit`: each maximal run of
- * samples with `values[i] > limit`, its ends placed where the quantity crosses the limit
- * (linear interpolation in arc length and t between the samples on either side, or the
- * first/last sample when the path starts/ends in violation), in path order. A quantity that
- * must stay above a limit is checked through its negation or inverse (e.g. a steering
- * curvature |kg| against 1/(smallest radius)). Their accuracy is that of the sampling.
- *
- * Buffer (the pattern of the sampling functions): `buf` with room for `capacity` intervals
- * (NULL when `capacity` is 0); on success `*count` intervals are written (0 when the limit is
- * never exceeded). When more are found than fit, returns `STRAKE_STATUS_BUFFER_TOO_SMALL`
- * with `*count` = the number found and nothing written to `buf`; call again with that
- * capacity for the same intervals.
- *
- * Errors: NULL_POINTER (`samples`, `values`, `count`; `buf` when `capacity` > 0);
- * INVALID_ARGUMENT (`sample_count` of 0 or too large, `capacity` too large, a NaN value or
- * limit, a sample whose t or arc length is not finite); BUFFER_TOO_SMALL. On any failure but
- * BUFFER_TOO_SMALL nothing is written. Thread-safe.
- *
- * # Safety
- * `samples` and `values` NULL or `sample_count` valid elements; `buf` NULL or room for
- * `capacity` intervals; `count` NULL or a writable size_t.
- */
-StrakeStatus strake_path_violations(const struct StrakeSample *samples,
-                                    const double *values,
-                                    size_t sample_count,
-                                    double limit,
-                                    struct StrakeViolation *buf,
-                                    size_t capacity,
-                                    size_t *count);
-
-/**
- * A fixed-angle course from (u, v): its unit tangent keeps the angle `angle` (radians) to the
- * reference direction e, the space direction `axis` (3 doubles) projected onto the tangent
- * plane, counted toward N x e: T = cos(angle) e + sin(angle) (N x e). Integrated for arc
- * length `length` with the error per step `options.tolerance` in space.
- *
- * On success writes a new curve handle to `*out_curve` (t = arc length) and, when `out_info`
- * is not NULL, why it ended (`end` 0: the length; 1: the domain side `side`, exactly on
- * it; 2: where the axis runs along the normal); `point`, `tangent`, `u`, `v` give the end.
- *
- * Errors (nothing written): NULL_POINTER (`surface`, `axis`, `options`, `out_curve`);
- * INVALID_ARGUMENT (a zero axis or one along the normal at the start, `length` or
- * `tolerance` not positive, naming the values); NON_FINITE; OUT_OF_DOMAIN;
- * DEGENERATE_SURFACE; LEAVES_SURFACE; GEODESIC_INCOMPLETE; SURFACE_CALLBACK_FAILED.
- * Thread-safe.
- *
- * # Safety
- * `surface` NULL or live; `axis` NULL or 3 doubles; `options` NULL or valid; `out_curve`
- * NULL or a writable `StrakeCurve *`; `out_info` NULL or writable.
- */
-StrakeStatus strake_course_fixed_angle(const struct StrakeSurface *surface,
-                                       double u,
-                                       double v,
-                                       const double *axis,
-                                       double angle,
-                                       double length,
-                                       const struct StrakeGeodesicOptions *options,
-                                       struct StrakeCurve **out_curve,
-                                       struct StrakeGeodesicInfo *out_info);
-
-/**
- * The adjacent course one tow band `band_width` to `side` (a `StrakeOffsetSide` value) of
- * `course`: its geodesic parallel at that distance, as an offset handle (read and free it
- * like one from `strake_offset_new`, whose errors and options apply; INVALID_ARGUMENT also
- * for a band width not positive and finite).
- *
- * # Safety
- * Handles NULL or live; `options` NULL or valid; `out` NULL or a writable `StrakeOffset *`.
- */
-StrakeStatus strake_course_adjacent(const struct StrakeSurface *surface,
-                                    const struct StrakeCurve *course,
-                                    double band_width,
-                                    uint32_t side,
-                                    const struct StrakeOffsetOptions *options,
-                                    struct StrakeOffset **out);
-
-/**
- * Gaps and overlaps between the bands of width `band_width` centred on courses `a` and `b`
- * (`b` to `side` of `a`): at `samples` even parameters of `a` the geodesic perpendicular
- * to `a` meets the edge of `b`'s band (its geodesic parallel at band_width/2); the width
- * across `a` from `a`'s edge to it is a gap (> 0) or an overlap (< 0). Intervals where its
- * size exceeds `tolerance` go to the buffer (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL
- * sets `*count` to the number needed); `*unmatched` (when not NULL) receives the number of
- * samples where no edge of `b` was met within 3 band widths. `options.tolerance` is the error
- * per step of the traces.
- *
- * Errors: NULL_POINTER (`surface`, `a`, `b`, `options`, `count`; `buf` when `capacity` > 0);
- * INVALID_ARGUMENT (`side`, `band_width` or `tolerance` not positive, fewer than 2
- * samples); BUFFER_TOO_SMALL; the errors of the traces and of `a`'s frames. Thread-safe.
- *
- * # Safety
- * Handles NULL or live; `options` NULL or valid; `buf` NULL or room for `capacity`; `count`
- * NULL or writable; `unmatched` NULL or writable.
- */
-StrakeStatus strake_course_gaps(const struct StrakeSurface *surface,
-                                const struct StrakeCurve *a,
-                                const struct StrakeCurve *b,
-                                uint32_t side,
-                                double band_width,
-                                size_t samples,
-                                double tolerance,
-                                const struct StrakeGeodesicOptions *options,
-                                struct StrakeCourseGap *buf,
-                                size_t capacity,
-                                size_t *count,
-                                size_t *unmatched);
-
-/**
- * Steering and twist along `course` at `samples` (>= 2) even parameters, with the limits of
- * `strake_check_fibre`, summarised into `*out` (largest |kg|, smallest steering radius,
- * largest edge strain and |tg|, violation counts, length).
- *
- * Errors: NULL_POINTER (`surface`, `course`, `limits`, `out`); INVALID_ARGUMENT (a limit not
- * positive and finite, fewer than 2 samples); every error of `strake_frame_at` on the course.
- * Thread-safe.
- *
- * # Safety
- * Handles NULL or live; `limits` NULL or valid; `out` NULL or writable.
- */
-StrakeStatus strake_course_check(const struct StrakeSurface *surface,
-                                 const struct StrakeCurve *course,
-                                 const struct StrakeFibreLimits *limits,
-                                 size_t samples,
-                                 struct StrakeCourseCheck *out);
 
 /**
  * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
@@ -1633,6 +1679,130 @@ StrakeStatus strake_curve_from_callback(StrakeCurveFn f,
  * `curve` must be NULL or a handle returned by a strake curve constructor and not yet freed.
  */
 void strake_curve_free(struct StrakeCurve *curve);
+
+/**
+ * Creates a curve in the surface's parameter plane through `point_count` points
+ * (u0, v0, u1, v1, ...): the B-spline of degree `degree` (3: a C2 cubic) interpolating them,
+ * on t in [0, 1] (The NURBS Book A9.1: parameters by `parametrization`, knots by averaging).
+ *
+ * `start_derivative` and `end_derivative` are NULL (free ends) or both point to 2 doubles
+ * (du/dt, dv/dt) the curve must have at t = 0 and t = 1; with the chord-length
+ * parametrization a derivative of about the length of the point polygon (in the parameter
+ * plane) keeps the speed even. The data are copied.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_curve_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER
+ * (`uv_points`, `out`); INVALID_ARGUMENT (`point_count` of 0, too few points for the degree
+ * (degree + 1, or degree - 1 and at least 2 with end derivatives), two consecutive points
+ * that coincide (the message names the point's index), only one of the two derivatives
+ * given, `parametrization` not 0 or 1); INVALID_DEGREE (degree 0 or above 24, end
+ * derivatives with degree 1); NON_FINITE (a coordinate, naming the point's index, or an end
+ * derivative).
+ *
+ * # Safety
+ * `uv_points` must be NULL or point to `2 * point_count` doubles; each derivative NULL or 2
+ * doubles; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_through_uv_points(const double *uv_points,
+                                            size_t point_count,
+                                            uint32_t degree,
+                                            uint32_t parametrization,
+                                            const double *start_derivative,
+                                            const double *end_derivative,
+                                            struct StrakeCurve **out);
+
+/**
+ * Creates a curve on `surface` through `point_count` points in space (x0, y0, z0, x1, ...),
+ * given in path order, e.g. contact points a host computed on its own copy of the surface:
+ * each point is projected onto the surface (point inversion, continuing from the previous foot
+ * point, across a seam declared periodic in `options`), and the foot points' (u, v) are
+ * interpolated by a B-spline of degree `degree` (3: a C2 cubic) in the parameter plane, on t
+ * in [0, 1], with parameters by `parametrization`. A path across a declared seam stays
+ * continuous; the curve's (u, v) are wrapped back into the domain when evaluated.
+ *
+ * `projections` is NULL, or an array of `point_count` that receives, on success, each point's
+ * foot point, (u, v) and distances (to see how far the host's points were from the surface).
+ *
+ * Returns `STRAKE_STATUS_OK`, writes `projections` (if given) and a new handle to `*out` (free
+ * it with `strake_curve_free`); otherwise nothing is written. Errors (the message names the
+ * point's index): NULL_POINTER (`surface`, `points`, `options`, `out`); INVALID_ARGUMENT
+ * (`point_count` of 0 or too few for the degree, a bad option, two consecutive points with
+ * the same foot point, `parametrization` not 0 or 1); INVALID_DEGREE; NON_FINITE (a
+ * coordinate); TOO_FAR_FROM_SURFACE (a point farther than `options->tolerance`, with its
+ * distance and foot point); NOT_CONVERGED (point inversion found no foot point);
+ * DEGENERATE_SURFACE (a foot point where the normal is undefined); the surface's own errors
+ * (SURFACE_CALLBACK_FAILED, OUT_OF_DOMAIN ...).
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
+ * or valid; `projections` NULL or room for `point_count` projections; `out` NULL or writable.
+ */
+StrakeStatus strake_curve_through_space_points(const struct StrakeSurface *surface,
+                                               const double *points,
+                                               size_t point_count,
+                                               const struct StrakeProjectionOptions *options,
+                                               uint32_t degree,
+                                               uint32_t parametrization,
+                                               struct StrakeProjection *projections,
+                                               struct StrakeCurve **out);
+
+/**
+ * Creates a curve on `surface` from a curve in space, a NURBS curve of degree `degree` given
+ * as for `strake_curve_new_nurbs` but with points in space (`points`: x, y, z per control
+ * point; `weights` NULL for a non-rational curve), projected onto the surface: the curve is
+ * sampled (max(4, 2 degree) samples per knot span), the samples are projected, their foot
+ * points interpolated by a C2 cubic in the parameter plane (chord length, t in [0, 1], not the
+ * space curve's parameter), and intervals whose midpoint lies farther than `fit_tolerance`
+ * (host length unit) from the fitted curve are halved until none does. Split a space curve
+ * with corners at its corners first: near a corner the fit converges slowly.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
+ * untouched. Errors: those of `strake_curve_new_nurbs` for the NURBS data; those of
+ * `strake_curve_through_space_points` for the projection, the message naming the sample's
+ * index and its parameter on the space curve; INVALID_ARGUMENT also for a `fit_tolerance`
+ * that is not positive, or not met at 100000 samples.
+ *
+ * # Safety
+ * As for `strake_curve_new_nurbs` (with 3 doubles per point), plus `surface` NULL or a live
+ * handle and `options` NULL or valid.
+ */
+StrakeStatus strake_curve_project_nurbs(const struct StrakeSurface *surface,
+                                        uint32_t degree,
+                                        const double *knots,
+                                        size_t knot_count,
+                                        const double *points,
+                                        size_t point_count,
+                                        const double *weights,
+                                        const struct StrakeProjectionOptions *options,
+                                        double fit_tolerance,
+                                        struct StrakeCurve **out);
+
+/**
+ * Projects `point_count` points in space (x, y, z each) onto `surface`, in order: each from
+ * the previous foot point (so points along a path are fast and stay continuous across a seam
+ * declared periodic in `options`), the first from a coarse search. `out[i]` receives point
+ * i's foot point, (u, v) (inside the domain) and distances.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..point_count]`; otherwise `out` is untouched.
+ * Errors (the message names the point's index): NULL_POINTER (`surface`, `points`,
+ * `options`, `out`); INVALID_ARGUMENT (`point_count` of 0 or too large, a bad option);
+ * NON_FINITE; TOO_FAR_FROM_SURFACE; NOT_CONVERGED; DEGENERATE_SURFACE; the surface's own
+ * errors.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
+ * or valid; `out` NULL or room for `point_count` projections, not overlapping `points`.
+ */
+StrakeStatus strake_surface_project_points(const struct StrakeSurface *surface,
+                                           const double *points,
+                                           size_t point_count,
+                                           const struct StrakeProjectionOptions *options,
+                                           struct StrakeProjection *out);
+
+/* ==== Frames ==============================================================================
+ * The Darboux frame and its invariants (kn, kg, tg) with the principal curvatures: at one
+ * t, at the host's array of t, at even t, over several threads, or from two jets.
+ */
 
 /**
  * Computes the frame at curve parameter `t` of `curve` lying on `surface`.
@@ -1707,6 +1877,574 @@ StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
                                     int32_t flip_normal,
                                     const struct StrakeParamScales *scales,
                                     struct StrakeFrame *out);
+
+/**
+ * As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and
+ * `threads - 1` threads started for this call and joined before it returns (no thread pool,
+ * nothing left running). The samples are cut into pieces (a few hundred to 4096 samples) that
+ * go, in order, to whichever thread is free, so a thread the operating system slows down
+ * takes fewer of them. `threads` = 1 is
+ * the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
+ * threads are started when there are fewer than 256 samples per thread (starting a thread
+ * costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
+ * whatever the number of threads.
+ *
+ * Host callbacks (surface or curve) are then called from several threads at once: the
+ * callback and its `user_data` must allow that. A panic in a worker is reported as
+ * STRAKE_STATUS_INTERNAL_PANIC.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample with the lowest index, and its t. Errors: those of
+ * `strake_frames_at`, plus INVALID_ARGUMENT for `threads` = 0.
+ *
+ * # Safety
+ * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
+ * two must not overlap; handles as in `strake_frame_at`.
+ */
+StrakeStatus strake_frames_at_parallel(const struct StrakeSurface *surface,
+                                       const struct StrakeCurve *curve,
+                                       const double *ts,
+                                       size_t count,
+                                       uint32_t threads,
+                                       struct StrakeFrame *out);
+
+/* ==== Sampling ============================================================================
+ * Samples along a path with their arc length: at even t, even arc length, to a chord
+ * tolerance, or at the host's t; and the arc length between two parameters.
+ */
+
+/**
+ * Samples `curve` on `surface` at `n` evenly spaced curve parameters from the start to the
+ * end of the curve's domain, both included (`n` = 1 gives the start), each with its arc length
+ * from the start (adaptive Gauss-Legendre quadrature to the relative tolerance
+ * `arc_tolerance`, e.g. 1e-10).
+ *
+ * Buffer: `buf` with room for `capacity` samples (NULL when `capacity` is 0); on success
+ * `*count` = `n` samples are written. When `capacity` < `n`, returns
+ * `STRAKE_STATUS_BUFFER_TOO_SMALL` with `*count` = `n` and nothing written to `buf`, without
+ * evaluating anything.
+ *
+ * Errors: NULL_POINTER (`surface`, `curve`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`n` of 0, `arc_tolerance` not positive and finite, `capacity` too
+ * large); BUFFER_TOO_SMALL; and every error of `strake_frame_at` at a sample, the message
+ * naming the sample's index and t. On any failure but BUFFER_TOO_SMALL nothing is written,
+ * `*count` included. Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `buf` NULL or room for `capacity` samples; `count`
+ * NULL or a writable size_t.
+ */
+StrakeStatus strake_sample_even_t(const struct StrakeSurface *surface,
+                                  const struct StrakeCurve *curve,
+                                  size_t n,
+                                  double arc_tolerance,
+                                  struct StrakeSample *buf,
+                                  size_t capacity,
+                                  size_t *count);
+
+/**
+ * Samples `curve` on `surface` at `n` points evenly spaced in arc length from the start to the
+ * end of the curve, both included (`n` = 1 gives the start): sample i lies at arc length
+ * i L/(n - 1), L the curve's length, to the relative tolerance `arc_tolerance` (e.g. 1e-10) of
+ * L (quadrature, then Newton's method on s(t) for each sample).
+ *
+ * Buffer, errors and safety as for `strake_sample_even_t`, plus NOT_CONVERGED when the
+ * arc-length inversion fails (it does not on a curve whose speed stays positive).
+ *
+ * # Safety
+ * As for `strake_sample_even_t`.
+ */
+StrakeStatus strake_sample_even_arc(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *curve,
+                                    size_t n,
+                                    double arc_tolerance,
+                                    struct StrakeSample *buf,
+                                    size_t capacity,
+                                    size_t *count);
+
+/**
+ * Samples `curve` on `surface` adaptively: the chord between consecutive samples stays within
+ * `chord_tolerance` (host length unit) of the curve, and their arc-length spacing within
+ * `max_step` (0 or INFINITY: no limit). Steps follow the space curvature
+ * k = sqrt(kn^2 + kg^2): a chord of length L on radius 1/k deviates by
+ * 1/k - sqrt(1/k^2 - L^2/4), so L <= 2 sqrt(2 d/k - d^2) for tolerance d; each step is then
+ * verified by measuring the deviation at its quarters and shrunk if needed. The first sample
+ * is at the start of the curve's domain, the last at its end; arc lengths to the relative
+ * tolerance `arc_tolerance` (e.g. 1e-10).
+ *
+ * Buffer: as for `strake_sample_even_t`, except that the number of samples is known only
+ * after sampling: when it exceeds `capacity`, the whole path is still sampled to count them,
+ * `*count` receives the number needed, nothing is written to `buf`, and the call returns
+ * `STRAKE_STATUS_BUFFER_TOO_SMALL`. The result is deterministic: calling again with
+ * `capacity` >= `*count` writes exactly those samples. (A size query with `buf` = NULL,
+ * `capacity` = 0 costs one full sampling.)
+ *
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`chord_tolerance` not positive and finite,
+ * `max_step` negative or NaN, `arc_tolerance` not positive and finite, a tolerance below
+ * round-off so that steps shrink below 1e-13 of the domain, more than 10 million samples
+ * needed: the message names the sample that could not be placed); BUFFER_TOO_SMALL; and every
+ * error of `strake_frame_at` at a sample, naming its index and t. Thread-safe.
+ *
+ * # Safety
+ * As for `strake_sample_even_t`.
+ */
+StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
+                                   const struct StrakeCurve *curve,
+                                   double chord_tolerance,
+                                   double max_step,
+                                   double arc_tolerance,
+                                   struct StrakeSample *buf,
+                                   size_t capacity,
+                                   size_t *count);
+
+/**
+ * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
+ * (signed: negative when t1 < t0), in the host's length unit, to the relative tolerance
+ * `rel_tol` (e.g. 1e-10): s = integral of |c'(t)| dt by adaptive Gauss-Legendre quadrature.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t0`, `t1`); INVALID_ARGUMENT
+ * (`rel_tol` not positive and finite); OUT_OF_DOMAIN (a parameter outside the curve's domain);
+ * and the evaluation errors of `strake_frame_at`. Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `out` NULL or a writable double.
+ */
+StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               double t0,
+                               double t1,
+                               double rel_tol,
+                               double *out);
+
+/**
+ * Computes the frames at the host's `count` curve parameters `ts`, each with its arc length
+ * from the start of the curve's domain: `out[i].frame` is what `strake_frames_at` gives at
+ * `ts[i]`, and `out[i].arc_length` = s(`ts[i]`) = integral of |c'(t)| dt from t_min to `ts[i]`
+ * (adaptive Gauss-Legendre quadrature between consecutive parameters to the relative tolerance
+ * `arc_tolerance`, e.g. 1e-10, summed; signed, so a parameter below the one before it gets a
+ * smaller s). The result feeds `strake_path_extremes` and `strake_path_violations` directly:
+ * a host with its own parameters evaluates the path once.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index and t. Errors: those of `strake_frames_at`, plus
+ * INVALID_ARGUMENT (`arc_tolerance` not positive and finite) and NOT_CONVERGED (the
+ * quadrature between two samples, which also names the sample). Thread-safe.
+ *
+ * # Safety
+ * `surface`, `curve` NULL or live handles; `ts` NULL or `count` doubles; `out` NULL or room
+ * for `count` samples, not overlapping `ts`.
+ */
+StrakeStatus strake_samples_at(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               const double *ts,
+                               size_t count,
+                               double arc_tolerance,
+                               struct StrakeSample *out);
+
+/* ==== Checks ==============================================================================
+ * What a machining or fibre-placement engineer asks of a sample or a whole path: local
+ * gouging, scallop height and step-over, curvature-limited feed, fibre steering and
+ * twist, the tool axis; and path summaries (extremes, intervals over a limit).
+ */
+
+/**
+ * The local gouge state of `cutter` at the sample `frame` (from strake), with the tool on
+ * `tool_side` and its axis set by `angles` (lead toward T, tilt toward B, see
+ * `StrakeToolAngles`).
+ *
+ * Second-order contact: the cutter does not cut into the surface near the contact point when,
+ * in every tangent direction, it bends away from the surface at least as fast as the surface
+ * bends toward it. For a ball-end mill of radius r this is r max(s k1, s k2) <= 1: the largest
+ * ball free of local gouging has the radius `out->concave_radius`. For flat and toroidal
+ * cutters the effective radius across the inclination plane is R/sin(beta) + r (beta the
+ * axis's inclination from the tool-side normal; across the path only for pure lead, see
+ * `strake_cutter_radii`). `out->gouges` also covers rear gouging (the bottom and the heel,
+ * `strake_check_rear_gouge`), and `out->min_lead` is the smallest lead angle (at the given
+ * tilt) that avoids local and rear gouging together. (Changed: both used to see local
+ * gouging only.)
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field, named);
+ * INVALID_ARGUMENT (a frame vector that is not unit length, `tool_side` not 0 or 1, an unknown
+ * `cutter->kind`, a radius not positive and finite, a corner radius above the radius, an angle
+ * outside (-pi/2, pi/2); the message names the field). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_gouge(const struct StrakeFrame *frame,
+                                uint32_t tool_side,
+                                const struct StrakeCutter *cutter,
+                                const struct StrakeToolAngles *angles,
+                                struct StrakeGougeState *out);
+
+/**
+ * The scallop height left at the sample `frame` between this pass and an adjacent one a
+ * step-over `step_over` away (arc length across the path), for a cutter of radius
+ * `cutter_radius` across the path (the ball radius of a ball-end mill; for flat and toroidal
+ * cutters the radius of the profile they sweep across the path,
+ * `StrakeCutterRadii.across_path` from `strake_cutter_radii`, not the inclination-plane
+ * radius `effective_radius_cross`), with the tool on `tool_side`.
+ * `strake_check_step_over_cutter` also limits the step-over by the width the cutter cuts.
+ *
+ * In the plane across the path the surface is its osculating circle of curvature
+ * kappa = s kn(B) (`out->cross_curvature`, concave toward the tool when positive). Exact
+ * circle geometry gives `out->height`; on a plane it is r - sqrt(r^2 - w^2/4).
+ * `out->height_approx` = (w^2/8)(1/r - kappa). Host length unit.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a frame vector
+ * not unit length, `tool_side` not 0 or 1, `cutter_radius` or `step_over` not positive and
+ * finite, a cutter that does not fit the concave curvature (kappa r >= 1: it gouges), a
+ * step-over so wide that adjacent passes do not overlap). Thread-safe.
+ *
+ * # Safety
+ * `frame` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_check_scallop(const struct StrakeFrame *frame,
+                                  uint32_t tool_side,
+                                  double cutter_radius,
+                                  double step_over,
+                                  struct StrakeScallop *out);
+
+/**
+ * The largest step-over (arc length across the path) that keeps the scallop height at the
+ * sample `frame` at or below `scallop_height`, for a cutter of radius `cutter_radius` across
+ * the path (`StrakeCutterRadii.across_path` for flat and toroidal cutters), with the tool on
+ * `tool_side`: the inverse of `strake_check_scallop` (on a plane w = 2 sqrt(h (2r - h))).
+ * `out->step_over_approx` = sqrt(8 h / (1/r - kappa)). Not limited by the width the cutter
+ * cuts: use `strake_check_step_over_cutter` for that.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
+ * `strake_check_scallop`, with `scallop_height` required positive and finite and reachable
+ * (not above what the geometry allows). Thread-safe.
+ *
+ * # Safety
+ * `frame` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_check_step_over(const struct StrakeFrame *frame,
+                                    uint32_t tool_side,
+                                    double cutter_radius,
+                                    double scallop_height,
+                                    struct StrakeStepOver *out);
+
+/**
+ * The highest feed at the sample `frame`: min(feed, sqrt(a_max/k), (j_max/k^2)^(1/3)) with k
+ * = sqrt(kn^2 + kg^2) the path's space curvature (normal acceleration v^2 k, and at constant
+ * speed on the osculating circle jerk v^3 k^2); the programmed feed where k = 0. Writes it to
+ * `*out` in the units of `limits` (e.g. mm/s with mm/s^2 and mm/s^3). Changes of curvature
+ * along the path add jerk this local rule does not see: the machine's look-ahead must still
+ * handle them.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+ * frame vector not unit length; `limits->feed` or `limits->max_acceleration` not positive and
+ * finite; `limits->max_jerk` negative, NaN or infinite (0 means no jerk limit)). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_feed(const struct StrakeFrame *frame,
+                               const struct StrakeFeedLimits *limits,
+                               double *out);
+
+/**
+ * Steering and twist of a fibre course at the sample `frame`: steering curvature |kg| and
+ * radius 1/|kg| (INFINITY along a geodesic), the larger tow-edge strain magnitude including
+ * the Gaussian-curvature term (`strake_check_tow_edges`; was (w/2)|kg| alone) for the tow
+ * width w,
+ * twist rate tg (radians per length: the tangent plane turns about the course at that rate,
+ * and the tow or the compaction roller with it), and whether the limits are exceeded.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+ * frame vector not unit length, a limit not positive and finite, named; NON_FINITE for an
+ * edge strain that overflows). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_fibre(const struct StrakeFrame *frame,
+                                const struct StrakeFibreLimits *limits,
+                                struct StrakeFibreState *out);
+
+/**
+ * The tool axis at the sample `frame` for lead and tilt `angles` with the tool on `tool_side`:
+ * a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t in the tool-side frame,
+ * n_t = N on the N side and -N otherwise, b_t = n_t x T (unit vector from the cutter tip
+ * toward the spindle; `out->local` its components along (T, b_t, n_t), `out->space` the unit
+ * vector). A positive tilt leans the axis to the left of travel seen from the tool on either
+ * side. (Changed: tilt used to lean toward B on both sides, and the components were along
+ * (T, B, N).) The frame's T and N are re-orthonormalised, so the axis is unit to round-off.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `angles`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
+ * frame vector not unit length, tangent and normal not orthogonal to 1e-6, `tool_side` not 0
+ * or 1, an angle outside (-pi/2, pi/2)). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_tool_axis(const struct StrakeFrame *frame,
+                              uint32_t tool_side,
+                              const struct StrakeToolAngles *angles,
+                              struct StrakeToolAxis *out);
+
+/**
+ * Where a per-sample quantity is smallest and largest along a path: `values[i]` is the
+ * quantity at `samples[i]` (samples as the sampling functions return them; only their
+ * `frame.curve_param` and `arc_length` are read). Values may be infinite; ties give the first
+ * sample.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`samples`, `values`, `out`); INVALID_ARGUMENT (`sample_count` of 0 or too
+ * large, a NaN value, a sample whose t or arc length is not finite; the message names the
+ * index). Thread-safe.
+ *
+ * # Safety
+ * `samples` and `values` NULL or `sample_count` valid elements; `out` NULL or writable.
+ */
+StrakeStatus strake_path_extremes(const struct StrakeSample *samples,
+                                  const double *values,
+                                  size_t sample_count,
+                                  struct StrakeExtremes *out);
+
+/**
+ * Every interval along a path where a per-sample quantity exceeds `limit`: each maximal run of
+ * samples with `values[i] > limit`, its ends placed where the quantity crosses the limit
+ * (linear interpolation in arc length and t between the samples on either side, or the
+ * first/last sample when the path starts/ends in violation), in path order. A quantity that
+ * must stay above a limit is checked through its negation or inverse (e.g. a steering
+ * curvature |kg| against 1/(smallest radius)). Their accuracy is that of the sampling.
+ *
+ * Buffer (the pattern of the sampling functions): `buf` with room for `capacity` intervals
+ * (NULL when `capacity` is 0); on success `*count` intervals are written (0 when the limit is
+ * never exceeded). When more are found than fit, returns `STRAKE_STATUS_BUFFER_TOO_SMALL`
+ * with `*count` = the number found and nothing written to `buf`; call again with that
+ * capacity for the same intervals.
+ *
+ * Errors: NULL_POINTER (`samples`, `values`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`sample_count` of 0 or too large, `capacity` too large, a NaN value or
+ * limit, a sample whose t or arc length is not finite); BUFFER_TOO_SMALL. On any failure but
+ * BUFFER_TOO_SMALL nothing is written. Thread-safe.
+ *
+ * # Safety
+ * `samples` and `values` NULL or `sample_count` valid elements; `buf` NULL or room for
+ * `capacity` intervals; `count` NULL or a writable size_t.
+ */
+StrakeStatus strake_path_violations(const struct StrakeSample *samples,
+                                    const double *values,
+                                    size_t sample_count,
+                                    double limit,
+                                    struct StrakeViolation *buf,
+                                    size_t capacity,
+                                    size_t *count);
+
+/**
+ * The cutter's radii of curvature at its contact point for the axis set by `angles` (lead
+ * toward T, tilt toward b_t, see `StrakeToolAngles`); pure cutter geometry, no frame needed.
+ *
+ * `out->across_path` is the radius of the profile the cutter sweeps across the path (the
+ * outline of the cutter seen along the feed direction, at the contact point):
+ * r + R sin(lead)^2 / sin(beta)^3 with R the major and r the corner radius of the cutter's
+ * torus (see `StrakeCutter`) and beta the inclination, cos(beta) = cos(lead) cos(tilt). This
+ * is the radius to pass as `cutter_radius` to `strake_check_scallop` and
+ * `strake_check_step_over` for flat and toroidal cutters; not `effective_radius_cross` of
+ * `StrakeGougeState`, which is across the inclination plane (a 5/1 mm toroidal cutter at 10
+ * degrees of tilt: 24.0 mm there, 1 mm across the path). Host length unit.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`cutter`, `angles`, `out`); INVALID_ARGUMENT (an unknown `cutter->kind`, a
+ * radius not positive and finite or subnormal, a corner radius above the radius, an angle
+ * outside (-pi/2, pi/2)). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_cutter_radii(const struct StrakeCutter *cutter,
+                                 const struct StrakeToolAngles *angles,
+                                 struct StrakeCutterRadii *out);
+
+/**
+ * Rear (heel) gouging of a flat or toroidal cutter at the sample `frame`: whether the rest of
+ * its bottom, up to the heel, stays out of the material when the front touches. The cutter is
+ * the solid swept by a disc of radius R and a ball of radius r, so it stays out exactly when
+ * the disc of corner-circle centres stays on the tool side of the surface offset by r; the
+ * disc's rim is checked against that offset surface at second order in every direction and
+ * with the exact osculating arc (exact on a circular arc concave along the feed: a flat
+ * cutter of radius 5 around a concave arc of radius 20 needs asin(5/20) = 14.48 degrees of
+ * lead). With the axis along the normal the flat bottom touches (centred on the axis). A
+ * ball-end mill has no bottom (`margin` 1, never gouges here).
+ *
+ * What it does not see: the holder and shank, the flank above the corner, the cutter against
+ * the part away from this sample, the surface between samples.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
+ * `strake_check_gouge`, and INVALID_ARGUMENT for a frame whose tangent and normal are not
+ * orthogonal to 1e-6. Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_rear_gouge(const struct StrakeFrame *frame,
+                                     uint32_t tool_side,
+                                     const struct StrakeCutter *cutter,
+                                     const struct StrakeToolAngles *angles,
+                                     struct StrakeRearGouge *out);
+
+/**
+ * The strain of the two edges of a tow or tape of width `tow_width` centred on the course at
+ * the sample `frame`: e(y) = -kg y - K y^2/2 at y = +w/2 (left of travel, the B side) and
+ * y = -w/2 (right), K the Gaussian curvature (second order in w: the edges are geodesic
+ * parallels of the course). Negative = compressed; which edge is compressed is reported. A
+ * 150 mm tape along a great circle of a 1 m sphere: both edges at -0.28 %.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field; or a strain that overflows, e.g.
+ * a width of 1e300); INVALID_ARGUMENT (a frame vector not unit length, `tow_width` not
+ * positive and finite). Thread-safe.
+ *
+ * # Safety
+ * `frame` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_check_tow_edges(const struct StrakeFrame *frame,
+                                    double tow_width,
+                                    struct StrakeTowEdges *out);
+
+/**
+ * The largest step-over at the sample `frame` that keeps the scallop height at or below
+ * `scallop_height`, for `cutter` with its axis set by `angles`, with the tool on `tool_side`:
+ * the circle model of `strake_check_step_over` with the radius of the profile the cutter
+ * sweeps across the path (`StrakeCutterRadii.across_path`), limited by the width the cutter
+ * actually cuts at that height (exact on a plane; conservative on a surface concave across
+ * the path). A flat 10 mm cutter at 5 degrees of lead and a 0.5 mm scallop: 10 mm, not the
+ * model's 15.1 mm.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field);
+ * INVALID_ARGUMENT (as for `strake_check_gouge`, and `scallop_height` not positive and finite
+ * or unreachable, a cross-section the cutter's profile does not fit). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_step_over_cutter(const struct StrakeFrame *frame,
+                                           uint32_t tool_side,
+                                           const struct StrakeCutter *cutter,
+                                           const struct StrakeToolAngles *angles,
+                                           double scallop_height,
+                                           struct StrakeCutterStepOver *out);
+
+/**
+ * `strake_check_gouge` at every sample of a path (see the note above the path functions).
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `cutter`, `angles` NULL or valid; `out`
+ * NULL or room for `sample_count` results.
+ */
+StrakeStatus strake_check_gouge_path(const struct StrakeSample *samples,
+                                     size_t sample_count,
+                                     uint32_t tool_side,
+                                     const struct StrakeCutter *cutter,
+                                     const struct StrakeToolAngles *angles,
+                                     struct StrakeGougeState *out);
+
+/**
+ * `strake_check_rear_gouge` at every sample of a path.
+ *
+ * # Safety
+ * As for `strake_check_gouge_path`.
+ */
+StrakeStatus strake_check_rear_gouge_path(const struct StrakeSample *samples,
+                                          size_t sample_count,
+                                          uint32_t tool_side,
+                                          const struct StrakeCutter *cutter,
+                                          const struct StrakeToolAngles *angles,
+                                          struct StrakeRearGouge *out);
+
+/**
+ * `strake_check_scallop` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `out` NULL or room for `sample_count`
+ * results.
+ */
+StrakeStatus strake_check_scallop_path(const struct StrakeSample *samples,
+                                       size_t sample_count,
+                                       uint32_t tool_side,
+                                       double cutter_radius,
+                                       double step_over,
+                                       struct StrakeScallop *out);
+
+/**
+ * `strake_check_step_over_cutter` at every sample of a path.
+ *
+ * # Safety
+ * As for `strake_check_gouge_path`.
+ */
+StrakeStatus strake_check_step_over_cutter_path(const struct StrakeSample *samples,
+                                                size_t sample_count,
+                                                uint32_t tool_side,
+                                                const struct StrakeCutter *cutter,
+                                                const struct StrakeToolAngles *angles,
+                                                double scallop_height,
+                                                struct StrakeCutterStepOver *out);
+
+/**
+ * `strake_check_feed` at every sample of a path: `out[i]` the highest feed at sample i.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `limits` NULL or valid; `out` NULL or room
+ * for `sample_count` doubles.
+ */
+StrakeStatus strake_check_feed_path(const struct StrakeSample *samples,
+                                    size_t sample_count,
+                                    const struct StrakeFeedLimits *limits,
+                                    double *out);
+
+/**
+ * `strake_check_fibre` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `limits` NULL or valid; `out` NULL or room
+ * for `sample_count` results.
+ */
+StrakeStatus strake_check_fibre_path(const struct StrakeSample *samples,
+                                     size_t sample_count,
+                                     const struct StrakeFibreLimits *limits,
+                                     struct StrakeFibreState *out);
+
+/**
+ * `strake_check_tow_edges` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `out` NULL or room for `sample_count`
+ * results.
+ */
+StrakeStatus strake_check_tow_edges_path(const struct StrakeSample *samples,
+                                         size_t sample_count,
+                                         double tow_width,
+                                         struct StrakeTowEdges *out);
+
+/**
+ * `strake_tool_axis` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `angles` NULL or valid; `out` NULL or room
+ * for `sample_count` results.
+ */
+StrakeStatus strake_tool_axis_path(const struct StrakeSample *samples,
+                                   size_t sample_count,
+                                   uint32_t tool_side,
+                                   const struct StrakeToolAngles *angles,
+                                   struct StrakeToolAxis *out);
+
+/* ==== Planning ============================================================================
+ * Making the next path: geodesics traced from a point or between two points, offsets of a
+ * path on the surface at a geodesic distance, fibre courses and the gaps and overlaps
+ * between neighbouring courses.
+ */
 
 /**
  * Traces the geodesic of `surface` from (u, v) in a start direction for arc length `length`
@@ -1885,379 +2623,99 @@ StrakeStatus strake_offset_loops(const struct StrakeOffset *offset,
                                  size_t *count);
 
 /**
- * Copies the message of the last failed call on this thread into `buf`.
+ * A fixed-angle course from (u, v): its unit tangent keeps the angle `angle` (radians) to the
+ * reference direction e, the space direction `axis` (3 doubles) projected onto the tangent
+ * plane, counted toward N x e: T = cos(angle) e + sin(angle) (N x e). Integrated for arc
+ * length `length` with the error per step `options.tolerance` in space.
  *
- * Returns the size needed to hold the whole message including its terminating NUL (1 when
- * nothing has failed on this thread). When `buf` is NULL or `buf_len` is 0 nothing is written:
- * call it that way to learn the size, allocate, and call again. Otherwise at most
- * `buf_len - 1` bytes of the message are copied, cut at a UTF-8 character boundary, and a NUL
- * is written after them; so the message was cut exactly when the value returned is larger
- * than `buf_len`. The message is UTF-8 text (in practice ASCII) naming the function, what was
- * wrong, and the index, value or sample where it was found.
+ * On success writes a new curve handle to `*out_curve` (t = arc length) and, when `out_info`
+ * is not NULL, why it ended (`end` 0: the length; 1: the domain side `side`, exactly on
+ * it; 2: where the axis runs along the normal); `point`, `tangent`, `u`, `v` give the end.
  *
- * Successful calls do not clear the message; messages are per thread.
- *
- * # Safety
- * `buf` must be NULL or point to at least `buf_len` writable bytes.
- */
-size_t strake_last_error_message(char *buf,
-                                 size_t buf_len);
-
-/**
- * The code returned by the host callback in the last call on this thread that failed with
- * `STRAKE_STATUS_SURFACE_CALLBACK_FAILED` or `STRAKE_STATUS_CURVE_CALLBACK_FAILED`; 0 when
- * no callback has failed on this thread. Not cleared by later calls.
- */
-int32_t strake_last_callback_code(void);
-
-/**
- * Creates a NURBS surface evaluated by strake itself (exact derivatives to second order,
- * no allocation per evaluation). `flip_normal` = 0 takes N along Su × Sv, 1 the reverse.
- *
- * The arrays are copied; they may be freed after the call. Returns `STRAKE_STATUS_OK` and
- * writes a new handle to `*out` (free it with `strake_surface_free`; it is used exactly like a
- * callback surface); otherwise `*out` is left untouched. Errors: NULL_POINTER (`data`, any of
- * its arrays but `weights`, `out`), INVALID_ARGUMENT (a count of 0 or too large, `flip_normal`
- * not 0 or 1), INVALID_DEGREE (degree 0 or above 24, too few control points, knot count
- * mismatch), INVALID_KNOTS (non-finite or decreasing knot, multiplicity above degree + 1, empty
- * domain), INVALID_CONTROL_POINT (non-finite coordinate), INVALID_WEIGHT (weight not positive
- * and finite). The message names the direction (u or v), index and value.
+ * Errors (nothing written): NULL_POINTER (`surface`, `axis`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (a zero axis or one along the normal at the start, `length` or
+ * `tolerance` not positive, naming the values); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE; LEAVES_SURFACE; GEODESIC_INCOMPLETE; SURFACE_CALLBACK_FAILED.
+ * Thread-safe.
  *
  * # Safety
- * `data` must be NULL or point to a valid description whose arrays hold the stated number of
- * elements; `out` must be NULL or point to a writable `StrakeSurface *`.
+ * `surface` NULL or live; `axis` NULL or 3 doubles; `options` NULL or valid; `out_curve`
+ * NULL or a writable `StrakeCurve *`; `out_info` NULL or writable.
  */
-StrakeStatus strake_surface_new_nurbs(const struct StrakeNurbsSurfaceData *data,
-                                      int32_t flip_normal,
-                                      struct StrakeSurface **out);
+StrakeStatus strake_course_fixed_angle(const struct StrakeSurface *surface,
+                                       double u,
+                                       double v,
+                                       const double *axis,
+                                       double angle,
+                                       double length,
+                                       const struct StrakeGeodesicOptions *options,
+                                       struct StrakeCurve **out_curve,
+                                       struct StrakeGeodesicInfo *out_info);
 
 /**
- * As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and
- * `threads - 1` threads started for this call and joined before it returns (no thread pool,
- * nothing left running). The samples are cut into pieces (a few hundred to 4096 samples) that
- * go, in order, to whichever thread is free, so a thread the operating system slows down
- * takes fewer of them. `threads` = 1 is
- * the serial `strake_frames_at`; a host that wants no threads from strake passes 1. Fewer
- * threads are started when there are fewer than 256 samples per thread (starting a thread
- * costs tens of microseconds). The results are those of `strake_frames_at`, bit for bit,
- * whatever the number of threads.
- *
- * Host callbacks (surface or curve) are then called from several threads at once: the
- * callback and its `user_data` must allow that. A panic in a worker is reported as
- * STRAKE_STATUS_INTERNAL_PANIC.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
- * message names the failing sample with the lowest index, and its t. Errors: those of
- * `strake_frames_at`, plus INVALID_ARGUMENT for `threads` = 0.
+ * The adjacent course one tow band `band_width` to `side` (a `StrakeOffsetSide` value) of
+ * `course`: its geodesic parallel at that distance, as an offset handle (read and free it
+ * like one from `strake_offset_new`, whose errors and options apply; INVALID_ARGUMENT also
+ * for a band width not positive and finite).
  *
  * # Safety
- * `ts` must point to `count` doubles and `out` to room for `count` frames (or be NULL); the
- * two must not overlap; handles as in `strake_frame_at`.
+ * Handles NULL or live; `options` NULL or valid; `out` NULL or a writable `StrakeOffset *`.
  */
-StrakeStatus strake_frames_at_parallel(const struct StrakeSurface *surface,
-                                       const struct StrakeCurve *curve,
-                                       const double *ts,
-                                       size_t count,
-                                       uint32_t threads,
-                                       struct StrakeFrame *out);
+StrakeStatus strake_course_adjacent(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *course,
+                                    double band_width,
+                                    uint32_t side,
+                                    const struct StrakeOffsetOptions *options,
+                                    struct StrakeOffset **out);
 
 /**
- * Creates a curve in the surface's parameter plane through `point_count` points
- * (u0, v0, u1, v1, ...): the B-spline of degree `degree` (3: a C2 cubic) interpolating them,
- * on t in [0, 1] (The NURBS Book A9.1: parameters by `parametrization`, knots by averaging).
+ * Gaps and overlaps between the bands of width `band_width` centred on courses `a` and `b`
+ * (`b` to `side` of `a`): at `samples` even parameters of `a` the geodesic perpendicular
+ * to `a` meets the edge of `b`'s band (its geodesic parallel at band_width/2); the width
+ * across `a` from `a`'s edge to it is a gap (> 0) or an overlap (< 0). Intervals where its
+ * size exceeds `tolerance` go to the buffer (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL
+ * sets `*count` to the number needed); `*unmatched` (when not NULL) receives the number of
+ * samples where no edge of `b` was met within 3 band widths. `options.tolerance` is the error
+ * per step of the traces.
  *
- * `start_derivative` and `end_derivative` are NULL (free ends) or both point to 2 doubles
- * (du/dt, dv/dt) the curve must have at t = 0 and t = 1; with the chord-length
- * parametrization a derivative of about the length of the point polygon (in the parameter
- * plane) keeps the speed even. The data are copied.
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
- * `strake_curve_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER
- * (`uv_points`, `out`); INVALID_ARGUMENT (`point_count` of 0, too few points for the degree
- * (degree + 1, or degree - 1 and at least 2 with end derivatives), two consecutive points
- * that coincide (the message names the point's index), only one of the two derivatives
- * given, `parametrization` not 0 or 1); INVALID_DEGREE (degree 0 or above 24, end
- * derivatives with degree 1); NON_FINITE (a coordinate, naming the point's index, or an end
- * derivative).
+ * Errors: NULL_POINTER (`surface`, `a`, `b`, `options`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`side`, `band_width` or `tolerance` not positive, fewer than 2
+ * samples); BUFFER_TOO_SMALL; the errors of the traces and of `a`'s frames. Thread-safe.
  *
  * # Safety
- * `uv_points` must be NULL or point to `2 * point_count` doubles; each derivative NULL or 2
- * doubles; `out` NULL or a writable `StrakeCurve *`.
+ * Handles NULL or live; `options` NULL or valid; `buf` NULL or room for `capacity`; `count`
+ * NULL or writable; `unmatched` NULL or writable.
  */
-StrakeStatus strake_curve_through_uv_points(const double *uv_points,
-                                            size_t point_count,
-                                            uint32_t degree,
-                                            uint32_t parametrization,
-                                            const double *start_derivative,
-                                            const double *end_derivative,
-                                            struct StrakeCurve **out);
+StrakeStatus strake_course_gaps(const struct StrakeSurface *surface,
+                                const struct StrakeCurve *a,
+                                const struct StrakeCurve *b,
+                                uint32_t side,
+                                double band_width,
+                                size_t samples,
+                                double tolerance,
+                                const struct StrakeGeodesicOptions *options,
+                                struct StrakeCourseGap *buf,
+                                size_t capacity,
+                                size_t *count,
+                                size_t *unmatched);
 
 /**
- * Creates a curve on `surface` through `point_count` points in space (x0, y0, z0, x1, ...),
- * given in path order, e.g. contact points a host computed on its own copy of the surface:
- * each point is projected onto the surface (point inversion, continuing from the previous foot
- * point, across a seam declared periodic in `options`), and the foot points' (u, v) are
- * interpolated by a B-spline of degree `degree` (3: a C2 cubic) in the parameter plane, on t
- * in [0, 1], with parameters by `parametrization`. A path across a declared seam stays
- * continuous; the curve's (u, v) are wrapped back into the domain when evaluated.
+ * Steering and twist along `course` at `samples` (>= 2) even parameters, with the limits of
+ * `strake_check_fibre`, summarised into `*out` (largest |kg|, smallest steering radius,
+ * largest edge strain and |tg|, violation counts, length).
  *
- * `projections` is NULL, or an array of `point_count` that receives, on success, each point's
- * foot point, (u, v) and distances (to see how far the host's points were from the surface).
- *
- * Returns `STRAKE_STATUS_OK`, writes `projections` (if given) and a new handle to `*out` (free
- * it with `strake_curve_free`); otherwise nothing is written. Errors (the message names the
- * point's index): NULL_POINTER (`surface`, `points`, `options`, `out`); INVALID_ARGUMENT
- * (`point_count` of 0 or too few for the degree, a bad option, two consecutive points with
- * the same foot point, `parametrization` not 0 or 1); INVALID_DEGREE; NON_FINITE (a
- * coordinate); TOO_FAR_FROM_SURFACE (a point farther than `options->tolerance`, with its
- * distance and foot point); NOT_CONVERGED (point inversion found no foot point);
- * DEGENERATE_SURFACE (a foot point where the normal is undefined); the surface's own errors
- * (SURFACE_CALLBACK_FAILED, OUT_OF_DOMAIN ...).
+ * Errors: NULL_POINTER (`surface`, `course`, `limits`, `out`); INVALID_ARGUMENT (a limit not
+ * positive and finite, fewer than 2 samples); every error of `strake_frame_at` on the course.
+ * Thread-safe.
  *
  * # Safety
- * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
- * or valid; `projections` NULL or room for `point_count` projections; `out` NULL or writable.
+ * Handles NULL or live; `limits` NULL or valid; `out` NULL or writable.
  */
-StrakeStatus strake_curve_through_space_points(const struct StrakeSurface *surface,
-                                               const double *points,
-                                               size_t point_count,
-                                               const struct StrakeProjectionOptions *options,
-                                               uint32_t degree,
-                                               uint32_t parametrization,
-                                               struct StrakeProjection *projections,
-                                               struct StrakeCurve **out);
-
-/**
- * Creates a curve on `surface` from a curve in space, a NURBS curve of degree `degree` given
- * as for `strake_curve_new_nurbs` but with points in space (`points`: x, y, z per control
- * point; `weights` NULL for a non-rational curve), projected onto the surface: the curve is
- * sampled (max(4, 2 degree) samples per knot span), the samples are projected, their foot
- * points interpolated by a C2 cubic in the parameter plane (chord length, t in [0, 1], not the
- * space curve's parameter), and intervals whose midpoint lies farther than `fit_tolerance`
- * (host length unit) from the fitted curve are halved until none does. Split a space curve
- * with corners at its corners first: near a corner the fit converges slowly.
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out`; otherwise `*out` is left
- * untouched. Errors: those of `strake_curve_new_nurbs` for the NURBS data; those of
- * `strake_curve_through_space_points` for the projection, the message naming the sample's
- * index and its parameter on the space curve; INVALID_ARGUMENT also for a `fit_tolerance`
- * that is not positive, or not met at 100000 samples.
- *
- * # Safety
- * As for `strake_curve_new_nurbs` (with 3 doubles per point), plus `surface` NULL or a live
- * handle and `options` NULL or valid.
- */
-StrakeStatus strake_curve_project_nurbs(const struct StrakeSurface *surface,
-                                        uint32_t degree,
-                                        const double *knots,
-                                        size_t knot_count,
-                                        const double *points,
-                                        size_t point_count,
-                                        const double *weights,
-                                        const struct StrakeProjectionOptions *options,
-                                        double fit_tolerance,
-                                        struct StrakeCurve **out);
-
-/**
- * Projects `point_count` points in space (x, y, z each) onto `surface`, in order: each from
- * the previous foot point (so points along a path are fast and stay continuous across a seam
- * declared periodic in `options`), the first from a coarse search. `out[i]` receives point
- * i's foot point, (u, v) (inside the domain) and distances.
- *
- * Returns `STRAKE_STATUS_OK` and writes `out[0..point_count]`; otherwise `out` is untouched.
- * Errors (the message names the point's index): NULL_POINTER (`surface`, `points`,
- * `options`, `out`); INVALID_ARGUMENT (`point_count` of 0 or too large, a bad option);
- * NON_FINITE; TOO_FAR_FROM_SURFACE; NOT_CONVERGED; DEGENERATE_SURFACE; the surface's own
- * errors.
- *
- * # Safety
- * `surface` NULL or a live handle; `points` NULL or `3 * point_count` doubles; `options` NULL
- * or valid; `out` NULL or room for `point_count` projections, not overlapping `points`.
- */
-StrakeStatus strake_surface_project_points(const struct StrakeSurface *surface,
-                                           const double *points,
-                                           size_t point_count,
-                                           const struct StrakeProjectionOptions *options,
-                                           struct StrakeProjection *out);
-
-/**
- * Samples `curve` on `surface` at `n` evenly spaced curve parameters from the start to the
- * end of the curve's domain, both included (`n` = 1 gives the start), each with its arc length
- * from the start (adaptive Gauss-Legendre quadrature to the relative tolerance
- * `arc_tolerance`, e.g. 1e-10).
- *
- * Buffer: `buf` with room for `capacity` samples (NULL when `capacity` is 0); on success
- * `*count` = `n` samples are written. When `capacity` < `n`, returns
- * `STRAKE_STATUS_BUFFER_TOO_SMALL` with `*count` = `n` and nothing written to `buf`, without
- * evaluating anything.
- *
- * Errors: NULL_POINTER (`surface`, `curve`, `count`; `buf` when `capacity` > 0);
- * INVALID_ARGUMENT (`n` of 0, `arc_tolerance` not positive and finite, `capacity` too
- * large); BUFFER_TOO_SMALL; and every error of `strake_frame_at` at a sample, the message
- * naming the sample's index and t. On any failure but BUFFER_TOO_SMALL nothing is written,
- * `*count` included. Thread-safe.
- *
- * # Safety
- * `surface`, `curve` NULL or live handles; `buf` NULL or room for `capacity` samples; `count`
- * NULL or a writable size_t.
- */
-StrakeStatus strake_sample_even_t(const struct StrakeSurface *surface,
-                                  const struct StrakeCurve *curve,
-                                  size_t n,
-                                  double arc_tolerance,
-                                  struct StrakeSample *buf,
-                                  size_t capacity,
-                                  size_t *count);
-
-/**
- * Samples `curve` on `surface` at `n` points evenly spaced in arc length from the start to the
- * end of the curve, both included (`n` = 1 gives the start): sample i lies at arc length
- * i L/(n - 1), L the curve's length, to the relative tolerance `arc_tolerance` (e.g. 1e-10) of
- * L (quadrature, then Newton's method on s(t) for each sample).
- *
- * Buffer, errors and safety as for `strake_sample_even_t`, plus NOT_CONVERGED when the
- * arc-length inversion fails (it does not on a curve whose speed stays positive).
- *
- * # Safety
- * As for `strake_sample_even_t`.
- */
-StrakeStatus strake_sample_even_arc(const struct StrakeSurface *surface,
-                                    const struct StrakeCurve *curve,
-                                    size_t n,
-                                    double arc_tolerance,
-                                    struct StrakeSample *buf,
-                                    size_t capacity,
-                                    size_t *count);
-
-/**
- * Samples `curve` on `surface` adaptively: the chord between consecutive samples stays within
- * `chord_tolerance` (host length unit) of the curve, and their arc-length spacing within
- * `max_step` (0 or INFINITY: no limit). Steps follow the space curvature
- * k = sqrt(kn^2 + kg^2): a chord of length L on radius 1/k deviates by
- * 1/k - sqrt(1/k^2 - L^2/4), so L <= 2 sqrt(2 d/k - d^2) for tolerance d; each step is then
- * verified by measuring the deviation at its quarters and shrunk if needed. The first sample
- * is at the start of the curve's domain, the last at its end; arc lengths to the relative
- * tolerance `arc_tolerance` (e.g. 1e-10).
- *
- * Buffer: as for `strake_sample_even_t`, except that the number of samples is known only
- * after sampling: when it exceeds `capacity`, the whole path is still sampled to count them,
- * `*count` receives the number needed, nothing is written to `buf`, and the call returns
- * `STRAKE_STATUS_BUFFER_TOO_SMALL`. The result is deterministic: calling again with
- * `capacity` >= `*count` writes exactly those samples. (A size query with `buf` = NULL,
- * `capacity` = 0 costs one full sampling.)
- *
- * Errors: NULL_POINTER; INVALID_ARGUMENT (`chord_tolerance` not positive and finite,
- * `max_step` negative or NaN, `arc_tolerance` not positive and finite, a tolerance below
- * round-off so that steps shrink below 1e-13 of the domain, more than 10 million samples
- * needed: the message names the sample that could not be placed); BUFFER_TOO_SMALL; and every
- * error of `strake_frame_at` at a sample, naming its index and t. Thread-safe.
- *
- * # Safety
- * As for `strake_sample_even_t`.
- */
-StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
-                                   const struct StrakeCurve *curve,
-                                   double chord_tolerance,
-                                   double max_step,
-                                   double arc_tolerance,
-                                   struct StrakeSample *buf,
-                                   size_t capacity,
-                                   size_t *count);
-
-/**
- * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
- * (signed: negative when t1 < t0), in the host's length unit, to the relative tolerance
- * `rel_tol` (e.g. 1e-10): s = integral of |c'(t)| dt by adaptive Gauss-Legendre quadrature.
- *
- * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
- * NULL_POINTER (`surface`, `curve`, `out`); NON_FINITE (`t0`, `t1`); INVALID_ARGUMENT
- * (`rel_tol` not positive and finite); OUT_OF_DOMAIN (a parameter outside the curve's domain);
- * and the evaluation errors of `strake_frame_at`. Thread-safe.
- *
- * # Safety
- * `surface`, `curve` NULL or live handles; `out` NULL or a writable double.
- */
-StrakeStatus strake_arc_length(const struct StrakeSurface *surface,
-                               const struct StrakeCurve *curve,
-                               double t0,
-                               double t1,
-                               double rel_tol,
-                               double *out);
-
-/**
- * The name of a status as a static NUL-terminated string, e.g. "STRAKE_STATUS_OUT_OF_DOMAIN",
- * for logs; "STRAKE_STATUS_UNKNOWN" for a number this version does not define. The string is
- * owned by the library and must not be freed. Never fails; thread-safe.
- */
-const char *strake_status_name(uint32_t status);
-
-/**
- * Declares where the surface's derivatives may jump: the distinct interior knots of the host's
- * NURBS in u (`u_lines`, `u_count` values) and in v (`v_lines`, `v_count`), each finite,
- * strictly inside the domain and strictly ascending. Arc length (`strake_arc_length` and the
- * sampling calls) then splits its quadrature where a curve crosses these lines; without them a
- * callback surface with repeated knots (e.g. rational conics) can fall short of a very tight
- * tolerance there (about 1e-8 relative on a quadratic circle). A count of 0 (the pointer may
- * then be NULL) goes back to what the surface knows itself: nothing for a callback surface,
- * the knots of a native NURBS surface. Frames do not depend on it.
- *
- * Returns `STRAKE_STATUS_OK` and replaces both lists; otherwise the handle is unchanged.
- * Errors: NULL_POINTER (`surface`, or a list with a count above 0); NON_FINITE (a value);
- * INVALID_ARGUMENT (a value outside the open domain, or not above its predecessor). Not
- * thread-safe on the same handle: no other call may use `surface` meanwhile.
- *
- * # Safety
- * `surface` NULL or a live handle not in use by another thread; each list NULL or `count`
- * readable doubles.
- */
-StrakeStatus strake_surface_set_knot_lines(struct StrakeSurface *surface,
-                                           const double *u_lines,
-                                           size_t u_count,
-                                           const double *v_lines,
-                                           size_t v_count);
-
-/**
- * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max].
- *
- * `flip_normal` = 0 takes N along Su x Sv, 1 takes N = -(Su x Sv)/|Su x Sv| (e.g. to put the
- * normal on the tool side). `user_data` is handed back to `f` unchanged and may be NULL. strake
- * calls `f` only with (u, v) inside the domain; a curve that leaves the domain gives
- * `STRAKE_STATUS_OUT_OF_DOMAIN` (no clamping).
- *
- * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
- * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
- * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (an empty or reversed range,
- * `flip_normal` not 0 or 1).
- *
- * # Safety
- * `f` must be NULL or a function with the signature of [`StrakeSurfaceFn`] honouring its
- * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
- */
-StrakeStatus strake_surface_from_callback(StrakeSurfaceFn f,
-                                          void *user_data,
-                                          double u_min,
-                                          double u_max,
-                                          double v_min,
-                                          double v_max,
-                                          int32_t flip_normal,
-                                          struct StrakeSurface **out);
-
-/**
- * Releases a surface. NULL is a no-op. The handle must not be used afterwards, nor be in use
- * by another thread.
- *
- * # Safety
- * `surface` must be NULL or a handle returned by a strake surface constructor and not yet
- * freed.
- */
-void strake_surface_free(struct StrakeSurface *surface);
-
-/**
- * The version of the library actually loaded, as "MAJOR.MINOR.PATCH" (a static NUL-terminated
- * string owned by the library; do not free it). Compare it with STRAKE_VERSION_STRING from the
- * header to detect a header/library mismatch. Never fails; thread-safe.
- */
-const char *strake_version(void);
+StrakeStatus strake_course_check(const struct StrakeSurface *surface,
+                                 const struct StrakeCurve *course,
+                                 const struct StrakeFibreLimits *limits,
+                                 size_t samples,
+                                 struct StrakeCourseCheck *out);
 
 #ifdef __cplusplus
 }  // extern "C"

@@ -128,6 +128,9 @@ pub enum StrakeError {
         which: &'static str,
         /// The host's own code, passed back unchanged.
         code: i32,
+        /// The text the callback handed back before failing (`strake_callback_report`, e.g.
+        /// the `what()` of a C++ exception), if any.
+        message: Option<String>,
     },
     /// A check over a whole path failed at one sample; `error` says why. The C ABI takes the
     /// status from `error`.
@@ -218,8 +221,16 @@ impl fmt::Display for StrakeError {
             StrakeError::NotConverged { what, iterations } => {
                 write!(f, "not converged after {iterations} iterations: {what}")
             }
-            StrakeError::Callback { which, code } => {
-                write!(f, "host {which} callback failed with code {code}")
+            StrakeError::Callback {
+                which,
+                code,
+                message,
+            } => {
+                write!(f, "host {which} callback failed with code {code}")?;
+                match message {
+                    Some(m) => write!(f, ": {m}"),
+                    None => Ok(()),
+                }
             }
             StrakeError::AtSample { index, error } => write!(f, "sample {index}: {error}"),
             StrakeError::GeodesicIncomplete {

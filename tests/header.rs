@@ -22,6 +22,143 @@ fn version_macros() -> String {
     )
 }
 
+/// The groups of the header's functions, in the header's order: a title, a lead comment, and
+/// the files of `src/ffi/` whose functions belong to it (in this order; within a file, the
+/// order of the source). A new file of `src/ffi/` with C functions must be added to a group
+/// here (the test says so); see DEVELOPERS.md "Adding a C function".
+const GROUPS: &[(&str, &str, &[&str])] = &[
+    (
+        "Version and errors",
+        "The library's version, the name of a status, and what the last failure on this thread\n \
+         * was. Host callbacks hand their own failure text back with strake_callback_report.",
+        &["version.rs", "status.rs", "message.rs"],
+    ),
+    (
+        "Surfaces",
+        "A surface strake holds: native NURBS data (copied), or the host's evaluator as a\n \
+         * callback (one point or many points per call). Evaluating a surface handle gives the\n \
+         * point and partial derivatives that the frame calls use.",
+        &[
+            "surface.rs",
+            "nurbs_surface.rs",
+            "batch_callback.rs",
+            "surface_evaluate.rs",
+        ],
+    ),
+    (
+        "Curves",
+        "The path as a curve (u(t), v(t)) in the surface's parameter plane: NURBS data, the\n \
+         * host's callback, a curve through points in (u, v) or in space, a NURBS curve in space\n \
+         * projected onto the surface; and the projection of points onto a surface.",
+        &["curve.rs", "path_curves.rs"],
+    ),
+    (
+        "Frames",
+        "The Darboux frame and its invariants (kn, kg, tg) with the principal curvatures: at one\n \
+         * t, at the host's array of t, at even t, over several threads, or from two jets.",
+        &["evaluate.rs", "parallel.rs"],
+    ),
+    (
+        "Sampling",
+        "Samples along a path with their arc length: at even t, even arc length, to a chord\n \
+         * tolerance, or at the host's t; and the arc length between two parameters.",
+        &["sampling.rs"],
+    ),
+    (
+        "Checks",
+        "What a machining or fibre-placement engineer asks of a sample or a whole path: local\n \
+         * gouging, scallop height and step-over, curvature-limited feed, fibre steering and\n \
+         * twist, the tool axis; and path summaries (extremes, intervals over a limit).",
+        &["checks.rs"],
+    ),
+    (
+        "Planning",
+        "Making the next path: geodesics traced from a point or between two points, offsets of a\n \
+         * path on the surface at a geodesic distance, fibre courses and the gaps and overlaps\n \
+         * between neighbouring courses.",
+        &["geodesics.rs", "courses.rs"],
+    ),
+];
+
+/// Which file of `src/ffi/` defines each exported function.
+fn function_files() -> std::collections::HashMap<String, String> {
+    let mut map = std::collections::HashMap::new();
+    let dir = root().join("src").join("ffi");
+    for entry in std::fs::read_dir(&dir).expect("src/ffi") {
+        let path = entry.unwrap().path();
+        if path.extension().is_none_or(|e| e != "rs") {
+            continue;
+        }
+        let file = path.file_name().unwrap().to_string_lossy().into_owned();
+        let text = std::fs::read_to_string(&path).unwrap();
+        for line in text.lines() {
+            if let Some(rest) = line.split_once("extern \"C\" fn ").map(|x| x.1) {
+                let name: String = rest
+                    .chars()
+                    .take_while(|c| c.is_alphanumeric() || *c == '_')
+                    .collect();
+                map.insert(name, file.clone());
+            }
+        }
+    }
+    map
+}
+
+/// Puts cbindgen's function declarations into the groups of [`GROUPS`], each group under a
+/// lead comment.
+fn group_functions(header: &str) -> String {
+    const OPEN: &str = "extern \"C\" {\n#endif // __cplusplus\n\n";
+    const CLOSE: &str = "\n#ifdef __cplusplus\n}  // extern \"C\"";
+    let start = header.find(OPEN).expect("the extern \"C\" block opens") + OPEN.len();
+    let end = header.find(CLOSE).expect("the extern \"C\" block closes");
+    let files = function_files();
+    let mut grouped: Vec<Vec<(usize, &str)>> = vec![Vec::new(); GROUPS.len()];
+    for block in header[start..end]
+        .split("\n\n")
+        .filter(|b| !b.trim().is_empty())
+    {
+        let decl = block
+            .lines()
+            .find(|l| !l.starts_with("/**") && !l.starts_with(" *"))
+            .expect("a declaration after the comment");
+        let name = decl[..decl.find('(').expect("a function")]
+            .rsplit([' ', '*'])
+            .next()
+            .unwrap();
+        let file = files
+            .get(name)
+            .unwrap_or_else(|| panic!("{name}: no `extern \"C\" fn {name}` in src/ffi"));
+        let (group, rank) = GROUPS
+            .iter()
+            .enumerate()
+            .find_map(|(g, (_, _, fs))| fs.iter().position(|f| f == file).map(|r| (g, r)))
+            .unwrap_or_else(|| {
+                panic!(
+                    "src/ffi/{file} (function {name}) is in no group of the header: add it to \
+                     GROUPS in tests/header.rs"
+                )
+            });
+        grouped[group].push((rank, block));
+    }
+    let mut out = String::from(&header[..start]);
+    for (g, (title, lead, _)) in GROUPS.iter().enumerate() {
+        // Stable: within a file, cbindgen's order (the order of the source).
+        grouped[g].sort_by_key(|(rank, _)| *rank);
+        out.push_str(&format!(
+            "/* ==== {title} {}\n * {lead}\n */\n\n",
+            "=".repeat(84 - title.len())
+        ));
+        for (_, block) in &grouped[g] {
+            out.push_str(block.trim_end_matches('\n'));
+            out.push_str("\n\n");
+        }
+    }
+    out.truncate(out.trim_end().len());
+    out.push('\n');
+    out.push_str(&header[end..]);
+    out
+}
+
 fn generate() -> String {
     let dir = root();
     let mut config =
@@ -37,7 +174,7 @@ fn generate() -> String {
         .expect("cbindgen generates the header");
     let mut out = Vec::new();
     bindings.write(&mut out);
-    String::from_utf8(out).expect("the header is UTF-8")
+    group_functions(&String::from_utf8(out).expect("the header is UTF-8"))
 }
 
 fn header_path() -> PathBuf {
@@ -176,6 +313,9 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_surface_from_callback",
         "strake_surface_set_knot_lines",
         "strake_version",
+        "strake_callback_report",
+        "strake_samples_at",
+        "strake_surface_evaluate",
         "strake_cutter_radii",
         "strake_check_rear_gouge",
         "strake_check_tow_edges",

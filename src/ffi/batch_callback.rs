@@ -8,7 +8,7 @@ use super::status::StrakeStatus;
 use super::surface::{StrakeSurface, callback_domain, publish};
 use super::types::StrakeSurfaceJet;
 use crate::engine::batch::CHUNK;
-use crate::error::{Result, StrakeError};
+use crate::error::Result;
 use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
 use crate::geometry::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
@@ -85,10 +85,7 @@ impl BatchCallbackSurface {
             )
         };
         if code != 0 {
-            return Err(StrakeError::Callback {
-                which: "surface batch",
-                code,
-            });
+            return Err(super::message::callback_error("surface batch", code));
         }
         for (o, j) in out.iter_mut().zip(&jets[..n]) {
             *o = SurfaceJet::from(j);

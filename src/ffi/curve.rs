@@ -7,7 +7,7 @@ use super::status::StrakeStatus;
 use super::surface::finite;
 use super::types::StrakeCurveJet;
 use crate::curve::UvCurve;
-use crate::error::{Result, StrakeError};
+use crate::error::Result;
 use crate::geometry::jet::{CurveJet, Interval};
 use crate::nurbs::{NurbsCurve, SpanHint};
 use std::ffi::c_void;
@@ -130,10 +130,7 @@ impl UvCurve for CallbackCurve {
         // SAFETY: the host promised a callback with this signature; `jet` is valid and zeroed.
         let code = unsafe { (self.f)(self.user_data, t, &mut jet) };
         if code != 0 {
-            return Err(StrakeError::Callback {
-                which: "curve",
-                code,
-            });
+            return Err(super::message::callback_error("curve", code));
         }
         Ok(CurveJet::from(&jet))
     }

@@ -126,6 +126,13 @@ const _: () = {
 /// one-point path are converted by [`StrakeFrame::new`].
 pub(crate) struct IntoScratch<'a>(&'a mut [MaybeUninit<StrakeFrame>]);
 
+impl<'a> IntoScratch<'a> {
+    /// The sink writing into `scratch`.
+    pub(crate) fn new(scratch: &'a mut [MaybeUninit<StrakeFrame>]) -> Self {
+        IntoScratch(scratch)
+    }
+}
+
 impl crate::engine::batch::FrameSink for IntoScratch<'_> {
     #[inline]
     fn room(&mut self, base: usize, len: usize) -> crate::engine::frame_block::FrameSlots<'_> {

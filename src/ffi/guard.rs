@@ -54,6 +54,7 @@ impl Failure {
 fn callback_code(e: &StrakeError) -> Option<i32> {
     match e {
         StrakeError::Callback { code, .. } => Some(*code),
+        StrakeError::AtPoint { error, .. } => callback_code(error),
         _ => None,
     }
 }
@@ -99,6 +100,9 @@ pub(crate) fn guard(
     func: &'static str,
     body: impl FnOnce() -> Result<(), Failure>,
 ) -> StrakeStatus {
+    // A report left by a callback in an earlier call must not be attached to this call's
+    // failure.
+    message::clear_callback_report();
     // Handles are immutable, so a panic cannot leave one half-changed: asserting unwind safety
     // is sound here.
     match catch_unwind(AssertUnwindSafe(body)) {
@@ -286,6 +290,7 @@ mod tests {
             Err(StrakeError::Callback {
                 which: "curve",
                 code: -12,
+                message: None,
             }
             .into())
         });

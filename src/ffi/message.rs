@@ -10,6 +10,36 @@ use std::ffi::c_char;
 thread_local! {
     static LAST_MESSAGE: RefCell<String> = const { RefCell::new(String::new()) };
     static LAST_CALLBACK_CODE: Cell<i32> = const { Cell::new(0) };
+    static CALLBACK_REPORT: RefCell<Option<String>> = const { RefCell::new(None) };
+}
+
+/// The longest report kept from a host callback, in bytes (longer text is cut at a character
+/// boundary and marked with "...").
+pub const CALLBACK_REPORT_MAX: usize = 1024;
+
+/// Forgets a report left by a host callback on this thread (each guarded call starts clean).
+pub(crate) fn clear_callback_report() {
+    let _ = CALLBACK_REPORT.try_with(|r| {
+        if let Ok(mut r) = r.try_borrow_mut() {
+            if r.is_some() {
+                *r = None;
+            }
+        }
+    });
+}
+
+/// The error for a host callback `which` that returned the non-zero `code`, carrying the text
+/// the callback left with `strake_callback_report` on this thread (taken, so it is used once).
+pub(crate) fn callback_error(which: &'static str, code: i32) -> crate::error::StrakeError {
+    let message = CALLBACK_REPORT
+        .try_with(|r| r.try_borrow_mut().ok().and_then(|mut r| r.take()))
+        .ok()
+        .flatten();
+    crate::error::StrakeError::Callback {
+        which,
+        code,
+        message,
+    }
 }
 
 /// Stores `message` as this thread's last message (and `callback_code` when a host callback
@@ -78,4 +108,46 @@ pub unsafe extern "C" fn strake_last_error_message(buf: *mut c_char, buf_len: us
 #[unsafe(no_mangle)]
 pub extern "C" fn strake_last_callback_code() -> i32 {
     super::guard::guard_value(0, || LAST_CALLBACK_CODE.try_with(Cell::get).unwrap_or(0))
+}
+
+/// Lets a host callback say why it fails: call it from inside a surface or curve callback,
+/// on the thread that runs the callback, right before returning a non-zero code. strake then
+/// puts the text into its error message ("host surface callback failed with code 3: TEXT"),
+/// which `strake_last_error_message` returns on the thread that made the failing call (also
+/// when a parallel call ran the callback on a worker thread). The C++ and Python wrappers pass
+/// an exception's text this way.
+///
+/// `message` is UTF-8 text (invalid bytes are replaced by U+FFFD), copied at once; text beyond
+/// 1024 bytes is cut and marked with "...". NULL forgets a report made earlier. A report is
+/// used by the next failing callback on this thread within the same strake call, then
+/// forgotten; a report left by a callback that then returned 0 is dropped when the next strake
+/// call starts. Cannot fail; never writes through `message`.
+///
+/// # Safety
+/// `message` must be NULL or a NUL-terminated string.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_callback_report(message: *const c_char) {
+    super::guard::guard_value((), || {
+        let text = if message.is_null() {
+            None
+        } else {
+            // SAFETY: the caller passes a NUL-terminated string.
+            let raw = unsafe { std::ffi::CStr::from_ptr(message) };
+            let mut text = String::from_utf8_lossy(raw.to_bytes()).into_owned();
+            if text.len() > CALLBACK_REPORT_MAX {
+                let mut n = CALLBACK_REPORT_MAX;
+                while !text.is_char_boundary(n) {
+                    n -= 1;
+                }
+                text.truncate(n);
+                text.push_str("...");
+            }
+            Some(text)
+        };
+        let _ = CALLBACK_REPORT.try_with(|r| {
+            if let Ok(mut r) = r.try_borrow_mut() {
+                *r = text;
+            }
+        });
+    })
 }

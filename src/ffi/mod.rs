@@ -43,6 +43,7 @@ pub mod path_curves;
 pub mod sampling;
 pub mod status;
 pub mod surface;
+pub mod surface_evaluate;
 pub mod types;
 pub mod version;
 
@@ -64,7 +65,7 @@ pub use geodesics::{
     strake_offset_free, strake_offset_loops, strake_offset_new, strake_offset_piece_curve,
     strake_offset_piece_points, strake_offset_summary,
 };
-pub use message::{strake_last_callback_code, strake_last_error_message};
+pub use message::{strake_callback_report, strake_last_callback_code, strake_last_error_message};
 pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
 pub use parallel::strake_frames_at_parallel;
 pub use path_curves::{
@@ -73,6 +74,7 @@ pub use path_curves::{
 };
 pub use sampling::{
     strake_arc_length, strake_sample_chordal, strake_sample_even_arc, strake_sample_even_t,
+    strake_samples_at,
 };
 pub use status::{StrakeStatus, strake_status_name};
 pub use surface::{
@@ -80,6 +82,7 @@ pub use surface::{
     strake_surface_set_knot_lines,
 };
 pub use types::{StrakeCourseCheck, StrakeCourseGap};
+pub use surface_evaluate::strake_surface_evaluate;
 pub use types::{
     StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
     StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,

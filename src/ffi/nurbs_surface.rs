@@ -14,7 +14,7 @@ use crate::nurbs::NurbsSurfaceData;
 /// use the same layout (`weights[i count_v + j]`). The surface is
 /// S(u, v) = Σ N_i,p(u) N_j,q(v) w_ij P_ij / Σ N_i,p(u) N_j,q(v) w_ij over the domain
 /// `[knots_u[degree_u], knots_u[count_u]] × [knots_v[degree_v], knots_v[count_v]]` (The NURBS
-/// Book, 2nd ed., eq. 4.15, equation number from memory).
+/// Book, 2nd ed., chapter 4: the definition of a NURBS surface).
 #[repr(C)]
 #[derive(Debug, Clone, Copy)]
 pub struct StrakeNurbsSurfaceData {

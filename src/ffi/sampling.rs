@@ -235,3 +235,80 @@ pub unsafe extern "C" fn strake_arc_length(
         Ok(())
     })
 }
+
+/// Computes the frames at the host's `count` curve parameters `ts`, each with its arc length
+/// from the start of the curve's domain: `out[i].frame` is what `strake_frames_at` gives at
+/// `ts[i]`, and `out[i].arc_length` = s(`ts[i]`) = integral of |c'(t)| dt from t_min to `ts[i]`
+/// (adaptive Gauss-Legendre quadrature between consecutive parameters to the relative tolerance
+/// `arc_tolerance`, e.g. 1e-10, summed; signed, so a parameter below the one before it gets a
+/// smaller s). The result feeds `strake_path_extremes` and `strake_path_violations` directly:
+/// a host with its own parameters evaluates the path once.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+/// message names the failing sample's index and t. Errors: those of `strake_frames_at`, plus
+/// INVALID_ARGUMENT (`arc_tolerance` not positive and finite) and NOT_CONVERGED (the
+/// quadrature between two samples, which also names the sample). Thread-safe.
+///
+/// # Safety
+/// `surface`, `curve` NULL or live handles; `ts` NULL or `count` doubles; `out` NULL or room
+/// for `count` samples, not overlapping `ts`.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_samples_at(
+    surface: *const StrakeSurface,
+    curve: *const StrakeCurve,
+    ts: *const f64,
+    count: usize,
+    arc_tolerance: f64,
+    out: *mut StrakeSample,
+) -> StrakeStatus {
+    guard("strake_samples_at", || {
+        // SAFETY: the caller passes live handles or NULL, and `count` readable doubles at `ts`.
+        let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
+        let ts = unsafe { super::guard::input_slice(ts, count, "ts", "count")? };
+        let slot = output(out, "out")?;
+        super::guard::check_count::<StrakeSample>(count, "count")?;
+        if !(arc_tolerance.is_finite() && arc_tolerance > 0.0) {
+            return Err(Failure::invalid(format!(
+                "`arc_tolerance` = {arc_tolerance} must be positive and finite (e.g. 1e-10)"
+            )));
+        }
+        let pair = CurveOnSurface::new(s.source(), c.curve());
+        let mut frames = super::evaluate::scratch(count)?;
+        crate::engine::batch::frames_blocked_into(
+            pair.surface(),
+            pair.curve(),
+            pair.scales(),
+            count,
+            &mut crate::paths::curve_on_surface::Hints::default(),
+            |i| ts[i],
+            &mut super::evaluate::IntoScratch::new(&mut frames),
+        )?;
+        let mut samples: Vec<StrakeSample> = Vec::new();
+        samples.try_reserve_exact(count).map_err(|_| {
+            Failure::invalid(format!("cannot allocate scratch space for {count} samples"))
+        })?;
+        // Every frame was evaluated, so every t lies inside the domain.
+        let (mut t_prev, mut s_prev) = (pair.curve().domain().lo, 0.0);
+        for (index, (f, &t)) in frames.iter().zip(ts).enumerate() {
+            let ds = arc_length(&pair, t_prev, t, arc_tolerance)
+                .map_err(|error| crate::paths::curve_on_surface::SampleError { index, t, error })?;
+            s_prev += ds;
+            t_prev = t;
+            samples.push(StrakeSample {
+                // SAFETY: frames_blocked_into succeeded, so every element was written.
+                frame: unsafe { f.assume_init_read() },
+                arc_length: s_prev,
+            });
+        }
+        // SAFETY: `out` checked non-null and aligned, room for `count` samples is the caller's
+        // contract; `samples` holds `count` samples and is our own buffer.
+        unsafe {
+            std::ptr::copy_nonoverlapping(
+                samples.as_ptr(),
+                slot.as_ptr().cast::<StrakeSample>(),
+                count,
+            )
+        };
+        Ok(())
+    })
+}

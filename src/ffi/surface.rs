@@ -243,10 +243,7 @@ impl SurfaceSource for CallbackSurface {
         // exclusively borrowed jet for the duration of the call.
         let code = unsafe { (self.f)(self.user_data, u, v, order as i32, &mut jet) };
         if code != 0 {
-            return Err(StrakeError::Callback {
-                which: "surface",
-                code,
-            });
+            return Err(super::message::callback_error("surface", code));
         }
         Ok(SurfaceJet::from(&jet))
     }

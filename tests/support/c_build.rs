@@ -61,6 +61,31 @@ pub fn library_dir() -> Result<PathBuf, String> {
         })
 }
 
+/// The shared library's SONAME (`libstrake.so.MAJOR`, set by `build.rs` on ELF systems): a
+/// program linked against `libstrake.so` records this name and looks for it at run time.
+pub fn soname() -> String {
+    format!("libstrake.so.{}", env!("CARGO_PKG_VERSION_MAJOR"))
+}
+
+/// Makes the SONAME resolvable in the deps directory: a relative symbolic link
+/// `libstrake.so.MAJOR -> libstrake.so` beside the library cargo built (on ELF systems).
+pub fn link_soname(lib: &Path) -> Result<(), String> {
+    #[cfg(all(unix, not(target_os = "macos")))]
+    {
+        let link = lib.join(soname());
+        if std::fs::symlink_metadata(&link).is_err() {
+            match std::os::unix::fs::symlink(library_file_name(), &link) {
+                Ok(()) => {}
+                // Another test made it at the same moment.
+                Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {}
+                Err(e) => return Err(format!("cannot create {}: {e}", link.display())),
+            }
+        }
+    }
+    let _ = lib;
+    Ok(())
+}
+
 /// A directory for compiled C programs, inside the target directory.
 pub fn build_dir() -> Result<PathBuf, String> {
     let lib = library_dir()?;
@@ -74,6 +99,7 @@ pub fn build_dir() -> Result<PathBuf, String> {
 /// library linked with an rpath so that the program runs without any environment setup.
 pub fn compile(sources: &[PathBuf], output: &Path, extra: &[&str]) -> Result<(), String> {
     let lib = library_dir()?;
+    link_soname(&lib)?;
     let mut cmd = Command::new(compiler());
     cmd.args(STRICT_FLAGS).args(extra);
     cmd.arg("-I").arg(root().join("include"));
