@@ -16,6 +16,9 @@
 //! (an inflection, a straight line) |κ| has a corner and the rate reported is the one-sided
 //! one, √((dκn/ds)² + (dκg/ds)²).
 
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
+
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geometry::frame::DarbouxFrame;
 use crate::geometry::jet::{CurvePartials, SurfacePartials};

@@ -2,6 +2,9 @@
 //! Book, 2nd ed., A2.3 DersBasisFuns, p. 72). The second-order evaluation keeps its own
 //! unrolled rows (`basis.rs`); this is a separate path, so its bits and speed are unchanged.
 
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
+
 use crate::geometry::jet::MAX_PARTIAL_ORDER;
 
 /// Rows of derivatives: `ders[k][r]` = k-th derivative of N_{span−p+r, p}(u), k ≤ `n`
@@ -129,7 +132,11 @@ mod tests {
                 assert!((d[k][r] - r2.d[k][r]).abs() < 1e-12);
             }
             let fd = (rp.d[2][r] - rm.d[2][r]) / (2.0 * h);
-            assert!((d[3][r] - fd).abs() < 1e-6 * (1.0 + fd.abs()), "{} {fd}", d[3][r]);
+            assert!(
+                (d[3][r] - fd).abs() < 1e-6 * (1.0 + fd.abs()),
+                "{} {fd}",
+                d[3][r]
+            );
             assert_eq!(d[4][r], 0.0);
         }
         // Partition of unity: the derivatives of Σ N sum to zero.
