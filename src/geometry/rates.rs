@@ -7,7 +7,7 @@
 //! last from the third Darboux equation). Their t-derivatives need c''' (third partials of
 //! S and u''', v'') and dN/dt to second order (again third partials of S). Rather than expand
 //! the long closed forms by hand, every quantity is carried as a truncated Taylor series in t
-//! ([`crate::geometry::taylor`]): S(u(t), v(t)) and its partials along the curve by the
+//! (the crate-internal `geometry::taylor`): S(u(t), v(t)) and its partials along the curve by the
 //! bivariate Taylor expansion, then T, N, B and the invariants by series arithmetic. The
 //! result is d/dt of each invariant, divided by |c'| for d/ds. The tests compare it with a
 //! symbolic differentiation (sympy, `tests/reference/rates.py`) and closed forms.

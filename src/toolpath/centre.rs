@@ -55,7 +55,7 @@ pub struct ToolSetup {
     pub cutter: Cutter,
     /// The side of the surface the tool is on.
     pub side: ToolSide,
-    /// Lead and tilt (see [`crate::checks::tool_axis`]).
+    /// Lead and tilt (see the module `crate::checks::tool_axis`).
     pub angles: ToolAngles,
 }
 
