@@ -204,7 +204,7 @@ fn rates_and_centre_path_match_the_symbolic_route() {
         }
         lines += 1;
     }
-    assert_eq!(lines, 27);
+    assert_eq!(lines, 21);
 }
 
 fn centre_at(s: &AnalyticSurface, c: &NurbsCurve<2>, st: &ToolSetup, t: f64) -> CentrePoint {
