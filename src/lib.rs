@@ -22,6 +22,7 @@ pub mod nurbs;
 pub mod paths;
 pub mod planning;
 pub mod surface;
+pub mod toolpath;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
@@ -39,8 +40,10 @@ pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
 pub use geometry::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
+pub use geometry::jet::{CurvePartials, MAX_PARTIAL_ORDER, SurfacePartials};
 pub use geometry::math::Vec3;
 pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
+pub use geometry::rates::{InvariantRates, invariant_rates};
 pub use nurbs::{
     EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
     SpanHint, interpolate,
@@ -58,3 +61,7 @@ pub use planning::courses::{
     fixed_angle_course, natural_course,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
+pub use toolpath::{
+    CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
+    centre_point,
+};

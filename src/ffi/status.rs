@@ -68,6 +68,14 @@ pub enum StrakeStatus {
     /// 31: the host's curve callback returned a non-zero code; the code is in the message and
     /// in `strake_last_callback_code`.
     CurveCallbackFailed = 31,
+    /// 32: the host's surface or curve does not provide the derivative order this call needs
+    /// (rates of change of the invariants and the tool-centre path's curvature need third
+    /// order, its rate of change fourth); the message names the source and both orders.
+    OrderUnavailable = 32,
+    /// 40: the tool-centre path folds back on itself at a sample (its speed relative to the
+    /// contact path is zero or reversed: a cutter larger than a concave radius); the message
+    /// names the first sample and how many fold. Nothing is written.
+    CentrePathFolds = 40,
     /// 50: a geodesic trace could not go on: its error estimate stayed above the tolerance
     /// while the step shrank to its floor, or it used up its step cap (the message names the
     /// arc length and (u, v) reached).
@@ -108,11 +116,13 @@ impl StrakeStatus {
             StrakeError::GeodesicIncomplete { .. } => StrakeStatus::GeodesicIncomplete,
             StrakeError::GeodesicNotFound { .. } => StrakeStatus::GeodesicNotFound,
             StrakeError::LeavesSurface { .. } => StrakeStatus::LeavesSurface,
+            StrakeError::OrderUnavailable { .. } => StrakeStatus::OrderUnavailable,
+            StrakeError::CentrePathFolds { .. } => StrakeStatus::CentrePathFolds,
         }
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 20] = [
+    pub const ALL: [StrakeStatus; 22] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -129,6 +139,8 @@ impl StrakeStatus {
         StrakeStatus::NotConverged,
         StrakeStatus::SurfaceCallbackFailed,
         StrakeStatus::CurveCallbackFailed,
+        StrakeStatus::OrderUnavailable,
+        StrakeStatus::CentrePathFolds,
         StrakeStatus::GeodesicIncomplete,
         StrakeStatus::GeodesicNotFound,
         StrakeStatus::LeavesSurface,
@@ -157,6 +169,8 @@ impl StrakeStatus {
             StrakeStatus::GeodesicIncomplete => c"STRAKE_STATUS_GEODESIC_INCOMPLETE",
             StrakeStatus::GeodesicNotFound => c"STRAKE_STATUS_GEODESIC_NOT_FOUND",
             StrakeStatus::LeavesSurface => c"STRAKE_STATUS_LEAVES_SURFACE",
+            StrakeStatus::OrderUnavailable => c"STRAKE_STATUS_ORDER_UNAVAILABLE",
+            StrakeStatus::CentrePathFolds => c"STRAKE_STATUS_CENTRE_PATH_FOLDS",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }
     }

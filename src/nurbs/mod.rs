@@ -6,6 +6,7 @@ pub mod basis;
 pub mod conics;
 pub mod curve;
 mod curve_lanes;
+mod high_order;
 pub mod interpolate;
 pub mod knots;
 mod quad;
