@@ -135,6 +135,10 @@ fn parse_raw(text: &str) -> Raw {
             "course_points" => r.course_points = triples(numbers(rest)),
             "course_setup" => r.course_setup = numbers(rest),
             "course_sample" => r.course.push(indexed(line, rest, r.course.len())),
+            // What the pictures need (examples/plots/raw.rs reads them; tests/pictures.rs
+            // checks them against the lines above).
+            "mill_frame" | "course_frame" | "cavity_grid_size" | "cavity_grid" | "wing_grid_size"
+            | "wing_grid" => {}
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }
