@@ -46,13 +46,15 @@ pub const PATH_COLOUR: RGBColor = RGBColor(255, 255, 255);
 pub const FAIL_COLOUR: RGBColor = OKABE_ITO[6];
 /// The colour of a second kind of failure on a surface (the fibre course's twist).
 pub const FAIL_COLOUR_2: RGBColor = OKABE_ITO[7];
+/// The colour of the fibre course.
+pub const COURSE_COLOUR: RGBColor = RGBColor(0, 0, 0);
 /// The colour of tool axes.
 pub const AXIS_COLOUR: RGBColor = OKABE_ITO[1];
 
 const FONT: &str = "sans-serif";
-const TITLE_PX: u32 = 28;
-const LABEL_PX: u32 = 21;
-const TICK_PX: u32 = 18;
+const TITLE_PX: u32 = 32;
+const LABEL_PX: u32 = 25;
+const TICK_PX: u32 = 22;
 const WIDTH: u32 = 1100;
 
 /// The curvature a surface is shaded by (chosen by the user).
@@ -216,6 +218,27 @@ struct Panel<'a> {
     shaded: Vec<&'a Stretch>,
     limits: Vec<(String, f64)>,
     y_range: Option<(f64, f64)>,
+    /// What a shaded interval means.
+    shaded_label: &'a str,
+    legend: SeriesLabelPosition,
+}
+
+/// Tick labels with as many decimals as the tick spacing of `span` needs.
+fn tick_format(span: f64) -> impl Fn(&f64) -> String {
+    let step = span / 6.0;
+    let decimals = if step > 0.0 && step.is_finite() {
+        (-step.log10().floor()).clamp(0.0, 8.0) as usize
+    } else {
+        2
+    };
+    move |v: &f64| {
+        let t = format!("{v:.decimals$}");
+        if t.starts_with('-') && t.trim_start_matches(['-', '0', '.']).is_empty() {
+            t[1..].to_string()
+        } else {
+            t
+        }
+    }
 }
 
 fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) -> Result<(), String> {
@@ -246,6 +269,8 @@ fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) ->
         .light_line_style(TRANSPARENT)
         .x_labels(10)
         .y_labels(6)
+        .x_label_formatter(&tick_format(length))
+        .y_label_formatter(&tick_format(hi - lo))
         .draw()
         .map_err(err)?;
     let fill = VIOLATION_FILL.mix(VIOLATION_OPACITY).filled();
@@ -258,7 +283,7 @@ fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) ->
             .map_err(err)?;
         if k == 0 {
             series
-                .label(format!("{} exceeded", st.kind))
+                .label(panel.shaded_label)
                 .legend(move |(x, y)| Rectangle::new([(x, y - 8), (x + 28, y + 8)], fill));
         }
     }
@@ -292,7 +317,7 @@ fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) ->
     }
     chart
         .configure_series_labels()
-        .position(SeriesLabelPosition::UpperRight)
+        .position(panel.legend.clone())
         .background_style(WHITE.mix(0.85))
         .border_style(RGBColor(150, 150, 150))
         .label_font((FONT, TICK_PX))
@@ -332,6 +357,8 @@ pub fn pass_curvatures(samples: &[Sample]) -> Result<String, String> {
             shaded: vec![],
             limits: vec![],
             y_range: None,
+            shaded_label: "",
+            legend: SeriesLabelPosition::UpperRight,
         };
         draw_panel(
             &area,
@@ -372,6 +399,8 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
             shaded: kinds("gouge"),
             limits: vec![(format!("1/r of the ball, r = {r} mm"), 1.0 / r)],
             y_range: None,
+            shaded_label: "the ball gouges",
+            legend: SeriesLabelPosition::UpperMiddle,
         };
         draw_panel(
             &panels[0],
@@ -400,6 +429,8 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                 pass.scallop_limit,
             )],
             y_range: Some((lo.max(0.0), hi)),
+            shaded_label: "scallop above the limit",
+            legend: SeriesLabelPosition::LowerMiddle,
         };
         draw_panel(
             &panels[1],
@@ -433,6 +464,8 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                 60.0 * pass.programmed_feed,
             )],
             y_range: None,
+            shaded_label: "feed held below the programmed feed",
+            legend: SeriesLabelPosition::LowerMiddle,
         };
         draw_panel(
             &panels[2],
@@ -470,7 +503,9 @@ impl View {
 }
 
 /// The range the colour bar spans: from the 2nd to the 98th percentile of the values (so a few
-/// extreme corners do not wash out the rest), widened to include 0 and `mark` when given.
+/// extreme corners do not wash out the rest), widened to include 0; with a `mark` (a limit),
+/// from the lower end to as far above the mark, so the mark sits in the middle. Values beyond
+/// the range take the end colours (the colour bar says so).
 pub fn colour_range(values: &[f64], mark: Option<f64>) -> (f64, f64) {
     let mut v: Vec<f64> = values.iter().copied().filter(|x| x.is_finite()).collect();
     if v.is_empty() {
@@ -480,8 +515,9 @@ pub fn colour_range(values: &[f64], mark: Option<f64>) -> (f64, f64) {
     let at = |q: f64| v[((v.len() - 1) as f64 * q).round() as usize];
     let (mut lo, mut hi) = (at(0.02), at(0.98));
     if let Some(m) = mark {
-        lo = lo.min(m);
-        hi = hi.max(m * 1.5);
+        // The mark in the middle of the bar: the colours tell below from above it.
+        lo = lo.min(0.0);
+        hi = 2.0 * m - lo;
     }
     lo = lo.min(0.0);
     if hi <= lo {
@@ -494,10 +530,30 @@ pub fn colour_range(values: &[f64], mark: Option<f64>) -> (f64, f64) {
 fn colour_bar(
     area: &Area<'_>,
     label: &str,
-    lo: f64,
-    hi: f64,
+    (lo, hi): (f64, f64),
+    values: &[f64],
     mark: Option<(String, f64)>,
 ) -> Result<(), String> {
+    let (w, h) = area.dim_in_pixel();
+    let note = |above: bool| {
+        let n = values
+            .iter()
+            .filter(|&&v| if above { v > hi } else { v < lo })
+            .count();
+        (n > 0).then(|| {
+            let pct = 100.0 * n as f64 / values.len() as f64;
+            format!("{pct:.0}% {} in end colour", if above { "above" } else { "below" })
+        })
+    };
+    let small = TextStyle::from((FONT, TICK_PX - 3).into_font());
+    if let Some(t) = note(true) {
+        area.draw(&Text::new(t, (8, 14), small.clone())).map_err(err)?;
+    }
+    if let Some(t) = note(false) {
+        area.draw(&Text::new(t, (8, h as i32 - 28), small))
+            .map_err(err)?;
+    }
+    let _ = w;
     let mut chart = ChartBuilder::on(area)
         .margin_top(40)
         .margin_bottom(40)
@@ -520,7 +576,8 @@ fn colour_bar(
     chart
         .draw_series((0..steps).map(|k| {
             let a = lo + (hi - lo) * k as f64 / steps as f64;
-            let b = lo + (hi - lo) * (k + 1) as f64 / steps as f64;
+            // Each step overlaps the next a little, so no seam shows between them.
+            let b = lo + (hi - lo) * (k as f64 + 1.3).min(steps as f64) / steps as f64;
             Rectangle::new(
                 [(0.0, a), (1.0, b)],
                 colour((k as f64 + 0.5) / steps as f64).filled(),
@@ -545,15 +602,17 @@ fn colour_bar(
     Ok(())
 }
 
-/// The pixel box a drawing of `(x, y)` screen points fills with equal scales on both axes.
-fn equal_axes(points: &[(f64, f64)], w: f64, h: f64) -> ((f64, f64), (f64, f64)) {
+/// The ranges for a `w` x `h` pixel plotting area that show the `(x, y)` screen points with
+/// equal scales on both axes, in the upper `1 - reserve` of the height (the rest left free
+/// below them for a legend and a note).
+fn equal_axes(points: &[(f64, f64)], w: f64, h: f64, reserve: f64) -> ((f64, f64), (f64, f64)) {
     let (x0, x1) = range(points.iter().map(|p| p.0));
     let (y0, y1) = range(points.iter().map(|p| p.1));
-    let scale = ((x1 - x0) / w).max((y1 - y0) / h);
-    let (cx, cy) = (0.5 * (x0 + x1), 0.5 * (y0 + y1));
+    let scale = ((x1 - x0) / w).max((y1 - y0) / (h * (1.0 - reserve)));
+    let cx = 0.5 * (x0 + x1);
     (
         (cx - 0.5 * scale * w, cx + 0.5 * scale * w),
-        (cy - 0.5 * scale * h, cy + 0.5 * scale * h),
+        (y1 - scale * h, y1),
     )
 }
 
@@ -652,12 +711,12 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             .map_err(err)?;
         let (left, right) = area.split_horizontally(WIDTH - 230);
         let (w, h) = left.dim_in_pixel();
-        let (xr, yr) = equal_axes(&screen, w as f64 - 20.0, h as f64 - 110.0);
+        let (xr, yr) = equal_axes(&screen, w as f64 - 20.0, h as f64 - 20.0, 0.18);
         let mut chart = ChartBuilder::on(&left)
             .margin(10)
             .x_label_area_size(0)
             .y_label_area_size(0)
-            .build_cartesian_2d(xr.0..xr.1, yr.0 - 0.12 * (yr.1 - yr.0)..yr.1)
+            .build_cartesian_2d(xr.0..xr.1, yr.0..yr.1)
             .map_err(err)?;
         draw_surface(
             &mut chart,
@@ -679,6 +738,9 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 .collect()
         };
         let all: Vec<&Sample> = pass.samples.iter().collect();
+        chart
+            .draw_series(std::iter::once(PathElement::new(line(&all), BLACK.stroke_width(7))))
+            .map_err(err)?;
         chart
             .draw_series(std::iter::once(PathElement::new(
                 line(&all),
@@ -737,7 +799,7 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             .margin(8)
             .draw()
             .map_err(err)?;
-        let (bx, by) = (xr.1 - 0.01 * (xr.1 - xr.0), yr.0 - 0.06 * (yr.1 - yr.0));
+        let (bx, by) = (xr.1 - 0.01 * (xr.1 - xr.0), yr.0 + 0.05 * (yr.1 - yr.0));
         chart
             .draw_series(std::iter::once(Text::new(
                 format!(
@@ -755,8 +817,8 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
         colour_bar(
             &right,
             shade.label(),
-            lo,
-            hi,
+            (lo, hi),
+            &values,
             limit.map(|m| ("1/r".to_string(), m)),
         )?;
         root.present().map_err(err)?;
@@ -838,9 +900,13 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 }
             }
         }
+        let uv: Vec<(f64, f64)> = pass.samples.iter().map(|s| (s.u, s.v)).collect();
+        chart
+            .draw_series(std::iter::once(PathElement::new(uv.clone(), BLACK.stroke_width(7))))
+            .map_err(err)?;
         chart
             .draw_series(std::iter::once(PathElement::new(
-                pass.samples.iter().map(|s| (s.u, s.v)).collect::<Vec<_>>(),
+                uv,
                 PATH_COLOUR.stroke_width(4),
             )))
             .map_err(err)?
@@ -876,8 +942,8 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
         colour_bar(
             &right,
             shade.label(),
-            lo,
-            hi,
+            (lo, hi),
+            &values,
             limit.map(|m| ("1/r".to_string(), m)),
         )?;
         root.present().map_err(err)?;
@@ -916,7 +982,7 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
             })
             .collect();
         let (w, h) = top.dim_in_pixel();
-        let (xr, yr) = equal_axes(&screen, w as f64 - 20.0, h as f64 - 20.0);
+        let (xr, yr) = equal_axes(&screen, w as f64 - 20.0, h as f64 - 20.0, 0.1);
         let mut chart = ChartBuilder::on(&top)
             .margin(10)
             .build_cartesian_2d(xr.0..xr.1, yr.0..yr.1)
@@ -944,10 +1010,15 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
         };
         let all: Vec<&Sample> = samples.iter().collect();
         chart
-            .draw_series(std::iter::once(PathElement::new(line(&all), BLACK.stroke_width(4))))
+            .draw_series(std::iter::once(PathElement::new(
+                line(&all),
+                COURSE_COLOUR.stroke_width(4),
+            )))
             .map_err(err)?
             .label(format!("the course ({} mm tow)", course.tow_width))
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(4)));
+            .legend(|(x, y)| {
+                PathElement::new(vec![(x, y), (x + 28, y)], COURSE_COLOUR.stroke_width(4))
+            });
         for (kind, c, width, text) in [
             ("steering", FAIL_COLOUR, 12, "steering radius too small"),
             ("twist", FAIL_COLOUR_2, 6, "twist rate too high"),
@@ -1002,6 +1073,8 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 1000.0 / course.min_radius,
             )],
             y_range: None,
+            shaded_label: "steering radius too small",
+            legend: SeriesLabelPosition::UpperLeft,
         };
         draw_panel(&panels[0], "Steering: the tows buckle where |κg| is above its limit", length, &steer)?;
         let twist = Panel {
@@ -1018,6 +1091,8 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 1000.0 * course.max_twist,
             )],
             y_range: None,
+            shaded_label: "twist rate too high",
+            legend: SeriesLabelPosition::UpperLeft,
         };
         draw_panel(&panels[1], "Twist: the tow turns about its own axis by τg", length, &twist)?;
         root.present().map_err(err)?;
