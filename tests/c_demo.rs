@@ -137,8 +137,8 @@ fn parse_raw(text: &str) -> Raw {
             "course_sample" => r.course.push(indexed(line, rest, r.course.len())),
             // What the pictures need (examples/plots/raw.rs reads them; tests/pictures.rs
             // checks them against the lines above).
-            "mill_frame" | "course_frame" | "cavity_grid_size" | "cavity_grid" | "wing_grid_size"
-            | "wing_grid" => {}
+            "mill_frame" | "course_frame" | "cavity_grid_size" | "cavity_grid"
+            | "wing_grid_size" | "wing_grid" => {}
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }

@@ -114,7 +114,11 @@ impl Svg {
     /// The x axes: rows of numeric tick labels (same y, centred), top to bottom.
     fn x_axes(&self) -> Vec<(f64, Vec<(f64, f64)>)> {
         let mut rows: Vec<(f64, Vec<(f64, f64)>)> = Vec::new();
-        for t in self.texts.iter().filter(|t| t.anchor == "middle" && !t.rotated) {
+        for t in self
+            .texts
+            .iter()
+            .filter(|t| t.anchor == "middle" && !t.rotated)
+        {
             let Ok(v) = t.content.parse::<f64>() else {
                 continue;
             };
@@ -158,7 +162,10 @@ fn fit(ticks: &[(f64, f64)]) -> (f64, f64) {
         / ticks.iter().map(|t| (t.1 - mv).powi(2)).sum::<f64>();
     let a = mp - b * mv;
     for t in ticks {
-        assert!((a + b * t.1 - t.0).abs() <= 1.0, "tick {t:?} off the axis line");
+        assert!(
+            (a + b * t.1 - t.0).abs() <= 1.0,
+            "tick {t:?} off the axis line"
+        );
     }
     (a, b)
 }
@@ -408,7 +415,7 @@ fn kinds<'a>(all: &'a [Stretch], kind: &str) -> Vec<&'a Stretch> {
 #[test]
 fn curvatures_along_the_pass_are_drawn_at_their_values() {
     let pass = small_pass();
-    let svg = read(&plots::pass_curvatures(&pass.samples).unwrap());
+    let svg = read(&plots::pass_curvatures(&pass).unwrap());
     for t in [
         "The Darboux frame's curvatures along the finishing pass",
         "arc length along the path s (mm)",
@@ -422,10 +429,49 @@ fn curvatures_along_the_pass_are_drawn_at_their_values() {
     let p = panels(&svg);
     assert_eq!(p.len(), 1);
     let data = |f: fn(&Sample) -> f64| pass.samples.iter().map(|x| (x.s, f(x))).collect::<Vec<_>>();
-    drawn_at("κn", series(&svg, plots::OKABE_ITO[5], 3.0), &data(|x| x.kn), &p[0]);
-    drawn_at("τg", series(&svg, plots::OKABE_ITO[3], 3.0), &data(|x| x.tg), &p[0]);
+    drawn_at(
+        "κn",
+        series(&svg, plots::OKABE_ITO[5], 3.0),
+        &data(|x| x.kn),
+        &p[0],
+    );
+    drawn_at(
+        "τg",
+        series(&svg, plots::OKABE_ITO[3], 3.0),
+        &data(|x| x.tg),
+        &p[0],
+    );
     // κg is dashed: its dashes lie on the data's line.
-    assert!(svg.lines.iter().filter(|l| l.0 == hex(plots::OKABE_ITO[1])).count() > 10);
+    assert!(
+        svg.lines
+            .iter()
+            .filter(|l| l.0 == hex(plots::OKABE_ITO[1]))
+            .count()
+            > 10
+    );
+    // The pass crosses the knot line u = 0.4 at s = 700/9 (u = 0.05 + 0.0045 s) and v = 0.5 at
+    // s = 40 pi (v = 0.5 + 0.2 sin(s/40)); each is marked by a dotted vertical line.
+    svg.has_text("crosses a knot line");
+    for s in [700.0 / 9.0, 40.0 * std::f64::consts::PI] {
+        let x = p[0].x.0 + p[0].x.1 * s;
+        let dashes = svg
+            .lines
+            .iter()
+            .filter(|l| {
+                l.0 == hex(plots::KNOT_COLOUR) && l.2.iter().all(|q| (q.0 - x).abs() <= 1.5)
+            })
+            .count();
+        assert!(dashes >= 5, "no knot-crossing mark at s = {s}");
+    }
+    let mut columns: Vec<(f64, usize)> = Vec::new();
+    for l in svg.lines.iter().filter(|l| l.0 == hex(plots::KNOT_COLOUR)) {
+        match columns.iter_mut().find(|c| (c.0 - l.2[0].0).abs() <= 1.5) {
+            Some(c) => c.1 += 1,
+            None => columns.push((l.2[0].0, 1)),
+        }
+    }
+    let marked = columns.iter().filter(|c| c.1 >= 5).count();
+    assert_eq!(marked, 2, "only the two crossings are marked: {columns:?}");
 }
 
 #[test]
@@ -451,10 +497,19 @@ fn checks_along_the_pass_shade_every_violation_at_its_arc_lengths() {
     let p = panels(&svg);
     assert_eq!(p.len(), 3);
     for (k, kind) in ["gouge", "scallop", "feed"].iter().enumerate() {
-        same_stretches(kind, &shaded(&svg, &p[k]), &kinds(&pass.stretches, kind), &p[k]);
+        same_stretches(
+            kind,
+            &shaded(&svg, &p[k]),
+            &kinds(&pass.stretches, kind),
+            &p[k],
+        );
     }
     let along = |v: &[f64], scale: f64| -> Vec<(f64, f64)> {
-        pass.samples.iter().zip(v).map(|(x, y)| (x.s, scale * y)).collect()
+        pass.samples
+            .iter()
+            .zip(v)
+            .map(|(x, y)| (x.s, scale * y))
+            .collect()
     };
     let k1: Vec<f64> = pass.samples.iter().map(|x| x.k1).collect();
     let band = |a: &Axes| (a.top, a.bottom);
@@ -485,7 +540,13 @@ fn checks_along_the_pass_shade_every_violation_at_its_arc_lengths() {
     pass.centre_feed = Some(centre);
     let svg = read(&plots::pass_checks(&pass).unwrap());
     svg.has_text("feed of the tool centre");
-    assert!(svg.lines.iter().filter(|l| l.0 == hex(plots::OKABE_ITO[1])).count() > 10);
+    assert!(
+        svg.lines
+            .iter()
+            .filter(|l| l.0 == hex(plots::OKABE_ITO[1]))
+            .count()
+            > 10
+    );
 }
 
 /// The cividis colour of x in [0, 1], interpolated from the published table (written here
@@ -621,7 +682,12 @@ fn parameter_plane_map_draws_the_pass_at_its_u_v() {
     let p = panels(&svg);
     assert_eq!(p.len(), 1);
     let uv: Vec<(f64, f64)> = pass.samples.iter().map(|x| (x.u, x.v)).collect();
-    drawn_at("pass in (u, v)", series(&svg, plots::PATH_COLOUR, 4.0), &uv, &p[0]);
+    drawn_at(
+        "pass in (u, v)",
+        series(&svg, plots::PATH_COLOUR, 4.0),
+        &uv,
+        &p[0],
+    );
     // One cell per grid cell, spanning its (u, v) rectangle.
     let cells = svg
         .rects
@@ -649,21 +715,59 @@ fn wing_course_marks_steering_and_twist_violations() {
         svg.has_text(t);
     }
     assert_eq!(svg.polygons.len(), (wing.nu - 1) * (wing.nv - 1));
-    assert_eq!(series(&svg, plots::COURSE_COLOUR, 4.0).len(), course.samples.len());
-    let inside = |a: f64, b: f64| course.samples.iter().filter(|x| x.s >= a && x.s <= b).count();
-    assert_eq!(series(&svg, plots::FAIL_COLOUR, 12.0).len(), inside(100.0, 200.0));
-    assert_eq!(series(&svg, plots::FAIL_COLOUR_2, 6.0).len(), inside(300.0, 450.0));
+    assert_eq!(
+        series(&svg, plots::COURSE_COLOUR, 4.0).len(),
+        course.samples.len()
+    );
+    let inside = |a: f64, b: f64| {
+        course
+            .samples
+            .iter()
+            .filter(|x| x.s >= a && x.s <= b)
+            .count()
+    };
+    assert_eq!(
+        series(&svg, plots::FAIL_COLOUR, 12.0).len(),
+        inside(100.0, 200.0)
+    );
+    assert_eq!(
+        series(&svg, plots::FAIL_COLOUR_2, 6.0).len(),
+        inside(300.0, 450.0)
+    );
     let p = panels(&svg);
     assert_eq!(p.len(), 2);
     for (k, kind) in ["steering", "twist"].iter().enumerate() {
-        same_stretches(kind, &shaded(&svg, &p[k]), &kinds(&course.stretches, kind), &p[k]);
+        same_stretches(
+            kind,
+            &shaded(&svg, &p[k]),
+            &kinds(&course.stretches, kind),
+            &p[k],
+        );
     }
     limit_drawn(&svg, &p[0], 1000.0 / 1350.0);
     limit_drawn(&svg, &p[1], 0.1);
-    let kg: Vec<(f64, f64)> = course.samples.iter().map(|x| (x.s, 1000.0 * x.kg.abs())).collect();
-    drawn_at("|κg|", series_in(&svg, plots::OKABE_ITO[5], 3.0, (p[0].top, p[0].bottom)), &kg, &p[0]);
-    let tg: Vec<(f64, f64)> = course.samples.iter().map(|x| (x.s, 1000.0 * x.tg.abs())).collect();
-    drawn_at("|τg|", series_in(&svg, plots::OKABE_ITO[3], 3.0, (p[1].top, p[1].bottom)), &tg, &p[1]);
+    let kg: Vec<(f64, f64)> = course
+        .samples
+        .iter()
+        .map(|x| (x.s, 1000.0 * x.kg.abs()))
+        .collect();
+    drawn_at(
+        "|κg|",
+        series_in(&svg, plots::OKABE_ITO[5], 3.0, (p[0].top, p[0].bottom)),
+        &kg,
+        &p[0],
+    );
+    let tg: Vec<(f64, f64)> = course
+        .samples
+        .iter()
+        .map(|x| (x.s, 1000.0 * x.tg.abs()))
+        .collect();
+    drawn_at(
+        "|τg|",
+        series_in(&svg, plots::OKABE_ITO[3], 3.0, (p[1].top, p[1].bottom)),
+        &tg,
+        &p[1],
+    );
 }
 
 #[test]
@@ -704,7 +808,11 @@ fn demo_pictures_show_the_demo_numbers() {
     }
     let steer = column("course_sample", 4);
     for (x, c) in demo.course.samples.iter().zip(&steer) {
-        assert!((x.kg.abs() - c).abs() <= 1e-15, "|kg| {} vs steering {c}", x.kg);
+        assert!(
+            (x.kg.abs() - c).abs() <= 1e-15,
+            "|kg| {} vs steering {c}",
+            x.kg
+        );
     }
     // The cavity grid: x = 160 u, y = 100 v (control points at the Greville abscissae: linear
     // precision, The NURBS Book 2nd ed. ch. 2 [memory]); H and K from k1, k2 (do Carmo §3-3).
@@ -718,13 +826,21 @@ fn demo_pictures_show_the_demo_numbers() {
     let p = panels(&svg);
     for (k, kind) in ["gouge", "scallop", "feed"].iter().enumerate() {
         let want = kinds(&demo.pass.stretches, kind);
-        assert!(!want.is_empty(), "the demo exceeds its {kind} limit somewhere");
+        assert!(
+            !want.is_empty(),
+            "the demo exceeds its {kind} limit somewhere"
+        );
         same_stretches(kind, &shaded(&svg, &p[k]), &want, &p[k]);
     }
     let svg = read(&plots::wing_course(&demo.wing, &demo.course).unwrap());
     let p = panels(&svg);
     for (k, kind) in ["steering", "twist"].iter().enumerate() {
-        same_stretches(kind, &shaded(&svg, &p[k]), &kinds(&demo.course.stretches, kind), &p[k]);
+        same_stretches(
+            kind,
+            &shaded(&svg, &p[k]),
+            &kinds(&demo.course.stretches, kind),
+            &p[k],
+        );
     }
     for pic in plots::all(&demo, Shade::Concave).unwrap() {
         read(&pic.svg);

@@ -125,7 +125,11 @@ impl Shade {
 /// The cividis colour at `x` in [0, 1] (clamped), interpolated linearly between the table's
 /// entries.
 pub fn colour(x: f64) -> RGBColor {
-    let x = if x.is_finite() { x.clamp(0.0, 1.0) } else { 0.0 };
+    let x = if x.is_finite() {
+        x.clamp(0.0, 1.0)
+    } else {
+        0.0
+    };
     let table = &cividis::CIVIDIS;
     let f = x * (table.len() - 1) as f64;
     let i = (f.floor() as usize).min(table.len() - 2);
@@ -157,7 +161,7 @@ pub fn all(demo: &Demo, shade: Shade) -> Result<Vec<Picture>, String> {
     Ok(vec![
         Picture {
             name: "pass_curvatures.svg",
-            svg: pass_curvatures(&demo.pass.samples)?,
+            svg: pass_curvatures(&demo.pass)?,
         },
         Picture {
             name: "pass_checks.svg",
@@ -221,6 +225,43 @@ struct Panel<'a> {
     /// What a shaded interval means.
     shaded_label: &'a str,
     legend: SeriesLabelPosition,
+    /// Arc lengths where the path crosses a knot line of the surface (drawn as thin dotted
+    /// vertical lines: derivatives of the surface may jump there).
+    knots: Vec<f64>,
+}
+
+/// The colour of the knot-crossing marks.
+pub const KNOT_COLOUR: RGBColor = RGBColor(140, 140, 140);
+
+/// The arc lengths where a sampled path crosses the interior knot lines u = k or v = k, by
+/// linear interpolation between the samples on either side.
+pub fn knot_crossings(samples: &[Sample], knots_u: &[f64], knots_v: &[f64]) -> Vec<f64> {
+    let interior = |k: &[f64]| -> Vec<f64> {
+        let (a, b) = (k.first().copied(), k.last().copied());
+        let mut v: Vec<f64> = k
+            .iter()
+            .copied()
+            .filter(|x| Some(*x) != a && Some(*x) != b)
+            .collect();
+        v.dedup();
+        v
+    };
+    let mut out = Vec::new();
+    for (knots, pick) in [
+        (interior(knots_u), (|x: &Sample| x.u) as fn(&Sample) -> f64),
+        (interior(knots_v), |x: &Sample| x.v),
+    ] {
+        for w in samples.windows(2) {
+            let (a, b) = (pick(&w[0]), pick(&w[1]));
+            for &k in &knots {
+                if (a < k && k <= b) || (b < k && k <= a) {
+                    out.push(w[0].s + (k - a) / (b - a) * (w[1].s - w[0].s));
+                }
+            }
+        }
+    }
+    out.sort_by(f64::total_cmp);
+    out
 }
 
 /// Tick labels with as many decimals as the tick spacing of `span` needs.
@@ -241,8 +282,13 @@ fn tick_format(span: f64) -> impl Fn(&f64) -> String {
     }
 }
 
-fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) -> Result<(), String> {
-    let (lo, hi) = panel.y_range.unwrap_or_else(|| {
+fn draw_panel(
+    area: &Area<'_>,
+    caption: &str,
+    length: f64,
+    panel: &Panel<'_>,
+) -> Result<(), String> {
+    let (lo, mut hi) = panel.y_range.unwrap_or_else(|| {
         range(
             panel
                 .series
@@ -251,6 +297,15 @@ fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) ->
                 .chain(panel.limits.iter().map(|l| l.1)),
         )
     });
+    // Room above the data for a legend at the top, so it hides nothing.
+    if matches!(
+        panel.legend,
+        SeriesLabelPosition::UpperLeft
+            | SeriesLabelPosition::UpperMiddle
+            | SeriesLabelPosition::UpperRight
+    ) {
+        hi += 0.45 * (hi - lo);
+    }
     let mut chart = ChartBuilder::on(area)
         .caption(caption, (FONT, LABEL_PX + 2))
         .margin(12)
@@ -273,6 +328,24 @@ fn draw_panel(area: &Area<'_>, caption: &str, length: f64, panel: &Panel<'_>) ->
         .y_label_formatter(&tick_format(hi - lo))
         .draw()
         .map_err(err)?;
+    for (k, &s) in panel.knots.iter().enumerate() {
+        let series = chart
+            .draw_series(DashedLineSeries::new(
+                [(s, lo), (s, hi)],
+                3,
+                4,
+                KNOT_COLOUR.stroke_width(1),
+            ))
+            .map_err(err)?;
+        if k == 0 {
+            series.label("crosses a knot line").legend(|(x, y)| {
+                PathElement::new(
+                    vec![(x + 14, y - 9), (x + 14, y + 9)],
+                    KNOT_COLOUR.stroke_width(2),
+                )
+            });
+        }
+    }
     let fill = VIOLATION_FILL.mix(VIOLATION_OPACITY).filled();
     for (k, st) in panel.shaded.iter().enumerate() {
         let series = chart
@@ -336,7 +409,9 @@ fn along(samples: &[Sample], f: impl Fn(&Sample) -> f64) -> Vec<(f64, f64)> {
 }
 
 /// κn, κg and τg along the pass.
-pub fn pass_curvatures(samples: &[Sample]) -> Result<String, String> {
+pub fn pass_curvatures(pass: &raw::MillPass) -> Result<String, String> {
+    let samples = &pass.samples;
+    let knots = knot_crossings(samples, &pass.knots_u, &pass.knots_v);
     let mut svg = String::new();
     {
         let root = SVGBackend::with_string(&mut svg, (WIDTH, 560)).into_drawing_area();
@@ -350,19 +425,35 @@ pub fn pass_curvatures(samples: &[Sample]) -> Result<String, String> {
         let panel = Panel {
             y_label: "curvature (1/mm), torsion (rad/mm)",
             series: vec![
-                ("normal curvature κn", along(samples, |s| s.kn), OKABE_ITO[5], false),
-                ("geodesic curvature κg", along(samples, |s| s.kg), OKABE_ITO[1], true),
-                ("geodesic torsion τg", along(samples, |s| s.tg), OKABE_ITO[3], false),
+                (
+                    "normal curvature κn",
+                    along(samples, |s| s.kn),
+                    OKABE_ITO[5],
+                    false,
+                ),
+                (
+                    "geodesic curvature κg",
+                    along(samples, |s| s.kg),
+                    OKABE_ITO[1],
+                    true,
+                ),
+                (
+                    "geodesic torsion τg",
+                    along(samples, |s| s.tg),
+                    OKABE_ITO[3],
+                    false,
+                ),
             ],
             shaded: vec![],
             limits: vec![],
             y_range: None,
             shaded_label: "",
             legend: SeriesLabelPosition::UpperRight,
+            knots: knots.clone(),
         };
         draw_panel(
             &area,
-            "κn bends the pass with the surface, κg across it, τg twists the normal",
+            "κn: bending with the surface · κg: bending sideways in it · τg: N turning about the pass",
             path_length(samples),
             &panel,
         )?;
@@ -376,8 +467,14 @@ pub fn pass_curvatures(samples: &[Sample]) -> Result<String, String> {
 /// Every violation interval is shaded in the panel of its check.
 pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
     let samples = &pass.samples;
+    let knots = knot_crossings(samples, &pass.knots_u, &pass.knots_v);
     let length = path_length(samples);
-    let kinds = |k: &str| pass.stretches.iter().filter(|s| s.kind == k).collect::<Vec<_>>();
+    let kinds = |k: &str| {
+        pass.stretches
+            .iter()
+            .filter(|s| s.kind == k)
+            .collect::<Vec<_>>()
+    };
     let mut svg = String::new();
     {
         let root = SVGBackend::with_string(&mut svg, (WIDTH, 1300)).into_drawing_area();
@@ -393,14 +490,25 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
         let gouge = Panel {
             y_label: "principal curvature (1/mm)",
             series: vec![
-                ("k1 (largest, concave > 0)", along(samples, |s| s.k1), OKABE_ITO[5], false),
-                ("k2 (smallest)", along(samples, |s| s.k2), OKABE_ITO[3], true),
+                (
+                    "k1 (largest, concave > 0)",
+                    along(samples, |s| s.k1),
+                    OKABE_ITO[5],
+                    false,
+                ),
+                (
+                    "k2 (smallest)",
+                    along(samples, |s| s.k2),
+                    OKABE_ITO[3],
+                    true,
+                ),
             ],
             shaded: kinds("gouge"),
             limits: vec![(format!("1/r of the ball, r = {r} mm"), 1.0 / r)],
             y_range: None,
             shaded_label: "the ball gouges",
             legend: SeriesLabelPosition::UpperMiddle,
+            knots: knots.clone(),
         };
         draw_panel(
             &panels[0],
@@ -414,12 +522,7 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
             .filter(|(_, h)| h.is_finite())
             .map(|(s, h)| (s.s, *h))
             .collect();
-        let (lo, hi) = range(
-            scallop
-                .iter()
-                .map(|p| p.1)
-                .chain([0.0, pass.scallop_limit]),
-        );
+        let (lo, hi) = range(scallop.iter().map(|p| p.1).chain([0.0, pass.scallop_limit]));
         let scallop_panel = Panel {
             y_label: "scallop height (mm)",
             series: vec![("scallop height", scallop, OKABE_ITO[5], false)],
@@ -431,6 +534,7 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
             y_range: Some((lo.max(0.0), hi)),
             shaded_label: "scallop above the limit",
             legend: SeriesLabelPosition::LowerMiddle,
+            knots: knots.clone(),
         };
         draw_panel(
             &panels[1],
@@ -439,7 +543,11 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
             &scallop_panel,
         )?;
         let per_min = |v: &[f64]| -> Vec<(f64, f64)> {
-            samples.iter().zip(v).map(|(s, f)| (s.s, 60.0 * f)).collect()
+            samples
+                .iter()
+                .zip(v)
+                .map(|(s, f)| (s.s, 60.0 * f))
+                .collect()
         };
         let mut series = vec![(
             "feed the machine allows at the contact point",
@@ -466,6 +574,7 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
             y_range: None,
             shaded_label: "feed held below the programmed feed",
             legend: SeriesLabelPosition::LowerMiddle,
+            knots: knots.clone(),
         };
         draw_panel(
             &panels[2],
@@ -542,12 +651,16 @@ fn colour_bar(
             .count();
         (n > 0).then(|| {
             let pct = 100.0 * n as f64 / values.len() as f64;
-            format!("{pct:.0}% {} in end colour", if above { "above" } else { "below" })
+            format!(
+                "{pct:.0}% {} in end colour",
+                if above { "above" } else { "below" }
+            )
         })
     };
     let small = TextStyle::from((FONT, TICK_PX - 3).into_font());
     if let Some(t) = note(true) {
-        area.draw(&Text::new(t, (8, 14), small.clone())).map_err(err)?;
+        area.draw(&Text::new(t, (8, 14), small.clone()))
+            .map_err(err)?;
     }
     if let Some(t) = note(false) {
         area.draw(&Text::new(t, (8, h as i32 - 28), small))
@@ -634,7 +747,11 @@ fn runs<'a>(samples: &'a [Sample], stretches: &[&Stretch]) -> Vec<Vec<&'a Sample
 /// Draws a surface grid seen from `view` as quadrilaterals back to front, each filled by
 /// `fill` of its four corners.
 fn draw_surface<DB: DrawingBackend>(
-    chart: &mut ChartContext<'_, DB, Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>>,
+    chart: &mut ChartContext<
+        '_,
+        DB,
+        Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
+    >,
     grid: &Grid,
     view: &View,
     fill: impl Fn([&GridPoint; 4]) -> RGBColor,
@@ -739,7 +856,10 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
         };
         let all: Vec<&Sample> = pass.samples.iter().collect();
         chart
-            .draw_series(std::iter::once(PathElement::new(line(&all), BLACK.stroke_width(7))))
+            .draw_series(std::iter::once(PathElement::new(
+                line(&all),
+                BLACK.stroke_width(7),
+            )))
             .map_err(err)?;
         chart
             .draw_series(std::iter::once(PathElement::new(
@@ -749,12 +869,25 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             .map_err(err)?
             .label("the pass")
             .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
-        let gouges: Vec<&Stretch> = pass.stretches.iter().filter(|s| s.kind == "gouge").collect();
+        let gouges: Vec<&Stretch> = pass
+            .stretches
+            .iter()
+            .filter(|s| s.kind == "gouge")
+            .collect();
         for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
             let mut pts = line(run);
             if pts.len() == 1 {
                 pts.push((pts[0].0 + 0.5, pts[0].1));
             }
+            // A ring around the stretch, so a short one is seen at a glance.
+            let mid = pts[pts.len() / 2];
+            chart
+                .draw_series(std::iter::once(Circle::new(
+                    mid,
+                    18,
+                    FAIL_COLOUR.stroke_width(3),
+                )))
+                .map_err(err)?;
             let series = chart
                 .draw_series(std::iter::once(PathElement::new(
                     pts,
@@ -762,7 +895,7 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 )))
                 .map_err(err)?;
             if k == 0 {
-                series.label("the ball gouges").legend(|(x, y)| {
+                series.label("the ball gouges (ringed)").legend(|(x, y)| {
                     PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
                 });
             }
@@ -778,9 +911,10 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 )))
                 .map_err(err)?;
             let series = chart
-                .draw_series([
-                    PathElement::new(vec![(a.0, a.1), (b.0, b.1)], AXIS_COLOUR.stroke_width(4)),
-                ])
+                .draw_series([PathElement::new(
+                    vec![(a.0, a.1), (b.0, b.1)],
+                    AXIS_COLOUR.stroke_width(4),
+                )])
                 .map_err(err)?;
             if k == 0 {
                 series
@@ -799,19 +933,24 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             .margin(8)
             .draw()
             .map_err(err)?;
-        let (bx, by) = (xr.1 - 0.01 * (xr.1 - xr.0), yr.0 + 0.05 * (yr.1 - yr.0));
+        let (gx0, gx1) = extent(grid, 0);
+        let (gy0, gy1) = extent(grid, 1);
         chart
             .draw_series(std::iter::once(Text::new(
                 format!(
-                    "seen from above at {:.0}°, heights drawn ×{}; 160 × 100 mm pocket",
+                    "{:.0} × {:.0} mm, seen from {:.0}° above, heights drawn ×{}",
+                    gx1 - gx0,
+                    gy1 - gy0,
                     view.elevation.to_degrees(),
                     view.z_scale
                 ),
-                (bx, by),
-                TextStyle::from((FONT, TICK_PX).into_font()).pos(plotters::style::text_anchor::Pos::new(
-                        plotters::style::text_anchor::HPos::Right,
-                        plotters::style::text_anchor::VPos::Center,
-                    )),
+                (xr.0 + 0.01 * (xr.1 - xr.0), yr.1 - 0.01 * (yr.1 - yr.0)),
+                TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                    plotters::style::text_anchor::Pos::new(
+                        plotters::style::text_anchor::HPos::Left,
+                        plotters::style::text_anchor::VPos::Top,
+                    ),
+                ),
             )))
             .map_err(err)?;
         colour_bar(
@@ -824,6 +963,15 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
         root.present().map_err(err)?;
     }
     Ok(svg)
+}
+
+/// The smallest and largest coordinate `k` of a grid's points.
+fn extent(grid: &Grid, k: usize) -> (f64, f64) {
+    grid.points
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), g| {
+            (a.min(g.p[k]), b.max(g.p[k]))
+        })
 }
 
 fn add(p: [f64; 3], d: [f64; 3], t: f64) -> [f64; 3] {
@@ -863,7 +1011,12 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             .map_err(err)?;
         for i in 0..grid.nu - 1 {
             for j in 0..grid.nv - 1 {
-                let c = [grid.at(i, j), grid.at(i + 1, j), grid.at(i + 1, j + 1), grid.at(i, j + 1)];
+                let c = [
+                    grid.at(i, j),
+                    grid.at(i + 1, j),
+                    grid.at(i + 1, j + 1),
+                    grid.at(i, j + 1),
+                ];
                 let v = c.iter().map(|g| shade.value(g)).sum::<f64>() / 4.0;
                 let col = colour((v - lo) / (hi - lo));
                 chart
@@ -902,7 +1055,10 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
         }
         let uv: Vec<(f64, f64)> = pass.samples.iter().map(|s| (s.u, s.v)).collect();
         chart
-            .draw_series(std::iter::once(PathElement::new(uv.clone(), BLACK.stroke_width(7))))
+            .draw_series(std::iter::once(PathElement::new(
+                uv.clone(),
+                BLACK.stroke_width(7),
+            )))
             .map_err(err)?;
         chart
             .draw_series(std::iter::once(PathElement::new(
@@ -912,12 +1068,24 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             .map_err(err)?
             .label("the pass")
             .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
-        let gouges: Vec<&Stretch> = pass.stretches.iter().filter(|s| s.kind == "gouge").collect();
+        let gouges: Vec<&Stretch> = pass
+            .stretches
+            .iter()
+            .filter(|s| s.kind == "gouge")
+            .collect();
         for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
             let mut pts: Vec<(f64, f64)> = run.iter().map(|s| (s.u, s.v)).collect();
             if pts.len() == 1 {
                 pts.push((pts[0].0 + 0.002, pts[0].1));
             }
+            let mid = pts[pts.len() / 2];
+            chart
+                .draw_series(std::iter::once(Circle::new(
+                    mid,
+                    18,
+                    FAIL_COLOUR.stroke_width(3),
+                )))
+                .map_err(err)?;
             let s = chart
                 .draw_series(std::iter::once(PathElement::new(
                     pts,
@@ -925,7 +1093,7 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 )))
                 .map_err(err)?;
             if k == 0 {
-                s.label("the ball gouges").legend(|(x, y)| {
+                s.label("the ball gouges (ringed)").legend(|(x, y)| {
                     PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
                 });
             }
@@ -960,8 +1128,15 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
         z_scale: 3.0,
     };
     let samples = &course.samples;
+    let knots: Vec<f64> = Vec::new();
     let length = path_length(samples);
-    let kinds = |k: &str| course.stretches.iter().filter(|s| s.kind == k).collect::<Vec<_>>();
+    let kinds = |k: &str| {
+        course
+            .stretches
+            .iter()
+            .filter(|s| s.kind == k)
+            .collect::<Vec<_>>()
+    };
     let mut svg = String::new();
     {
         let root = SVGBackend::with_string(&mut svg, (WIDTH, 1240)).into_drawing_area();
@@ -1025,7 +1200,10 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
         ] {
             for (k, run) in runs(samples, &kinds(kind)).iter().enumerate() {
                 let s = chart
-                    .draw_series(std::iter::once(PathElement::new(line(run), c.stroke_width(width))))
+                    .draw_series(std::iter::once(PathElement::new(
+                        line(run),
+                        c.stroke_width(width),
+                    )))
                     .map_err(err)?;
                 if k == 0 {
                     s.label(text).legend(move |(x, y)| {
@@ -1052,10 +1230,12 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                     view.z_scale
                 ),
                 (bx, by),
-                TextStyle::from((FONT, TICK_PX).into_font()).pos(plotters::style::text_anchor::Pos::new(
+                TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                    plotters::style::text_anchor::Pos::new(
                         plotters::style::text_anchor::HPos::Right,
                         plotters::style::text_anchor::VPos::Center,
-                    )),
+                    ),
+                ),
             )))
             .map_err(err)?;
         let panels = bottom.split_evenly((2, 1));
@@ -1075,8 +1255,14 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
             y_range: None,
             shaded_label: "steering radius too small",
             legend: SeriesLabelPosition::UpperLeft,
+            knots: knots.clone(),
         };
-        draw_panel(&panels[0], "Steering: the tows buckle where |κg| is above its limit", length, &steer)?;
+        draw_panel(
+            &panels[0],
+            "Steering: the tows buckle where |κg| is above its limit",
+            length,
+            &steer,
+        )?;
         let twist = Panel {
             y_label: "|τg| (rad/m)",
             series: vec![(
@@ -1093,8 +1279,14 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
             y_range: None,
             shaded_label: "twist rate too high",
             legend: SeriesLabelPosition::UpperLeft,
+            knots: knots.clone(),
         };
-        draw_panel(&panels[1], "Twist: the tow turns about its own axis by τg", length, &twist)?;
+        draw_panel(
+            &panels[1],
+            "Twist: the tow turns about its own axis by τg",
+            length,
+            &twist,
+        )?;
         root.present().map_err(err)?;
     }
     Ok(svg)

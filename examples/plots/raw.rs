@@ -140,7 +140,12 @@ fn numbers(line: &str, rest: &[&str]) -> Result<Vec<f64>, String> {
 }
 
 /// The numbers after the key, checking their count and (for indexed lines) the index.
-fn fields(line: &str, rest: &[&str], count: usize, index: Option<usize>) -> Result<Vec<f64>, String> {
+fn fields(
+    line: &str,
+    rest: &[&str],
+    count: usize,
+    index: Option<usize>,
+) -> Result<Vec<f64>, String> {
     let v = numbers(line, rest)?;
     let skip = usize::from(index.is_some());
     if v.len() != count + skip {
