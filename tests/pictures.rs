@@ -846,3 +846,15 @@ fn demo_pictures_show_the_demo_numbers() {
         read(&pic.svg);
     }
 }
+
+// The README shows the committed copies: each exists, parses and is referenced.
+#[test]
+fn readme_shows_every_picture() {
+    let root = c_build::root();
+    let readme = std::fs::read_to_string(root.join("README.md")).unwrap();
+    for pic in plots::all(&small_demo(), Shade::Concave).unwrap() {
+        let path = format!("docs/pictures/{}", pic.name);
+        assert!(readme.contains(&format!("]({path})")), "README lacks {path}");
+        read(&std::fs::read_to_string(root.join(&path)).unwrap());
+    }
+}
