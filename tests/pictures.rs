@@ -22,12 +22,15 @@ struct Svg {
     /// (fill, opacity, x, y, width, height)
     rects: Vec<(String, f64, f64, f64, f64, f64)>,
     /// (stroke, width, points)
-    lines: Vec<(String, f64, Vec<(f64, f64)>)>,
+    lines: Vec<Line>,
     /// (fill, points)
     polygons: Vec<(String, Vec<(f64, f64)>)>,
     /// (fill, x, y)
     circles: Vec<(String, f64, f64)>,
 }
+
+/// (stroke, width, points) of a polyline.
+type Line = (String, f64, Vec<(f64, f64)>);
 
 struct Text {
     x: f64,
@@ -227,17 +230,17 @@ fn same_stretches(what: &str, got: &[(f64, f64)], want: &[&Stretch], p: &Axes) {
 }
 
 /// The longest polyline of a stroke colour and width (legend samples are 2 points).
-fn series<'a>(svg: &'a Svg, colour: plotters::style::RGBColor, width: f64) -> &'a [(f64, f64)] {
+fn series(svg: &Svg, colour: plotters::style::RGBColor, width: f64) -> &[(f64, f64)] {
     series_in(svg, colour, width, (f64::NEG_INFINITY, f64::INFINITY))
 }
 
 /// The same, among the polylines within a band of heights (a panel).
-fn series_in<'a>(
-    svg: &'a Svg,
+fn series_in(
+    svg: &Svg,
     colour: plotters::style::RGBColor,
     width: f64,
     (top, bottom): (f64, f64),
-) -> &'a [(f64, f64)] {
+) -> &[(f64, f64)] {
     let c = hex(colour);
     svg.lines
         .iter()
@@ -854,7 +857,10 @@ fn readme_shows_every_picture() {
     let readme = std::fs::read_to_string(root.join("README.md")).unwrap();
     for pic in plots::all(&small_demo(), Shade::Concave).unwrap() {
         let path = format!("docs/pictures/{}", pic.name);
-        assert!(readme.contains(&format!("]({path})")), "README lacks {path}");
+        assert!(
+            readme.contains(&format!("]({path})")),
+            "README lacks {path}"
+        );
         read(&std::fs::read_to_string(root.join(&path)).unwrap());
     }
 }

@@ -214,11 +214,15 @@ fn range(values: impl IntoIterator<Item = f64>) -> (f64, f64) {
     (lo - pad, hi + pad)
 }
 
+/// A line of a panel: its label, its (arc length, value) points, its colour, and whether it
+/// is dashed.
+type Series<'a> = (&'a str, Vec<(f64, f64)>, RGBColor, bool);
+
 /// One panel of values against arc length: the series (label, values, colour, dashed?), the
 /// stretches to shade, and a limit line (label, value).
 struct Panel<'a> {
     y_label: &'a str,
-    series: Vec<(&'a str, Vec<(f64, f64)>, RGBColor, bool)>,
+    series: Vec<Series<'a>>,
     shaded: Vec<&'a Stretch>,
     limits: Vec<(String, f64)>,
     y_range: Option<(f64, f64)>,
