@@ -864,3 +864,19 @@ fn readme_shows_every_picture() {
         read(&std::fs::read_to_string(root.join(&path)).unwrap());
     }
 }
+
+// The reader of the raw output names what is wrong instead of drawing half a picture.
+#[test]
+fn raw_output_errors_name_the_line() {
+    let e = plots::raw::parse("mill_sample 0 0 0 x 0 0\n").unwrap_err();
+    assert!(
+        e.contains("`x` is not a number") && e.contains("mill_sample"),
+        "{e}"
+    );
+    let e = plots::raw::parse("violation\n").unwrap_err();
+    assert!(e.contains("without its kind"), "{e}");
+    let e = plots::raw::parse("mill_sample 1 0 0 0 0 0\n").unwrap_err();
+    assert!(e.contains("expected index 0"), "{e}");
+    let e = plots::raw::parse("unknown line from another section\n").unwrap_err();
+    assert!(e.contains("cavity grid"), "{e}");
+}

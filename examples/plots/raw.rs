@@ -252,16 +252,19 @@ pub fn parse(text: &str) -> Result<Demo, String> {
                 centre.push(v[0]);
             }
             "violation" => {
-                let v = numbers(line, &rest[1..])?;
+                let Some((kind, rest)) = rest.split_first() else {
+                    return Err(format!("a violation line without its kind: {line}"));
+                };
+                let v = numbers(line, rest)?;
                 if v.len() != 7 {
                     return Err(format!("expected 7 numbers: {line}"));
                 }
                 let stretch = Stretch {
-                    kind: rest[0].to_string(),
+                    kind: kind.to_string(),
                     start: v[0],
                     end: v[1],
                 };
-                match rest[0] {
+                match *kind {
                     "steering" | "twist" => d.course.stretches.push(stretch),
                     _ => d.pass.stretches.push(stretch),
                 }
