@@ -10,6 +10,12 @@
 //! uniform and readable with colour-vision deficiency; lines and marks use the colour-blind-safe
 //! qualitative palette of Okabe & Ito, "Color Universal Design" (2008) [`OKABE_ITO`], and each
 //! series also differs in line style or width, so nothing depends on telling hues apart.
+//!
+//! What the pictures do not do: the 3D views are orthographic projections drawn here, with the
+//! surface's cells painted back to front (each cell in the colour of its corners' mean value);
+//! the paths, marks and tool axes are drawn over the surface without hiding the parts a wall
+//! would hide. The colour bar spans the bulk of the values (2nd to 98th percentile, or
+//! centred on 1/r for k1) and says how many grid points lie beyond it in its end colours.
 
 #![allow(dead_code)]
 
