@@ -275,7 +275,7 @@ fn curve_ops(p: f64) -> Ops {
     }
 }
 
-/// The frame and invariants from the jets (`src/frame_block.rs`, counted line by line):
+/// The frame and invariants from the jets (`src/engine/frame_block.rs`, counted line by line):
 /// 158 operations for the normal, fundamental forms and principal curvatures, 135 for the
 /// frame, κn, κg, τg and the checks; 5 divisions (1/A, 1/|Su|, the principal direction's
 /// norm, 1/|c'| and the conditioning figure), 6 square roots.
