@@ -157,6 +157,10 @@ fn parse_raw(text: &str) -> Raw {
             "plan_gap" => r.plan_gaps.push(numbers(rest)),
             "plan_check" => r.plan_checks.push(numbers(rest)),
             "plan_parallel" => r.plan_parallel = numbers(rest),
+            // What the pictures need (examples/plots/raw.rs reads them; tests/pictures.rs
+            // checks them against the lines above).
+            "mill_frame" | "course_frame" | "cavity_grid_size" | "cavity_grid"
+            | "wing_grid_size" | "wing_grid" => {}
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }

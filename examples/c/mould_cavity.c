@@ -273,6 +273,84 @@ static int extremes(const StrakeSample *samples, const double *values, size_t n,
 }
 
 /* ----------------------------------------------------------------------------------------- */
+/* What the pictures need (--raw only; read by examples/plots/ and tests/c_demo.rs).          */
+
+/* Where a sample is and how the surface bends there: u, v, the point, the normal N (the tool
+ * axis of the upright tool), kn, kg, tg, k1, k2. */
+static void print_sample_geometry(const char *key, size_t i, const StrakeFrame *f)
+{
+    printf("%s %zu %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g\n", key, i, f->u,
+           f->v, f->point[0], f->point[1], f->point[2], f->normal[0], f->normal[1], f->normal[2], f->normal_curvature,
+           f->geodesic_curvature, f->geodesic_torsion, f->k1, f->k2);
+}
+
+#define GRID_PER_SPAN 4 /* grid lines per knot span of the cavity patch */
+
+/* One coordinate of the grid: each knot span [a, b) of `knots` cut into GRID_PER_SPAN pieces,
+ * so the grid follows the tight fillets near the walls. Returns the number of values. */
+static int grid_values(const double *knots, int count, double *out)
+{
+    int i, k, n = 0;
+    for (i = 3; i < count; i++) {
+        if (knots[i + 1] > knots[i]) {
+            for (k = 0; k < GRID_PER_SPAN; k++) {
+                out[n++] = knots[i] + (knots[i + 1] - knots[i]) * k / GRID_PER_SPAN;
+            }
+        }
+    }
+    out[n++] = knots[count];
+    return n;
+}
+
+/* The cavity on a grid in (u, v): the point and strake's principal, mean and Gaussian
+ * curvatures there, from the host's own jets through strake_frame_from_jets (the direction of
+ * the curve jet, along u, does not change k1, k2, H, K). Returns 0, or 1 after printing what
+ * failed. */
+static int print_cavity_grid(const BsplinePatch *patch)
+{
+    double us[GRID_PER_SPAN * COUNT_U + 1], vs[GRID_PER_SPAN * COUNT_V + 1];
+    int nu = grid_values(KNOTS_U, COUNT_U, us), nv = grid_values(KNOTS_V, COUNT_V, vs), i, j;
+    const StrakeParamScales scales = {1.0, 1.0, 1.0};
+    printf("cavity_grid_size %d %d\n", nu, nv);
+    for (i = 0; i < nu; i++) {
+        for (j = 0; j < nv; j++) {
+            StrakeSurfaceJet jet;
+            StrakeCurveJet curve = {us[i], vs[j], 1.0, 0.0, 0.0, 0.0};
+            StrakeFrame f;
+            StrakeStatus status;
+            if (cavity_surface((void *)patch, us[i], vs[j], 2, &jet) != 0) {
+                fprintf(stderr, "mould_cavity: the patch cannot be evaluated at (%g, %g)\n", us[i], vs[j]);
+                return 1;
+            }
+            status = strake_frame_from_jets(&jet, &curve, 0, &scales, &f);
+            if (status != STRAKE_STATUS_OK) {
+                return fail("strake_frame_from_jets (cavity grid)", status);
+            }
+            printf("cavity_grid %d %d %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g %.17g\n", i, j, us[i], vs[j],
+                   f.point[0], f.point[1], f.point[2], f.k1, f.k2, f.mean_curvature, f.gaussian_curvature);
+        }
+    }
+    return 0;
+}
+
+#define WING_GRID_U 25
+#define WING_GRID_V 10
+
+/* The wing skin on an even grid: x, y, z. */
+static void print_wing_grid(const WingSkin *wing)
+{
+    int i, j;
+    printf("wing_grid_size %d %d\n", WING_GRID_U, WING_GRID_V);
+    for (i = 0; i < WING_GRID_U; i++) {
+        for (j = 0; j < WING_GRID_V; j++) {
+            double x = wing->span * i / (WING_GRID_U - 1), y = wing->chord * j / (WING_GRID_V - 1), d[6];
+            wing_height(wing, x, y, d);
+            printf("wing_grid %d %d %.17g %.17g %.17g\n", i, j, x, y, d[0]);
+        }
+    }
+}
+
+/* ----------------------------------------------------------------------------------------- */
 /* The frames along the pass.                                                                */
 
 typedef double (*FieldFn)(const StrakeFrame *);
@@ -420,6 +498,9 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
             printf("mill_sample %zu %.17g %.17g %.17g %.17g %.17g\n", i, s[i].frame.curve_param, s[i].arc_length,
                    concave[i], scallop[i], feed[i]);
         }
+        for (i = 0; i < n; i++) {
+            print_sample_geometry("mill_frame", i, &s[i].frame);
+        }
     } else {
         printf("\nMilling pass: %.0f mm ball-end mill (r = %.0f mm), step-over %.2f mm, feed %.0f mm/min,\n"
                "  machine limits %.0f m/s^2 and %.0f m/s^3\n",
@@ -533,6 +614,9 @@ static int check_course(int raw)
             printf("course_sample %zu %.17g %.17g %.17g %.17g %.17g\n", i, s[i].frame.curve_param, s[i].arc_length,
                    f.steering_curvature, f.edge_strain, f.twist_rate);
         }
+        if (raw) {
+            print_sample_geometry("course_frame", i, &s[i].frame);
+        }
     }
     if (extremes(s, steer, n, &e_steer) || extremes(s, twist, n, &e_twist)) {
         bad = 1;
@@ -544,6 +628,7 @@ static int check_course(int raw)
         print_numbers("course_points", points, 3 * COURSE_COUNT);
         printf("course_setup %.17g %.17g %.17g %.17g %.17g %.17g\n", COURSE_TOLERANCE, COURSE_FIT_TOLERANCE,
                length, FIBRE.tow_width, FIBRE.min_steering_radius, FIBRE.max_twist_rate);
+        print_wing_grid(&wing);
     } else {
         printf("\nFibre course on a wing skin (%.0f x %.0f mm panel, crown %.0f mm at the root and %.0f %% less at the "
                "tip,\n  chord line turned by %.2f rad at the tip)\n",
@@ -908,6 +993,7 @@ int main(int argc, char **argv)
             printf("pass_foot %zu %.17g %.17g %.17g %.17g\n", i, feet[i].u, feet[i].v, feet[i].distance,
                    feet[i].signed_distance);
         }
+        bad = print_cavity_grid(&patch);
     } else if (!bad) {
         printf("Finishing pass across a mould cavity (160 x 100 mm pocket, bicubic B-spline floor)\n");
         printf("N points out of the cavity toward the tool; curvature > 0 = concave as the tool sees it.\n");

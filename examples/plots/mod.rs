@@ -1,0 +1,1303 @@
+//! The demo's pictures, as SVG text: the curvatures and the checks along the milling pass, the
+//! cavity in 3D shaded by a curvature, the cavity's parameter plane with the pass, and the
+//! fibre course on the wing skin.
+//!
+//! Shared by `examples/mould_cavity.rs` (which draws the demo's numbers) and
+//! `tests/pictures.rs` (which draws small made-up data and reads the SVG back), each including
+//! this folder with `#[path]`. Drawing uses plotters' SVG backend only: no system library.
+//!
+//! Colours: surfaces are shaded with the cividis colour map ([`cividis`]), perceptually
+//! uniform and readable with colour-vision deficiency; lines and marks use the colour-blind-safe
+//! qualitative palette of Okabe & Ito, "Color Universal Design" (2008) [`OKABE_ITO`], and each
+//! series also differs in line style or width, so nothing depends on telling hues apart.
+//!
+//! What the pictures do not do: the 3D views are orthographic projections drawn here, with the
+//! surface's cells painted back to front (each cell in the colour of its corners' mean value);
+//! the paths, marks and tool axes are drawn over the surface without hiding the parts a wall
+//! would hide. The colour bar spans the bulk of the values (2nd to 98th percentile, or
+//! centred on 1/r for k1) and says how many grid points lie beyond it in its end colours.
+
+#![allow(dead_code)]
+
+pub mod cividis;
+pub mod raw;
+
+use plotters::coord::Shift;
+use plotters::prelude::*;
+use raw::{Demo, Grid, GridPoint, Sample, Stretch};
+use std::path::{Path, PathBuf};
+
+/// Okabe & Ito's palette (sRGB): black, orange, sky blue, bluish green, yellow, blue,
+/// vermillion, reddish purple.
+pub const OKABE_ITO: [RGBColor; 8] = [
+    RGBColor(0, 0, 0),
+    RGBColor(230, 159, 0),
+    RGBColor(86, 180, 233),
+    RGBColor(0, 158, 115),
+    RGBColor(240, 228, 66),
+    RGBColor(0, 114, 178),
+    RGBColor(213, 94, 0),
+    RGBColor(204, 121, 167),
+];
+
+/// The fill of a shaded violation interval (vermillion, see-through).
+pub const VIOLATION_FILL: RGBColor = OKABE_ITO[6];
+/// Its opacity.
+pub const VIOLATION_OPACITY: f64 = 0.2;
+/// The colour of a limit line (dashed).
+pub const LIMIT_COLOUR: RGBColor = RGBColor(90, 90, 90);
+/// The colour of a path drawn on a surface.
+pub const PATH_COLOUR: RGBColor = RGBColor(255, 255, 255);
+/// The colour of the stretches of a path that fail a check, drawn on a surface.
+pub const FAIL_COLOUR: RGBColor = OKABE_ITO[6];
+/// The colour of a second kind of failure on a surface (the fibre course's twist).
+pub const FAIL_COLOUR_2: RGBColor = OKABE_ITO[7];
+/// The colour of the fibre course.
+pub const COURSE_COLOUR: RGBColor = RGBColor(0, 0, 0);
+/// The colour of tool axes.
+pub const AXIS_COLOUR: RGBColor = OKABE_ITO[1];
+
+const FONT: &str = "sans-serif";
+const TITLE_PX: u32 = 32;
+const LABEL_PX: u32 = 25;
+const TICK_PX: u32 = 22;
+const WIDTH: u32 = 1100;
+
+/// The curvature a surface is shaded by (chosen by the user).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Shade {
+    /// k1: the largest curvature concave toward the tool (N points to the tool; curvature > 0
+    /// bends toward N). A ball of radius r gouges where k1 > 1/r.
+    Concave,
+    /// k2: the smallest principal curvature (most convex toward the tool).
+    Convex,
+    /// The mean curvature H = (k1 + k2)/2.
+    Mean,
+    /// The Gaussian curvature K = k1 k2.
+    Gaussian,
+}
+
+impl Shade {
+    /// Every choice, with the word that selects it.
+    pub const ALL: [(&'static str, Shade); 4] = [
+        ("k1", Shade::Concave),
+        ("k2", Shade::Convex),
+        ("mean", Shade::Mean),
+        ("gaussian", Shade::Gaussian),
+    ];
+
+    /// The choice a word names (`k1`, `k2`, `mean`, `gaussian`).
+    pub fn from_word(word: &str) -> Result<Shade, String> {
+        Shade::ALL
+            .iter()
+            .find(|(w, _)| *w == word)
+            .map(|(_, s)| *s)
+            .ok_or_else(|| {
+                format!("unknown shading `{word}`: choose one of k1, k2, mean, gaussian")
+            })
+    }
+
+    /// The quantity at a grid point.
+    pub fn value(self, g: &GridPoint) -> f64 {
+        match self {
+            Shade::Concave => g.k1,
+            Shade::Convex => g.k2,
+            Shade::Mean => g.h,
+            Shade::Gaussian => g.k,
+        }
+    }
+
+    /// What the colour bar says: the quantity and its unit.
+    pub fn label(self) -> &'static str {
+        match self {
+            Shade::Concave => "k1, largest concave curvature (1/mm)",
+            Shade::Convex => "k2, smallest principal curvature (1/mm)",
+            Shade::Mean => "mean curvature H (1/mm)",
+            Shade::Gaussian => "Gaussian curvature K (1/mm²)",
+        }
+    }
+
+    /// A few words for a title.
+    pub fn short(self) -> &'static str {
+        match self {
+            Shade::Concave => "the largest curvature concave toward the tool, k1",
+            Shade::Convex => "the smallest principal curvature, k2",
+            Shade::Mean => "the mean curvature H",
+            Shade::Gaussian => "the Gaussian curvature K",
+        }
+    }
+}
+
+/// The cividis colour at `x` in [0, 1] (clamped), interpolated linearly between the table's
+/// entries.
+pub fn colour(x: f64) -> RGBColor {
+    let x = if x.is_finite() {
+        x.clamp(0.0, 1.0)
+    } else {
+        0.0
+    };
+    let table = &cividis::CIVIDIS;
+    let f = x * (table.len() - 1) as f64;
+    let i = (f.floor() as usize).min(table.len() - 2);
+    let w = f - i as f64;
+    let c = |k: usize| {
+        let v = table[i][k] * (1.0 - w) + table[i + 1][k] * w;
+        (v * 255.0).round() as u8
+    };
+    RGBColor(c(0), c(1), c(2))
+}
+
+/// A picture: its file name and its SVG text.
+#[derive(Debug, Clone)]
+pub struct Picture {
+    /// File name (`*.svg`).
+    pub name: &'static str,
+    /// The SVG document.
+    pub svg: String,
+}
+
+fn err<E: std::fmt::Display>(e: E) -> String {
+    format!("drawing failed: {e}")
+}
+
+type Area<'a> = DrawingArea<SVGBackend<'a>, Shift>;
+
+/// Every picture of the demo.
+pub fn all(demo: &Demo, shade: Shade) -> Result<Vec<Picture>, String> {
+    Ok(vec![
+        Picture {
+            name: "pass_curvatures.svg",
+            svg: pass_curvatures(&demo.pass)?,
+        },
+        Picture {
+            name: "pass_checks.svg",
+            svg: pass_checks(&demo.pass)?,
+        },
+        Picture {
+            name: "cavity_3d.svg",
+            svg: cavity_3d(&demo.cavity, &demo.pass, shade)?,
+        },
+        Picture {
+            name: "cavity_uv.svg",
+            svg: cavity_uv(&demo.cavity, &demo.pass, shade)?,
+        },
+        Picture {
+            name: "wing_course.svg",
+            svg: wing_course(&demo.wing, &demo.course)?,
+        },
+    ])
+}
+
+/// Writes the pictures into `dir` (created if needed) and returns their paths.
+pub fn write_all(dir: &Path, pictures: &[Picture]) -> Result<Vec<PathBuf>, String> {
+    std::fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+    pictures
+        .iter()
+        .map(|p| {
+            let path = dir.join(p.name);
+            std::fs::write(&path, &p.svg)
+                .map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+            Ok(path)
+        })
+        .collect()
+}
+
+/// The smallest and largest finite values, widened a little (and to a non-empty range).
+fn range(values: impl IntoIterator<Item = f64>) -> (f64, f64) {
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for v in values.into_iter().filter(|v| v.is_finite()) {
+        lo = lo.min(v);
+        hi = hi.max(v);
+    }
+    if !lo.is_finite() {
+        return (0.0, 1.0);
+    }
+    let pad = if hi > lo {
+        0.06 * (hi - lo)
+    } else {
+        0.5 * lo.abs().max(1e-6)
+    };
+    (lo - pad, hi + pad)
+}
+
+/// A line of a panel: its label, its (arc length, value) points, its colour, and whether it
+/// is dashed.
+type Series<'a> = (&'a str, Vec<(f64, f64)>, RGBColor, bool);
+
+/// One panel of values against arc length: the series (label, values, colour, dashed?), the
+/// stretches to shade, and a limit line (label, value).
+struct Panel<'a> {
+    y_label: &'a str,
+    series: Vec<Series<'a>>,
+    shaded: Vec<&'a Stretch>,
+    limits: Vec<(String, f64)>,
+    y_range: Option<(f64, f64)>,
+    /// What a shaded interval means.
+    shaded_label: &'a str,
+    legend: SeriesLabelPosition,
+    /// Arc lengths where the path crosses a knot line of the surface (drawn as thin dotted
+    /// vertical lines: derivatives of the surface may jump there).
+    knots: Vec<f64>,
+}
+
+/// The colour of the knot-crossing marks.
+pub const KNOT_COLOUR: RGBColor = RGBColor(140, 140, 140);
+
+/// The arc lengths where a sampled path crosses the interior knot lines u = k or v = k, by
+/// linear interpolation between the samples on either side.
+pub fn knot_crossings(samples: &[Sample], knots_u: &[f64], knots_v: &[f64]) -> Vec<f64> {
+    let interior = |k: &[f64]| -> Vec<f64> {
+        let (a, b) = (k.first().copied(), k.last().copied());
+        let mut v: Vec<f64> = k
+            .iter()
+            .copied()
+            .filter(|x| Some(*x) != a && Some(*x) != b)
+            .collect();
+        v.dedup();
+        v
+    };
+    let mut out = Vec::new();
+    for (knots, pick) in [
+        (interior(knots_u), (|x: &Sample| x.u) as fn(&Sample) -> f64),
+        (interior(knots_v), |x: &Sample| x.v),
+    ] {
+        for w in samples.windows(2) {
+            let (a, b) = (pick(&w[0]), pick(&w[1]));
+            for &k in &knots {
+                if (a < k && k <= b) || (b < k && k <= a) {
+                    out.push(w[0].s + (k - a) / (b - a) * (w[1].s - w[0].s));
+                }
+            }
+        }
+    }
+    out.sort_by(f64::total_cmp);
+    out
+}
+
+/// Tick labels with as many decimals as the tick spacing of `span` needs.
+fn tick_format(span: f64) -> impl Fn(&f64) -> String {
+    let step = span / 6.0;
+    let decimals = if step > 0.0 && step.is_finite() {
+        (-step.log10().floor()).clamp(0.0, 8.0) as usize
+    } else {
+        2
+    };
+    move |v: &f64| {
+        let t = format!("{v:.decimals$}");
+        if t.starts_with('-') && t.trim_start_matches(['-', '0', '.']).is_empty() {
+            t[1..].to_string()
+        } else {
+            t
+        }
+    }
+}
+
+fn draw_panel(
+    area: &Area<'_>,
+    caption: &str,
+    length: f64,
+    panel: &Panel<'_>,
+) -> Result<(), String> {
+    let (lo, mut hi) = panel.y_range.unwrap_or_else(|| {
+        range(
+            panel
+                .series
+                .iter()
+                .flat_map(|(_, v, _, _)| v.iter().map(|p| p.1))
+                .chain(panel.limits.iter().map(|l| l.1)),
+        )
+    });
+    // Room above the data for a legend at the top, so it hides nothing.
+    if matches!(
+        panel.legend,
+        SeriesLabelPosition::UpperLeft
+            | SeriesLabelPosition::UpperMiddle
+            | SeriesLabelPosition::UpperRight
+    ) {
+        hi += 0.45 * (hi - lo);
+    }
+    let mut chart = ChartBuilder::on(area)
+        .caption(caption, (FONT, LABEL_PX + 2))
+        .margin(12)
+        .margin_right(28)
+        .x_label_area_size(56)
+        .y_label_area_size(96)
+        .build_cartesian_2d(0.0..length, lo..hi)
+        .map_err(err)?;
+    chart
+        .configure_mesh()
+        .x_desc("arc length along the path s (mm)")
+        .y_desc(panel.y_label)
+        .axis_desc_style((FONT, LABEL_PX))
+        .label_style((FONT, TICK_PX))
+        .bold_line_style(RGBColor(225, 225, 225))
+        .light_line_style(TRANSPARENT)
+        .x_labels(10)
+        .y_labels(6)
+        .x_label_formatter(&tick_format(length))
+        .y_label_formatter(&tick_format(hi - lo))
+        .draw()
+        .map_err(err)?;
+    for (k, &s) in panel.knots.iter().enumerate() {
+        let series = chart
+            .draw_series(DashedLineSeries::new(
+                [(s, lo), (s, hi)],
+                3,
+                4,
+                KNOT_COLOUR.stroke_width(1),
+            ))
+            .map_err(err)?;
+        if k == 0 {
+            series.label("crosses a knot line").legend(|(x, y)| {
+                PathElement::new(
+                    vec![(x + 14, y - 9), (x + 14, y + 9)],
+                    KNOT_COLOUR.stroke_width(2),
+                )
+            });
+        }
+    }
+    let fill = VIOLATION_FILL.mix(VIOLATION_OPACITY).filled();
+    for (k, st) in panel.shaded.iter().enumerate() {
+        let series = chart
+            .draw_series(std::iter::once(Rectangle::new(
+                [(st.start, lo), (st.end, hi)],
+                fill,
+            )))
+            .map_err(err)?;
+        if k == 0 {
+            series
+                .label(panel.shaded_label)
+                .legend(move |(x, y)| Rectangle::new([(x, y - 8), (x + 28, y + 8)], fill));
+        }
+    }
+    for (label, value) in &panel.limits {
+        chart
+            .draw_series(DashedLineSeries::new(
+                [(0.0, *value), (length, *value)],
+                10,
+                6,
+                LIMIT_COLOUR.stroke_width(2),
+            ))
+            .map_err(err)?
+            .label(label.clone())
+            .legend(|(x, y)| {
+                PathElement::new(vec![(x, y), (x + 28, y)], LIMIT_COLOUR.stroke_width(2))
+            });
+    }
+    for (label, values, c, dashed) in &panel.series {
+        let style = c.stroke_width(3);
+        if *dashed {
+            chart
+                .draw_series(DashedLineSeries::new(values.iter().copied(), 8, 5, style))
+                .map_err(err)?
+        } else {
+            chart
+                .draw_series(LineSeries::new(values.iter().copied(), style))
+                .map_err(err)?
+        }
+        .label(*label)
+        .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], style));
+    }
+    chart
+        .configure_series_labels()
+        .position(panel.legend.clone())
+        .background_style(WHITE.mix(0.85))
+        .border_style(RGBColor(150, 150, 150))
+        .label_font((FONT, TICK_PX))
+        .margin(8)
+        .draw()
+        .map_err(err)?;
+    Ok(())
+}
+
+fn path_length(samples: &[Sample]) -> f64 {
+    samples.last().map_or(1.0, |s| s.s).max(f64::MIN_POSITIVE)
+}
+
+fn along(samples: &[Sample], f: impl Fn(&Sample) -> f64) -> Vec<(f64, f64)> {
+    samples.iter().map(|s| (s.s, f(s))).collect()
+}
+
+/// κn, κg and τg along the pass.
+pub fn pass_curvatures(pass: &raw::MillPass) -> Result<String, String> {
+    let samples = &pass.samples;
+    let knots = knot_crossings(samples, &pass.knots_u, &pass.knots_v);
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 560)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                "The Darboux frame's curvatures along the finishing pass",
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let panel = Panel {
+            y_label: "curvature (1/mm), torsion (rad/mm)",
+            series: vec![
+                (
+                    "normal curvature κn",
+                    along(samples, |s| s.kn),
+                    OKABE_ITO[5],
+                    false,
+                ),
+                (
+                    "geodesic curvature κg",
+                    along(samples, |s| s.kg),
+                    OKABE_ITO[1],
+                    true,
+                ),
+                (
+                    "geodesic torsion τg",
+                    along(samples, |s| s.tg),
+                    OKABE_ITO[3],
+                    false,
+                ),
+            ],
+            shaded: vec![],
+            limits: vec![],
+            y_range: None,
+            shaded_label: "",
+            legend: SeriesLabelPosition::UpperRight,
+            knots: knots.clone(),
+        };
+        draw_panel(
+            &area,
+            "κn: bending with the surface · κg: bending sideways in it · τg: N turning about the pass",
+            path_length(samples),
+            &panel,
+        )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
+
+/// The checks along the pass: k1, k2 against 1/r; the scallop height against its limit; the
+/// feed against the programmed feed (and the tool centre's feed when the demo prints it).
+/// Every violation interval is shaded in the panel of its check.
+pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
+    let samples = &pass.samples;
+    let knots = knot_crossings(samples, &pass.knots_u, &pass.knots_v);
+    let length = path_length(samples);
+    let kinds = |k: &str| {
+        pass.stretches
+            .iter()
+            .filter(|s| s.kind == k)
+            .collect::<Vec<_>>()
+    };
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 1300)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                "Where the finishing pass fails its checks (shaded), and why",
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let panels = area.split_evenly((3, 1));
+        let r = pass.ball_radius;
+        let gouge = Panel {
+            y_label: "principal curvature (1/mm)",
+            series: vec![
+                (
+                    "k1 (largest, concave > 0)",
+                    along(samples, |s| s.k1),
+                    OKABE_ITO[5],
+                    false,
+                ),
+                (
+                    "k2 (smallest)",
+                    along(samples, |s| s.k2),
+                    OKABE_ITO[3],
+                    true,
+                ),
+            ],
+            shaded: kinds("gouge"),
+            limits: vec![(format!("1/r of the ball, r = {r} mm"), 1.0 / r)],
+            y_range: None,
+            shaded_label: "the ball gouges",
+            legend: SeriesLabelPosition::UpperMiddle,
+            knots: knots.clone(),
+        };
+        draw_panel(
+            &panels[0],
+            "Gouging: the ball does not fit where k1 > 1/r",
+            length,
+            &gouge,
+        )?;
+        let scallop: Vec<(f64, f64)> = samples
+            .iter()
+            .zip(&pass.scallop)
+            .filter(|(_, h)| h.is_finite())
+            .map(|(s, h)| (s.s, *h))
+            .collect();
+        let (lo, hi) = range(scallop.iter().map(|p| p.1).chain([0.0, pass.scallop_limit]));
+        let scallop_panel = Panel {
+            y_label: "scallop height (mm)",
+            series: vec![("scallop height", scallop, OKABE_ITO[5], false)],
+            shaded: kinds("scallop"),
+            limits: vec![(
+                format!("limit {} mm", pass.scallop_limit),
+                pass.scallop_limit,
+            )],
+            y_range: Some((lo.max(0.0), hi)),
+            shaded_label: "scallop above the limit",
+            legend: SeriesLabelPosition::LowerMiddle,
+            knots: knots.clone(),
+        };
+        draw_panel(
+            &panels[1],
+            "Scallop left between passes (none drawn where the ball gouges)",
+            length,
+            &scallop_panel,
+        )?;
+        let per_min = |v: &[f64]| -> Vec<(f64, f64)> {
+            samples
+                .iter()
+                .zip(v)
+                .map(|(s, f)| (s.s, 60.0 * f))
+                .collect()
+        };
+        let mut series = vec![(
+            "feed the machine allows at the contact point",
+            per_min(&pass.feed),
+            OKABE_ITO[5],
+            false,
+        )];
+        if let Some(centre) = &pass.centre_feed {
+            series.push((
+                "feed of the tool centre",
+                per_min(centre),
+                OKABE_ITO[1],
+                true,
+            ));
+        }
+        let feed = Panel {
+            y_label: "feed (mm/min)",
+            series,
+            shaded: kinds("feed"),
+            limits: vec![(
+                format!("programmed feed {:.0} mm/min", 60.0 * pass.programmed_feed),
+                60.0 * pass.programmed_feed,
+            )],
+            y_range: None,
+            shaded_label: "feed held below the programmed feed",
+            legend: SeriesLabelPosition::LowerMiddle,
+            knots: knots.clone(),
+        };
+        draw_panel(
+            &panels[2],
+            "Feed: acceleration and jerk limits slow the tool where the pass bends",
+            length,
+            &feed,
+        )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
+
+/// An orthographic view from azimuth `azimuth` and elevation `elevation` (radians), heights
+/// multiplied by `z_scale`: screen (x, y up) and depth (larger = farther).
+#[derive(Debug, Clone, Copy)]
+pub struct View {
+    /// Turn about the vertical (radians).
+    pub azimuth: f64,
+    /// Angle of the line of sight below the horizontal (radians).
+    pub elevation: f64,
+    /// Vertical exaggeration.
+    pub z_scale: f64,
+}
+
+impl View {
+    /// Screen x, screen y (up) and depth of a point.
+    pub fn project(&self, p: [f64; 3]) -> (f64, f64, f64) {
+        let (sa, ca) = self.azimuth.sin_cos();
+        let (se, ce) = self.elevation.sin_cos();
+        let right = p[0] * ca + p[1] * sa;
+        let ahead = -p[0] * sa + p[1] * ca;
+        let z = p[2] * self.z_scale;
+        (right, ahead * se + z * ce, ahead * ce - z * se)
+    }
+}
+
+/// The range the colour bar spans: from the 2nd to the 98th percentile of the values (so a few
+/// extreme corners do not wash out the rest), widened to include 0; with a `mark` (a limit),
+/// from the lower end to as far above the mark, so the mark sits in the middle. Values beyond
+/// the range take the end colours (the colour bar says so).
+pub fn colour_range(values: &[f64], mark: Option<f64>) -> (f64, f64) {
+    let mut v: Vec<f64> = values.iter().copied().filter(|x| x.is_finite()).collect();
+    if v.is_empty() {
+        return (0.0, 1.0);
+    }
+    v.sort_by(f64::total_cmp);
+    let at = |q: f64| v[((v.len() - 1) as f64 * q).round() as usize];
+    let (mut lo, mut hi) = (at(0.02), at(0.98));
+    if let Some(m) = mark {
+        // The mark in the middle of the bar: the colours tell below from above it.
+        lo = lo.min(0.0);
+        hi = 2.0 * m - lo;
+    }
+    lo = lo.min(0.0);
+    if hi <= lo {
+        hi = lo + 1e-6;
+    }
+    (lo, hi)
+}
+
+/// A vertical colour bar for `lo..hi` with its label, and a marked value.
+fn colour_bar(
+    area: &Area<'_>,
+    label: &str,
+    (lo, hi): (f64, f64),
+    values: &[f64],
+    mark: Option<(String, f64)>,
+) -> Result<(), String> {
+    let (w, h) = area.dim_in_pixel();
+    let note = |above: bool| {
+        let n = values
+            .iter()
+            .filter(|&&v| if above { v > hi } else { v < lo })
+            .count();
+        (n > 0).then(|| {
+            let pct = 100.0 * n as f64 / values.len() as f64;
+            format!(
+                "{pct:.0}% {} in end colour",
+                if above { "above" } else { "below" }
+            )
+        })
+    };
+    let small = TextStyle::from((FONT, TICK_PX - 3).into_font());
+    if let Some(t) = note(true) {
+        area.draw(&Text::new(t, (8, 14), small.clone()))
+            .map_err(err)?;
+    }
+    if let Some(t) = note(false) {
+        area.draw(&Text::new(t, (8, h as i32 - 28), small))
+            .map_err(err)?;
+    }
+    let _ = w;
+    let mut chart = ChartBuilder::on(area)
+        .margin_top(40)
+        .margin_bottom(40)
+        .margin_right(10)
+        .y_label_area_size(90)
+        .build_cartesian_2d(0.0..1.0, lo..hi)
+        .map_err(err)?;
+    chart
+        .configure_mesh()
+        .disable_x_mesh()
+        .disable_y_mesh()
+        .disable_x_axis()
+        .y_desc(label)
+        .y_labels(8)
+        .axis_desc_style((FONT, LABEL_PX))
+        .label_style((FONT, TICK_PX))
+        .draw()
+        .map_err(err)?;
+    let steps = 96;
+    chart
+        .draw_series((0..steps).map(|k| {
+            let a = lo + (hi - lo) * k as f64 / steps as f64;
+            // Each step overlaps the next a little, so no seam shows between them.
+            let b = lo + (hi - lo) * (k as f64 + 1.3).min(steps as f64) / steps as f64;
+            Rectangle::new(
+                [(0.0, a), (1.0, b)],
+                colour((k as f64 + 0.5) / steps as f64).filled(),
+            )
+        }))
+        .map_err(err)?;
+    if let Some((text, m)) = mark {
+        chart
+            .draw_series(std::iter::once(PathElement::new(
+                vec![(-0.15, m), (1.0, m)],
+                FAIL_COLOUR.stroke_width(4),
+            )))
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Text::new(
+                text,
+                (0.0, m + 0.02 * (hi - lo)),
+                (FONT, TICK_PX).into_font().color(&WHITE),
+            )))
+            .map_err(err)?;
+    }
+    Ok(())
+}
+
+/// The ranges for a `w` x `h` pixel plotting area that show the `(x, y)` screen points with
+/// equal scales on both axes, in the upper `1 - reserve` of the height (the rest left free
+/// below them for a legend and a note).
+fn equal_axes(points: &[(f64, f64)], w: f64, h: f64, reserve: f64) -> ((f64, f64), (f64, f64)) {
+    let (x0, x1) = range(points.iter().map(|p| p.0));
+    let (y0, y1) = range(points.iter().map(|p| p.1));
+    let scale = ((x1 - x0) / w).max((y1 - y0) / (h * (1.0 - reserve)));
+    let cx = 0.5 * (x0 + x1);
+    (
+        (cx - 0.5 * scale * w, cx + 0.5 * scale * w),
+        (y1 - scale * h, y1),
+    )
+}
+
+/// The stretches of a path that lie in `stretches`, as runs of samples (with the ends cut to
+/// the samples inside).
+fn runs<'a>(samples: &'a [Sample], stretches: &[&Stretch]) -> Vec<Vec<&'a Sample>> {
+    stretches
+        .iter()
+        .map(|st| {
+            samples
+                .iter()
+                .filter(|s| s.s >= st.start && s.s <= st.end)
+                .collect::<Vec<_>>()
+        })
+        .filter(|r| !r.is_empty())
+        .collect()
+}
+
+/// Draws a surface grid seen from `view` as quadrilaterals back to front, each filled by
+/// `fill` of its four corners.
+fn draw_surface<DB: DrawingBackend>(
+    chart: &mut ChartContext<
+        '_,
+        DB,
+        Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
+    >,
+    grid: &Grid,
+    view: &View,
+    fill: impl Fn([&GridPoint; 4]) -> RGBColor,
+    edge: Option<RGBColor>,
+) -> Result<(), String> {
+    let mut quads = Vec::new();
+    for i in 0..grid.nu - 1 {
+        for j in 0..grid.nv - 1 {
+            let c = [
+                grid.at(i, j),
+                grid.at(i + 1, j),
+                grid.at(i + 1, j + 1),
+                grid.at(i, j + 1),
+            ];
+            let pr: Vec<(f64, f64, f64)> = c.iter().map(|g| view.project(g.p)).collect();
+            let depth = pr.iter().map(|p| p.2).sum::<f64>() / 4.0;
+            quads.push((depth, pr, fill(c)));
+        }
+    }
+    quads.sort_by(|a, b| b.0.total_cmp(&a.0));
+    for (_, pr, c) in quads {
+        let pts: Vec<(f64, f64)> = pr.iter().map(|p| (p.0, p.1)).collect();
+        let edge_style = edge.unwrap_or(c).stroke_width(1);
+        chart
+            .draw_series(std::iter::once(Polygon::new(pts.clone(), c.filled())))
+            .map_err(|e| format!("drawing failed: {e:?}"))?;
+        let mut closed = pts;
+        closed.push(closed[0]);
+        chart
+            .draw_series(std::iter::once(PathElement::new(closed, edge_style)))
+            .map_err(|e| format!("drawing failed: {e:?}"))?;
+    }
+    Ok(())
+}
+
+/// The cavity in 3D, shaded by `shade`, with the pass, its gouging stretches and the tool axis
+/// at a few stations.
+pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<String, String> {
+    let view = View {
+        azimuth: -0.42,
+        elevation: 0.95,
+        z_scale: 2.0,
+    };
+    let values: Vec<f64> = grid.points.iter().map(|g| shade.value(g)).collect();
+    let limit = (shade == Shade::Concave).then(|| 1.0 / pass.ball_radius);
+    let (lo, hi) = colour_range(&values, limit);
+    let axis_length = 2.5 * pass.ball_radius;
+    let stations: Vec<&Sample> = {
+        let n = pass.samples.len();
+        (0..6).map(|k| &pass.samples[(k * (n - 1)) / 5]).collect()
+    };
+    let mut screen: Vec<(f64, f64)> = grid
+        .points
+        .iter()
+        .map(|g| {
+            let p = view.project(g.p);
+            (p.0, p.1)
+        })
+        .collect();
+    for s in &stations {
+        let tip = add(s.p, s.n, axis_length);
+        let p = view.project(tip);
+        screen.push((p.0, p.1));
+    }
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 760)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                &format!("The mould cavity shaded by {}", shade.short()),
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let (left, right) = area.split_horizontally(WIDTH - 230);
+        let (w, h) = left.dim_in_pixel();
+        let (xr, yr) = equal_axes(&screen, w as f64 - 20.0, h as f64 - 20.0, 0.18);
+        let mut chart = ChartBuilder::on(&left)
+            .margin(10)
+            .x_label_area_size(0)
+            .y_label_area_size(0)
+            .build_cartesian_2d(xr.0..xr.1, yr.0..yr.1)
+            .map_err(err)?;
+        draw_surface(
+            &mut chart,
+            grid,
+            &view,
+            |c| {
+                let v = c.iter().map(|g| shade.value(g)).sum::<f64>() / 4.0;
+                colour((v - lo) / (hi - lo))
+            },
+            None,
+        )?;
+        // The pass, its gouging stretches and the tool axes.
+        let line = |pts: &[&Sample]| -> Vec<(f64, f64)> {
+            pts.iter()
+                .map(|s| {
+                    let p = view.project(s.p);
+                    (p.0, p.1)
+                })
+                .collect()
+        };
+        let all: Vec<&Sample> = pass.samples.iter().collect();
+        chart
+            .draw_series(std::iter::once(PathElement::new(
+                line(&all),
+                BLACK.stroke_width(7),
+            )))
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(PathElement::new(
+                line(&all),
+                PATH_COLOUR.stroke_width(4),
+            )))
+            .map_err(err)?
+            .label("the pass")
+            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
+        let gouges: Vec<&Stretch> = pass
+            .stretches
+            .iter()
+            .filter(|s| s.kind == "gouge")
+            .collect();
+        for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
+            let mut pts = line(run);
+            if pts.len() == 1 {
+                pts.push((pts[0].0 + 0.5, pts[0].1));
+            }
+            // A ring around the stretch, so a short one is seen at a glance.
+            let mid = pts[pts.len() / 2];
+            chart
+                .draw_series(std::iter::once(Circle::new(
+                    mid,
+                    18,
+                    FAIL_COLOUR.stroke_width(3),
+                )))
+                .map_err(err)?;
+            let series = chart
+                .draw_series(std::iter::once(PathElement::new(
+                    pts,
+                    FAIL_COLOUR.stroke_width(9),
+                )))
+                .map_err(err)?;
+            if k == 0 {
+                series.label("the ball gouges (ringed)").legend(|(x, y)| {
+                    PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
+                });
+            }
+        }
+        for (k, s) in stations.iter().enumerate() {
+            let a = view.project(s.p);
+            let b = view.project(add(s.p, s.n, axis_length));
+            chart
+                .draw_series(std::iter::once(Circle::new(
+                    (a.0, a.1),
+                    5,
+                    AXIS_COLOUR.filled(),
+                )))
+                .map_err(err)?;
+            let series = chart
+                .draw_series([PathElement::new(
+                    vec![(a.0, a.1), (b.0, b.1)],
+                    AXIS_COLOUR.stroke_width(4),
+                )])
+                .map_err(err)?;
+            if k == 0 {
+                series
+                    .label(format!("tool axis (upright: along N), {axis_length:.0} mm"))
+                    .legend(|(x, y)| {
+                        PathElement::new(vec![(x, y), (x + 28, y)], AXIS_COLOUR.stroke_width(4))
+                    });
+            }
+        }
+        chart
+            .configure_series_labels()
+            .position(SeriesLabelPosition::LowerLeft)
+            .background_style(WHITE.mix(0.9))
+            .border_style(RGBColor(150, 150, 150))
+            .label_font((FONT, TICK_PX))
+            .margin(8)
+            .draw()
+            .map_err(err)?;
+        let (gx0, gx1) = extent(grid, 0);
+        let (gy0, gy1) = extent(grid, 1);
+        chart
+            .draw_series(std::iter::once(Text::new(
+                format!(
+                    "{:.0} × {:.0} mm, seen from {:.0}° above, heights drawn ×{}",
+                    gx1 - gx0,
+                    gy1 - gy0,
+                    view.elevation.to_degrees(),
+                    view.z_scale
+                ),
+                (xr.0 + 0.01 * (xr.1 - xr.0), yr.1 - 0.01 * (yr.1 - yr.0)),
+                TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                    plotters::style::text_anchor::Pos::new(
+                        plotters::style::text_anchor::HPos::Left,
+                        plotters::style::text_anchor::VPos::Top,
+                    ),
+                ),
+            )))
+            .map_err(err)?;
+        colour_bar(
+            &right,
+            shade.label(),
+            (lo, hi),
+            &values,
+            limit.map(|m| ("1/r".to_string(), m)),
+        )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
+
+/// The smallest and largest coordinate `k` of a grid's points.
+fn extent(grid: &Grid, k: usize) -> (f64, f64) {
+    grid.points
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), g| {
+            (a.min(g.p[k]), b.max(g.p[k]))
+        })
+}
+
+fn add(p: [f64; 3], d: [f64; 3], t: f64) -> [f64; 3] {
+    [p[0] + t * d[0], p[1] + t * d[1], p[2] + t * d[2]]
+}
+
+/// The cavity's parameter plane (u, v), shaded by `shade`, with the knot lines and the pass.
+pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<String, String> {
+    let values: Vec<f64> = grid.points.iter().map(|g| shade.value(g)).collect();
+    let limit = (shade == Shade::Concave).then(|| 1.0 / pass.ball_radius);
+    let (lo, hi) = colour_range(&values, limit);
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 720)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                "The pass in the cavity's parameter plane (u, v), over its knot lines",
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let (left, right) = area.split_horizontally(WIDTH - 230);
+        let mut chart = ChartBuilder::on(&left)
+            .margin(16)
+            .x_label_area_size(60)
+            .y_label_area_size(80)
+            .build_cartesian_2d(0.0..1.0, 0.0..1.0)
+            .map_err(err)?;
+        chart
+            .configure_mesh()
+            .disable_mesh()
+            .x_desc("u (x = 160 u mm)")
+            .y_desc("v (y = 100 v mm)")
+            .axis_desc_style((FONT, LABEL_PX))
+            .label_style((FONT, TICK_PX))
+            .draw()
+            .map_err(err)?;
+        for i in 0..grid.nu - 1 {
+            for j in 0..grid.nv - 1 {
+                let c = [
+                    grid.at(i, j),
+                    grid.at(i + 1, j),
+                    grid.at(i + 1, j + 1),
+                    grid.at(i, j + 1),
+                ];
+                let v = c.iter().map(|g| shade.value(g)).sum::<f64>() / 4.0;
+                let col = colour((v - lo) / (hi - lo));
+                chart
+                    .draw_series(std::iter::once(Rectangle::new(
+                        [(c[0].u, c[0].v), (c[2].u, c[2].v)],
+                        col.filled(),
+                    )))
+                    .map_err(err)?;
+            }
+        }
+        let knot_style = RGBColor(255, 255, 255).mix(0.7).stroke_width(1);
+        let mut first = true;
+        let distinct = |k: &[f64]| {
+            let mut v: Vec<f64> = k.to_vec();
+            v.dedup();
+            v
+        };
+        let (ku, kv) = (distinct(&pass.knots_u), distinct(&pass.knots_v));
+        for (knots, along_u) in [(&ku, true), (&kv, false)] {
+            for &k in knots.iter() {
+                let pts = if along_u {
+                    vec![(k, 0.0), (k, 1.0)]
+                } else {
+                    vec![(0.0, k), (1.0, k)]
+                };
+                let s = chart
+                    .draw_series(DashedLineSeries::new(pts, 6, 6, knot_style))
+                    .map_err(err)?;
+                if first {
+                    s.label("knot lines").legend(|(x, y)| {
+                        PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(1))
+                    });
+                    first = false;
+                }
+            }
+        }
+        let uv: Vec<(f64, f64)> = pass.samples.iter().map(|s| (s.u, s.v)).collect();
+        chart
+            .draw_series(std::iter::once(PathElement::new(
+                uv.clone(),
+                BLACK.stroke_width(7),
+            )))
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(PathElement::new(
+                uv,
+                PATH_COLOUR.stroke_width(4),
+            )))
+            .map_err(err)?
+            .label("the pass")
+            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
+        let gouges: Vec<&Stretch> = pass
+            .stretches
+            .iter()
+            .filter(|s| s.kind == "gouge")
+            .collect();
+        for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
+            let mut pts: Vec<(f64, f64)> = run.iter().map(|s| (s.u, s.v)).collect();
+            if pts.len() == 1 {
+                pts.push((pts[0].0 + 0.002, pts[0].1));
+            }
+            let mid = pts[pts.len() / 2];
+            chart
+                .draw_series(std::iter::once(Circle::new(
+                    mid,
+                    18,
+                    FAIL_COLOUR.stroke_width(3),
+                )))
+                .map_err(err)?;
+            let s = chart
+                .draw_series(std::iter::once(PathElement::new(
+                    pts,
+                    FAIL_COLOUR.stroke_width(9),
+                )))
+                .map_err(err)?;
+            if k == 0 {
+                s.label("the ball gouges (ringed)").legend(|(x, y)| {
+                    PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
+                });
+            }
+        }
+        chart
+            .configure_series_labels()
+            .position(SeriesLabelPosition::UpperLeft)
+            .background_style(WHITE.mix(0.9))
+            .border_style(RGBColor(150, 150, 150))
+            .label_font((FONT, TICK_PX))
+            .margin(8)
+            .draw()
+            .map_err(err)?;
+        colour_bar(
+            &right,
+            shade.label(),
+            (lo, hi),
+            &values,
+            limit.map(|m| ("1/r".to_string(), m)),
+        )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
+
+/// The fibre course on the wing skin (3D), its steering and twist violations marked, and the
+/// two checked quantities along the course against their limits.
+pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> {
+    let view = View {
+        azimuth: -0.3,
+        elevation: 0.75,
+        z_scale: 3.0,
+    };
+    let samples = &course.samples;
+    let knots: Vec<f64> = Vec::new();
+    let length = path_length(samples);
+    let kinds = |k: &str| {
+        course
+            .stretches
+            .iter()
+            .filter(|s| s.kind == k)
+            .collect::<Vec<_>>()
+    };
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 1240)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                "A fibre course on the wing skin: where it steers or twists too much",
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let (top, bottom) = area.split_vertically(520);
+        let screen: Vec<(f64, f64)> = wing
+            .points
+            .iter()
+            .map(|g| {
+                let p = view.project(g.p);
+                (p.0, p.1)
+            })
+            .collect();
+        let (w, h) = top.dim_in_pixel();
+        let (xr, yr) = equal_axes(&screen, w as f64 - 20.0, h as f64 - 20.0, 0.1);
+        let mut chart = ChartBuilder::on(&top)
+            .margin(10)
+            .build_cartesian_2d(xr.0..xr.1, yr.0..yr.1)
+            .map_err(err)?;
+        let (z0, z1) = range(wing.points.iter().map(|g| g.p[2]));
+        draw_surface(
+            &mut chart,
+            wing,
+            &view,
+            |c| {
+                // Light shading by height: the upper third of the colour map, so the course and
+                // its marks stay readable on it.
+                let z = c.iter().map(|g| g.p[2]).sum::<f64>() / 4.0;
+                colour(0.55 + 0.4 * (z - z0) / (z1 - z0))
+            },
+            Some(RGBColor(120, 120, 120)),
+        )?;
+        let line = |pts: &[&Sample]| -> Vec<(f64, f64)> {
+            pts.iter()
+                .map(|s| {
+                    let p = view.project(s.p);
+                    (p.0, p.1)
+                })
+                .collect()
+        };
+        let all: Vec<&Sample> = samples.iter().collect();
+        chart
+            .draw_series(std::iter::once(PathElement::new(
+                line(&all),
+                COURSE_COLOUR.stroke_width(4),
+            )))
+            .map_err(err)?
+            .label(format!("the course ({} mm tow)", course.tow_width))
+            .legend(|(x, y)| {
+                PathElement::new(vec![(x, y), (x + 28, y)], COURSE_COLOUR.stroke_width(4))
+            });
+        for (kind, c, width, text) in [
+            ("steering", FAIL_COLOUR, 12, "steering radius too small"),
+            ("twist", FAIL_COLOUR_2, 6, "twist rate too high"),
+        ] {
+            for (k, run) in runs(samples, &kinds(kind)).iter().enumerate() {
+                let s = chart
+                    .draw_series(std::iter::once(PathElement::new(
+                        line(run),
+                        c.stroke_width(width),
+                    )))
+                    .map_err(err)?;
+                if k == 0 {
+                    s.label(text).legend(move |(x, y)| {
+                        PathElement::new(vec![(x, y), (x + 28, y)], c.stroke_width(width))
+                    });
+                }
+            }
+        }
+        chart
+            .configure_series_labels()
+            .position(SeriesLabelPosition::UpperLeft)
+            .background_style(WHITE.mix(0.9))
+            .border_style(RGBColor(150, 150, 150))
+            .label_font((FONT, TICK_PX))
+            .margin(8)
+            .draw()
+            .map_err(err)?;
+        let (bx, by) = (xr.1 - 0.01 * (xr.1 - xr.0), yr.0 + 0.04 * (yr.1 - yr.0));
+        chart
+            .draw_series(std::iter::once(Text::new(
+                format!(
+                    "seen from above at {:.0}°, heights drawn ×{}; root at the left",
+                    view.elevation.to_degrees(),
+                    view.z_scale
+                ),
+                (bx, by),
+                TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                    plotters::style::text_anchor::Pos::new(
+                        plotters::style::text_anchor::HPos::Right,
+                        plotters::style::text_anchor::VPos::Center,
+                    ),
+                ),
+            )))
+            .map_err(err)?;
+        let panels = bottom.split_evenly((2, 1));
+        let steer = Panel {
+            y_label: "|κg| (1/m)",
+            series: vec![(
+                "steering curvature |κg|",
+                along(samples, |s| 1000.0 * s.kg.abs()),
+                OKABE_ITO[5],
+                false,
+            )],
+            shaded: kinds("steering"),
+            limits: vec![(
+                format!("1/(smallest radius {:.0} mm)", course.min_radius),
+                1000.0 / course.min_radius,
+            )],
+            y_range: None,
+            shaded_label: "steering radius too small",
+            legend: SeriesLabelPosition::UpperLeft,
+            knots: knots.clone(),
+        };
+        draw_panel(
+            &panels[0],
+            "Steering: the tows buckle where |κg| is above its limit",
+            length,
+            &steer,
+        )?;
+        let twist = Panel {
+            y_label: "|τg| (rad/m)",
+            series: vec![(
+                "twist rate |τg|",
+                along(samples, |s| 1000.0 * s.tg.abs()),
+                OKABE_ITO[3],
+                false,
+            )],
+            shaded: kinds("twist"),
+            limits: vec![(
+                format!("limit {:.3} rad/m", 1000.0 * course.max_twist),
+                1000.0 * course.max_twist,
+            )],
+            y_range: None,
+            shaded_label: "twist rate too high",
+            legend: SeriesLabelPosition::UpperLeft,
+            knots: knots.clone(),
+        };
+        draw_panel(
+            &panels[1],
+            "Twist: the tow turns about its own axis by τg",
+            length,
+            &twist,
+        )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
