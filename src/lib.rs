@@ -17,6 +17,7 @@ pub mod engine;
 pub mod error;
 pub mod ffi;
 pub mod geometry;
+pub mod isa;
 pub mod nurbs;
 pub mod paths;
 pub mod surface;
@@ -30,6 +31,7 @@ pub use geometry::frame::{
 pub use geometry::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
 pub use geometry::math::Vec3;
 pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
+pub use isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels, vector_kernels};
 pub use nurbs::{
     EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
     SpanHint, interpolate,
