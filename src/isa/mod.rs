@@ -62,7 +62,11 @@ impl VectorKernels {
 pub fn supported_vector_kernels() -> VectorKernels {
     #[cfg(target_arch = "x86_64")]
     {
-        if std::arch::is_x86_feature_detected!("avx512f") {
+        // AVX-512F implies AVX2 on every processor made, and the AVX-512F kernels rely on
+        // it (their compiled code uses AVX2 instructions too); both are tested.
+        if std::arch::is_x86_feature_detected!("avx512f")
+            && std::arch::is_x86_feature_detected!("avx2")
+        {
             return VectorKernels::Avx512;
         }
         if std::arch::is_x86_feature_detected!("avx2") {
