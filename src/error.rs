@@ -129,6 +129,29 @@ pub enum StrakeError {
         /// The host's own code, passed back unchanged.
         code: i32,
     },
+    /// A surface or curve does not provide the derivative order a computation needs (a host
+    /// callback that gives second order where a rate of change needs third).
+    OrderUnavailable {
+        /// Which source (`"surface"` or `"curve"`).
+        which: &'static str,
+        /// The order the computation needs.
+        needed: usize,
+        /// The highest order the source provides.
+        available: usize,
+    },
+    /// The tool-centre path folds back on itself: its speed relative to the contact path,
+    /// d s_centre / d s, is zero or reversed (a ball-end mill larger than a concave radius of
+    /// curvature along the path); its tangent and curvature are not defined there.
+    CentrePathFolds {
+        /// Index of the first such sample.
+        index: usize,
+        /// Its curve parameter.
+        t: f64,
+        /// The component of d(centre)/ds along the contact path's tangent (≤ 0 or tiny).
+        speed_along: f64,
+        /// How many samples of the call fold.
+        count: usize,
+    },
 }
 
 impl fmt::Display for StrakeError {
@@ -189,6 +212,26 @@ impl fmt::Display for StrakeError {
             StrakeError::Callback { which, code } => {
                 write!(f, "host {which} callback failed with code {code}")
             }
+            StrakeError::OrderUnavailable {
+                which,
+                needed,
+                available,
+            } => write!(
+                f,
+                "derivative order unavailable: this call needs the {which}'s derivatives to \
+                 order {needed}, the {which} provides order {available} at most"
+            ),
+            StrakeError::CentrePathFolds {
+                index,
+                t,
+                speed_along,
+                count,
+            } => write!(
+                f,
+                "the tool-centre path folds back at sample {index} (t = {t}): d(centre)/ds \
+                 along the contact tangent is {speed_along:e} (the cutter is larger than a \
+                 concave radius there); {count} sample(s) of the call fold"
+            ),
         }
     }
 }

@@ -21,6 +21,7 @@ pub mod isa;
 pub mod nurbs;
 pub mod paths;
 pub mod surface;
+pub mod toolpath;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
@@ -45,3 +46,9 @@ pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
+pub use geometry::jet::{CurvePartials, MAX_PARTIAL_ORDER, SurfacePartials};
+pub use geometry::rates::{InvariantRates, invariant_rates};
+pub use toolpath::{
+    CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
+    centre_point,
+};

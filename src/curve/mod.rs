@@ -3,7 +3,7 @@
 //! C ABI).
 
 use crate::error::{Result, StrakeError};
-use crate::geometry::jet::{CurveJet, DerivOrder, Interval};
+use crate::geometry::jet::{CurveJet, CurvePartials, DerivOrder, Interval, MAX_PARTIAL_ORDER};
 use crate::nurbs::{NurbsCurve, SpanHint};
 
 /// A curve t ↦ (u(t), v(t)) in a surface's parameter plane.
@@ -43,6 +43,48 @@ pub trait UvCurve: Send + Sync {
     /// default.
     fn breakpoints(&self) -> &[f64] {
         &[]
+    }
+
+    /// The highest derivative order [`UvCurve::partials_in_domain`] provides: 2 by default;
+    /// NURBS curves give [`MAX_PARTIAL_ORDER`].
+    fn max_order(&self) -> usize {
+        2
+    }
+
+    /// u, v and their derivatives in t up to `order` (≤ [`MAX_PARTIAL_ORDER`]), called only
+    /// with t inside the domain. The default serves orders up to 2 from
+    /// [`UvCurve::jet_in_domain`] and refuses higher ones with
+    /// [`StrakeError::OrderUnavailable`].
+    fn partials_in_domain(
+        &self,
+        t: f64,
+        order: usize,
+        hint: &mut SpanHint,
+    ) -> Result<CurvePartials> {
+        if order > self.max_order().min(2) {
+            return Err(StrakeError::OrderUnavailable {
+                which: "curve",
+                needed: order,
+                available: self.max_order().min(2),
+            });
+        }
+        let mut p = CurvePartials::from_jet(&self.jet_in_domain(t, hint)?);
+        p.order = order;
+        Ok(p)
+    }
+
+    /// [`UvCurve::partials_in_domain`] with the checks of [`UvCurve::checked_jet`] (t finite
+    /// and inside the domain, `order` at most [`MAX_PARTIAL_ORDER`], the result finite).
+    fn checked_partials(&self, t: f64, order: usize, hint: &mut SpanHint) -> Result<CurvePartials> {
+        if order > MAX_PARTIAL_ORDER {
+            return Err(StrakeError::InvalidArgument(format!(
+                "derivative order {order} is above {MAX_PARTIAL_ORDER}"
+            )));
+        }
+        self.domain().check("t", t)?;
+        let p = self.partials_in_domain(t, order, hint)?;
+        p.check_finite()?;
+        Ok(p)
     }
 
     /// The jet at t: checks that t is finite and inside the domain, evaluates, and checks that
@@ -105,6 +147,27 @@ impl UvCurve for NurbsCurve<2> {
         self.jets_block(ts, hint, out);
         Ok(())
     }
+    fn max_order(&self) -> usize {
+        MAX_PARTIAL_ORDER
+    }
+    #[inline]
+    fn partials_in_domain(
+        &self,
+        t: f64,
+        order: usize,
+        hint: &mut SpanHint,
+    ) -> Result<CurvePartials> {
+        let d = self.high_derivs_unchecked(t, order.min(MAX_PARTIAL_ORDER), hint);
+        let mut p = CurvePartials {
+            order,
+            ..Default::default()
+        };
+        for k in 0..=order.min(MAX_PARTIAL_ORDER) {
+            p.u[k] = d[k][0];
+            p.v[k] = d[k][1];
+        }
+        Ok(p)
+    }
 }
 
 /// A curve whose jet comes from a closure `f(t)`.
@@ -153,6 +216,17 @@ impl<C: UvCurve + ?Sized> UvCurve for &C {
     }
     fn breakpoints(&self) -> &[f64] {
         (**self).breakpoints()
+    }
+    fn max_order(&self) -> usize {
+        (**self).max_order()
+    }
+    fn partials_in_domain(
+        &self,
+        t: f64,
+        order: usize,
+        hint: &mut SpanHint,
+    ) -> Result<CurvePartials> {
+        (**self).partials_in_domain(t, order, hint)
     }
 }
 

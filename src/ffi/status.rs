@@ -68,6 +68,14 @@ pub enum StrakeStatus {
     /// 31: the host's curve callback returned a non-zero code; the code is in the message and
     /// in `strake_last_callback_code`.
     CurveCallbackFailed = 31,
+    /// 32: the host's surface or curve does not provide the derivative order this call needs
+    /// (rates of change of the invariants and the tool-centre path's curvature need third
+    /// order, its rate of change fourth); the message names the source and both orders.
+    OrderUnavailable = 32,
+    /// 40: the tool-centre path folds back on itself at a sample (its speed relative to the
+    /// contact path is zero or reversed: a cutter larger than a concave radius); the message
+    /// names the first sample and how many fold. Nothing is written.
+    CentrePathFolds = 40,
     /// 90: a bug in strake: a panic was caught at the C boundary. The message says where.
     /// Please report it; the handles passed in are still valid.
     InternalPanic = 90,
@@ -92,11 +100,13 @@ impl StrakeStatus {
             StrakeError::AtPoint { error, .. } => StrakeStatus::of(error),
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
+            StrakeError::OrderUnavailable { .. } => StrakeStatus::OrderUnavailable,
+            StrakeError::CentrePathFolds { .. } => StrakeStatus::CentrePathFolds,
         }
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 17] = [
+    pub const ALL: [StrakeStatus; 19] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -114,6 +124,8 @@ impl StrakeStatus {
         StrakeStatus::SurfaceCallbackFailed,
         StrakeStatus::CurveCallbackFailed,
         StrakeStatus::InternalPanic,
+        StrakeStatus::OrderUnavailable,
+        StrakeStatus::CentrePathFolds,
     ];
 
     /// The C name of the status (e.g. `"STRAKE_STATUS_OUT_OF_DOMAIN"`), NUL-terminated.
@@ -135,6 +147,8 @@ impl StrakeStatus {
             StrakeStatus::NotConverged => c"STRAKE_STATUS_NOT_CONVERGED",
             StrakeStatus::SurfaceCallbackFailed => c"STRAKE_STATUS_SURFACE_CALLBACK_FAILED",
             StrakeStatus::CurveCallbackFailed => c"STRAKE_STATUS_CURVE_CALLBACK_FAILED",
+            StrakeStatus::OrderUnavailable => c"STRAKE_STATUS_ORDER_UNAVAILABLE",
+            StrakeStatus::CentrePathFolds => c"STRAKE_STATUS_CENTRE_PATH_FOLDS",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }
     }

@@ -212,3 +212,164 @@ impl Interval {
         self.lo + self.width() * (i as f64 / (n - 1) as f64)
     }
 }
+
+/// The highest derivative order of [`SurfacePartials`] and [`CurvePartials`]: third order for
+/// the rates of change of the invariants, fourth for the rate of change of the tool-centre
+/// path's curvature.
+pub const MAX_PARTIAL_ORDER: usize = 4;
+
+/// A surface point with its partial derivatives up to order [`MAX_PARTIAL_ORDER`]:
+/// `d[i][j]` = ∂^(i+j) S / ∂u^i ∂v^j for i + j ≤ `order` (entries above `order`, and those
+/// with i + j > 4, are zero). `d[0][0]` is the point.
+///
+/// Lengths in the host's unit, derivatives per unit of the surface parameters. The first
+/// entries are those of [`SurfaceJet`]: `d[1][0]` = Su, `d[0][1]` = Sv, `d[2][0]` = Suu,
+/// `d[1][1]` = Suv, `d[0][2]` = Svv; the third-order ones have accessors
+/// ([`Self::suuu`] …).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SurfacePartials {
+    /// The highest order filled (0 ..= [`MAX_PARTIAL_ORDER`]).
+    pub order: usize,
+    /// `d[i][j]` = ∂^(i+j) S / ∂u^i ∂v^j.
+    pub d: [[Vec3; MAX_PARTIAL_ORDER + 1]; MAX_PARTIAL_ORDER + 1],
+}
+
+impl Default for SurfacePartials {
+    fn default() -> Self {
+        SurfacePartials {
+            order: 0,
+            d: [[Vec3::zeros(); MAX_PARTIAL_ORDER + 1]; MAX_PARTIAL_ORDER + 1],
+        }
+    }
+}
+
+impl SurfacePartials {
+    /// The partials of a second-order jet (`order` = 2, everything above zero).
+    pub fn from_jet(j: &SurfaceJet) -> Self {
+        let mut p = SurfacePartials {
+            order: 2,
+            ..Default::default()
+        };
+        p.d[0][0] = j.p;
+        p.d[1][0] = j.su;
+        p.d[0][1] = j.sv;
+        p.d[2][0] = j.suu;
+        p.d[1][1] = j.suv;
+        p.d[0][2] = j.svv;
+        p
+    }
+
+    /// The second-order part as a [`SurfaceJet`].
+    pub fn jet(&self) -> SurfaceJet {
+        SurfaceJet {
+            p: self.d[0][0],
+            su: self.d[1][0],
+            sv: self.d[0][1],
+            suu: self.d[2][0],
+            suv: self.d[1][1],
+            svv: self.d[0][2],
+        }
+    }
+
+    /// ∂³S/∂u³.
+    pub fn suuu(&self) -> Vec3 {
+        self.d[3][0]
+    }
+    /// ∂³S/∂u²∂v.
+    pub fn suuv(&self) -> Vec3 {
+        self.d[2][1]
+    }
+    /// ∂³S/∂u∂v².
+    pub fn suvv(&self) -> Vec3 {
+        self.d[1][2]
+    }
+    /// ∂³S/∂v³.
+    pub fn svvv(&self) -> Vec3 {
+        self.d[0][3]
+    }
+
+    /// Fails with [`StrakeError::NonFinite`] naming the first non-finite partial up to
+    /// `order` (e.g. "S_uuv" for `d[2][1]`).
+    pub fn check_finite(&self) -> Result<()> {
+        const NAMES: [[&str; 5]; 5] = [
+            ["S", "Sv", "Svv", "Svvv", "Svvvv"],
+            ["Su", "Suv", "Suvv", "Suvvv", ""],
+            ["Suu", "Suuv", "Suuvv", "", ""],
+            ["Suuu", "Suuuv", "", "", ""],
+            ["Suuuu", "", "", "", ""],
+        ];
+        for (i, row) in self.d.iter().enumerate() {
+            for (j, v) in row.iter().enumerate() {
+                if i + j <= self.order && !all_finite(v) {
+                    let value = [v.x, v.y, v.z]
+                        .into_iter()
+                        .find(|c| !c.is_finite())
+                        .unwrap_or(f64::NAN);
+                    return Err(StrakeError::NonFinite {
+                        source: NonFiniteSource::SurfaceJet,
+                        what: NAMES[i][j],
+                        value,
+                    });
+                }
+            }
+        }
+        Ok(())
+    }
+}
+
+/// A point (u, v) of a curve in the parameter plane with its derivatives up to order
+/// [`MAX_PARTIAL_ORDER`] in the curve parameter t: `u[k]` = d^k u / dt^k, `v[k]` likewise,
+/// for k ≤ `order` (higher entries zero).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct CurvePartials {
+    /// The highest order filled (0 ..= [`MAX_PARTIAL_ORDER`]).
+    pub order: usize,
+    /// u and its derivatives in t.
+    pub u: [f64; MAX_PARTIAL_ORDER + 1],
+    /// v and its derivatives in t.
+    pub v: [f64; MAX_PARTIAL_ORDER + 1],
+}
+
+impl CurvePartials {
+    /// The derivatives of a second-order jet (`order` = 2).
+    pub fn from_jet(j: &CurveJet) -> Self {
+        CurvePartials {
+            order: 2,
+            u: [j.u, j.du, j.ddu, 0.0, 0.0],
+            v: [j.v, j.dv, j.ddv, 0.0, 0.0],
+        }
+    }
+
+    /// The second-order part as a [`CurveJet`].
+    pub fn jet(&self) -> CurveJet {
+        CurveJet {
+            u: self.u[0],
+            v: self.v[0],
+            du: self.u[1],
+            dv: self.v[1],
+            ddu: self.u[2],
+            ddv: self.v[2],
+        }
+    }
+
+    /// Fails with [`StrakeError::NonFinite`] naming the first non-finite derivative up to
+    /// `order` ("u", "du", "ddu", "d3u", "d4u", and the same for v).
+    pub fn check_finite(&self) -> Result<()> {
+        const NAMES: [[&str; 5]; 2] = [
+            ["u", "du", "ddu", "d3u", "d4u"],
+            ["v", "dv", "ddv", "d3v", "d4v"],
+        ];
+        for k in 0..=self.order.min(MAX_PARTIAL_ORDER) {
+            for (c, x) in [self.u[k], self.v[k]].into_iter().enumerate() {
+                if !x.is_finite() {
+                    return Err(StrakeError::NonFinite {
+                        source: NonFiniteSource::CurveJet,
+                        what: NAMES[c][k],
+                        value: x,
+                    });
+                }
+            }
+        }
+        Ok(())
+    }
+}

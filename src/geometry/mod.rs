@@ -7,3 +7,5 @@ pub mod frame;
 pub mod jet;
 pub mod math;
 pub mod principal;
+pub mod rates;
+pub(crate) mod taylor;

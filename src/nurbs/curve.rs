@@ -13,6 +13,8 @@
 //! division (The NURBS Book's arithmetic, [`super::basis_rows`]) to a few units in the last
 //! place (tested).
 
+mod high;
+
 use super::basis::{
     Direct, MAX_ORDER, Reciprocals, basis_rows_in, reciprocal_table, reciprocals_per_span,
 };

@@ -5,6 +5,7 @@ mod banded;
 pub mod basis;
 pub mod conics;
 pub mod curve;
+mod high_order;
 mod curve_lanes;
 pub mod interpolate;
 pub mod knots;

@@ -37,6 +37,7 @@ use crate::geometry::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
 
 mod block;
+mod high;
 
 /// The arrays that define a NURBS surface, borrowed from the caller, as handed to
 /// [`NurbsSurface::new`].
@@ -557,6 +558,18 @@ impl SurfaceSource for NurbsSurface {
         self.v_knots.interior_breaks()
     }
     #[inline]
+    fn max_order(&self) -> usize {
+        crate::geometry::jet::MAX_PARTIAL_ORDER
+    }
+    fn partials_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<crate::geometry::jet::SurfacePartials> {
+        Ok(self.partials_unchecked(u, v, order, hint))
+    }
     fn jet_in_domain(
         &self,
         u: f64,

@@ -6,7 +6,8 @@ use crate::curve::UvCurve;
 pub use crate::engine::batch::{Hints, SampleError};
 use crate::error::{Result, StrakeError};
 use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
-use crate::geometry::jet::DerivOrder;
+use crate::geometry::jet::{CurvePartials, DerivOrder, SurfacePartials};
+use crate::geometry::rates::{InvariantRates, invariant_rates};
 use crate::geometry::principal::SurfacePoint;
 use crate::surface::SurfaceSource;
 
@@ -171,5 +172,80 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
             out,
             |_, _| {},
         )
+    }
+
+    /// The frame at `t` and the surface's and curve's partials there to `order` (3 or 4):
+    /// what the rates of change and the tool-centre path are computed from. The frame is that
+    /// of [`Self::frame`], bit for bit.
+    ///
+    /// Errors: those of [`Self::frame`]; `OrderUnavailable` when the surface or the curve does
+    /// not provide `order` (a host callback that gives second order only); `NonFinite` for a
+    /// non-finite partial (named).
+    pub fn frame_and_partials(
+        &self,
+        t: f64,
+        order: usize,
+        hints: &mut Hints,
+    ) -> Result<(DarbouxFrame, SurfacePartials, CurvePartials)> {
+        let frame = self.frame(t, hints)?;
+        let cp = self.curve.checked_partials(t, order, &mut hints.curve)?;
+        let sp = self
+            .surface
+            .checked_partials(cp.u[0], cp.v[0], order, &mut hints.surface)?;
+        Ok((frame, sp, cp))
+    }
+
+    /// The frame at `t` and the rates of change along arc length of κn, κg, τg and κ there
+    /// (see [`crate::geometry::rates`]), from third-order jets.
+    ///
+    /// Errors: those of [`Self::frame_and_partials`] with order 3.
+    pub fn frame_with_rates(
+        &self,
+        t: f64,
+        hints: &mut Hints,
+    ) -> Result<(DarbouxFrame, InvariantRates)> {
+        let (f, sp, cp) = self.frame_and_partials(t, 3, hints)?;
+        let r = invariant_rates(&f, &sp, &cp, self.surface.orientation())?;
+        Ok((f, r))
+    }
+
+    /// Frames and rates of change of the invariants at each of `ts`, into `frames` and
+    /// `rates` (all three the same length): the frames of [`Self::frames_at`] (same bits),
+    /// the rates of [`Self::frame_with_rates`] at each sample. Nothing is allocated; the span
+    /// hints are carried along. Stops at the first failing sample and reports it (the outputs
+    /// are then partly written).
+    pub fn frames_with_rates_at(
+        &self,
+        ts: &[f64],
+        frames: &mut [DarbouxFrame],
+        rates: &mut [InvariantRates],
+    ) -> std::result::Result<(), SampleError> {
+        if rates.len() != ts.len() {
+            return Err(SampleError {
+                index: 0,
+                t: f64::NAN,
+                error: StrakeError::InvalidArgument(format!(
+                    "{} parameters but room for {} rates",
+                    ts.len(),
+                    rates.len()
+                )),
+            });
+        }
+        self.frames_at(ts, frames)?;
+        let mut hints = Hints::default();
+        let orientation = self.surface.orientation();
+        for (index, ((&t, f), r)) in ts.iter().zip(frames.iter()).zip(rates.iter_mut()).enumerate() {
+            let at = |error| SampleError { index, t, error };
+            let cp = self
+                .curve
+                .checked_partials(t, 3, &mut hints.curve)
+                .map_err(at)?;
+            let sp = self
+                .surface
+                .checked_partials(cp.u[0], cp.v[0], 3, &mut hints.surface)
+                .map_err(at)?;
+            *r = invariant_rates(f, &sp, &cp, orientation).map_err(at)?;
+        }
+        Ok(())
     }
 }

@@ -6,7 +6,7 @@ mod closure;
 pub use closure::FnSurface;
 
 use crate::error::{Result, StrakeError};
-use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet, SurfacePartials, MAX_PARTIAL_ORDER};
 use crate::geometry::principal::Orientation;
 use crate::nurbs::SpanHint;
 
@@ -80,6 +80,63 @@ pub trait SurfaceSource: Send + Sync {
         Ok(())
     }
 
+    /// The highest derivative order [`SurfaceSource::partials_in_domain`] provides: 2 by
+    /// default (a source that only has [`SurfaceSource::jet_in_domain`]); native NURBS and
+    /// the analytic surfaces give [`MAX_PARTIAL_ORDER`].
+    fn max_order(&self) -> usize {
+        2
+    }
+
+    /// All partials of S at (u, v) up to `order` (≤ [`MAX_PARTIAL_ORDER`]), called only with
+    /// (u, v) inside the domain. The default serves orders up to 2 from
+    /// [`SurfaceSource::jet_in_domain`] and refuses higher ones with
+    /// [`StrakeError::OrderUnavailable`] (never a silently zero third derivative).
+    fn partials_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        if order > self.max_order().min(2) {
+            return Err(StrakeError::OrderUnavailable {
+                which: "surface",
+                needed: order,
+                available: self.max_order().min(2),
+            });
+        }
+        let d = match order {
+            0 => DerivOrder::Position,
+            1 => DerivOrder::First,
+            _ => DerivOrder::Second,
+        };
+        let mut p = SurfacePartials::from_jet(&self.jet_in_domain(u, v, d, hint)?);
+        p.order = order;
+        Ok(p)
+    }
+
+    /// [`SurfaceSource::partials_in_domain`] with the checks of
+    /// [`SurfaceSource::checked_jet`]: u, v finite and inside the domain, `order` at most
+    /// [`MAX_PARTIAL_ORDER`] (`InvalidArgument` otherwise), every entry up to `order` finite.
+    fn checked_partials(
+        &self,
+        u: f64,
+        v: f64,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        if order > MAX_PARTIAL_ORDER {
+            return Err(StrakeError::InvalidArgument(format!(
+                "derivative order {order} is above {MAX_PARTIAL_ORDER}"
+            )));
+        }
+        self.u_domain().check("u", u)?;
+        self.v_domain().check("v", v)?;
+        let p = self.partials_in_domain(u, v, order, hint)?;
+        p.check_finite()?;
+        Ok(p)
+    }
+
     /// The jet at (u, v): checks that u and v are finite and inside the domain (no clamping),
     /// evaluates, and checks that every requested entry is finite.
     ///
@@ -134,5 +191,17 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
         out: &mut [SurfaceJet],
     ) -> Result<()> {
         (**self).jets_in_domain_block(u, v, order, hint, out)
+    }
+    fn max_order(&self) -> usize {
+        (**self).max_order()
+    }
+    fn partials_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        (**self).partials_in_domain(u, v, order, hint)
     }
 }
