@@ -530,6 +530,7 @@ fn main() {
     let ud = &surface as *const strake::NurbsSurface as *mut std::ffi::c_void;
     let jets_c = RefCell::new(vec![StrakeSurfaceJet::default(); N]);
     let jets_block = RefCell::new(vec![SurfaceJet::default(); N]);
+    let rates_out = RefCell::new(vec![strake::InvariantRates::default(); N]);
 
     let mut cases = vec![
         Case::new("surface jet, marching", N, || {
@@ -605,6 +606,11 @@ fn main() {
         }),
         Case::new("path point, batch", N, || {
             cs.frames_at(&ts, &mut out.borrow_mut()).unwrap();
+        }),
+        Case::new("path point with rates (third order), batch", N, || {
+            let mut rates = rates_out.borrow_mut();
+            cs.frames_with_rates_at(&ts, &mut out.borrow_mut(), &mut rates)
+                .unwrap();
         }),
         Case::new("path point, batch, random order", N, || {
             cs.frames_at(&ts_random, &mut out.borrow_mut()).unwrap();
@@ -785,6 +791,12 @@ fn main() {
         g("path point, batch"),
         g("finite differences"),
         "target <= 0.12",
+    );
+    ratio(
+        "third-order path point (frames with rates, batch) / second-order",
+        g("path point with rates (third order), batch"),
+        g("path point, batch"),
+        "target <= 1.5",
     );
     ratio(
         "native path point (batch) / finite differences, textbook evaluator",
