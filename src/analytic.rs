@@ -106,7 +106,11 @@ pub fn sphere(r: f64) -> AnalyticSurface {
         let (su, sv) = (u.sin_cos(), v.sin_cos());
         all_partials(|i, j| {
             let z = if i == 0 { r * dcos(j, sv) } else { 0.0 };
-            Vec3::new(r * dsin(j, sv) * dcos(i, su), r * dsin(j, sv) * dsin(i, su), z)
+            Vec3::new(
+                r * dsin(j, sv) * dcos(i, su),
+                r * dsin(j, sv) * dsin(i, su),
+                z,
+            )
         })
     })
 }
@@ -118,7 +122,11 @@ pub fn cylinder(r: f64, v0: f64, v1: f64) -> AnalyticSurface {
     make((0.0, TAU), (v0, v1), MAX_PARTIAL_ORDER, move |u, v| {
         let su = u.sin_cos();
         all_partials(|i, j| match (i, j) {
-            (_, 0) => Vec3::new(r * dcos(i, su), r * dsin(i, su), if i == 0 { v } else { 0.0 }),
+            (_, 0) => Vec3::new(
+                r * dcos(i, su),
+                r * dsin(i, su),
+                if i == 0 { v } else { 0.0 },
+            ),
             (0, 1) => Vec3::new(0.0, 0.0, 1.0),
             _ => Vec3::zeros(),
         })
@@ -133,7 +141,11 @@ pub fn torus(big_r: f64, r: f64) -> AnalyticSurface {
         let (su, sv) = (u.sin_cos(), v.sin_cos());
         all_partials(|i, j| {
             // w(v) = R + r cos v and its derivatives.
-            let w = if j == 0 { big_r + r * sv.1 } else { r * dcos(j, sv) };
+            let w = if j == 0 {
+                big_r + r * sv.1
+            } else {
+                r * dcos(j, sv)
+            };
             let z = if i == 0 { r * dsin(j, sv) } else { 0.0 };
             Vec3::new(w * dcos(i, su), w * dsin(i, su), z)
         })

@@ -30,8 +30,10 @@ pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
 pub use geometry::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
+pub use geometry::jet::{CurvePartials, MAX_PARTIAL_ORDER, SurfacePartials};
 pub use geometry::math::Vec3;
 pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
+pub use geometry::rates::{InvariantRates, invariant_rates};
 pub use isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels, vector_kernels};
 pub use nurbs::{
     EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
@@ -46,8 +48,6 @@ pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
-pub use geometry::jet::{CurvePartials, MAX_PARTIAL_ORDER, SurfacePartials};
-pub use geometry::rates::{InvariantRates, invariant_rates};
 pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
     centre_point,

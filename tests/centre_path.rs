@@ -7,8 +7,8 @@
 //! tilt ≠ 0); the generator uses the tool-side-frame formula.
 
 use strake::analytic::{self, AnalyticSurface};
-use strake::checks::{Cutter, ToolSide};
 use strake::checks::tool_axis::ToolAngles;
+use strake::checks::{Cutter, ToolSide};
 use strake::toolpath::centre_path_at;
 use strake::{
     CentreFeedLimits, CentrePoint, CurveOnSurface, FeedBound, Hints, NurbsCurve, StrakeError,
@@ -94,15 +94,60 @@ fn setup(big_r: f64, r: f64, side: f64, lead: f64) -> ToolSetup {
 fn cases() -> Vec<Case> {
     let monge_curve = || bezier([[-1.0, -0.5], [-0.2, 0.6], [0.5, -0.3], [1.2, 0.7]]);
     vec![
-        Case { name: "cyl_circle_ball_in", surface: "cylinder12", curve: line(0.0, 1.0, 3.0, 1.0), setup: setup(0.0, 10.0, -1.0, 0.0) },
-        Case { name: "cyl_circle_ball_out", surface: "cylinder12", curve: line(0.0, 1.0, 3.0, 1.0), setup: setup(0.0, 10.0, 1.0, 0.0) },
-        Case { name: "cyl_helix_ball_in", surface: "cylinder12", curve: line(0.0, 0.0, 3.0, 20.0), setup: setup(0.0, 4.0, -1.0, 0.0) },
-        Case { name: "sphere_latitude_ball_out", surface: "sphere3", curve: line(0.0, 1.0, 3.0, 1.0), setup: setup(0.0, 1.0, -1.0, 0.0) },
-        Case { name: "sphere_curve_ball_in", surface: "sphere3", curve: bezier([[0.0, 1.0], [0.5, 1.2], [1.5, 0.8], [2.5, 1.3]]), setup: setup(0.0, 1.0, 1.0, 0.0) },
-        Case { name: "torus_parallel_ball", surface: "torus5_2", curve: line(0.0, 0.7, 3.0, 0.7), setup: setup(0.0, 0.5, 1.0, 0.0) },
-        Case { name: "torus_curve_toroidal_lead", surface: "torus5_2", curve: bezier([[0.0, 0.5], [0.5, 0.7], [1.0, 0.2], [1.5, 0.9]]), setup: setup(1.5, 0.5, 1.0, 0.2) },
-        Case { name: "monge_curve_ball", surface: "monge", curve: monge_curve(), setup: setup(0.0, 0.75, 1.0, 0.0) },
-        Case { name: "monge_curve_flat_lead", surface: "monge", curve: monge_curve(), setup: setup(0.5, 0.0, 1.0, 0.1) },
+        Case {
+            name: "cyl_circle_ball_in",
+            surface: "cylinder12",
+            curve: line(0.0, 1.0, 3.0, 1.0),
+            setup: setup(0.0, 10.0, -1.0, 0.0),
+        },
+        Case {
+            name: "cyl_circle_ball_out",
+            surface: "cylinder12",
+            curve: line(0.0, 1.0, 3.0, 1.0),
+            setup: setup(0.0, 10.0, 1.0, 0.0),
+        },
+        Case {
+            name: "cyl_helix_ball_in",
+            surface: "cylinder12",
+            curve: line(0.0, 0.0, 3.0, 20.0),
+            setup: setup(0.0, 4.0, -1.0, 0.0),
+        },
+        Case {
+            name: "sphere_latitude_ball_out",
+            surface: "sphere3",
+            curve: line(0.0, 1.0, 3.0, 1.0),
+            setup: setup(0.0, 1.0, -1.0, 0.0),
+        },
+        Case {
+            name: "sphere_curve_ball_in",
+            surface: "sphere3",
+            curve: bezier([[0.0, 1.0], [0.5, 1.2], [1.5, 0.8], [2.5, 1.3]]),
+            setup: setup(0.0, 1.0, 1.0, 0.0),
+        },
+        Case {
+            name: "torus_parallel_ball",
+            surface: "torus5_2",
+            curve: line(0.0, 0.7, 3.0, 0.7),
+            setup: setup(0.0, 0.5, 1.0, 0.0),
+        },
+        Case {
+            name: "torus_curve_toroidal_lead",
+            surface: "torus5_2",
+            curve: bezier([[0.0, 0.5], [0.5, 0.7], [1.0, 0.2], [1.5, 0.9]]),
+            setup: setup(1.5, 0.5, 1.0, 0.2),
+        },
+        Case {
+            name: "monge_curve_ball",
+            surface: "monge",
+            curve: monge_curve(),
+            setup: setup(0.0, 0.75, 1.0, 0.0),
+        },
+        Case {
+            name: "monge_curve_flat_lead",
+            surface: "monge",
+            curve: monge_curve(),
+            setup: setup(0.5, 0.0, 1.0, 0.1),
+        },
     ]
 }
 
@@ -117,7 +162,10 @@ fn rates_and_centre_path_match_the_symbolic_route() {
     let text = std::fs::read_to_string("tests/reference/rates.txt").unwrap();
     let cases = cases();
     let mut lines = 0;
-    for line in text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty()) {
+    for line in text
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.trim().is_empty())
+    {
         let mut it = line.split_whitespace();
         let name = it.next().unwrap();
         let nums: Vec<f64> = it.map(|x| x.parse().unwrap()).collect();
@@ -128,7 +176,12 @@ fn rates_and_centre_path_match_the_symbolic_route() {
         let t = nums[0];
         let mut hints = Hints::default();
         let (f, r) = path.frame_with_rates(t, &mut hints).unwrap();
-        let got = [r.normal_curvature, r.geodesic_curvature, r.geodesic_torsion, r.space_curvature];
+        let got = [
+            r.normal_curvature,
+            r.geodesic_curvature,
+            r.geodesic_torsion,
+            r.space_curvature,
+        ];
         for (k, (g, w)) in got.iter().zip(&nums[1..5]).enumerate() {
             assert!(close(*g, *w, 1e-9), "{name} t {t} rate {k}: {g} vs {w}");
         }
@@ -142,7 +195,10 @@ fn rates_and_centre_path_match_the_symbolic_route() {
             p.torsion.unwrap(),
         ];
         for (k, (g, w)) in got.iter().zip(&nums[5..9]).enumerate() {
-            assert!(close(*g, *w, 1e-9), "{name} t {t} centre quantity {k}: {g} vs {w}");
+            assert!(
+                close(*g, *w, 1e-9),
+                "{name} t {t} centre quantity {k}: {g} vs {w}"
+            );
         }
         lines += 1;
     }
@@ -151,7 +207,9 @@ fn rates_and_centre_path_match_the_symbolic_route() {
 
 fn centre_at(s: &AnalyticSurface, c: &NurbsCurve<2>, st: &ToolSetup, t: f64) -> CentrePoint {
     let path = CurveOnSurface::new(s, c);
-    let (f, sp, cp) = path.frame_and_partials(t, 4, &mut Hints::default()).unwrap();
+    let (f, sp, cp) = path
+        .frame_and_partials(t, 4, &mut Hints::default())
+        .unwrap();
     centre_point(&f, &sp, &cp, s.orientation(), st, t).unwrap()
 }
 
@@ -181,7 +239,11 @@ fn closed_forms() {
     let (rho, c) = (8.0, 20.0 / 3.0);
     assert!(close(h.curvature, rho / (rho * rho + c * c), 1e-13));
     assert!(close(h.torsion.unwrap(), c / (rho * rho + c * c), 1e-12));
-    assert!(close(h.speed_ratio, (rho * rho + c * c).sqrt() / (144.0f64 + c * c).sqrt(), 1e-13));
+    assert!(close(
+        h.speed_ratio,
+        (rho * rho + c * c).sqrt() / (144.0f64 + c * c).sqrt(),
+        1e-13
+    ));
     assert!(h.curvature_rate.unwrap().abs() < 1e-12);
 
     let sphere = analytic::sphere(3.0);
@@ -194,13 +256,22 @@ fn closed_forms() {
     let tp = centre_at(&torus, &par, &setup(0.0, 0.5, 1.0, 0.0), 0.5);
     let big = 5.0 + 2.5 * 0.7f64.cos();
     assert!(close(tp.curvature, 1.0 / big, 1e-13));
-    assert!(close(tp.speed_ratio, big / (5.0 + 2.0 * 0.7f64.cos()), 1e-13));
+    assert!(close(
+        tp.speed_ratio,
+        big / (5.0 + 2.0 * 0.7f64.cos()),
+        1e-13
+    ));
     assert!(tp.curvature_rate.unwrap().abs() < 1e-12);
 
     for (s, c) in [(&cyl, &helix), (&torus, &par), (&sphere, &circle)] {
         let path = CurveOnSurface::new(s, c);
         let (_, r) = path.frame_with_rates(0.45, &mut Hints::default()).unwrap();
-        for x in [r.normal_curvature, r.geodesic_curvature, r.geodesic_torsion, r.space_curvature] {
+        for x in [
+            r.normal_curvature,
+            r.geodesic_curvature,
+            r.geodesic_torsion,
+            r.space_curvature,
+        ] {
             assert!(x.abs() < 1e-12, "{r:?}");
         }
     }
@@ -220,11 +291,20 @@ fn centre_path_against_finite_differences() {
             let d1 = (pp.centre - pm.centre) / (2.0 * h);
             let d2 = (pp.centre - 2.0 * p0.centre + pm.centre) / (h * h);
             let k = d1.cross(&d2).norm() / d1.norm().powi(3);
-            assert!(close(k, p0.curvature, 1e-5), "{}: {k} vs {}", case.name, p0.curvature);
+            assert!(
+                close(k, p0.curvature, 1e-5),
+                "{}: {k} vs {}",
+                case.name,
+                p0.curvature
+            );
             assert!((d1.normalize() - p0.tangent).norm() < 1e-7);
             let dk = (pp.curvature - pm.curvature) / (2.0 * h) / d1.norm();
             let rate = p0.curvature_rate.unwrap();
-            assert!((dk - rate).abs() < 1e-5 * (1.0 + rate.abs()), "{}: {dk} vs {rate}", case.name);
+            assert!(
+                (dk - rate).abs() < 1e-5 * (1.0 + rate.abs()),
+                "{}: {dk} vs {rate}",
+                case.name
+            );
             // The tool tip lies one corner radius below the centre along the axis.
             let (_, r) = case.setup.cutter.torus_radii();
             assert!(((p0.centre - p0.tip) - p0.axis * r).norm() < 1e-12);
@@ -251,24 +331,51 @@ fn feed_on_the_centre_path_of_a_ball_in_a_cylinder() {
     assert_eq!(f.bound, FeedBound::Acceleration);
     assert!(close(f.contact_feed, 4000.0f64.sqrt() * 6.0, 1e-12));
     let old = strake::checks::curvature_limited_feed(
-        &CurveOnSurface::new(&cyl, &circle).frame(0.4, &mut Hints::default()).unwrap(),
-        &strake::checks::FeedLimits { feed: 500.0, max_acceleration: 2000.0, max_jerk: None },
+        &CurveOnSurface::new(&cyl, &circle)
+            .frame(0.4, &mut Hints::default())
+            .unwrap(),
+        &strake::checks::FeedLimits {
+            feed: 500.0,
+            max_acceleration: 2000.0,
+            max_jerk: None,
+        },
     )
     .unwrap();
     assert!(close(old, 24000.0f64.sqrt(), 1e-12));
     // Jerk on a circle: |x'''| = κ² (no curvature rate, no torsion): v = (j / κ²)^(1/3).
-    let j = centre_feed(&p, &CentreFeedLimits { max_jerk: Some(1000.0), ..limits }).unwrap();
+    let j = centre_feed(
+        &p,
+        &CentreFeedLimits {
+            max_jerk: Some(1000.0),
+            ..limits
+        },
+    )
+    .unwrap();
     assert!(close(j.jerk_feed, (1000.0f64 / 0.25).cbrt(), 1e-12));
     assert_eq!(j.bound, FeedBound::Jerk);
     // A ball with lead 0 keeps the axis along N: on the cylinder's circle it turns with the
     // normal, |ω × a| = |κn| = 1/12 per unit contact length, 1/2 per unit centre length.
     assert!(close(p.axis_rate, 0.5, 1e-12));
-    let w = centre_feed(&p, &CentreFeedLimits { max_angular_speed: Some(10.0), ..limits }).unwrap();
+    let w = centre_feed(
+        &p,
+        &CentreFeedLimits {
+            max_angular_speed: Some(10.0),
+            ..limits
+        },
+    )
+    .unwrap();
     assert!(close(w.angular_feed, 20.0, 1e-12));
     assert_eq!(w.bound, FeedBound::AngularSpeed);
     // Bad limits name the field.
     for bad in [0.0, f64::NAN, -1.0] {
-        let e = centre_feed(&p, &CentreFeedLimits { max_acceleration: bad, ..limits }).unwrap_err();
+        let e = centre_feed(
+            &p,
+            &CentreFeedLimits {
+                max_acceleration: bad,
+                ..limits
+            },
+        )
+        .unwrap_err();
         assert!(e.to_string().contains("max_acceleration"), "{e}");
     }
 }
@@ -285,7 +392,9 @@ fn folding_centre_path_is_refused() {
     let e = centre_path_at(&path, &ts, &setup(0.0, 13.0, -1.0, 0.0), 3, &mut out).unwrap_err();
     assert_eq!(e.index, 0);
     match e.error {
-        StrakeError::CentrePathFolds { count, speed_along, .. } => {
+        StrakeError::CentrePathFolds {
+            count, speed_along, ..
+        } => {
             assert_eq!(count, 3);
             assert!(close(speed_along, 1.0 - 13.0 / 12.0, 1e-12));
         }
@@ -296,7 +405,10 @@ fn folding_centre_path_is_refused() {
     assert!(matches!(e.error, StrakeError::CentrePathFolds { .. }));
     // Whole path at order 3: no rates; at order 4: rates.
     centre_path_at(&path, &ts, &setup(0.0, 10.0, -1.0, 0.0), 3, &mut out).unwrap();
-    assert!(out.iter().all(|p| p.curvature_rate.is_none() && close(p.curvature, 0.5, 1e-13)));
+    assert!(
+        out.iter()
+            .all(|p| p.curvature_rate.is_none() && close(p.curvature, 0.5, 1e-13))
+    );
     centre_path_at(&path, &ts, &setup(0.0, 10.0, -1.0, 0.0), 4, &mut out).unwrap();
     assert!(out.iter().all(|p| p.curvature_rate.is_some()));
 }
@@ -305,7 +417,9 @@ fn folding_centre_path_is_refused() {
 /// with OrderUnavailable naming the surface, from exactly the calls that need order 3.
 #[test]
 fn second_order_source_is_refused_where_third_order_is_needed() {
-    let s = analytic::monge((-1.0, 1.0), (-1.0, 1.0), |x, y| [x * y, y, x, 0.0, 1.0, 0.0]);
+    let s = analytic::monge((-1.0, 1.0), (-1.0, 1.0), |x, y| {
+        [x * y, y, x, 0.0, 1.0, 0.0]
+    });
     let c = line(-0.5, -0.5, 0.5, 0.4);
     let path = CurveOnSurface::new(&s, &c);
     let mut hints = Hints::default();
@@ -313,7 +427,11 @@ fn second_order_source_is_refused_where_third_order_is_needed() {
     let e = path.frame_with_rates(0.5, &mut hints).unwrap_err();
     assert_eq!(
         e,
-        StrakeError::OrderUnavailable { which: "surface", needed: 3, available: 2 }
+        StrakeError::OrderUnavailable {
+            which: "surface",
+            needed: 3,
+            available: 2
+        }
     );
     assert!(e.to_string().contains("surface"));
 }
@@ -329,7 +447,8 @@ fn frames_with_rates_for_a_whole_path() {
     let mut frames = vec![path.frame(0.0, &mut Hints::default()).unwrap(); ts.len()];
     let mut plain = frames.clone();
     let mut rates = vec![strake::InvariantRates::default(); ts.len()];
-    path.frames_with_rates_at(&ts, &mut frames, &mut rates).unwrap();
+    path.frames_with_rates_at(&ts, &mut frames, &mut rates)
+        .unwrap();
     path.frames_at(&ts, &mut plain).unwrap();
     assert_eq!(frames, plain);
     for (i, &t) in ts.iter().enumerate().step_by(17) {

@@ -129,7 +129,11 @@ mod tests {
                 assert!((d[k][r] - r2.d[k][r]).abs() < 1e-12);
             }
             let fd = (rp.d[2][r] - rm.d[2][r]) / (2.0 * h);
-            assert!((d[3][r] - fd).abs() < 1e-6 * (1.0 + fd.abs()), "{} {fd}", d[3][r]);
+            assert!(
+                (d[3][r] - fd).abs() < 1e-6 * (1.0 + fd.abs()),
+                "{} {fd}",
+                d[3][r]
+            );
             assert_eq!(d[4][r], 0.0);
         }
         // Partition of unity: the derivatives of Σ N sum to zero.

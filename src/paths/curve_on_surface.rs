@@ -7,8 +7,8 @@ pub use crate::engine::batch::{Hints, SampleError};
 use crate::error::{Result, StrakeError};
 use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
 use crate::geometry::jet::{CurvePartials, DerivOrder, SurfacePartials};
-use crate::geometry::rates::{InvariantRates, invariant_rates};
 use crate::geometry::principal::SurfacePoint;
+use crate::geometry::rates::{InvariantRates, invariant_rates};
 use crate::surface::SurfaceSource;
 
 /// One sample of a path: where it is along the curve and its frame there.
@@ -234,7 +234,12 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         self.frames_at(ts, frames)?;
         let mut hints = Hints::default();
         let orientation = self.surface.orientation();
-        for (index, ((&t, f), r)) in ts.iter().zip(frames.iter()).zip(rates.iter_mut()).enumerate() {
+        for (index, ((&t, f), r)) in ts
+            .iter()
+            .zip(frames.iter())
+            .zip(rates.iter_mut())
+            .enumerate()
+        {
             let at = |error| SampleError { index, t, error };
             let cp = self
                 .curve

@@ -6,7 +6,7 @@ mod closure;
 pub use closure::FnSurface;
 
 use crate::error::{Result, StrakeError};
-use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet, SurfacePartials, MAX_PARTIAL_ORDER};
+use crate::geometry::jet::{DerivOrder, Interval, MAX_PARTIAL_ORDER, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::Orientation;
 use crate::nurbs::SpanHint;
 

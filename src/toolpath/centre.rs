@@ -33,12 +33,12 @@
 
 use crate::checks::cutter::{Cutter, ToolSide};
 use crate::checks::tool_axis::{ToolAngles, tool_axis};
+use crate::curve::UvCurve;
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geometry::frame::DarbouxFrame;
 use crate::geometry::jet::{CurvePartials, SurfacePartials};
 use crate::geometry::math::Vec3;
 use crate::geometry::principal::Orientation;
-use crate::curve::UvCurve;
 use crate::geometry::rates::path_series;
 use crate::paths::curve_on_surface::{CurveOnSurface, Hints, SampleError};
 use crate::surface::SurfaceSource;
@@ -139,7 +139,11 @@ pub fn centre_point(
         d += perp * (big_r / perp_len);
     }
     // dCL/ds = T + ω × d in frame components.
-    let omega = Vec3::new(f.geodesic_torsion, -f.normal_curvature, f.geodesic_curvature);
+    let omega = Vec3::new(
+        f.geodesic_torsion,
+        -f.normal_curvature,
+        f.geodesic_curvature,
+    );
     let p1 = Vec3::new(1.0, 0.0, 0.0) + omega.cross(&d);
     if !(p1.x >= FOLD_LIMIT) {
         return Err(StrakeError::CentrePathFolds {
@@ -155,11 +159,10 @@ pub fn centre_point(
     let axis_rate_contact = omega.cross(&a).norm();
     // Exact derivatives in t from the series of the frame.
     let ps = path_series(surface, curve, orientation, order);
-    let cl = ps
-        .c
-        .add(&ps.t.scale(d.x))
-        .add(&ps.b.scale(d.y))
-        .add(&ps.n.scale(d.z));
+    let cl =
+        ps.c.add(&ps.t.scale(d.x))
+            .add(&ps.b.scale(d.y))
+            .add(&ps.n.scale(d.z));
     let x1 = cl.deriv();
     let x2 = x1.deriv();
     let x3 = x2.deriv();

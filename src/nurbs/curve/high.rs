@@ -99,9 +99,17 @@ mod tests {
                 let m = c.high_derivs_unchecked(t - e, 4, &mut h);
                 for k in 0..2 {
                     let fd3 = (p[2][k] - m[2][k]) / (2.0 * e);
-                    assert!((hi[3][k] - fd3).abs() < 1e-5 * (1.0 + fd3.abs()), "{} {fd3}", hi[3][k]);
+                    assert!(
+                        (hi[3][k] - fd3).abs() < 1e-5 * (1.0 + fd3.abs()),
+                        "{} {fd3}",
+                        hi[3][k]
+                    );
                     let fd4 = (p[3][k] - m[3][k]) / (2.0 * e);
-                    assert!((hi[4][k] - fd4).abs() < 1e-4 * (1.0 + fd4.abs()), "{} {fd4}", hi[4][k]);
+                    assert!(
+                        (hi[4][k] - fd4).abs() < 1e-4 * (1.0 + fd4.abs()),
+                        "{} {fd4}",
+                        hi[4][k]
+                    );
                 }
                 if weights.is_none() {
                     assert_eq!(hi[4], [0.0, 0.0]);

@@ -136,12 +136,24 @@ mod tests {
                 let hi = s.partials_unchecked(u, v, 4, &mut h);
                 let lo = s.jet_unchecked(u, v, DerivOrder::Second, &mut h);
                 let j = hi.jet();
-                for (a, b) in [(j.p, lo.p), (j.su, lo.su), (j.sv, lo.sv), (j.suu, lo.suu), (j.suv, lo.suv), (j.svv, lo.svv)] {
+                for (a, b) in [
+                    (j.p, lo.p),
+                    (j.su, lo.su),
+                    (j.sv, lo.sv),
+                    (j.suu, lo.suu),
+                    (j.suv, lo.suv),
+                    (j.svv, lo.svv),
+                ] {
                     assert!((a - b).norm() <= 1e-12 * (1.0 + b.norm()), "{a} {b}");
                 }
                 let e = 1e-5;
                 let at = |du: f64, dv: f64| {
-                    s.jet_unchecked(u + du, v + dv, DerivOrder::Second, &mut SurfaceHint::default())
+                    s.jet_unchecked(
+                        u + du,
+                        v + dv,
+                        DerivOrder::Second,
+                        &mut SurfaceHint::default(),
+                    )
                 };
                 let (up, um) = (at(e, 0.0), at(-e, 0.0));
                 let (vp, vm) = (at(0.0, e), at(0.0, -e));
@@ -153,7 +165,10 @@ mod tests {
                     (hi.suuv(), (vp.suu - vm.suu) / (2.0 * e)),
                 ];
                 for (a, b) in checks {
-                    assert!((a - b).norm() <= 1e-5 * (1.0 + b.norm()), "seed {seed}: {a} vs {b}");
+                    assert!(
+                        (a - b).norm() <= 1e-5 * (1.0 + b.norm()),
+                        "seed {seed}: {a} vs {b}"
+                    );
                 }
                 let (hp, hm) = (
                     s.partials_unchecked(u + e, v, 4, &mut SurfaceHint::default()),
