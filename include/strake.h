@@ -136,6 +136,18 @@ enum StrakeStatus
    */
   STRAKE_STATUS_CURVE_CALLBACK_FAILED = 31,
   /**
+   * 32: the host's surface or curve does not provide the derivative order this call needs
+   * (rates of change of the invariants and the tool-centre path's curvature need third
+   * order, its rate of change fourth); the message names the source and both orders.
+   */
+  STRAKE_STATUS_ORDER_UNAVAILABLE = 32,
+  /**
+   * 40: the tool-centre path folds back on itself at a sample (its speed relative to the
+   * contact path is zero or reversed: a cutter larger than a concave radius); the message
+   * names the first sample and how many fold. Nothing is written.
+   */
+  STRAKE_STATUS_CENTRE_PATH_FOLDS = 40,
+  /**
    * 90: a bug in strake: a panic was caught at the C boundary. The message says where.
    * Please report it; the handles passed in are still valid.
    */

@@ -42,6 +42,8 @@ fn status_numbers_are_stable() {
         (SurfaceCallbackFailed, 30),
         (CurveCallbackFailed, 31),
         (InternalPanic, 90),
+        (OrderUnavailable, 32),
+        (CentrePathFolds, 40),
     ];
     assert_eq!(table.len(), StrakeStatus::ALL.len());
     for (s, n) in table {
@@ -53,7 +55,7 @@ fn status_numbers_are_stable() {
         assert_eq!(name, s.c_name().to_str().unwrap());
         assert!(name.starts_with("STRAKE_STATUS_"));
     }
-    for unknown in [5, 9, 14, 25, 32, 89, 91, u32::MAX] {
+    for unknown in [5, 9, 14, 25, 33, 41, 89, 91, u32::MAX] {
         // SAFETY: as above.
         let name = unsafe { CStr::from_ptr(strake_status_name(unknown)) };
         assert_eq!(name.to_str().unwrap(), "STRAKE_STATUS_UNKNOWN");

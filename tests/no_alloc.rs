@@ -144,6 +144,7 @@ fn evaluation_paths_do_not_allocate() {
 
     // The C entry points, with a per-point callback, a batch callback and a native surface.
     c_abi(&ts, &ts2);
+    rates_and_centre_path_do_not_allocate();
 }
 
 /// A bicubic rational NURBS patch over [0, 1]² (control net of a gently curved sheet).
@@ -330,4 +331,61 @@ fn c_abi(ts: &[f64], ts2: &[f64]) {
         strake_surface_free(batch);
         strake_surface_free(native);
     }
+}
+
+/// The rates of change and the tool-centre path on a rational bicubic NURBS patch allocate
+/// nothing per point (third- and fourth-order partials live on the stack). Called from
+/// `evaluation_paths_do_not_allocate` (the allocation counter is global: tests running at
+/// once would count each other's allocations).
+fn rates_and_centre_path_do_not_allocate() {
+    use strake::checks::tool_axis::ToolAngles;
+    use strake::checks::{Cutter, ToolSide};
+    use strake::toolpath::{ToolSetup, centre_path_at};
+    let s = nurbs_patch();
+    let c = NurbsCurve::new(
+        1,
+        &[0.0, 0.0, 1.0, 1.0],
+        &[[0.05, 0.04], [0.95, 0.92]],
+        None,
+    )
+    .unwrap();
+    let cs = CurveOnSurface::new(&s, &c);
+    let setup = ToolSetup {
+        cutter: Cutter::Toroidal {
+            radius: 1.0,
+            corner_radius: 0.3,
+        },
+        side: ToolSide::AlongNormal,
+        angles: ToolAngles {
+            lead: 0.1,
+            tilt: 0.0,
+        },
+    };
+    let run = |n: usize| {
+        let ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+        let f0 = cs.frame(0.0, &mut Hints::default()).unwrap();
+        let mut frames = vec![f0; n];
+        let mut rates = vec![strake::InvariantRates::default(); n];
+        let (r, a1) = count(|| cs.frames_with_rates_at(&ts, &mut frames, &mut rates));
+        r.unwrap();
+        let (_, sp, cp) = cs
+            .frame_and_partials(0.0, 4, &mut Hints::default())
+            .unwrap();
+        let p0 = strake::centre_point(&f0, &sp, &cp, s.orientation(), &setup, 0.0).unwrap();
+        let mut pts = vec![p0; n];
+        let (r, a2) = count(|| centre_path_at(&cs, &ts, &setup, 4, &mut pts));
+        r.unwrap();
+        (a1, a2)
+    };
+    let (a1, a2) = run(100);
+    let (b1, b2) = run(2000);
+    assert_eq!(
+        a1, b1,
+        "frames_with_rates_at: {a1} allocations for 100 points, {b1} for 2000"
+    );
+    assert_eq!(
+        (a2, b2),
+        (0, 0),
+        "centre_path_at allocated {a2} / {b2} times"
+    );
 }

@@ -162,9 +162,9 @@ impl UvCurve for NurbsCurve<2> {
             order,
             ..Default::default()
         };
-        for k in 0..=order.min(MAX_PARTIAL_ORDER) {
-            p.u[k] = d[k][0];
-            p.v[k] = d[k][1];
+        for (k, dk) in d.iter().enumerate().take(order.min(MAX_PARTIAL_ORDER) + 1) {
+            p.u[k] = dk[0];
+            p.v[k] = dk[1];
         }
         Ok(p)
     }

@@ -360,11 +360,11 @@ impl CurvePartials {
             ["v", "dv", "ddv", "d3v", "d4v"],
         ];
         for k in 0..=self.order.min(MAX_PARTIAL_ORDER) {
-            for (c, x) in [self.u[k], self.v[k]].into_iter().enumerate() {
+            for (names, x) in NAMES.iter().zip([self.u[k], self.v[k]]) {
                 if !x.is_finite() {
                     return Err(StrakeError::NonFinite {
                         source: NonFiniteSource::CurveJet,
-                        what: NAMES[c][k],
+                        what: names[k],
                         value: x,
                     });
                 }

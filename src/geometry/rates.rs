@@ -7,7 +7,7 @@
 //! last from the third Darboux equation). Their t-derivatives need c''' (third partials of
 //! S and u''', v'') and dN/dt to second order (again third partials of S). Rather than expand
 //! the long closed forms by hand, every quantity is carried as a truncated Taylor series in t
-//! ([`crate::geometry::taylor`]): S(u(t), v(t)) and its partials along the curve by the
+//! (the crate-internal `geometry::taylor`): S(u(t), v(t)) and its partials along the curve by the
 //! bivariate Taylor expansion, then T, N, B and the invariants by series arithmetic. The
 //! result is d/dt of each invariant, divided by |c'| for d/ds. The tests compare it with a
 //! symbolic differentiation (sympy, `tests/reference/rates.py`) and closed forms.
@@ -15,6 +15,9 @@
 //! The space curvature κ = √(κn² + κg²) has dκ/ds = (κn dκn/ds + κg dκg/ds)/κ; where κ = 0
 //! (an inflection, a straight line) |κ| has a corner and the rate reported is the one-sided
 //! one, √((dκn/ds)² + (dκg/ds)²).
+
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geometry::frame::DarbouxFrame;

@@ -6,6 +6,9 @@
 //! coefficient k is its k-th derivative / k! to rounding, as long as the inputs are valid to
 //! degree k (the callers track how far each quantity is valid).
 
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
+
 use crate::geometry::math::Vec3;
 
 /// The number of coefficients (degrees 0 ..= 4).

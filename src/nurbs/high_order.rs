@@ -2,6 +2,9 @@
 //! Book, 2nd ed., A2.3 DersBasisFuns, p. 72). The second-order evaluation keeps its own
 //! unrolled rows (`basis.rs`); this is a separate path, so its bits and speed are unchanged.
 
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
+
 use crate::geometry::jet::MAX_PARTIAL_ORDER;
 
 /// Rows of derivatives: `ders[k][r]` = k-th derivative of N_{span−p+r, p}(u), k ≤ `n`

@@ -55,7 +55,7 @@ pub struct ToolSetup {
     pub cutter: Cutter,
     /// The side of the surface the tool is on.
     pub side: ToolSide,
-    /// Lead and tilt (see [`crate::checks::tool_axis`]).
+    /// Lead and tilt (see the module `crate::checks::tool_axis`).
     pub angles: ToolAngles,
 }
 
@@ -145,7 +145,7 @@ pub fn centre_point(
         f.geodesic_curvature,
     );
     let p1 = Vec3::new(1.0, 0.0, 0.0) + omega.cross(&d);
-    if !(p1.x >= FOLD_LIMIT) {
+    if p1.x.is_nan() || p1.x < FOLD_LIMIT {
         return Err(StrakeError::CentrePathFolds {
             index: 0,
             t,

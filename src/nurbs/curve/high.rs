@@ -2,6 +2,9 @@
 //! (A4.2 RatCurveDerivs): C^(k) = (A^(k) − Σ_{i=1..k} C(k,i) w^(i) C^(k−i)) / w. A path of its
 //! own beside the second-order one, which keeps its bits and speed.
 
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
+
 use super::NurbsCurve;
 use crate::geometry::jet::MAX_PARTIAL_ORDER;
 use crate::nurbs::SpanHint;

@@ -8,6 +8,9 @@
 //! A path of its own beside the second-order one (which keeps its bits and speed): stack
 //! arrays only, span hints carried as there.
 
+// The formulas index their rows and coefficients as the sources write them.
+#![allow(clippy::needless_range_loop)]
+
 use super::NurbsSurface;
 use crate::geometry::jet::{MAX_PARTIAL_ORDER, SurfacePartials};
 use crate::geometry::math::Vec3;
