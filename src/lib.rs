@@ -9,6 +9,9 @@
 //! [`geometry::frame`] and [`geometry::principal`].
 
 #![warn(missing_docs)]
+// Since the MSRV is 1.89 (the AVX-512 intrinsics), clippy suggests let-chains for nested
+// `if let`; the code keeps the nested form.
+#![allow(clippy::collapsible_if)]
 
 pub mod analytic;
 pub mod checks;
@@ -18,6 +21,7 @@ pub mod error;
 pub mod ffi;
 pub mod geodesics;
 pub mod geometry;
+pub mod isa;
 pub mod nurbs;
 pub mod paths;
 pub mod planning;
@@ -44,6 +48,7 @@ pub use geometry::jet::{CurvePartials, MAX_PARTIAL_ORDER, SurfacePartials};
 pub use geometry::math::Vec3;
 pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use geometry::rates::{InvariantRates, invariant_rates};
+pub use isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels, vector_kernels};
 pub use nurbs::{
     EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
     SpanHint, interpolate,

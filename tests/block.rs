@@ -141,8 +141,32 @@ fn cubic_path(pts: &[[f64; 2]; 7]) -> NurbsCurve<2> {
     NurbsCurve::new(3, &knots, pts, Some(&w)).unwrap()
 }
 
+// Every variant of the batch kernels this processor supports (AVX-512F, AVX2, baseline), each
+// forced through the process-wide limit; the only test of this file that sets the limit, so
+// the variant asserted is the one that runs (the other tests may run under any variant: all
+// give the same bits).
 #[test]
 fn batch_frames_are_the_bits_of_the_one_point_path() {
+    use strake::{VectorKernels, limit_vector_kernels, supported_vector_kernels, vector_kernels};
+    let mut ran = 0;
+    for v in [
+        VectorKernels::Avx512,
+        VectorKernels::Avx2,
+        VectorKernels::Baseline,
+    ] {
+        if v > supported_vector_kernels() {
+            continue;
+        }
+        limit_vector_kernels(v);
+        assert_eq!(vector_kernels(), v);
+        batch_frames_in_the_active_variant();
+        ran += 1;
+    }
+    limit_vector_kernels(VectorKernels::Avx512);
+    assert!(ran >= 1);
+}
+
+fn batch_frames_in_the_active_variant() {
     let mut compared = 0;
     // A rational bicubic NURBS surface, both orientations, sample counts around the block size.
     let path = cubic_path(&[

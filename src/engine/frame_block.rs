@@ -35,6 +35,7 @@ use crate::geometry::frame::{
 use crate::geometry::jet::{CurveJet, SurfaceJet};
 use crate::geometry::math::Vec3;
 use crate::geometry::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
+use crate::isa::VectorKernels;
 use std::marker::PhantomData;
 use std::mem::{MaybeUninit, size_of};
 use std::ops::{Div, Mul};
@@ -238,8 +239,9 @@ impl BlockOutput {
 /// The frame math over all lanes of a block: the formulas of `SurfacePoint::new_with_limit`
 /// and `darboux_frame_at`, operation for operation. `scales` must be valid (positive, finite).
 ///
-/// On x86-64 processors with AVX2 (detected at run time, once) the same code runs on AVX
-/// registers, four lanes per instruction, a group of four points at a time. Only additions,
+/// On x86-64 processors with AVX-512F or AVX2 (detected at run time; `variant` may ask for a
+/// narrower one) the same code runs on AVX-512 or AVX registers, eight or four lanes per
+/// instruction, a group of eight or four points at a time. Only additions,
 /// subtractions, multiplications, divisions, square roots, compares and selects are used, which
 /// round identically in every instruction set (no fused multiply-add), so both give the same
 /// bits.
@@ -256,14 +258,43 @@ pub(crate) fn frames_of_block(
     orientation: Orientation,
     s: &ParamScales,
     y: &mut BlockOutput,
+    variant: VectorKernels,
 ) {
     #[cfg(target_arch = "x86_64")]
-    if std::arch::is_x86_feature_detected!("avx2") {
-        // SAFETY: the processor supports AVX2 (checked just above).
-        unsafe { frames_of_block_avx2(x, orientation, s, y) };
-        return;
+    match crate::isa::supported_vector_kernels().min(variant) {
+        VectorKernels::Avx512 => {
+            // SAFETY: the processor supports AVX-512F (checked just above).
+            unsafe { frames_of_block_avx512(x, orientation, s, y) };
+            return;
+        }
+        VectorKernels::Avx2 => {
+            // SAFETY: the processor supports AVX2 (checked just above).
+            unsafe { frames_of_block_avx2(x, orientation, s, y) };
+            return;
+        }
+        VectorKernels::Baseline => {}
     }
     frames_of_block_portable(x, orientation, s, y)
+}
+
+/// The kernel on AVX-512 registers ([`crate::engine::lanes::x86_512::Avx8`]), two groups of
+/// eight lanes.
+///
+/// # Safety
+/// The processor must support AVX-512F.
+#[cfg(all(test, target_arch = "x86_64"))]
+#[target_feature(enable = "avx512f")]
+unsafe fn frames_of_block_avx512(
+    x: &BlockInput,
+    orientation: Orientation,
+    s: &ParamScales,
+    y: &mut BlockOutput,
+) {
+    use crate::engine::lanes::x86_512::Avx8;
+    for at in (0..BLOCK).step_by(Avx8::N) {
+        // SAFETY: the caller promises AVX-512F.
+        unsafe { frames_of_group::<Avx8>(x, orientation, s, y, at) };
+    }
 }
 
 /// The kernel on AVX registers ([`crate::engine::lanes::x86::Avx4`]), four groups of four lanes.
@@ -761,26 +792,38 @@ impl<'a> FrameSlots<'a> {
 pub(crate) const MAX_POINTS: usize = 64;
 
 /// The batch frame kernel as the batch entry points use it: jets in, frames out, a flag per
-/// point. On AVX2 processors (detected once, at construction) the jets are transposed into AVX
-/// registers four points at a time and the frames out of them (`aos::frames_avx2`), with no
-/// structure-of-arrays block in between; elsewhere the block of [`BLOCK`] plain arrays
+/// point. On AVX-512F and AVX2 processors (detected once, at construction; see
+/// [`crate::isa::vector_kernels`]) the jets are transposed into vector registers eight or four
+/// points at a time and the frames out of them (`aos::frames_avx512`, `aos::frames_avx2`),
+/// with no structure-of-arrays block in between; elsewhere the block of [`BLOCK`] plain arrays
 /// ([`BlockInput`], [`frames_of_block_portable`], [`BlockOutput`]).
 pub(crate) struct FrameKernel {
-    #[cfg(target_arch = "x86_64")]
-    avx2: bool,
+    variant: VectorKernels,
     x: BlockInput,
     y: BlockOutput,
 }
 
 impl FrameKernel {
-    /// The kernel for this processor, with its scratch storage (made once per batch call).
+    /// The kernel for this processor (and the process's limit), with its scratch storage
+    /// (made once per batch call).
     pub(crate) fn new() -> Self {
+        Self::with(crate::isa::vector_kernels())
+    }
+
+    /// The kernel in variant `variant`, or the widest the processor supports if that is
+    /// narrower (so that a variant is never run where its instructions are missing).
+    pub(crate) fn with(variant: VectorKernels) -> Self {
         FrameKernel {
-            #[cfg(target_arch = "x86_64")]
-            avx2: std::arch::is_x86_feature_detected!("avx2"),
+            variant: variant.min(crate::isa::supported_vector_kernels()),
             x: BlockInput::zeroed(),
             y: BlockOutput::zeroed(),
         }
+    }
+
+    /// The variant this kernel runs.
+    #[cfg(test)]
+    pub(crate) fn variant(&self) -> VectorKernels {
+        self.variant
     }
 
     /// Frames of the points `(surface[i], curve[i])`, i < len = `out.len()` ≤ [`MAX_POINTS`]
@@ -801,9 +844,17 @@ impl FrameKernel {
         let len = out.len();
         assert!(surface.len() == len && curve.len() == len && len <= MAX_POINTS);
         #[cfg(target_arch = "x86_64")]
-        if self.avx2 {
-            // SAFETY: the processor supports AVX2 (detected in `new`); lengths checked above.
-            return unsafe { aos::frames_avx2(surface, curve, orientation, s, &mut out) };
+        match self.variant {
+            VectorKernels::Avx512 => {
+                // SAFETY: the processor supports AVX-512F (`with` never picks a variant wider
+                // than the supported one); lengths checked above.
+                return unsafe { aos::frames_avx512(surface, curve, orientation, s, &mut out) };
+            }
+            VectorKernels::Avx2 => {
+                // SAFETY: the processor supports AVX2 (as above); lengths checked above.
+                return unsafe { aos::frames_avx2(surface, curve, orientation, s, &mut out) };
+            }
+            VectorKernels::Baseline => {}
         }
         let mut bits = 0u64;
         for start in (0..len).step_by(BLOCK) {
@@ -831,6 +882,7 @@ impl FrameKernel {
 mod aos {
     use super::*;
     use crate::engine::lanes::x86::{Avx4, Mask4};
+    use crate::engine::lanes::x86_512::{Avx8, Mask8};
     use std::mem::{offset_of, size_of};
 
     /// Size of an f64 in bytes.
@@ -885,36 +937,89 @@ mod aos {
     /// Where the principal curvatures start in a frame, in f64.
     const PRINCIPAL: usize = 18;
 
-    /// Stores the results of four points into four frames.
-    struct AosOut {
-        /// The four frames.
-        out: [*mut DarbouxFrame; 4],
+    /// A lane type whose values can be loaded from, and stored to, pairs of adjacent f64 of
+    /// [`Lane::N`] structures (the transposes of the kernel).
+    trait Pairs: Lane {
+        /// Lane l of the first value is `*p(l)`, of the second `*p(l).add(1)`.
+        ///
+        /// # Safety
+        /// `Self`'s instructions must be available; each `p(l)`, l < N, must point to two
+        /// readable f64.
+        unsafe fn load_pairs(p: impl Fn(usize) -> *const f64) -> (Self, Self);
+        /// `*p(l)` = lane l of `a`, `*p(l).add(1)` = lane l of `b`.
+        ///
+        /// # Safety
+        /// Each `p(l)`, l < N, must point to two writable f64.
+        unsafe fn store_pairs(a: Self, b: Self, p: impl Fn(usize) -> *mut f64);
+        /// Bit l set where flag l of `m` holds.
+        fn mask_bits(m: Self::Mask) -> u32;
+    }
+
+    impl Pairs for Avx4 {
+        #[inline(always)]
+        unsafe fn load_pairs(p: impl Fn(usize) -> *const f64) -> (Avx4, Avx4) {
+            // SAFETY: passed on from the caller.
+            unsafe { Avx4::load_pairs([p(0), p(1), p(2), p(3)]) }
+        }
+        #[inline(always)]
+        unsafe fn store_pairs(a: Avx4, b: Avx4, p: impl Fn(usize) -> *mut f64) {
+            // SAFETY: passed on from the caller.
+            unsafe { Avx4::store_pairs(a, b, [p(0), p(1), p(2), p(3)]) }
+        }
+        #[inline(always)]
+        fn mask_bits(m: Mask4) -> u32 {
+            Avx4::mask_bits(m)
+        }
+    }
+
+    impl Pairs for Avx8 {
+        #[inline(always)]
+        unsafe fn load_pairs(p: impl Fn(usize) -> *const f64) -> (Avx8, Avx8) {
+            // SAFETY: passed on from the caller.
+            unsafe { Avx8::load_pairs(std::array::from_fn(p)) }
+        }
+        #[inline(always)]
+        unsafe fn store_pairs(a: Avx8, b: Avx8, p: impl Fn(usize) -> *mut f64) {
+            // SAFETY: passed on from the caller.
+            unsafe { Avx8::store_pairs(a, b, std::array::from_fn(p)) }
+        }
+        #[inline(always)]
+        fn mask_bits(m: Mask8) -> u32 {
+            Avx8::mask_bits(m)
+        }
+    }
+
+    /// Stores the results of a group of `T::N` points into their frames.
+    struct AosOut<T: Lane> {
+        /// The first frame of the group; frame l at byte `l · stride` from it.
+        out: *mut u8,
+        stride: usize,
         /// z of the points (stored with T.x, its neighbour in the frame).
-        pz: Avx4,
+        pz: T,
         /// The points' S, u, v are finite ([`finite_rest`]).
-        rest: Mask4,
+        rest: T::Mask,
         /// Bit l set where lane l passed every check.
         bits: u32,
     }
 
-    impl AosOut {
-        /// f64 `k`, `k + 1` of the four frames from lanes of `a`, `b`.
+    impl<T: Pairs> AosOut<T> {
+        /// f64 `k`, `k + 1` of the group's frames from lanes of `a`, `b`.
         #[inline(always)]
-        fn put(&self, k: usize, a: Avx4, b: Avx4) {
+        fn put(&self, k: usize, a: T, b: T) {
             let f = |l: usize| {
-                // SAFETY: `out` points to four frames of FRAME_LEN f64 (the contract of
-                // `four`); k + 1 < FRAME_LEN at every call.
-                unsafe { (self.out[l] as *mut f64).add(k) }
+                // SAFETY: `out` points to T::N frames of FRAME_LEN f64 at `stride` (the
+                // contract of `group`); k + 1 < FRAME_LEN at every call.
+                unsafe { (self.out.add(l * self.stride) as *mut f64).add(k) }
             };
             debug_assert!(k + 1 < FRAME_LEN);
             // SAFETY: as just above.
-            unsafe { Avx4::store_pairs(a, b, [f(0), f(1), f(2), f(3)]) }
+            unsafe { T::store_pairs(a, b, f) }
         }
     }
 
-    impl LanesOut<Avx4> for AosOut {
+    impl<T: Pairs> LanesOut<T> for AosOut<T> {
         #[inline(always)]
-        fn surface(&mut self, r: SurfaceLanes<Avx4>) {
+        fn surface(&mut self, r: SurfaceLanes<T>) {
             const P: usize = PRINCIPAL;
             self.put(P, r.k1, r.k2);
             self.put(P + 2, r.d1[0], r.d1[1]);
@@ -926,45 +1031,45 @@ mod aos {
         }
 
         #[inline(always)]
-        fn curve(&mut self, r: CurveLanes<Avx4>) {
+        fn curve(&mut self, r: CurveLanes<T>) {
             self.put(4, self.pz, r.tan[0]);
             self.put(6, r.tan[1], r.tan[2]);
             self.put(8, r.b[0], r.b[1]);
             self.put(10, r.b[2], r.n[0]);
             self.put(14, r.kn, r.kg);
             self.put(16, r.tg, r.speed);
-            self.bits = Avx4::mask_bits(r.ok & self.rest);
+            self.bits = T::mask_bits(r.ok & self.rest);
         }
     }
 
-    /// The frames of the four points at `sj`, `cj` into the four frames at `out`; bit l of
-    /// the result set where lane l passed every check.
+    /// The frames of the `T::N` points at `sj`, `cj` into the frames at `out` (frame l at byte
+    /// `l · stride`); bit l of the result set where lane l passed every check.
     ///
     /// # Safety
-    /// AVX2; `sj`, `cj` point to four readable jets each, each of `out` to a writable frame.
+    /// `T`'s instructions must be available; `sj`, `cj` point to `T::N` readable jets each,
+    /// `out + l · stride` to a writable frame for each l < `T::N`.
     #[inline(always)]
-    unsafe fn four(
+    unsafe fn group<T: Pairs>(
         sj: *const SurfaceJet,
         cj: *const CurveJet,
         orientation: Orientation,
         s: &ParamScales,
-        out: [*mut DarbouxFrame; 4],
-    ) -> u32 {
+        out: *mut u8,
+        stride: usize,
+    ) -> u32
+    where
+        f64: Mul<T, Output = T> + Div<T, Output = T>,
+    {
         // SAFETY (all pointer arithmetic and loads): as the caller promises.
-        let sp = |k: usize| unsafe {
-            let f = |l: usize| (sj.add(l) as *const f64).add(k);
-            Avx4::load_pairs([f(0), f(1), f(2), f(3)])
-        };
-        let cp = |k: usize| unsafe {
-            let f = |l: usize| (cj.add(l) as *const f64).add(k);
-            Avx4::load_pairs([f(0), f(1), f(2), f(3)])
-        };
+        let sp = |k: usize| unsafe { T::load_pairs(|l| (sj.add(l) as *const f64).add(k)) };
+        let cp = |k: usize| unsafe { T::load_pairs(|l| (cj.add(l) as *const f64).add(k)) };
         let (u, v) = cp(0);
         let (px, py) = sp(0);
         let (pz, su0) = sp(2);
         let rest = ((px + py) + (pz + (u + v))).finite();
         let mut sink = AosOut {
             out,
+            stride,
             pz,
             rest,
             bits: 0,
@@ -994,14 +1099,77 @@ mod aos {
             ddu,
             ddv,
         };
-        // SAFETY: AVX2, as the caller promises.
+        // SAFETY: `T`'s instructions, as the caller promises.
         unsafe { frame_math(&input, orientation, s, &mut sink) };
         sink.bits
     }
 
-    /// [`FrameKernel::frames`] on AVX2: groups of four points straight from the slices; the
+    /// [`FrameKernel::frames`] on `T`: groups of `T::N` points straight from the slices; the
     /// last group, when short, through padded copies (its missing lanes repeat its first
     /// point, as [`BlockInput::fill`] does).
+    ///
+    /// # Safety
+    /// `T`'s instructions must be available; the three slices have the same length ≤ 64.
+    #[inline(always)]
+    unsafe fn frames_wide<T: Pairs>(
+        surface: &[SurfaceJet],
+        curve: &[CurveJet],
+        orientation: Orientation,
+        s: &ParamScales,
+        out: &mut FrameSlots<'_>,
+    ) -> u64
+    where
+        f64: Mul<T, Output = T> + Div<T, Output = T>,
+    {
+        /// Room for the widest group.
+        const MAX_N: usize = 8;
+        debug_assert!(T::N <= MAX_N);
+        let len = out.len();
+        let mut bits = 0u64;
+        let mut pad_s: [SurfaceJet; MAX_N];
+        let mut pad_c: [CurveJet; MAX_N];
+        let mut pad_o = [MaybeUninit::<DarbouxFrame>::uninit(); MAX_N];
+        for at in (0..len).step_by(T::N) {
+            let full = at + T::N <= len;
+            let (sp, cp, op, stride) = if full {
+                (
+                    surface[at..].as_ptr(),
+                    curve[at..].as_ptr(),
+                    out.at(at) as *mut u8,
+                    out.stride,
+                )
+            } else {
+                let n = len - at;
+                pad_s = [surface[at]; MAX_N];
+                pad_c = [curve[at]; MAX_N];
+                pad_s[..n].copy_from_slice(&surface[at..]);
+                pad_c[..n].copy_from_slice(&curve[at..]);
+                (
+                    pad_s.as_ptr(),
+                    pad_c.as_ptr(),
+                    pad_o.as_mut_ptr() as *mut u8,
+                    size_of::<DarbouxFrame>(),
+                )
+            };
+            // SAFETY: `T`'s instructions (the caller); T::N jets of each kind readable and
+            // T::N frames writable at the pointers (a full group of the slices, or the padded
+            // copies).
+            let b = unsafe { group::<T>(sp, cp, orientation, s, op, stride) };
+            if full {
+                bits |= (b as u64) << at;
+            } else {
+                let n = len - at;
+                for (l, f) in pad_o[..n].iter().enumerate() {
+                    // SAFETY: `group` wrote the first T::N frames of `pad_o`.
+                    out.write(at + l, unsafe { f.assume_init() });
+                }
+                bits |= ((b & ((1 << n) - 1)) as u64) << at;
+            }
+        }
+        bits
+    }
+
+    /// [`FrameKernel::frames`] on AVX2: four points per group.
     ///
     /// # Safety
     /// The processor must support AVX2; the three slices have the same length ≤ 64.
@@ -1013,48 +1181,24 @@ mod aos {
         s: &ParamScales,
         out: &mut FrameSlots<'_>,
     ) -> u64 {
-        let len = out.len();
-        let mut bits = 0u64;
-        let mut pad_s: [SurfaceJet; 4];
-        let mut pad_c: [CurveJet; 4];
-        let mut pad_o = [MaybeUninit::<DarbouxFrame>::uninit(); 4];
-        for at in (0..len).step_by(Avx4::N) {
-            let full = at + Avx4::N <= len;
-            let (sp, cp, op) = if full {
-                (
-                    surface[at..].as_ptr(),
-                    curve[at..].as_ptr(),
-                    [out.at(at), out.at(at + 1), out.at(at + 2), out.at(at + 3)],
-                )
-            } else {
-                let n = len - at;
-                pad_s = [surface[at]; 4];
-                pad_c = [curve[at]; 4];
-                pad_s[..n].copy_from_slice(&surface[at..]);
-                pad_c[..n].copy_from_slice(&curve[at..]);
-                let o = pad_o.as_mut_ptr() as *mut DarbouxFrame;
-                (
-                    pad_s.as_ptr(),
-                    pad_c.as_ptr(),
-                    // SAFETY: within `pad_o`.
-                    unsafe { [o, o.add(1), o.add(2), o.add(3)] },
-                )
-            };
-            // SAFETY: AVX2 (the caller); four jets of each kind readable and four frames
-            // writable at the pointers (a full group of the slices, or the padded copies).
-            let b = unsafe { four(sp, cp, orientation, s, op) };
-            if full {
-                bits |= (b as u64) << at;
-            } else {
-                let n = len - at;
-                for (l, f) in pad_o[..n].iter().enumerate() {
-                    // SAFETY: `four` wrote every frame of `pad_o`.
-                    out.write(at + l, unsafe { f.assume_init() });
-                }
-                bits |= ((b & ((1 << n) - 1)) as u64) << at;
-            }
-        }
-        bits
+        // SAFETY: passed on from the caller.
+        unsafe { frames_wide::<Avx4>(surface, curve, orientation, s, out) }
+    }
+
+    /// [`FrameKernel::frames`] on AVX-512F: eight points per group.
+    ///
+    /// # Safety
+    /// The processor must support AVX-512F; the three slices have the same length ≤ 64.
+    #[target_feature(enable = "avx512f")]
+    pub(super) unsafe fn frames_avx512(
+        surface: &[SurfaceJet],
+        curve: &[CurveJet],
+        orientation: Orientation,
+        s: &ParamScales,
+        out: &mut FrameSlots<'_>,
+    ) -> u64 {
+        // SAFETY: passed on from the caller.
+        unsafe { frames_wide::<Avx8>(surface, curve, orientation, s, out) }
     }
 }
 
@@ -1145,9 +1289,9 @@ mod tests {
         crate::geometry::math::lcg(state) - 0.5
     }
 
-    // Common practice: `FrameKernel::frames` as the batch entry points call it (on AVX2 the
-    // jets transposed straight into registers and the frames straight out; elsewhere, and
-    // forced here, the 16-lane block) gives, for every length 1..=64 (short last groups
+    // Common practice: `FrameKernel::frames` as the batch entry points call it, in every
+    // variant this processor supports, each forced (AVX-512F and AVX2: the jets transposed
+    // straight into registers and the frames straight out; baseline: the 16-lane block), gives, for every length 1..=64 (short last groups
     // included) and flagged lanes at every position, the flags of `darboux_frame`'s success and
     // for every accepted lane its bits (every f64 of the frame, u, v and the point included).
     #[test]
@@ -1159,12 +1303,19 @@ mod tests {
             t_extent: 0.5,
         };
         let all_bits = |f: &DarbouxFrame| f.to_array().map(f64::to_bits);
-        let mut kernels = vec![FrameKernel::new()];
-        #[cfg(target_arch = "x86_64")]
-        kernels.push(FrameKernel {
-            avx2: false,
-            ..FrameKernel::new()
-        });
+        // Every variant the processor supports, each forced (the widest is what `new` picks).
+        let mut kernels: Vec<FrameKernel> = [
+            VectorKernels::Baseline,
+            VectorKernels::Avx2,
+            VectorKernels::Avx512,
+        ]
+        .into_iter()
+        .filter(|&v| v <= crate::isa::supported_vector_kernels())
+        .map(FrameKernel::with)
+        .collect();
+        for (k, v) in kernels.iter().enumerate() {
+            assert_eq!(k, v.variant() as usize);
+        }
         let mut flagged = 0;
         for round in 0..3 * MAX_POINTS {
             let len = 1 + round % MAX_POINTS;
@@ -1240,8 +1391,8 @@ mod tests {
         assert_eq!(a, [1.0, 2.0, 3.0]);
     }
 
-    // Common practice: the kernel compiled for the baseline instruction set and the one the
-    // dispatch picks on this processor (AVX2 where present) give the same bits, and both the
+    // Common practice: the kernel compiled for the baseline instruction set and the AVX2 and
+    // AVX-512F ones (each where the processor has it) give the same bits, and both the
     // bits of the one-point path (`darboux_frame`), lane by lane, flags included.
     #[test]
     fn baseline_and_dispatched_kernels_agree_bit_for_bit() {
@@ -1279,9 +1430,12 @@ mod tests {
                 .collect();
             let len = 1 + round % BLOCK;
             let x = BlockInput::gather(&sj[..len], &cj[..len]);
-            for orientation in [Orientation::Forward, Orientation::Reversed] {
+            for (orientation, variant) in [Orientation::Forward, Orientation::Reversed]
+                .into_iter()
+                .flat_map(|o| [VectorKernels::Avx2, VectorKernels::Avx512].map(|v| (o, v)))
+            {
                 let (mut a, mut b) = (BlockOutput::zeroed(), BlockOutput::zeroed());
-                frames_of_block(&x, orientation, &scales, &mut a);
+                frames_of_block(&x, orientation, &scales, &mut a, variant);
                 frames_of_block_portable(&x, orientation, &scales, &mut b);
                 for i in 0..len {
                     assert_eq!(a.ok(i), b.ok(i));

@@ -496,12 +496,244 @@ pub(crate) mod x86 {
     }
 }
 
+#[cfg(target_arch = "x86_64")]
+pub(crate) mod x86_512 {
+    //! Eight lanes in one 512-bit AVX-512 register.
+    use super::{Lane, Mask, W};
+    use std::arch::x86_64::*;
+    use std::ops::{Add, BitAnd, Div, Mul, Sub};
+
+    /// Eight lanes in one AVX-512 register. Only for processors with AVX-512F (see [`Lane`]).
+    #[derive(Clone, Copy)]
+    pub(crate) struct Avx8(__m512d);
+
+    /// Eight flags in one AVX-512 mask: bit l for lane l, as compares give them.
+    #[derive(Clone, Copy)]
+    pub(crate) struct Mask8(__mmask8);
+
+    // The helpers below are the instructions, each compiled for AVX-512F (which implies AVX2);
+    // the `unsafe` blocks are needed on older compilers.
+    macro_rules! avx512 {
+        ($(fn $name:ident($($a:ident: $t:ty),*) -> $r:ty $body:block)*) => {$(
+            #[target_feature(enable = "avx512f")]
+            #[inline]
+            #[allow(unused_unsafe)]
+            unsafe fn $name($($a: $t),*) -> $r {
+                // SAFETY: AVX-512F is enabled for this function; pointers as documented at
+                // the call sites.
+                unsafe { $body }
+            }
+        )*};
+    }
+
+    avx512! {
+        fn add(a: __m512d, b: __m512d) -> __m512d { _mm512_add_pd(a, b) }
+        fn sub(a: __m512d, b: __m512d) -> __m512d { _mm512_sub_pd(a, b) }
+        fn mul(a: __m512d, b: __m512d) -> __m512d { _mm512_mul_pd(a, b) }
+        fn div(a: __m512d, b: __m512d) -> __m512d { _mm512_div_pd(a, b) }
+        fn sqrt(a: __m512d) -> __m512d { _mm512_sqrt_pd(a) }
+        // a with its sign bits cleared.
+        fn abs(a: __m512d) -> __m512d { _mm512_abs_pd(a) }
+        // `f64::max`: the instruction gives its second operand when either is NaN, so with
+        // `a` second a NaN in `b` loses; a NaN in `a` is then replaced by `b`.
+        fn max(a: __m512d, b: __m512d) -> __m512d {
+            let m = _mm512_max_pd(b, a);
+            _mm512_mask_blend_pd(_mm512_cmp_pd_mask::<_CMP_UNORD_Q>(a, a), m, b)
+        }
+        fn finite(a: __m512d) -> __mmask8 {
+            _mm512_cmp_pd_mask::<_CMP_LT_OQ>(abs(a), _mm512_set1_pd(f64::INFINITY))
+        }
+        fn ge(a: __m512d, b: __m512d) -> __mmask8 { _mm512_cmp_pd_mask::<_CMP_GE_OQ>(a, b) }
+        fn le(a: __m512d, b: __m512d) -> __mmask8 { _mm512_cmp_pd_mask::<_CMP_LE_OQ>(a, b) }
+        fn ne(a: __m512d, b: __m512d) -> __mmask8 { _mm512_cmp_pd_mask::<_CMP_NEQ_UQ>(a, b) }
+        // a where m is set, else b.
+        fn blend(m: __mmask8, a: __m512d, b: __m512d) -> __m512d { _mm512_mask_blend_pd(m, b, a) }
+        fn splat(x: f64) -> __m512d { _mm512_set1_pd(x) }
+        // p must point to eight readable f64.
+        fn load(p: *const f64) -> __m512d { _mm512_loadu_pd(p) }
+        // p must point to eight writable f64.
+        fn store(p: *mut f64, a: __m512d) -> () { _mm512_storeu_pd(p, a) }
+        // Lane l of the first result is p_l[0], of the second p_l[1]; each p_l must point to
+        // two readable f64. Four 128-bit loads per register and one unpack per result.
+        fn load_pairs(p: [*const f64; 8]) -> (__m512d, __m512d) {
+            let two = |a: *const f64, b: *const f64| {
+                _mm256_insertf128_pd::<1>(_mm256_castpd128_pd256(_mm_loadu_pd(a)), _mm_loadu_pd(b))
+            };
+            // r0 = [p0, p2, p4, p6], r1 = [p1, p3, p5, p7], two f64 each.
+            let r0 = _mm512_insertf64x4::<1>(_mm512_castpd256_pd512(two(p[0], p[2])), two(p[4], p[6]));
+            let r1 = _mm512_insertf64x4::<1>(_mm512_castpd256_pd512(two(p[1], p[3])), two(p[5], p[7]));
+            (_mm512_unpacklo_pd(r0, r1), _mm512_unpackhi_pd(r0, r1))
+        }
+        // The inverse of `load_pairs`: p_l[0] = lane l of a, p_l[1] = lane l of b; each p_l
+        // must point to two writable f64.
+        fn store_pairs(a: __m512d, b: __m512d, p: [*mut f64; 8]) -> () {
+            // lo = [a0, b0, a2, b2, a4, b4, a6, b6], hi = [a1, b1, a3, b3, ...].
+            let lo = _mm512_unpacklo_pd(a, b);
+            let hi = _mm512_unpackhi_pd(a, b);
+            let (lo0, lo1) = (_mm512_castpd512_pd256(lo), _mm512_extractf64x4_pd::<1>(lo));
+            let (hi0, hi1) = (_mm512_castpd512_pd256(hi), _mm512_extractf64x4_pd::<1>(hi));
+            _mm_storeu_pd(p[0], _mm256_castpd256_pd128(lo0));
+            _mm_storeu_pd(p[2], _mm256_extractf128_pd::<1>(lo0));
+            _mm_storeu_pd(p[4], _mm256_castpd256_pd128(lo1));
+            _mm_storeu_pd(p[6], _mm256_extractf128_pd::<1>(lo1));
+            _mm_storeu_pd(p[1], _mm256_castpd256_pd128(hi0));
+            _mm_storeu_pd(p[3], _mm256_extractf128_pd::<1>(hi0));
+            _mm_storeu_pd(p[5], _mm256_castpd256_pd128(hi1));
+            _mm_storeu_pd(p[7], _mm256_extractf128_pd::<1>(hi1));
+        }
+    }
+
+    macro_rules! arith {
+        ($tr:ident, $f:ident) => {
+            impl $tr for Avx8 {
+                type Output = Avx8;
+                #[inline(always)]
+                fn $f(self, o: Avx8) -> Avx8 {
+                    // SAFETY: an `Avx8` exists only on an AVX-512F processor (the `Lane`
+                    // contract).
+                    Avx8(unsafe { $f(self.0, o.0) })
+                }
+            }
+            impl $tr<f64> for Avx8 {
+                type Output = Avx8;
+                #[inline(always)]
+                fn $f(self, o: f64) -> Avx8 {
+                    // SAFETY: as above.
+                    Avx8(unsafe { $f(self.0, splat(o)) })
+                }
+            }
+            impl $tr<Avx8> for f64 {
+                type Output = Avx8;
+                #[inline(always)]
+                fn $f(self, o: Avx8) -> Avx8 {
+                    // SAFETY: as above.
+                    Avx8(unsafe { $f(splat(self), o.0) })
+                }
+            }
+        };
+    }
+    arith!(Add, add);
+    arith!(Sub, sub);
+    arith!(Mul, mul);
+    arith!(Div, div);
+
+    impl BitAnd for Mask8 {
+        type Output = Mask8;
+        #[inline(always)]
+        fn bitand(self, o: Mask8) -> Mask8 {
+            Mask8(self.0 & o.0)
+        }
+    }
+
+    impl Avx8 {
+        /// Two values from pairs of adjacent f64 of eight points (an array-of-structures to
+        /// structure-of-arrays transpose): lane l of the first is `*p[l]`, of the second
+        /// `*p[l].add(1)`.
+        ///
+        /// # Safety
+        /// The processor must support AVX-512F; each `p[l]` must point to two readable f64.
+        #[inline(always)]
+        pub(crate) unsafe fn load_pairs(p: [*const f64; 8]) -> (Avx8, Avx8) {
+            // SAFETY: passed on from the caller.
+            let (a, b) = unsafe { load_pairs(p) };
+            (Avx8(a), Avx8(b))
+        }
+
+        /// The inverse of [`Self::load_pairs`]: `*p[l]` = lane l of `a`, `*p[l].add(1)` = lane
+        /// l of `b`.
+        ///
+        /// # Safety
+        /// Each `p[l]` must point to two writable f64.
+        #[inline(always)]
+        pub(crate) unsafe fn store_pairs(a: Avx8, b: Avx8, p: [*mut f64; 8]) {
+            // SAFETY: an `Avx8` exists only on an AVX-512F processor; pointers from the
+            // caller.
+            unsafe { store_pairs(a.0, b.0, p) }
+        }
+
+        /// Bit l set where flag l of `m` holds.
+        #[inline(always)]
+        pub(crate) fn mask_bits(m: Mask8) -> u32 {
+            m.0 as u32
+        }
+    }
+
+    impl Lane for Avx8 {
+        type Mask = Mask8;
+        const N: usize = 8;
+        #[inline(always)]
+        unsafe fn splat(x: f64) -> Avx8 {
+            // SAFETY: the caller promises AVX-512F (the `Lane` contract).
+            Avx8(unsafe { splat(x) })
+        }
+        #[inline(always)]
+        unsafe fn load(a: &W, at: usize) -> Avx8 {
+            let lanes = &a.0[at..at + 8];
+            // SAFETY: the caller promises AVX-512F; `lanes` holds eight f64.
+            Avx8(unsafe { load(lanes.as_ptr()) })
+        }
+        #[inline(always)]
+        fn store(self, a: &mut W, at: usize) {
+            let lanes = &mut a.0[at..at + 8];
+            // SAFETY: as in `add`; `lanes` holds eight f64.
+            unsafe { store(lanes.as_mut_ptr(), self.0) }
+        }
+        #[inline(always)]
+        fn store_mask(m: Mask8, a: &mut Mask, at: usize) {
+            for (l, flag) in a.0[at..at + 8].iter_mut().enumerate() {
+                *flag = m.0 & (1 << l) != 0;
+            }
+        }
+        #[inline(always)]
+        fn sqrt(self) -> Avx8 {
+            // SAFETY: as in `add`.
+            Avx8(unsafe { sqrt(self.0) })
+        }
+        #[inline(always)]
+        fn abs(self) -> Avx8 {
+            // SAFETY: as in `add`.
+            Avx8(unsafe { abs(self.0) })
+        }
+        #[inline(always)]
+        fn max(self, o: Avx8) -> Avx8 {
+            // SAFETY: as in `add`.
+            Avx8(unsafe { max(self.0, o.0) })
+        }
+        #[inline(always)]
+        fn finite(self) -> Mask8 {
+            // SAFETY: as in `add`.
+            Mask8(unsafe { finite(self.0) })
+        }
+        #[inline(always)]
+        fn ge(self, o: Avx8) -> Mask8 {
+            // SAFETY: as in `add`.
+            Mask8(unsafe { ge(self.0, o.0) })
+        }
+        #[inline(always)]
+        fn le(self, o: Avx8) -> Mask8 {
+            // SAFETY: as in `add`.
+            Mask8(unsafe { le(self.0, o.0) })
+        }
+        #[inline(always)]
+        fn ne(self, o: Avx8) -> Mask8 {
+            // SAFETY: as in `add`.
+            Mask8(unsafe { ne(self.0, o.0) })
+        }
+        #[inline(always)]
+        fn select(m: Mask8, a: Avx8, b: Avx8) -> Avx8 {
+            // SAFETY: as in `add`.
+            Avx8(unsafe { blend(m.0, a.0, b.0) })
+        }
+    }
+}
+
 #[cfg(all(test, target_arch = "x86_64"))]
 mod tests {
     use super::x86::Avx4;
+    use super::x86_512::Avx8;
     use super::*;
 
-    // Common practice: each AVX operation gives, lane by lane, the bits of the scalar f64
+    // Common practice: each AVX2 and AVX-512 operation gives, lane by lane, the bits of the scalar f64
     // operation it stands for (IEEE 754 results; NaN compared as NaN), on values that include
     // NaN, infinities, signed zeros and subnormals.
     type Op = fn(f64, f64) -> f64;
@@ -509,9 +741,21 @@ mod tests {
 
     #[test]
     fn avx_lanes_match_scalar_operations() {
-        if !std::arch::is_x86_feature_detected!("avx2") {
-            return;
+        if std::arch::is_x86_feature_detected!("avx2") {
+            // SAFETY: AVX2 is present (checked just above).
+            unsafe { lanes_match_scalar_operations::<Avx4>() };
         }
+        if std::arch::is_x86_feature_detected!("avx512f") {
+            // SAFETY: AVX-512F is present (checked just above).
+            unsafe { lanes_match_scalar_operations::<Avx8>() };
+        }
+    }
+
+    /// The check of [`avx_lanes_match_scalar_operations`] for one lane type.
+    ///
+    /// # Safety
+    /// `T`'s instructions must be available.
+    unsafe fn lanes_match_scalar_operations<T: Lane>() {
         let values = [
             f64::NAN,
             -f64::NAN,
@@ -535,12 +779,12 @@ mod tests {
         for chunk in pairs.chunks(LANES) {
             let a = W(std::array::from_fn(|l| chunk[l].0));
             let b = W(std::array::from_fn(|l| chunk[l].1));
-            for at in (0..LANES).step_by(Avx4::N) {
-                // SAFETY: AVX2 is present (checked above).
-                let (x, y) = unsafe { (Avx4::load(&a, at), Avx4::load(&b, at)) };
+            for at in (0..LANES).step_by(T::N) {
+                // SAFETY: the caller promises `T`'s instructions.
+                let (x, y) = unsafe { (T::load(&a, at), T::load(&b, at)) };
                 let mut out = W::splat(0.0);
                 let mut flags = Mask([false; LANES]);
-                let ops: [(Avx4, Op); 7] = [
+                let ops: [(T, Op); 7] = [
                     (x + y, |p, q| p + q),
                     (x - y, |p, q| p - q),
                     (x * y, |p, q| p * q),
@@ -551,7 +795,7 @@ mod tests {
                 ];
                 for (k, (r, f)) in ops.into_iter().enumerate() {
                     r.store(&mut out, at);
-                    for l in at..at + Avx4::N {
+                    for l in at..at + T::N {
                         let want = f(a.0[l], b.0[l]);
                         // `f64::max` leaves the sign of max(0, -0) open; the kernel's
                         // operands of `max` are never -0 (squares and absolute values).
@@ -573,9 +817,9 @@ mod tests {
                     (x.ge(y) & x.finite(), |p, q| p >= q && p.is_finite()),
                 ];
                 for (m, f) in tests {
-                    Avx4::store_mask(m, &mut flags, at);
-                    Avx4::select(m, x, y).store(&mut out, at);
-                    for l in at..at + Avx4::N {
+                    T::store_mask(m, &mut flags, at);
+                    T::select(m, x, y).store(&mut out, at);
+                    for l in at..at + T::N {
                         let want = f(a.0[l], b.0[l]);
                         assert_eq!(flags.0[l], want, "{} {}", a.0[l], b.0[l]);
                         let pick = if want { a.0[l] } else { b.0[l] };

@@ -334,8 +334,9 @@ pub(crate) struct CurveParts<'a> {
 /// returned for other degrees (nothing written, hint untouched), which the caller evaluates
 /// point by point.
 ///
-/// On x86-64 processors with AVX2 (detected at run time) the lanes are one AVX register;
-/// otherwise plain arrays. The operations are the same, so are the bits.
+/// On x86-64 processors with AVX2 (detected at run time, within the limit of
+/// [`crate::isa::limit_vector_kernels`]) the lanes are one AVX register; otherwise plain
+/// arrays. The operations are the same, so are the bits.
 #[inline]
 pub(crate) fn jets_block(
     c: &CurveParts<'_>,
@@ -344,8 +345,9 @@ pub(crate) fn jets_block(
     out: &mut [CurveJet],
 ) -> Option<()> {
     #[cfg(target_arch = "x86_64")]
-    if std::arch::is_x86_feature_detected!("avx2") {
-        // SAFETY: the processor supports AVX2 (checked just above).
+    if crate::isa::vector_kernels() >= crate::isa::VectorKernels::Avx2 {
+        // SAFETY: the processor supports AVX2 (`vector_kernels` never exceeds the supported
+        // variant; the AVX-512F variant implies AVX2).
         return unsafe { jets_block_avx2(c, ts, hint, out) };
     }
     // SAFETY: plain arrays need no particular instructions.

@@ -43,8 +43,9 @@ impl NurbsSurface {
         out: &mut [SurfaceJet],
     ) {
         #[cfg(target_arch = "x86_64")]
-        if std::arch::is_x86_feature_detected!("avx2") {
-            // SAFETY: the processor supports AVX2 (checked just above).
+        if crate::isa::vector_kernels() >= crate::isa::VectorKernels::Avx2 {
+            // SAFETY: the processor supports AVX2 (`vector_kernels` never exceeds the
+            // supported variant; the AVX-512F variant implies AVX2).
             unsafe { self.block_avx2(u, v, order, hint, out) };
             return;
         }
