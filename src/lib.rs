@@ -19,6 +19,7 @@ pub mod ffi;
 pub mod geometry;
 pub mod nurbs;
 pub mod paths;
+pub mod planning;
 pub mod surface;
 
 pub use curve::{FnCurve, UvCurve, uv_line};
@@ -42,4 +43,9 @@ pub use paths::projection::{
 pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
+pub use planning::drive_pattern::{
+    DriveOptions, DrivePiece, DrivePlane, DriveProjection, PatternInterval, PatternIntervalKind,
+    PieceCurve, RayCaster, RayHit, project_along,
+};
+pub use planning::planar_pattern::{ArchimedeanSpiral, parallel_lines};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
