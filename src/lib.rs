@@ -48,4 +48,7 @@ pub use planning::drive_pattern::{
     PieceCurve, RayCaster, RayHit, project_along,
 };
 pub use planning::planar_pattern::{ArchimedeanSpiral, parallel_lines};
+pub use planning::scallop_left::{
+    ScallopLeft, check_target_scallop, scallop_between, step_over_at,
+};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

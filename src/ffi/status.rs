@@ -68,6 +68,10 @@ pub enum StrakeStatus {
     /// 31: the host's curve callback returned a non-zero code; the code is in the message and
     /// in `strake_last_callback_code`.
     CurveCallbackFailed = 31,
+    /// 55: a cutter does not fit the surface's concave curvature across a pass (its radius
+    /// across the path reaches the radius of curvature): no step-over bounds the scallop and
+    /// the cutter gouges; the message names the radius, the radius of curvature and (u, v).
+    CutterTooLarge = 55,
     /// 90: a bug in strake: a panic was caught at the C boundary. The message says where.
     /// Please report it; the handles passed in are still valid.
     InternalPanic = 90,
@@ -90,13 +94,14 @@ impl StrakeStatus {
             StrakeError::TooFarFromSurface { .. } => StrakeStatus::TooFarFromSurface,
             StrakeError::NotConverged { .. } => StrakeStatus::NotConverged,
             StrakeError::AtPoint { error, .. } => StrakeStatus::of(error),
+            StrakeError::CutterTooLarge { .. } => StrakeStatus::CutterTooLarge,
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
         }
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 17] = [
+    pub const ALL: [StrakeStatus; 18] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -113,6 +118,7 @@ impl StrakeStatus {
         StrakeStatus::NotConverged,
         StrakeStatus::SurfaceCallbackFailed,
         StrakeStatus::CurveCallbackFailed,
+        StrakeStatus::CutterTooLarge,
         StrakeStatus::InternalPanic,
     ];
 
@@ -135,6 +141,7 @@ impl StrakeStatus {
             StrakeStatus::NotConverged => c"STRAKE_STATUS_NOT_CONVERGED",
             StrakeStatus::SurfaceCallbackFailed => c"STRAKE_STATUS_SURFACE_CALLBACK_FAILED",
             StrakeStatus::CurveCallbackFailed => c"STRAKE_STATUS_CURVE_CALLBACK_FAILED",
+            StrakeStatus::CutterTooLarge => c"STRAKE_STATUS_CUTTER_TOO_LARGE",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }
     }

@@ -1,5 +1,6 @@
 //! Planning the passes of a job on a surface: first passes laid by projecting a planar pattern
-//! along a direction ([`drive_pattern`]) from planar patterns ([`planar_pattern`]).
+//! along a direction ([`drive_pattern`]) from planar patterns ([`planar_pattern`]); the scallop a ball leaves between two passes, measured by a direct construction, and the per-point step-over rule ([`scallop_left`]).
 
 pub mod drive_pattern;
 pub mod planar_pattern;
+pub mod scallop_left;
