@@ -142,6 +142,30 @@ pub enum StrakeError {
         /// The host's own code, passed back unchanged.
         code: i32,
     },
+    /// A geodesic trace could not go on: its error estimate stayed above the tolerance while
+    /// the step shrank to its floor, or it used up its step cap. Never a silent wrong curve.
+    GeodesicIncomplete {
+        /// What stopped it and the figures that did.
+        what: String,
+        /// Arc length reached (host length unit).
+        arc_length: f64,
+        /// Surface parameter u reached.
+        u: f64,
+        /// Surface parameter v reached.
+        v: f64,
+    },
+    /// No geodesic between two points was found (shooting did not converge, or converged to
+    /// a geodesic that cannot be the shortest one).
+    GeodesicNotFound {
+        /// What was reached: the residual, the length, the iteration.
+        what: String,
+    },
+    /// A construction on the surface leaves the surface at once: a geodesic that starts on
+    /// the boundary heading out, or an offset of which no part stays on the surface.
+    LeavesSurface {
+        /// What left, from where, and with which value.
+        what: String,
+    },
 }
 
 impl fmt::Display for StrakeError {
@@ -211,6 +235,17 @@ impl fmt::Display for StrakeError {
             StrakeError::Callback { which, code } => {
                 write!(f, "host {which} callback failed with code {code}")
             }
+            StrakeError::GeodesicIncomplete {
+                what,
+                arc_length,
+                u,
+                v,
+            } => write!(
+                f,
+                "geodesic trace incomplete at arc length {arc_length}, (u, v) = ({u}, {v}): {what}"
+            ),
+            StrakeError::GeodesicNotFound { what } => write!(f, "no geodesic found: {what}"),
+            StrakeError::LeavesSurface { what } => write!(f, "leaves the surface: {what}"),
         }
     }
 }

@@ -16,6 +16,7 @@ pub mod curve;
 pub mod engine;
 pub mod error;
 pub mod ffi;
+pub mod geodesics;
 pub mod geometry;
 pub mod nurbs;
 pub mod paths;
@@ -25,6 +26,15 @@ pub mod surface;
 pub use curve::{FnCurve, UvCurve, uv_line};
 pub use engine::frame_block::{BLOCK, darboux_frames};
 pub use error::{NonFiniteSource, Result, StrakeError};
+pub use geodesics::between::{BetweenOptions, GeodesicBetween, geodesic_between};
+pub use geodesics::hermite::HermiteUvCurve;
+pub use geodesics::offset::{
+    OffsetDistance, OffsetOptions, OffsetPiece, OffsetSample, OffsetSide, PathInterval,
+    SurfaceOffset, offset_path,
+};
+pub use geodesics::trace::{
+    DomainSide, Geodesic, GeodesicEnd, StartDirection, TraceOptions, TraceStats, trace_geodesic,
+};
 pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };

@@ -7,8 +7,8 @@ use crate::error::StrakeError;
 /// message, see `strake_last_error_message`.
 ///
 /// ABI policy: every value keeps its number for the life of the library. Values are grouped by
-/// area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 90-99
-/// internal). New values take the next free number of their group; a retired value stays listed
+/// area (1-9 arguments, 10-19 NURBS data, 20-29 evaluation, 30-39 host callbacks, 50-54
+/// geodesics and offsets, 90-99 internal). New values take the next free number of their group; a retired value stays listed
 /// here as a comment and its number is never given to anything else. Hosts should treat an
 /// unknown non-zero value as a failure (a newer library may add values).
 ///
@@ -68,6 +68,18 @@ pub enum StrakeStatus {
     /// 31: the host's curve callback returned a non-zero code; the code is in the message and
     /// in `strake_last_callback_code`.
     CurveCallbackFailed = 31,
+    /// 50: a geodesic trace could not go on: its error estimate stayed above the tolerance
+    /// while the step shrank to its floor, or it used up its step cap (the message names the
+    /// arc length and (u, v) reached).
+    GeodesicIncomplete = 50,
+    /// 51: no geodesic between the two points was found: shooting did not converge, or
+    /// converged to a geodesic longer than the straight parameter line, which cannot be the
+    /// shortest (the message names the residual and the length reached).
+    GeodesicNotFound = 51,
+    /// 52: the construction leaves the surface at once: a geodesic starting on the boundary
+    /// heading out, or an offset of which no part lies on the surface (the message names the
+    /// value).
+    LeavesSurface = 52,
     /// 55: a cutter does not fit the surface's concave curvature across a pass (its radius
     /// across the path reaches the radius of curvature): no step-over bounds the scallop and
     /// the cutter gouges; the message names the radius, the radius of curvature and (u, v).
@@ -97,11 +109,14 @@ impl StrakeStatus {
             StrakeError::CutterTooLarge { .. } => StrakeStatus::CutterTooLarge,
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
+            StrakeError::GeodesicIncomplete { .. } => StrakeStatus::GeodesicIncomplete,
+            StrakeError::GeodesicNotFound { .. } => StrakeStatus::GeodesicNotFound,
+            StrakeError::LeavesSurface { .. } => StrakeStatus::LeavesSurface,
         }
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 18] = [
+    pub const ALL: [StrakeStatus; 21] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -118,6 +133,9 @@ impl StrakeStatus {
         StrakeStatus::NotConverged,
         StrakeStatus::SurfaceCallbackFailed,
         StrakeStatus::CurveCallbackFailed,
+        StrakeStatus::GeodesicIncomplete,
+        StrakeStatus::GeodesicNotFound,
+        StrakeStatus::LeavesSurface,
         StrakeStatus::CutterTooLarge,
         StrakeStatus::InternalPanic,
     ];
@@ -141,6 +159,9 @@ impl StrakeStatus {
             StrakeStatus::NotConverged => c"STRAKE_STATUS_NOT_CONVERGED",
             StrakeStatus::SurfaceCallbackFailed => c"STRAKE_STATUS_SURFACE_CALLBACK_FAILED",
             StrakeStatus::CurveCallbackFailed => c"STRAKE_STATUS_CURVE_CALLBACK_FAILED",
+            StrakeStatus::GeodesicIncomplete => c"STRAKE_STATUS_GEODESIC_INCOMPLETE",
+            StrakeStatus::GeodesicNotFound => c"STRAKE_STATUS_GEODESIC_NOT_FOUND",
+            StrakeStatus::LeavesSurface => c"STRAKE_STATUS_LEAVES_SURFACE",
             StrakeStatus::CutterTooLarge => c"STRAKE_STATUS_CUTTER_TOO_LARGE",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }

@@ -1,0 +1,146 @@
+//! The embedded Runge–Kutta pair of the geodesic tracer: the 7-stage 5(4) pair of Dormand and
+//! Prince (J. R. Dormand, P. J. Prince, "A family of embedded Runge–Kutta formulae",
+//! J. Comput. Appl. Math. 6 (1980) 19–26; tabulated in Hairer, Nørsett, Wanner, *Solving
+//! Ordinary Differential Equations I*, §II.5). The last stage is evaluated at the fifth-order
+//! solution ("first same as last"), so an accepted step costs six new evaluations: six
+//! surface jets. The unit tests check the order conditions up to order 5 for the fifth-order
+//! weights and up to order 4 for the embedded ones, so a mistyped coefficient cannot pass.
+
+/// Number of stages.
+pub const STAGES: usize = 7;
+
+/// Nodes cᵢ.
+pub const C: [f64; STAGES] = [0.0, 1.0 / 5.0, 3.0 / 10.0, 4.0 / 5.0, 8.0 / 9.0, 1.0, 1.0];
+
+/// Coupling coefficients aᵢⱼ (row i, j < i).
+pub const A: [[f64; 6]; STAGES] = [
+    [0.0; 6],
+    [1.0 / 5.0, 0.0, 0.0, 0.0, 0.0, 0.0],
+    [3.0 / 40.0, 9.0 / 40.0, 0.0, 0.0, 0.0, 0.0],
+    [44.0 / 45.0, -56.0 / 15.0, 32.0 / 9.0, 0.0, 0.0, 0.0],
+    [
+        19372.0 / 6561.0,
+        -25360.0 / 2187.0,
+        64448.0 / 6561.0,
+        -212.0 / 729.0,
+        0.0,
+        0.0,
+    ],
+    [
+        9017.0 / 3168.0,
+        -355.0 / 33.0,
+        46732.0 / 5247.0,
+        49.0 / 176.0,
+        -5103.0 / 18656.0,
+        0.0,
+    ],
+    [
+        35.0 / 384.0,
+        0.0,
+        500.0 / 1113.0,
+        125.0 / 192.0,
+        -2187.0 / 6784.0,
+        11.0 / 84.0,
+    ],
+];
+
+/// Fifth-order weights bᵢ (the last row of [`A`], so the seventh stage is at the solution).
+pub const B5: [f64; STAGES] = [
+    35.0 / 384.0,
+    0.0,
+    500.0 / 1113.0,
+    125.0 / 192.0,
+    -2187.0 / 6784.0,
+    11.0 / 84.0,
+    0.0,
+];
+
+/// Embedded fourth-order weights b̂ᵢ.
+pub const B4: [f64; STAGES] = [
+    5179.0 / 57600.0,
+    0.0,
+    7571.0 / 16695.0,
+    393.0 / 640.0,
+    -92097.0 / 339200.0,
+    187.0 / 2100.0,
+    1.0 / 40.0,
+];
+
+/// Error weights eᵢ = bᵢ − b̂ᵢ: the error estimate of a step of length h is h Σ eᵢ kᵢ.
+pub const E: [f64; STAGES] = [
+    B5[0] - B4[0],
+    B5[1] - B4[1],
+    B5[2] - B4[2],
+    B5[3] - B4[3],
+    B5[4] - B4[4],
+    B5[5] - B4[5],
+    B5[6] - B4[6],
+];
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn a(i: usize, j: usize) -> f64 {
+        if j < 6 { A[i][j] } else { 0.0 }
+    }
+
+    /// Row sums: cᵢ = Σⱼ aᵢⱼ (the usual simplifying condition).
+    #[test]
+    fn nodes_are_row_sums() {
+        for i in 0..STAGES {
+            let s: f64 = (0..STAGES).map(|j| a(i, j)).sum();
+            assert!((s - C[i]).abs() < 1e-14, "row {i}: {s} vs {}", C[i]);
+        }
+    }
+
+    /// Order conditions (Butcher trees) up to order 5 for B5 and up to order 4 for B4
+    /// (Hairer, Nørsett, Wanner, §II.2, Table 2.2).
+    #[test]
+    fn order_conditions_hold() {
+        let ac = |i: usize, f: &dyn Fn(usize) -> f64| (0..STAGES).map(|j| a(i, j) * f(j)).sum();
+        let check = |b: &[f64; STAGES], order: usize| {
+            let sum = |f: &dyn Fn(usize) -> f64| -> f64 { (0..STAGES).map(|i| b[i] * f(i)).sum() };
+            let mut conds: Vec<(f64, f64)> = vec![(sum(&|_| 1.0), 1.0), (sum(&|i| C[i]), 0.5)];
+            if order >= 3 {
+                conds.push((sum(&|i| C[i] * C[i]), 1.0 / 3.0));
+                conds.push((sum(&|i| ac(i, &|j| C[j])), 1.0 / 6.0));
+            }
+            if order >= 4 {
+                conds.push((sum(&|i| C[i].powi(3)), 0.25));
+                conds.push((sum(&|i| C[i] * ac(i, &|j| C[j])), 1.0 / 8.0));
+                conds.push((sum(&|i| ac(i, &|j| C[j] * C[j])), 1.0 / 12.0));
+                conds.push((sum(&|i| ac(i, &|j| ac(j, &|k| C[k]))), 1.0 / 24.0));
+            }
+            if order >= 5 {
+                conds.push((sum(&|i| C[i].powi(4)), 0.2));
+                conds.push((sum(&|i| C[i] * C[i] * ac(i, &|j| C[j])), 0.1));
+                conds.push((sum(&|i| ac(i, &|j| C[j]).powi(2)), 1.0 / 20.0));
+                conds.push((sum(&|i| C[i] * ac(i, &|j| C[j] * C[j])), 1.0 / 15.0));
+                conds.push((sum(&|i| ac(i, &|j| C[j].powi(3))), 1.0 / 20.0));
+                conds.push((sum(&|i| C[i] * ac(i, &|j| ac(j, &|k| C[k]))), 1.0 / 30.0));
+                conds.push((sum(&|i| ac(i, &|j| C[j] * ac(j, &|k| C[k]))), 1.0 / 40.0));
+                conds.push((sum(&|i| ac(i, &|j| ac(j, &|k| C[k] * C[k]))), 1.0 / 60.0));
+                conds.push((
+                    sum(&|i| ac(i, &|j| ac(j, &|k| ac(k, &|l| C[l])))),
+                    1.0 / 120.0,
+                ));
+            }
+            for (n, (got, want)) in conds.iter().enumerate() {
+                assert!(
+                    (got - want).abs() < 1e-14,
+                    "order {order}, condition {n}: {got} vs {want}"
+                );
+            }
+        };
+        check(&B5, 5);
+        check(&B4, 4);
+        // The embedded weights are not fifth order (else the estimate would be blind).
+        let s: f64 = (0..STAGES).map(|i| B4[i] * C[i].powi(4)).sum();
+        assert!((s - 0.2).abs() > 1e-6);
+        // First same as last: the seventh stage row equals the fifth-order weights.
+        for j in 0..6 {
+            assert_eq!(A[6][j], B5[j]);
+        }
+    }
+}
