@@ -135,6 +135,14 @@ pub enum StrakeError {
         /// Surface parameter v of the point.
         v: f64,
     },
+    /// A plan of passes needs more passes than its cap allows (a closed surface, or a step-over
+    /// too small for the surface).
+    PassLimit {
+        /// The number of passes reached.
+        passes: usize,
+        /// The cap.
+        limit: usize,
+    },
     /// A host callback returned a non-zero code.
     Callback {
         /// Which callback (`"surface"` or `"curve"`).
@@ -231,6 +239,10 @@ impl fmt::Display for StrakeError {
             } => write!(
                 f,
                 "cutter too large: radius across the path {radius} reaches the concave radius                  of curvature {curvature_radius} at (u, v) = ({u}, {v}); the cutter gouges there"
+            ),
+            StrakeError::PassLimit { passes, limit } => write!(
+                f,
+                "pass limit: {passes} passes would be needed, above the cap max_passes =                  {limit}; the surface is closed or the step-over too small for it"
             ),
             StrakeError::Callback { which, code } => {
                 write!(f, "host {which} callback failed with code {code}")

@@ -57,6 +57,7 @@ pub use planning::drive_pattern::{
     DriveOptions, DrivePiece, DrivePlane, DriveProjection, PatternInterval, PatternIntervalKind,
     PieceCurve, RayCaster, RayHit, project_along,
 };
+pub use planning::passes::{PassOptions, PassPlan, PlannedPass, StepRule, plan_passes};
 pub use planning::planar_pattern::{ArchimedeanSpiral, parallel_lines};
 pub use planning::scallop_left::{
     ScallopLeft, check_target_scallop, scallop_between, step_over_at,

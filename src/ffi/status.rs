@@ -84,6 +84,9 @@ pub enum StrakeStatus {
     /// across the path reaches the radius of curvature): no step-over bounds the scallop and
     /// the cutter gouges; the message names the radius, the radius of curvature and (u, v).
     CutterTooLarge = 55,
+    /// 56: a plan of passes would need more passes than its cap (the surface is closed, or the
+    /// step-over is too small for it); the message names the count and the cap.
+    PassLimit = 56,
     /// 90: a bug in strake: a panic was caught at the C boundary. The message says where.
     /// Please report it; the handles passed in are still valid.
     InternalPanic = 90,
@@ -107,6 +110,7 @@ impl StrakeStatus {
             StrakeError::NotConverged { .. } => StrakeStatus::NotConverged,
             StrakeError::AtPoint { error, .. } => StrakeStatus::of(error),
             StrakeError::CutterTooLarge { .. } => StrakeStatus::CutterTooLarge,
+            StrakeError::PassLimit { .. } => StrakeStatus::PassLimit,
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
             StrakeError::GeodesicIncomplete { .. } => StrakeStatus::GeodesicIncomplete,
@@ -116,7 +120,7 @@ impl StrakeStatus {
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 21] = [
+    pub const ALL: [StrakeStatus; 22] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -137,6 +141,7 @@ impl StrakeStatus {
         StrakeStatus::GeodesicNotFound,
         StrakeStatus::LeavesSurface,
         StrakeStatus::CutterTooLarge,
+        StrakeStatus::PassLimit,
         StrakeStatus::InternalPanic,
     ];
 
@@ -163,6 +168,7 @@ impl StrakeStatus {
             StrakeStatus::GeodesicNotFound => c"STRAKE_STATUS_GEODESIC_NOT_FOUND",
             StrakeStatus::LeavesSurface => c"STRAKE_STATUS_LEAVES_SURFACE",
             StrakeStatus::CutterTooLarge => c"STRAKE_STATUS_CUTTER_TOO_LARGE",
+            StrakeStatus::PassLimit => c"STRAKE_STATUS_PASS_LIMIT",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }
     }
