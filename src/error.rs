@@ -238,11 +238,13 @@ impl fmt::Display for StrakeError {
                 v,
             } => write!(
                 f,
-                "cutter too large: radius across the path {radius} reaches the concave radius                  of curvature {curvature_radius} at (u, v) = ({u}, {v}); the cutter gouges there"
+                "cutter too large: radius across the path {radius} reaches the concave radius \
+                 of curvature {curvature_radius} at (u, v) = ({u}, {v}); the cutter gouges there"
             ),
             StrakeError::PassLimit { passes, limit } => write!(
                 f,
-                "pass limit: {passes} passes would be needed, above the cap max_passes =                  {limit}; the surface is closed or the step-over too small for it"
+                "pass limit: {passes} passes would be needed, above the cap max_passes = \
+                 {limit}; the surface is closed or the step-over too small for it"
             ),
             StrakeError::Callback { which, code } => {
                 write!(f, "host {which} callback failed with code {code}")

@@ -176,6 +176,17 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_surface_from_callback",
         "strake_surface_set_knot_lines",
         "strake_version",
+        "strake_curve_new_spiral",
+        "strake_drive_project",
+        "strake_drive_result_free",
+        "strake_drive_result_intervals",
+        "strake_drive_result_piece",
+        "strake_drive_result_piece_count",
+        "strake_pass_plan_curve",
+        "strake_pass_plan_free",
+        "strake_pass_plan_passes",
+        "strake_pass_plan_summary",
+        "strake_plan_passes",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

@@ -38,6 +38,7 @@ pub mod message;
 pub mod nurbs_surface;
 pub mod parallel;
 pub mod path_curves;
+pub mod planning;
 pub mod sampling;
 pub mod status;
 pub mod surface;
@@ -61,6 +62,12 @@ pub use path_curves::{
     strake_curve_project_nurbs, strake_curve_through_space_points, strake_curve_through_uv_points,
     strake_surface_project_points,
 };
+pub use planning::{
+    StrakeDriveResult, StrakePassPlan, strake_curve_new_spiral, strake_drive_project,
+    strake_drive_result_free, strake_drive_result_intervals, strake_drive_result_piece,
+    strake_drive_result_piece_count, strake_pass_plan_curve, strake_pass_plan_free,
+    strake_pass_plan_passes, strake_pass_plan_summary, strake_plan_passes,
+};
 pub use sampling::{
     strake_arc_length, strake_sample_chordal, strake_sample_even_arc, strake_sample_even_t,
 };
@@ -75,5 +82,9 @@ pub use types::{
     StrakeParametrization, StrakeProjection, StrakeProjectionOptions, StrakeSample, StrakeScallop,
     StrakeStepOver, StrakeSurfaceJet, StrakeToolAngles, StrakeToolAxis, StrakeToolSide,
     StrakeViolation,
+};
+pub use types::{
+    StrakeDriveOptions, StrakeDrivePlane, StrakePassInfo, StrakePassOptions, StrakePassSummary,
+    StrakePatternInterval, StrakePatternIntervalKind, StrakeStepRule,
 };
 pub use version::strake_version;
