@@ -1035,6 +1035,11 @@ typedef struct StrakePassOptions {
    * Most passes, the first included (0: 1000; else 1..=100000).
    */
   uint32_t max_passes;
+  /**
+   * Most rows beside the first pass (0: no limit, until the surface is covered); a plan
+   * stopped by it is a band around the first pass (`StrakePassSummary.covered` = 0).
+   */
+  uint32_t max_rows;
 } StrakePassOptions;
 
 /**
@@ -1073,6 +1078,11 @@ typedef struct StrakePassSummary {
    * Surface jets evaluated by the geodesic traces of the offsets.
    */
   size_t trace_jets;
+  /**
+   * 1 when the plan ran until no parallel lay on the surface; 0 when it stopped at
+   * `max_rows` before trying the parallels of its last row.
+   */
+  int32_t covered;
 } StrakePassSummary;
 
 /**
@@ -1795,7 +1805,8 @@ void strake_drive_result_free(struct StrakeDriveResult *result);
  * it): each next pass is the geodesic parallel of the one before at the step-over that leaves
  * `options->scallop_height` point by point (iso-scallop: the exact two-circle rule with the
  * surface's curvature across the path), or at `options->step_over` (constant), laid to the
- * side `options->advance`, until no parallel lies on the surface any more. A parallel that
+ * side `options->advance`, until no parallel lies on the surface any more (or for
+ * `options->max_rows` rows, when not 0: a band around the first pass). A parallel that
  * breaks (the boundary, a trimmed loop) gives several passes. Between every pass and the one
  * it was laid beside, the scallop left is measured by a direct construction (the meeting of
  * the two balls' swept tubes), not by the rule.

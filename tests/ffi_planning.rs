@@ -256,6 +256,7 @@ fn pass_options() -> StrakePassOptions {
         distance_samples: 0,
         scallop_samples: 0,
         max_passes: 0,
+        max_rows: 0,
     }
 }
 
@@ -302,6 +303,7 @@ fn iso_scallop_passes_on_a_cylinder_through_the_c_abi() {
             1.0,
         );
         assert!(sum.offset_points > 0 && sum.trace_jets > 0);
+        assert_eq!(sum.covered, 1);
         let mut count = 0;
         let st = strake_pass_plan_passes(plan, ptr::null_mut(), 0, &mut count);
         expect(st, StrakeStatus::BufferTooSmall, &["passes needed"]);
@@ -356,6 +358,16 @@ fn iso_scallop_passes_on_a_cylinder_through_the_c_abi() {
         );
         strake_pass_plan_free(plan);
         strake_pass_plan_free(ptr::null_mut());
+        // A band of 3 rows: 4 passes, not covering.
+        let band = StrakePassOptions {
+            max_rows: 3,
+            ..opts
+        };
+        let st = strake_plan_passes(s, first, &band, &mut plan);
+        assert_eq!(st, StrakeStatus::Ok, "{}", message());
+        assert_eq!(strake_pass_plan_summary(plan, &mut sum), StrakeStatus::Ok);
+        assert_eq!((sum.count, sum.rows, sum.covered), (4, 4, 0));
+        strake_pass_plan_free(plan);
 
         // Refusals, each naming the value, with *out untouched.
         let mut out: *mut StrakePassPlan = ptr::null_mut();

@@ -41,6 +41,11 @@ fn status_numbers_are_stable() {
         (NotConverged, 24),
         (SurfaceCallbackFailed, 30),
         (CurveCallbackFailed, 31),
+        (GeodesicIncomplete, 50),
+        (GeodesicNotFound, 51),
+        (LeavesSurface, 52),
+        (CutterTooLarge, 55),
+        (PassLimit, 56),
         (InternalPanic, 90),
     ];
     assert_eq!(table.len(), StrakeStatus::ALL.len());

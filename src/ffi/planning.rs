@@ -303,6 +303,9 @@ fn pass_options(o: &StrakePassOptions) -> Result<PassOptions, Failure> {
     if o.max_passes != 0 {
         p.max_passes = o.max_passes as usize;
     }
+    if o.max_rows != 0 {
+        p.max_rows = Some(o.max_rows as usize);
+    }
     p.check()?;
     Ok(p)
 }
@@ -311,7 +314,8 @@ fn pass_options(o: &StrakePassOptions) -> Result<PassOptions, Failure> {
 /// it): each next pass is the geodesic parallel of the one before at the step-over that leaves
 /// `options->scallop_height` point by point (iso-scallop: the exact two-circle rule with the
 /// surface's curvature across the path), or at `options->step_over` (constant), laid to the
-/// side `options->advance`, until no parallel lies on the surface any more. A parallel that
+/// side `options->advance`, until no parallel lies on the surface any more (or for
+/// `options->max_rows` rows, when not 0: a band around the first pass). A parallel that
 /// breaks (the boundary, a trimmed loop) gives several passes. Between every pass and the one
 /// it was laid beside, the scallop left is measured by a direct construction (the meeting of
 /// the two balls' swept tubes), not by the rule.
@@ -375,6 +379,7 @@ pub unsafe extern "C" fn strake_pass_plan_summary(
                 scallop_min: p.scallop_min,
                 offset_points: p.offset_points,
                 trace_jets: p.trace_jets,
+                covered: i32::from(p.covered),
             },
         );
         Ok(())

@@ -750,6 +750,9 @@ pub struct StrakePassOptions {
     pub scallop_samples: u32,
     /// Most passes, the first included (0: 1000; else 1..=100000).
     pub max_passes: u32,
+    /// Most rows beside the first pass (0: no limit, until the surface is covered); a plan
+    /// stopped by it is a band around the first pass (`StrakePassSummary.covered` = 0).
+    pub max_rows: u32,
 }
 
 /// Totals of a plan of passes.
@@ -772,6 +775,9 @@ pub struct StrakePassSummary {
     pub offset_points: usize,
     /// Surface jets evaluated by the geodesic traces of the offsets.
     pub trace_jets: usize,
+    /// 1 when the plan ran until no parallel lay on the surface; 0 when it stopped at
+    /// `max_rows` before trying the parallels of its last row.
+    pub covered: i32,
 }
 
 /// One pass after the first in a plan of passes.

@@ -83,6 +83,9 @@ pub struct PassOptions {
     pub scallop_samples: usize,
     /// Most passes, the first included (1..=100000; default 1000).
     pub max_passes: usize,
+    /// Most rows of passes beside the first (`None`: until the surface is covered). A plan
+    /// stopped by it is a band around the first pass; [`PassPlan::covered`] says so.
+    pub max_rows: Option<usize>,
 }
 
 impl PassOptions {
@@ -104,6 +107,7 @@ impl PassOptions {
             distance_samples: 33,
             scallop_samples: 9,
             max_passes: 1000,
+            max_rows: None,
         }
     }
 
@@ -136,6 +140,11 @@ impl PassOptions {
                     "{name} = {x}: it must lie in {lo}..={hi}"
                 )));
             }
+        }
+        if self.max_rows == Some(0) {
+            return Err(StrakeError::InvalidArgument(
+                "max_rows = 0: give at least one row, or no limit".into(),
+            ));
         }
         Ok(())
     }
@@ -186,6 +195,9 @@ pub struct PassPlan {
     pub offset_points: usize,
     /// Surface jets evaluated by the geodesic traces of the offsets.
     pub trace_jets: usize,
+    /// True when the plan ran until no parallel lay on the surface; false when it stopped at
+    /// [`PassOptions::max_rows`] before trying the parallels of its last row.
+    pub covered: bool,
 }
 
 fn length<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(s: &S, c: &C) -> Result<f64> {
@@ -231,6 +243,7 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         scallop_min: 0.0,
         offset_points: 0,
         trace_jets: 0,
+        covered: true,
     };
     let r = opts.ball_radius;
     // The passes of the current row: None = the first pass, Some(i) = plan.passes[i].
@@ -238,6 +251,10 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     let mut row_number = 0;
     let mut scallops = (f64::INFINITY, 0.0_f64);
     while !row.is_empty() {
+        if opts.max_rows.is_some_and(|m| row_number >= m) {
+            plan.covered = false;
+            break;
+        }
         row_number += 1;
         let mut next = Vec::new();
         for &parent in &row {
