@@ -263,6 +263,128 @@ typedef uint32_t StrakeCutterKind;
 #endif // __cplusplus
 
 /**
+ * The kinds of start direction: the values of `direction_kind` in `strake_geodesic_trace`.
+ */
+enum StrakeDirectionKind
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: `direction` points to 1 double, an angle θ (radians) from e1 = Su/|Su| toward
+   * e2 = N x e1: the direction cos θ e1 + sin θ e2.
+   */
+  STRAKE_DIRECTION_KIND_ANGLE = 0,
+  /**
+   * 1: `direction` points to 3 doubles, a direction in space; its component along the
+   * normal is removed.
+   */
+  STRAKE_DIRECTION_KIND_SPACE = 1,
+  /**
+   * 2: `direction` points to 2 doubles (du, dv) in the parameter plane.
+   */
+  STRAKE_DIRECTION_KIND_PARAMETER = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeDirectionKind StrakeDirectionKind;
+#else
+typedef uint32_t StrakeDirectionKind;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Why a geodesic trace ended: the values of `StrakeGeodesicInfo.end`.
+ */
+enum StrakeGeodesicEnd
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: it reached the length asked.
+   */
+  STRAKE_GEODESIC_END_LENGTH = 0,
+  /**
+   * 1: it left the parameter domain; the end lies exactly on the side `side`.
+   */
+  STRAKE_GEODESIC_END_BOUNDARY = 1,
+  /**
+   * 2: it stopped before a degenerate point (a pole, a collapsed edge).
+   */
+  STRAKE_GEODESIC_END_DEGENERATE = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeGeodesicEnd StrakeGeodesicEnd;
+#else
+typedef uint32_t StrakeGeodesicEnd;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Sides of the parameter domain: the values of `StrakeGeodesicInfo.side`.
+ */
+enum StrakeDomainSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: no side (the trace did not end at the boundary).
+   */
+  STRAKE_DOMAIN_SIDE_NONE = 0,
+  /**
+   * 1: u = u_min.
+   */
+  STRAKE_DOMAIN_SIDE_U_MIN = 1,
+  /**
+   * 2: u = u_max.
+   */
+  STRAKE_DOMAIN_SIDE_U_MAX = 2,
+  /**
+   * 3: v = v_min.
+   */
+  STRAKE_DOMAIN_SIDE_V_MIN = 3,
+  /**
+   * 4: v = v_max.
+   */
+  STRAKE_DOMAIN_SIDE_V_MAX = 4,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeDomainSide StrakeDomainSide;
+#else
+typedef uint32_t StrakeDomainSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Sides of a path: the values of `side` in `strake_offset_new`.
+ */
+enum StrakeOffsetSide
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: toward B = N x T (left of the direction of travel, seen from N).
+   */
+  STRAKE_OFFSET_SIDE_LEFT = 0,
+  /**
+   * 1: toward -B.
+   */
+  STRAKE_OFFSET_SIDE_RIGHT = 1,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeOffsetSide StrakeOffsetSide;
+#else
+typedef uint32_t StrakeOffsetSide;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
  * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
  * `strake_curve_from_callback`, `strake_curve_through_uv_points`,
  * `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
@@ -277,6 +399,12 @@ typedef struct StrakeCurve StrakeCurve;
  * released by `strake_drive_result_free`; immutable, so it may be read from many threads.
  */
 typedef struct StrakeDriveResult StrakeDriveResult;
+
+/**
+ * An opaque offset of a path on a surface: made by `strake_offset_new`, released by
+ * `strake_offset_free`. Immutable; may be read from many threads at once.
+ */
+typedef struct StrakeOffset StrakeOffset;
 
 /**
  * A plan of passes across a surface. Made by `strake_plan_passes`, released by
@@ -751,6 +879,148 @@ typedef struct StrakeViolation {
 } StrakeViolation;
 
 /**
+ * Options of a geodesic trace or of the geodesic between two points.
+ */
+typedef struct StrakeGeodesicOptions {
+  /**
+   * Error allowed per step in space (host length unit), > 0. For
+   * `strake_geodesic_between`: the largest distance from the geodesic's end to the
+   * target; its traces run at a hundredth of it.
+   */
+  double tolerance;
+  /**
+   * Most step attempts of a trace; 0 for the default (100000). For
+   * `strake_geodesic_between`: most Newton iterations per solve; 0 for the default (30).
+   */
+  size_t max_steps;
+} StrakeGeodesicOptions;
+
+/**
+ * What a geodesic trace did.
+ */
+typedef struct StrakeGeodesicInfo {
+  /**
+   * Why it ended: a `StrakeGeodesicEnd` value.
+   */
+  uint32_t end;
+  /**
+   * The domain side where it ended: a `StrakeDomainSide` value (0 unless `end` is 1).
+   */
+  uint32_t side;
+  /**
+   * Length traced (host length unit); the curve's domain is [0, length], t = arc length.
+   */
+  double length;
+  /**
+   * Surface parameter u at the end.
+   */
+  double u;
+  /**
+   * Surface parameter v at the end.
+   */
+  double v;
+  /**
+   * The end point S(u, v).
+   */
+  double point[3];
+  /**
+   * The unit tangent at the end.
+   */
+  double tangent[3];
+  /**
+   * Accepted steps.
+   */
+  size_t accepted_steps;
+  /**
+   * Rejected step attempts.
+   */
+  size_t rejected_steps;
+  /**
+   * Surface evaluations (second-order jets) spent.
+   */
+  size_t jets;
+} StrakeGeodesicInfo;
+
+/**
+ * Options of an offset; zeros give the defaults.
+ */
+typedef struct StrakeOffsetOptions {
+  /**
+   * Largest space distance between an interval's midpoint offset and its prediction from
+   * the neighbouring points (host length unit), > 0.
+   */
+  double chord_tolerance;
+  /**
+   * Error per step of each geodesic trace; 0 for chord_tolerance / 1000.
+   */
+  double trace_tolerance;
+  /**
+   * Evenly spaced path parameters to start with; 0 for 17, else at least 2.
+   */
+  size_t samples;
+  /**
+   * Most offset points computed in all; 0 for 20000.
+   */
+  size_t max_samples;
+} StrakeOffsetOptions;
+
+/**
+ * A gap or an overlap between neighbouring courses' band edges (`strake_course_gaps`).
+ */
+typedef struct StrakeCourseGap {
+  /**
+   * Start, as a parameter of course A.
+   */
+  double t0;
+  /**
+   * End, as a parameter of course A.
+   */
+  double t1;
+  /**
+   * 1 for an overlap (the bands cover each other), 0 for a gap.
+   */
+  int32_t overlap;
+  /**
+   * Largest width inside the interval (host length unit, >= 0).
+   */
+  double worst;
+} StrakeCourseGap;
+
+/**
+ * Steering and twist along a course (`strake_course_check`).
+ */
+typedef struct StrakeCourseCheck {
+  /**
+   * Largest steering curvature |kg| (1/length).
+   */
+  double max_steering_curvature;
+  /**
+   * Smallest steering radius 1/|kg| (INFINITY along a geodesic).
+   */
+  double min_steering_radius;
+  /**
+   * Largest tow-edge strain (w/2)|kg|.
+   */
+  double max_edge_strain;
+  /**
+   * Largest |tg| (radians per length).
+   */
+  double max_twist_rate;
+  /**
+   * Samples where the steering radius is below the limit.
+   */
+  size_t steering_violations;
+  /**
+   * Samples where |tg| exceeds the limit.
+   */
+  size_t twist_violations;
+  /**
+   * Course length (host length unit).
+   */
+  double length;
+} StrakeCourseCheck;
+
+/**
  * A point (u(t), v(t)) of a curve in the surface's parameter plane with its first and second
  * derivatives with respect to the curve parameter t; filled by a host curve callback (or
  * passed to `strake_frame_from_jets`). strake zeroes it before calling the host.
@@ -815,6 +1085,85 @@ typedef struct StrakeParamScales {
    */
   double t_extent;
 } StrakeParamScales;
+
+/**
+ * Counts and figures of an offset.
+ */
+typedef struct StrakeOffsetSummary {
+  /**
+   * Connected pieces (`strake_offset_piece_curve`, `strake_offset_piece_points`).
+   */
+  size_t pieces;
+  /**
+   * Path intervals whose offset leaves the surface (`strake_offset_exits`).
+   */
+  size_t exits;
+  /**
+   * Path intervals whose offset formed a loop and was cut (`strake_offset_loops`).
+   */
+  size_t loops;
+  /**
+   * Offset points kept in all pieces.
+   */
+  size_t points;
+  /**
+   * Largest measured distance between a piece's curve and offset points not used to fit
+   * it (host length unit).
+   */
+  double fit_error;
+  /**
+   * Geodesics traced.
+   */
+  size_t traces;
+  /**
+   * Surface jets the traces evaluated.
+   */
+  size_t jets;
+} StrakeOffsetSummary;
+
+/**
+ * One offset point.
+ */
+typedef struct StrakeOffsetPoint {
+  /**
+   * Path parameter of the path point it belongs to.
+   */
+  double t;
+  /**
+   * Geodesic distance from that path point (host length unit).
+   */
+  double distance;
+  /**
+   * Surface parameter u.
+   */
+  double u;
+  /**
+   * Surface parameter v.
+   */
+  double v;
+  /**
+   * The point in space.
+   */
+  double point[3];
+  /**
+   * The path's unit tangent carried to the point along the geodesic.
+   */
+  double carried_tangent[3];
+} StrakeOffsetPoint;
+
+/**
+ * An interval of path parameters [t0, t1].
+ */
+typedef struct StrakePathInterval {
+  /**
+   * Start.
+   */
+  double t0;
+  /**
+   * End.
+   */
+  double t1;
+} StrakePathInterval;
 
 /**
  * The description of a NURBS surface, as the host's arrays.
@@ -1365,6 +1714,101 @@ StrakeStatus strake_path_violations(const struct StrakeSample *samples,
                                     size_t *count);
 
 /**
+ * A fixed-angle course from (u, v): its unit tangent keeps the angle `angle` (radians) to the
+ * reference direction e, the space direction `axis` (3 doubles) projected onto the tangent
+ * plane, counted toward N x e: T = cos(angle) e + sin(angle) (N x e). Integrated for arc
+ * length `length` with the error per step `options.tolerance` in space.
+ *
+ * On success writes a new curve handle to `*out_curve` (t = arc length) and, when `out_info`
+ * is not NULL, why it ended (`end` 0: the length; 1: the domain side `side`, exactly on
+ * it; 2: where the axis runs along the normal); `point`, `tangent`, `u`, `v` give the end.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `axis`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (a zero axis or one along the normal at the start, `length` or
+ * `tolerance` not positive, naming the values); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE; LEAVES_SURFACE; GEODESIC_INCOMPLETE; SURFACE_CALLBACK_FAILED.
+ * Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or live; `axis` NULL or 3 doubles; `options` NULL or valid; `out_curve`
+ * NULL or a writable `StrakeCurve *`; `out_info` NULL or writable.
+ */
+StrakeStatus strake_course_fixed_angle(const struct StrakeSurface *surface,
+                                       double u,
+                                       double v,
+                                       const double *axis,
+                                       double angle,
+                                       double length,
+                                       const struct StrakeGeodesicOptions *options,
+                                       struct StrakeCurve **out_curve,
+                                       struct StrakeGeodesicInfo *out_info);
+
+/**
+ * The adjacent course one tow band `band_width` to `side` (a `StrakeOffsetSide` value) of
+ * `course`: its geodesic parallel at that distance, as an offset handle (read and free it
+ * like one from `strake_offset_new`, whose errors and options apply; INVALID_ARGUMENT also
+ * for a band width not positive and finite).
+ *
+ * # Safety
+ * Handles NULL or live; `options` NULL or valid; `out` NULL or a writable `StrakeOffset *`.
+ */
+StrakeStatus strake_course_adjacent(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *course,
+                                    double band_width,
+                                    uint32_t side,
+                                    const struct StrakeOffsetOptions *options,
+                                    struct StrakeOffset **out);
+
+/**
+ * Gaps and overlaps between the bands of width `band_width` centred on courses `a` and `b`
+ * (`b` to `side` of `a`): at `samples` even parameters of `a` the geodesic perpendicular
+ * to `a` meets the edge of `b`'s band (its geodesic parallel at band_width/2); the width
+ * across `a` from `a`'s edge to it is a gap (> 0) or an overlap (< 0). Intervals where its
+ * size exceeds `tolerance` go to the buffer (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL
+ * sets `*count` to the number needed); `*unmatched` (when not NULL) receives the number of
+ * samples where no edge of `b` was met within 3 band widths. `options.tolerance` is the error
+ * per step of the traces.
+ *
+ * Errors: NULL_POINTER (`surface`, `a`, `b`, `options`, `count`; `buf` when `capacity` > 0);
+ * INVALID_ARGUMENT (`side`, `band_width` or `tolerance` not positive, fewer than 2
+ * samples); BUFFER_TOO_SMALL; the errors of the traces and of `a`'s frames. Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `options` NULL or valid; `buf` NULL or room for `capacity`; `count`
+ * NULL or writable; `unmatched` NULL or writable.
+ */
+StrakeStatus strake_course_gaps(const struct StrakeSurface *surface,
+                                const struct StrakeCurve *a,
+                                const struct StrakeCurve *b,
+                                uint32_t side,
+                                double band_width,
+                                size_t samples,
+                                double tolerance,
+                                const struct StrakeGeodesicOptions *options,
+                                struct StrakeCourseGap *buf,
+                                size_t capacity,
+                                size_t *count,
+                                size_t *unmatched);
+
+/**
+ * Steering and twist along `course` at `samples` (>= 2) even parameters, with the limits of
+ * `strake_check_fibre`, summarised into `*out` (largest |kg|, smallest steering radius,
+ * largest edge strain and |tg|, violation counts, length).
+ *
+ * Errors: NULL_POINTER (`surface`, `course`, `limits`, `out`); INVALID_ARGUMENT (a limit not
+ * positive and finite, fewer than 2 samples); every error of `strake_frame_at` on the course.
+ * Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `limits` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_course_check(const struct StrakeSurface *surface,
+                                 const struct StrakeCurve *course,
+                                 const struct StrakeFibreLimits *limits,
+                                 size_t samples,
+                                 struct StrakeCourseCheck *out);
+
+/**
  * Creates a NURBS curve of degree `degree` in the surface's parameter plane.
  *
  * - `knots`: `knot_count` non-decreasing finite knots; `knot_count` must be
@@ -1493,6 +1937,182 @@ StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
                                     int32_t flip_normal,
                                     const struct StrakeParamScales *scales,
                                     struct StrakeFrame *out);
+
+/**
+ * Traces the geodesic of `surface` from (u, v) in a start direction for arc length `length`
+ * (host length unit): the geodesic equations with the surface's Christoffel symbols,
+ * integrated by an embedded Runge-Kutta 5(4) pair with the error measured in space.
+ *
+ * - `direction_kind` / `direction`: a `StrakeDirectionKind` value and 1 (angle), 3 (space
+ *   vector) or 2 ((du, dv)) doubles.
+ * - `options`: `tolerance` > 0 is the error allowed per step in space; `max_steps` caps
+ *   the step attempts (0: 100000).
+ *
+ * On success writes a new curve handle to `*out_curve` (free with `strake_curve_free`): the
+ * geodesic in the parameter plane, t = arc length in [0, info.length], C2, usable with every
+ * curve function (frames, sampling, checks; its geodesic curvature is 0 to the tolerance).
+ * When `out_info` is not NULL it receives why the trace ended: at the length, at the domain
+ * boundary (the end lies exactly on it), or before a degenerate point; these are all
+ * STRAKE_STATUS_OK, so read `info.end` to know whether the full length was traced.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `direction`, `options`, `out_curve`);
+ * INVALID_ARGUMENT (`direction_kind` unknown, a zero direction or one along the normal,
+ * `length` or `tolerance` not positive, naming the value); NON_FINITE; OUT_OF_DOMAIN (start
+ * outside the domain, naming u or v); DEGENERATE_SURFACE (start at a degenerate point);
+ * LEAVES_SURFACE (start on the boundary heading out); GEODESIC_INCOMPLETE (the tolerance
+ * cannot be met or the step cap is used up; the message names the arc length and (u, v)
+ * reached); SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `direction` NULL or the number of doubles above;
+ * `options` NULL or valid; `out_curve` NULL or a writable `StrakeCurve *`; `out_info` NULL
+ * or writable.
+ */
+StrakeStatus strake_geodesic_trace(const struct StrakeSurface *surface,
+                                   double u,
+                                   double v,
+                                   uint32_t direction_kind,
+                                   const double *direction,
+                                   double length,
+                                   const struct StrakeGeodesicOptions *options,
+                                   struct StrakeCurve **out_curve,
+                                   struct StrakeGeodesicInfo *out_info);
+
+/**
+ * The geodesic of `surface` from (u0, v0) to (u1, v1) and the geodesic distance between
+ * them, by shooting: Newton's method on the start angle and the length from the straight
+ * parameter line, with continuation when that fails.
+ *
+ * `options.tolerance` > 0 is the largest space distance left between the geodesic's end and
+ * the target (host length unit); the traces run at a hundredth of it; `options.max_steps`
+ * caps the Newton iterations per solve (0: 30). Seams are not crossed: on a closed surface
+ * the result is the shortest geodesic within the parameter domain.
+ *
+ * On success writes the distance to `*out_distance` and, when `out_curve` is not NULL, a new
+ * curve handle (t = arc length from (u0, v0), free with `strake_curve_free`).
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `options`, `out_distance`);
+ * INVALID_ARGUMENT (points that coincide, a bad tolerance); NON_FINITE; OUT_OF_DOMAIN;
+ * DEGENERATE_SURFACE (either point); GEODESIC_NOT_FOUND (shooting failed, or found a
+ * geodesic longer than the straight parameter line, which cannot be the shortest: the
+ * message names the miss, angle and length reached); GEODESIC_INCOMPLETE;
+ * SURFACE_CALLBACK_FAILED. Thread-safe.
+ *
+ * # Safety
+ * `surface` NULL or a live handle; `options` NULL or valid; `out_curve` NULL or a writable
+ * `StrakeCurve *`; `out_distance` NULL or a writable double.
+ */
+StrakeStatus strake_geodesic_between(const struct StrakeSurface *surface,
+                                     double u0,
+                                     double v0,
+                                     double u1,
+                                     double v1,
+                                     const struct StrakeGeodesicOptions *options,
+                                     struct StrakeCurve **out_curve,
+                                     double *out_distance);
+
+/**
+ * The offset of `curve` on `surface`: the curve at geodesic distance d to the left (B side)
+ * or right of it, computed point by point as the end of the geodesic leaving the path
+ * perpendicularly, sampled adaptively, trimmed where it leaves the surface and where it forms
+ * loops (d beyond the radius of geodesic curvature on a concave side).
+ *
+ * - `side`: a `StrakeOffsetSide` value.
+ * - Distance: `distance_t` NULL and `distance_count` = 1: the constant `distances[0]`;
+ *   otherwise `distance_count` distances at the strictly increasing path parameters
+ *   `distance_t`, linear between them and held beyond the ends. Finite and >= 0.
+ * - `options`: see `StrakeOffsetOptions` (zeros except `chord_tolerance` give defaults).
+ *
+ * On success writes a new handle to `*out` (free with `strake_offset_free`); read it with
+ * `strake_offset_summary`, `strake_offset_piece_curve`, `strake_offset_piece_points`,
+ * `strake_offset_exits` and `strake_offset_loops`.
+ *
+ * Errors (nothing written): NULL_POINTER (`surface`, `curve`, `distances`, `options`,
+ * `out`); INVALID_ARGUMENT (`side` unknown, a distance negative or not finite, parameters not
+ * increasing, bad options; naming the index and value); LEAVES_SURFACE (no part of the
+ * offset lies on the surface; naming the distance); NOT_CONVERGED (`max_samples` used up);
+ * GEODESIC_INCOMPLETE; every error of `strake_frame_at` on the path. Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `distance_t` NULL or `distance_count` doubles; `distances` NULL or
+ * `distance_count` doubles; `options` NULL or valid; `out` NULL or a writable
+ * `StrakeOffset *`.
+ */
+StrakeStatus strake_offset_new(const struct StrakeSurface *surface,
+                               const struct StrakeCurve *curve,
+                               uint32_t side,
+                               const double *distance_t,
+                               const double *distances,
+                               size_t distance_count,
+                               const struct StrakeOffsetOptions *options,
+                               struct StrakeOffset **out);
+
+/**
+ * Releases an offset. NULL is a no-op. Curve handles made from it stay valid.
+ *
+ * # Safety
+ * `offset` must be NULL or a handle from `strake_offset_new` not yet freed.
+ */
+void strake_offset_free(struct StrakeOffset *offset);
+
+/**
+ * Counts and figures of an offset into `*out`. Errors: NULL_POINTER. Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `out` NULL or writable.
+ */
+StrakeStatus strake_offset_summary(const struct StrakeOffset *offset,
+                                   struct StrakeOffsetSummary *out);
+
+/**
+ * A new curve handle for piece `index` of an offset: a cubic B-spline in (u, v) on t in
+ * [0, 1] through the piece's points (free with `strake_curve_free`; it outlives the offset).
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`index` not below the piece count). Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_offset_piece_curve(const struct StrakeOffset *offset,
+                                       size_t index,
+                                       struct StrakeCurve **out);
+
+/**
+ * The points of piece `index` of an offset, in path order, through the buffer protocol
+ * (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL sets `*count` to the number needed).
+ * Errors: NULL_POINTER; INVALID_ARGUMENT (`index`); BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * `offset` NULL or live; `buf` NULL or room for `capacity` points; `count` NULL or writable.
+ */
+StrakeStatus strake_offset_piece_points(const struct StrakeOffset *offset,
+                                        size_t index,
+                                        struct StrakeOffsetPoint *buf,
+                                        size_t capacity,
+                                        size_t *count);
+
+/**
+ * The path intervals whose offset leaves the surface (or meets a degenerate point), through
+ * the buffer protocol. Errors: NULL_POINTER; BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * As `strake_offset_piece_points`.
+ */
+StrakeStatus strake_offset_exits(const struct StrakeOffset *offset,
+                                 struct StrakePathInterval *buf,
+                                 size_t capacity,
+                                 size_t *count);
+
+/**
+ * The path intervals whose offset formed a loop and was cut off, through the buffer
+ * protocol. Errors: NULL_POINTER; BUFFER_TOO_SMALL. Thread-safe.
+ *
+ * # Safety
+ * As `strake_offset_piece_points`.
+ */
+StrakeStatus strake_offset_loops(const struct StrakeOffset *offset,
+                                 struct StrakePathInterval *buf,
+                                 size_t capacity,
+                                 size_t *count);
 
 /**
  * Copies the message of the last failed call on this thread into `buf`.

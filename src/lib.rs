@@ -53,6 +53,10 @@ pub use paths::projection::{
 pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
+pub use planning::courses::{
+    CourseCheck, CourseGap, CourseGaps, FieldCourse, adjacent_course, course_check, course_gaps,
+    fixed_angle_course, natural_course,
+};
 pub use planning::drive_pattern::{
     DriveOptions, DrivePiece, DrivePlane, DriveProjection, PatternInterval, PatternIntervalKind,
     PieceCurve, RayCaster, RayHit, project_along,

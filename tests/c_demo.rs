@@ -81,6 +81,16 @@ struct Raw {
     /// Per pass of a plan: rule, side, index, row, has parent, parent, length, step-over min,
     /// max, scallop min, max.
     plan_passes: Vec<Vec<f64>>,
+    /// Courses: band width, start u, v, angle, trace tolerance, gap tolerance.
+    plan_setup: Vec<f64>,
+    /// Per course: index, start u, v, length, end, side, end u, v.
+    plan_courses: Vec<Vec<f64>>,
+    /// Per course: index, largest |kg|, largest |tg|, steering and twist violations.
+    plan_checks: Vec<Vec<f64>>,
+    /// Per gap: pair index, index, t0, t1, overlap, worst.
+    plan_gaps: Vec<Vec<f64>>,
+    /// The parallel course: length, smallest steering radius, largest twist, violations.
+    plan_parallel: Vec<f64>,
 }
 
 fn numbers(rest: &[&str]) -> Vec<f64> {
@@ -143,6 +153,11 @@ fn parse_raw(text: &str) -> Raw {
             "course_sample" => r.course.push(indexed(line, rest, r.course.len())),
             "plan" => r.plans.push(numbers(rest)),
             "plan_pass" => r.plan_passes.push(numbers(rest)),
+            "plan_setup" => r.plan_setup = numbers(rest),
+            "plan_course" => r.plan_courses.push(numbers(rest)),
+            "plan_gap" => r.plan_gaps.push(numbers(rest)),
+            "plan_check" => r.plan_checks.push(numbers(rest)),
+            "plan_parallel" => r.plan_parallel = numbers(rest),
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }
@@ -939,4 +954,141 @@ fn demo_pass_plans_add_up_and_match_the_rust_api() {
         plan.scallop_min,
         c[6]
     );
+}
+
+// The courses of the demo against the Rust API on the Rust wing skin: the natural courses
+// (geodesics from the printed starts), the gaps and overlaps between neighbours, and the
+// steering of the parallel course. The geodesics themselves are checked against closed forms
+// in tests/geodesics.rs and tests/courses.rs; here the C host must get what Rust gets.
+#[test]
+fn demo_courses_match_the_rust_api() {
+    use strake::{
+        OffsetOptions, OffsetSide, StartDirection, TraceOptions, adjacent_course, course_check,
+        course_gaps, trace_geodesic,
+    };
+    let raw = raw_output("mould_cavity_courses");
+    let [band, u0, v0, angle, tol, gap_tol] = raw.plan_setup[..] else {
+        panic!("plan_setup has 6 numbers")
+    };
+    let wing = rust_wing(&raw.wing);
+    let o = TraceOptions::new(tol);
+    assert_eq!(raw.plan_courses.len(), 4);
+    let mut courses = Vec::new();
+    for (k, c) in raw.plan_courses.iter().enumerate() {
+        assert_eq!(c[0] as usize, k);
+        let (u, v) = (c[1], c[2]);
+        let g = if k == 0 {
+            assert_eq!((u, v), (u0, v0));
+            trace_geodesic(
+                &wing,
+                u,
+                v,
+                StartDirection::Angle(angle),
+                4.0 * raw.wing[0],
+                &o,
+            )
+            .unwrap()
+        } else {
+            // The start one band across the previous start, as the demo builds it.
+            let prev: &strake::Geodesic = &courses[k - 1];
+            let f = CurveOnSurface::new(&wing, &prev.curve)
+                .frame(0.0, &mut Hints::default())
+                .unwrap();
+            let across =
+                trace_geodesic(&wing, f.u, f.v, StartDirection::Space(f.b), band, &o).unwrap();
+            let (au, av) = across.end_uv();
+            assert!(
+                (au - u).abs() < 1e-6 && (av - v).abs() < 1e-6,
+                "course {k} start"
+            );
+            let carried = across.end_tangent.cross(&across.end_normal);
+            trace_geodesic(
+                &wing,
+                au,
+                av,
+                StartDirection::Space(carried),
+                4.0 * raw.wing[0],
+                &o,
+            )
+            .unwrap()
+        };
+        assert!(
+            (g.length - c[3]).abs() < 1e-5,
+            "course {k}: length {} vs {}",
+            g.length,
+            c[3]
+        );
+        let (eu, ev) = g.end_uv();
+        assert!(
+            (eu - c[6]).abs() < 1e-5 && (ev - c[7]).abs() < 1e-5,
+            "course {k} end"
+        );
+        courses.push(g);
+    }
+    let limits = strake::checks::fibre::FibreLimits {
+        tow_width: raw.course_setup[3],
+        min_steering_radius: raw.course_setup[4],
+        max_twist_rate: raw.course_setup[5],
+    };
+    assert_eq!(raw.plan_checks.len(), 4);
+    for (k, c) in raw.plan_checks.iter().enumerate() {
+        let chk = course_check(&wing, &courses[k].curve, &limits, 101).unwrap();
+        // A natural course is a geodesic: no steering (to the trace's accuracy).
+        assert!(
+            c[1] < 1e-6 && chk.max_steering_curvature < 1e-6,
+            "course {k}: kg {}",
+            c[1]
+        );
+        assert!(
+            (c[2] - chk.max_twist_rate).abs() < 1e-9,
+            "course {k}: twist"
+        );
+        assert_eq!(
+            (c[3], c[4]),
+            (chk.steering_violations as f64, chk.twist_violations as f64)
+        );
+    }
+    for k in 1..4 {
+        let gaps = course_gaps(
+            &wing,
+            &courses[k - 1].curve,
+            &courses[k].curve,
+            OffsetSide::Left,
+            band,
+            41,
+            gap_tol,
+            &o,
+        )
+        .unwrap();
+        let printed: Vec<&Vec<f64>> = raw
+            .plan_gaps
+            .iter()
+            .filter(|g| g[0] as usize == k)
+            .collect();
+        assert_eq!(printed.len(), gaps.intervals.len(), "pair {k}");
+        for (p, g) in printed.iter().zip(&gaps.intervals) {
+            assert!((p[2] - g.t0).abs() < 1e-6 && (p[3] - g.t1).abs() < 1e-6);
+            assert_eq!(p[4] != 0.0, g.overlap);
+            assert!(
+                (p[5] - g.worst).abs() < 1e-6,
+                "worst {} vs {}",
+                p[5],
+                g.worst
+            );
+        }
+    }
+    let par = adjacent_course(
+        &wing,
+        &courses[0].curve,
+        band,
+        OffsetSide::Left,
+        &OffsetOptions::new(1e-3),
+    )
+    .unwrap();
+    let chk = course_check(&wing, &par.pieces[0].curve, &limits, 101).unwrap();
+    assert!((chk.length - raw.plan_parallel[0]).abs() < 1e-6 * chk.length);
+    assert!(
+        (chk.min_steering_radius - raw.plan_parallel[1]).abs() < 1e-6 * chk.min_steering_radius
+    );
+    assert_eq!(chk.steering_violations as f64, raw.plan_parallel[3]);
 }

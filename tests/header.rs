@@ -187,6 +187,19 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_pass_plan_passes",
         "strake_pass_plan_summary",
         "strake_plan_passes",
+        "strake_geodesic_trace",
+        "strake_geodesic_between",
+        "strake_offset_new",
+        "strake_offset_free",
+        "strake_offset_summary",
+        "strake_offset_piece_curve",
+        "strake_offset_piece_points",
+        "strake_offset_exits",
+        "strake_offset_loops",
+        "strake_course_fixed_angle",
+        "strake_course_adjacent",
+        "strake_course_gaps",
+        "strake_course_check",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

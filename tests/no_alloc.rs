@@ -1,5 +1,5 @@
 //! No heap allocation per evaluated point: a counting global allocator watches the evaluation
-//! paths (single frames, the batch and parallel entry points, native NURBS surfaces and curves,
+//! paths (single frames, frames along a traced geodesic, the batch and parallel entry points, native NURBS surfaces and curves,
 //! the frame from jets one at a time and in batches, and the C entry points with callback,
 //! batch-callback and native surfaces). Calls that allocate per call (a C batch's scratch
 //! buffer, a parallel call's thread handles) must allocate the same number of times for 10 000
@@ -76,6 +76,26 @@ fn evaluation_paths_do_not_allocate() {
     r.unwrap();
     assert_eq!(a, 0, "frames_even allocated {a} times");
     // Failure paths may allocate for their message; that is per call, not per point.
+
+    // Frames along a traced geodesic (its Hermite curve): tracing allocates its nodes once,
+    // evaluating allocates nothing.
+    let g = strake::trace_geodesic(
+        &s,
+        1.0,
+        0.5,
+        strake::StartDirection::Angle(0.7),
+        10.0,
+        &strake::TraceOptions::new(1e-9),
+    )
+    .unwrap();
+    let gs = CurveOnSurface::new(&s, &g.curve);
+    let (_, a) = count(|| {
+        let mut h = Hints::default();
+        for &t in &ts {
+            std::hint::black_box(gs.frame(10.0 * t, &mut h).unwrap());
+        }
+    });
+    assert_eq!(a, 0, "frames along a traced geodesic allocated {a} times");
 
     // Native NURBS surface and curve jets.
     let patch = nurbs_patch();

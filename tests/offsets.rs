@@ -70,11 +70,15 @@ fn sphere_equator_parallel_is_a_latitude_circle() {
                 smp.v
             );
         }
+        let points: usize = off.pieces.iter().map(|p| p.samples.len()).sum();
         println!(
-            "sphere equator offset d {d}: worst |z - z_exact| {worst:e}, fit error {:e}, {} traces, {} jets ({:.1} per trace)",
+            "sphere equator offset d {d}: worst |z - z_exact| {worst:e}, fit error {:e}, {points} \
+             points kept, {} traces ({:.2} per point), {} jets ({:.1} per point, {:.1} per trace)",
             off.fit_error,
             off.traces,
+            off.traces as f64 / points as f64,
             off.jets,
+            off.jets as f64 / points as f64,
             off.jets as f64 / off.traces as f64
         );
         assert!(worst < 1e-6, "worst {worst:e}");

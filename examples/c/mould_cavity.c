@@ -651,6 +651,158 @@ static int plan_cavity_passes(int raw, const StrakeSurface *surface, const Strak
                "   the meeting of the two balls' swept tubes; the strip at the edge is not measured)\n");
     }
     return 0;
+/* Courses across the wing skin: natural (geodesic) courses laid one tow band apart at their  */
+/* start, the gaps and overlaps they leave, and the parallel course that leaves none.        */
+
+#define BAND_TOWS 8
+#define BAND_WIDTH (BAND_TOWS * 6.35) /* mm: eight 6.35 mm tows */
+#define PLAN_COURSES 4
+#define PLAN_START_U 80.0  /* mm along the span */
+#define PLAN_START_V 120.0 /* mm from the leading edge */
+#define PLAN_ANGLE 0.08    /* rad from the span direction, toward the trailing edge */
+#define PLAN_TOLERANCE 1e-6 /* mm per step */
+#define PLAN_GAP_SAMPLES 41
+#define PLAN_GAP_TOLERANCE 0.05 /* mm: narrower gaps and overlaps are not reported */
+
+static int plan_courses(int raw)
+{
+    WingSkin wing = WING; /* the callback's user_data */
+    StrakeSurface *skin = NULL;
+    StrakeCurve *course[PLAN_COURSES] = {NULL};
+    StrakeCurve *across = NULL, *parallel_curve = NULL;
+    StrakeOffset *parallel = NULL;
+    StrakeGeodesicOptions options = {PLAN_TOLERANCE, 0};
+    StrakeOffsetOptions offset_options = {1e-3, 0.0, 0, 0};
+    StrakeGeodesicInfo info[PLAN_COURSES];
+    StrakeCourseGap gaps[16];
+    StrakeCourseCheck check;
+    StrakeFrame f;
+    StrakeStatus status;
+    double u = PLAN_START_U, v = PLAN_START_V, angle = PLAN_ANGLE;
+    size_t count = 0, unmatched = 0, j;
+    int k, bad = 0;
+
+    status = strake_surface_from_callback(wing_surface, &wing, 0.0, wing.span, 0.0, wing.chord, 0, &skin);
+    if (status != STRAKE_STATUS_OK) {
+        return fail("strake_surface_from_callback (courses)", status);
+    }
+    if (!raw) {
+        printf("\nCourses across the wing skin: natural (geodesic) courses of %d x 6.35 mm tows (a %.1f mm band),\n"
+               "  each started one band width across the start of the one before (lengths in mm)\n",
+               BAND_TOWS, BAND_WIDTH);
+    } else {
+        printf("plan_setup %.17g %.17g %.17g %.17g %.17g %.17g\n", BAND_WIDTH, PLAN_START_U, PLAN_START_V, PLAN_ANGLE,
+               PLAN_TOLERANCE, PLAN_GAP_TOLERANCE);
+    }
+    for (k = 0; k < PLAN_COURSES && !bad; k++) {
+        if (k == 0) {
+            status = strake_geodesic_trace(skin, u, v, STRAKE_DIRECTION_KIND_ANGLE, &angle, 4.0 * wing.span, &options,
+                                           &course[k], &info[k]);
+        } else {
+            /* One band across the previous start, along its B side, then on in the direction
+             * carried along that short geodesic (T = g x N). */
+            double carried[3];
+            status = strake_frame_at(skin, course[k - 1], 0.0, &f);
+            if (status == STRAKE_STATUS_OK) {
+                status = strake_geodesic_trace(skin, f.u, f.v, STRAKE_DIRECTION_KIND_SPACE, f.side, BAND_WIDTH,
+                                               &options, &across, NULL);
+            }
+            if (status == STRAKE_STATUS_OK) {
+                status = strake_frame_at(skin, across, BAND_WIDTH, &f);
+            }
+            strake_curve_free(across);
+            across = NULL;
+            if (status == STRAKE_STATUS_OK) {
+                carried[0] = f.tangent[1] * f.normal[2] - f.tangent[2] * f.normal[1];
+                carried[1] = f.tangent[2] * f.normal[0] - f.tangent[0] * f.normal[2];
+                carried[2] = f.tangent[0] * f.normal[1] - f.tangent[1] * f.normal[0];
+                status = strake_geodesic_trace(skin, f.u, f.v, STRAKE_DIRECTION_KIND_SPACE, carried, 4.0 * wing.span,
+                                               &options, &course[k], &info[k]);
+            }
+        }
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_geodesic_trace (course)", status);
+            break;
+        }
+        status = strake_frame_at(skin, course[k], 0.0, &f);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_frame_at (course start)", status);
+            break;
+        }
+        /* The steering and twist checks on every course. */
+        status = strake_course_check(skin, course[k], &FIBRE, 101, &check);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_course_check", status);
+            break;
+        }
+        if (raw) {
+            printf("plan_course %d %.17g %.17g %.17g %u %u %.17g %.17g\n", k, f.u, f.v, info[k].length, info[k].end,
+                   info[k].side, info[k].u, info[k].v);
+            printf("plan_check %d %.17g %.17g %zu %zu\n", k, check.max_steering_curvature, check.max_twist_rate,
+                   check.steering_violations, check.twist_violations);
+        } else {
+            printf("  course %d: from (%6.1f, %5.1f) to (%6.1f, %5.1f), %7.1f mm, ends %s\n", k, f.u, f.v, info[k].u,
+                   info[k].v, info[k].length,
+                   info[k].end == STRAKE_GEODESIC_END_BOUNDARY ? "at the panel edge" : "at its length");
+            printf("            |kg| up to %.1e 1/mm (geodesic), twist up to %.4f rad/m, %zu of 101 samples above "
+                   "the twist limit\n",
+                   check.max_steering_curvature, 1000.0 * check.max_twist_rate, check.twist_violations);
+        }
+    }
+    for (k = 1; k < PLAN_COURSES && !bad; k++) {
+        status = strake_course_gaps(skin, course[k - 1], course[k], STRAKE_OFFSET_SIDE_LEFT, BAND_WIDTH,
+                                    PLAN_GAP_SAMPLES, PLAN_GAP_TOLERANCE, &options, gaps, 16, &count, &unmatched);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_course_gaps", status);
+            break;
+        }
+        if (!raw) {
+            printf("  between courses %d and %d (%zu of %d samples without a neighbour):\n", k - 1, k, unmatched,
+                   PLAN_GAP_SAMPLES);
+            if (count == 0) {
+                printf("    no gap or overlap above %.2f mm\n", PLAN_GAP_TOLERANCE);
+            }
+        }
+        for (j = 0; j < count; j++) {
+            if (raw) {
+                printf("plan_gap %d %zu %.17g %.17g %d %.17g\n", k, j, gaps[j].t0, gaps[j].t1, gaps[j].overlap,
+                       gaps[j].worst);
+            } else {
+                printf("    %-7s from s = %7.1f to %7.1f mm along course %d, up to %.2f mm\n",
+                       gaps[j].overlap ? "overlap" : "gap", gaps[j].t0, gaps[j].t1, k - 1, gaps[j].worst);
+            }
+        }
+    }
+    /* The parallel course: the geodesic parallel of course 0 one band across. It closes the
+     * gaps by construction, at the price of steering. */
+    if (!bad) {
+        status = strake_course_adjacent(skin, course[0], BAND_WIDTH, STRAKE_OFFSET_SIDE_LEFT, &offset_options,
+                                        &parallel);
+        if (status == STRAKE_STATUS_OK) {
+            status = strake_offset_piece_curve(parallel, 0, &parallel_curve);
+        }
+        if (status == STRAKE_STATUS_OK) {
+            status = strake_course_check(skin, parallel_curve, &FIBRE, 101, &check);
+        }
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_course_adjacent / strake_course_check", status);
+        } else if (raw) {
+            printf("plan_parallel %.17g %.17g %.17g %zu\n", check.length, check.min_steering_radius,
+                   check.max_twist_rate, check.steering_violations);
+        } else {
+            printf("  the parallel of course 0 one band across: %.1f mm, smallest steering radius %.0f mm, largest\n"
+                   "    twist %.4f rad/m, %zu of 101 samples below the %.0f mm steering limit\n",
+                   check.length, check.min_steering_radius, 1000.0 * check.max_twist_rate, check.steering_violations,
+                   FIBRE.min_steering_radius);
+        }
+    }
+    strake_curve_free(parallel_curve);
+    strake_offset_free(parallel);
+    for (k = 0; k < PLAN_COURSES; k++) {
+        strake_curve_free(course[k]);
+    }
+    strake_surface_free(skin);
+    return bad;
 }
 
 /* ----------------------------------------------------------------------------------------- */
@@ -745,7 +897,7 @@ int main(int argc, char **argv)
                farthest, frames[FRAME_SAMPLES - 1].arc_length);
     }
     bad = bad || report_frames(raw, frames, FRAME_SAMPLES) || check_milling(raw, surface, pass) || check_course(raw) ||
-          plan_cavity_passes(raw, surface, pass);
+          plan_cavity_passes(raw, surface, pass) || plan_courses(raw);
     if (!bad && !raw) {
         show_refusals(surface, pass, points);
     }

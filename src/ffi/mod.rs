@@ -32,8 +32,10 @@ pub(crate) mod guard;
 
 pub mod batch_callback;
 pub mod checks;
+pub mod courses;
 pub mod curve;
 pub mod evaluate;
+pub mod geodesics;
 pub mod message;
 pub mod nurbs_surface;
 pub mod parallel;
@@ -50,11 +52,19 @@ pub use checks::{
     strake_check_feed, strake_check_fibre, strake_check_gouge, strake_check_scallop,
     strake_check_step_over, strake_path_extremes, strake_path_violations, strake_tool_axis,
 };
+pub use courses::{
+    strake_course_adjacent, strake_course_check, strake_course_fixed_angle, strake_course_gaps,
+};
 pub use curve::{
     StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
     strake_curve_new_nurbs,
 };
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
+pub use geodesics::{
+    StrakeOffset, strake_geodesic_between, strake_geodesic_trace, strake_offset_exits,
+    strake_offset_free, strake_offset_loops, strake_offset_new, strake_offset_piece_curve,
+    strake_offset_piece_points, strake_offset_summary,
+};
 pub use message::{strake_last_callback_code, strake_last_error_message};
 pub use nurbs_surface::{StrakeNurbsSurfaceData, strake_surface_new_nurbs};
 pub use parallel::strake_frames_at_parallel;
@@ -76,6 +86,7 @@ pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
     strake_surface_set_knot_lines,
 };
+pub use types::{StrakeCourseCheck, StrakeCourseGap};
 pub use types::{
     StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
     StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,
@@ -84,7 +95,9 @@ pub use types::{
     StrakeViolation,
 };
 pub use types::{
-    StrakeDriveOptions, StrakeDrivePlane, StrakePassInfo, StrakePassOptions, StrakePassSummary,
-    StrakePatternInterval, StrakePatternIntervalKind, StrakeStepRule,
+    StrakeDirectionKind, StrakeDomainSide, StrakeDriveOptions, StrakeDrivePlane, StrakeGeodesicEnd,
+    StrakeGeodesicInfo, StrakeGeodesicOptions, StrakeOffsetOptions, StrakeOffsetPoint,
+    StrakeOffsetSide, StrakeOffsetSummary, StrakePassInfo, StrakePassOptions, StrakePassSummary,
+    StrakePathInterval, StrakePatternInterval, StrakePatternIntervalKind, StrakeStepRule,
 };
 pub use version::strake_version;

@@ -806,3 +806,192 @@ pub struct StrakePassInfo {
     /// Intervals of its parent whose parallel looped and was cut.
     pub loops: usize,
 }
+
+/// The kinds of start direction: the values of `direction_kind` in `strake_geodesic_trace`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeDirectionKind {
+    /// 0: `direction` points to 1 double, an angle θ (radians) from e1 = Su/|Su| toward
+    /// e2 = N x e1: the direction cos θ e1 + sin θ e2.
+    Angle = 0,
+    /// 1: `direction` points to 3 doubles, a direction in space; its component along the
+    /// normal is removed.
+    Space = 1,
+    /// 2: `direction` points to 2 doubles (du, dv) in the parameter plane.
+    Parameter = 2,
+}
+
+/// Why a geodesic trace ended: the values of `StrakeGeodesicInfo.end`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeGeodesicEnd {
+    /// 0: it reached the length asked.
+    Length = 0,
+    /// 1: it left the parameter domain; the end lies exactly on the side `side`.
+    Boundary = 1,
+    /// 2: it stopped before a degenerate point (a pole, a collapsed edge).
+    Degenerate = 2,
+}
+
+/// Sides of the parameter domain: the values of `StrakeGeodesicInfo.side`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeDomainSide {
+    /// 0: no side (the trace did not end at the boundary).
+    None = 0,
+    /// 1: u = u_min.
+    UMin = 1,
+    /// 2: u = u_max.
+    UMax = 2,
+    /// 3: v = v_min.
+    VMin = 3,
+    /// 4: v = v_max.
+    VMax = 4,
+}
+
+/// Options of a geodesic trace or of the geodesic between two points.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeGeodesicOptions {
+    /// Error allowed per step in space (host length unit), > 0. For
+    /// `strake_geodesic_between`: the largest distance from the geodesic's end to the
+    /// target; its traces run at a hundredth of it.
+    pub tolerance: f64,
+    /// Most step attempts of a trace; 0 for the default (100000). For
+    /// `strake_geodesic_between`: most Newton iterations per solve; 0 for the default (30).
+    pub max_steps: usize,
+}
+
+/// What a geodesic trace did.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeGeodesicInfo {
+    /// Why it ended: a `StrakeGeodesicEnd` value.
+    pub end: u32,
+    /// The domain side where it ended: a `StrakeDomainSide` value (0 unless `end` is 1).
+    pub side: u32,
+    /// Length traced (host length unit); the curve's domain is [0, length], t = arc length.
+    pub length: f64,
+    /// Surface parameter u at the end.
+    pub u: f64,
+    /// Surface parameter v at the end.
+    pub v: f64,
+    /// The end point S(u, v).
+    pub point: [f64; 3],
+    /// The unit tangent at the end.
+    pub tangent: [f64; 3],
+    /// Accepted steps.
+    pub accepted_steps: usize,
+    /// Rejected step attempts.
+    pub rejected_steps: usize,
+    /// Surface evaluations (second-order jets) spent.
+    pub jets: usize,
+}
+
+/// Sides of a path: the values of `side` in `strake_offset_new`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeOffsetSide {
+    /// 0: toward B = N x T (left of the direction of travel, seen from N).
+    Left = 0,
+    /// 1: toward -B.
+    Right = 1,
+}
+
+/// Options of an offset; zeros give the defaults.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeOffsetOptions {
+    /// Largest space distance between an interval's midpoint offset and its prediction from
+    /// the neighbouring points (host length unit), > 0.
+    pub chord_tolerance: f64,
+    /// Error per step of each geodesic trace; 0 for chord_tolerance / 1000.
+    pub trace_tolerance: f64,
+    /// Evenly spaced path parameters to start with; 0 for 17, else at least 2.
+    pub samples: usize,
+    /// Most offset points computed in all; 0 for 20000.
+    pub max_samples: usize,
+}
+
+/// Counts and figures of an offset.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeOffsetSummary {
+    /// Connected pieces (`strake_offset_piece_curve`, `strake_offset_piece_points`).
+    pub pieces: usize,
+    /// Path intervals whose offset leaves the surface (`strake_offset_exits`).
+    pub exits: usize,
+    /// Path intervals whose offset formed a loop and was cut (`strake_offset_loops`).
+    pub loops: usize,
+    /// Offset points kept in all pieces.
+    pub points: usize,
+    /// Largest measured distance between a piece's curve and offset points not used to fit
+    /// it (host length unit).
+    pub fit_error: f64,
+    /// Geodesics traced.
+    pub traces: usize,
+    /// Surface jets the traces evaluated.
+    pub jets: usize,
+}
+
+/// One offset point.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeOffsetPoint {
+    /// Path parameter of the path point it belongs to.
+    pub t: f64,
+    /// Geodesic distance from that path point (host length unit).
+    pub distance: f64,
+    /// Surface parameter u.
+    pub u: f64,
+    /// Surface parameter v.
+    pub v: f64,
+    /// The point in space.
+    pub point: [f64; 3],
+    /// The path's unit tangent carried to the point along the geodesic.
+    pub carried_tangent: [f64; 3],
+}
+
+/// An interval of path parameters [t0, t1].
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakePathInterval {
+    /// Start.
+    pub t0: f64,
+    /// End.
+    pub t1: f64,
+}
+
+/// A gap or an overlap between neighbouring courses' band edges (`strake_course_gaps`).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCourseGap {
+    /// Start, as a parameter of course A.
+    pub t0: f64,
+    /// End, as a parameter of course A.
+    pub t1: f64,
+    /// 1 for an overlap (the bands cover each other), 0 for a gap.
+    pub overlap: i32,
+    /// Largest width inside the interval (host length unit, >= 0).
+    pub worst: f64,
+}
+
+/// Steering and twist along a course (`strake_course_check`).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCourseCheck {
+    /// Largest steering curvature |kg| (1/length).
+    pub max_steering_curvature: f64,
+    /// Smallest steering radius 1/|kg| (INFINITY along a geodesic).
+    pub min_steering_radius: f64,
+    /// Largest tow-edge strain (w/2)|kg|.
+    pub max_edge_strain: f64,
+    /// Largest |tg| (radians per length).
+    pub max_twist_rate: f64,
+    /// Samples where the steering radius is below the limit.
+    pub steering_violations: usize,
+    /// Samples where |tg| exceeds the limit.
+    pub twist_violations: usize,
+    /// Course length (host length unit).
+    pub length: f64,
+}

@@ -23,6 +23,10 @@
 //! Maekawa (J. Mech. Des. 118 (1996) 499–508 [details: memory]) treats shooting and
 //! relaxation on freeform surfaces.
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 use crate::curve::uv_line;
 use crate::error::{Result, StrakeError};
 use crate::geodesics::trace::{

@@ -11,6 +11,10 @@
 //! g (u'', v'')ᵀ = −(W·Su, W·Sv)ᵀ, which says that c'' = W + Su u'' + Sv v'' is normal to the
 //! surface (a geodesic has no tangential acceleration). Same numbers, fewer operations.
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 use crate::geometry::jet::SurfaceJet;
 
 /// The six Christoffel symbols of the second kind at a surface point.

@@ -8,6 +8,11 @@
 //! H₃ = 10τ³ − 15τ⁴ + 6τ⁵, H₄ = −4τ³ + 7τ⁴ − 3τ⁵, H₅ = (τ³ − 2τ⁴ + τ⁵)/2.
 //! With nodes from a fifth-order integrator the interpolant errs by O(h⁶) in position and
 //! O(h⁴) in the second derivative between knots, and is exact to the nodes at them.
+//!
+//! A knot may appear twice in a row: the first node ends the segment before it and the second
+//! starts the one after, so the second derivative may jump there (a geodesic crossing a knot
+//! line of a surface whose parametrisation is only C¹ there, such as a rational circle's
+//! double knots; the curve in space stays smooth).
 
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
@@ -26,8 +31,9 @@ pub struct HermiteUvCurve {
 impl HermiteUvCurve {
     /// A curve through `nodes[i]` (value, first and second derivatives) at `knots[i]`.
     ///
-    /// Errors: `InvalidArgument` unless there are at least two knots, strictly increasing and
-    /// finite, one node each, all finite.
+    /// Errors: `InvalidArgument` unless there are at least two knots, finite and increasing
+    /// (a knot may repeat once, inside, for a jump of the second derivative), one node each,
+    /// all finite.
     pub fn new(knots: Vec<f64>, nodes: Vec<CurveJet>) -> Result<Self> {
         if knots.len() < 2 || knots.len() != nodes.len() {
             return Err(StrakeError::InvalidArgument(format!(
@@ -37,10 +43,13 @@ impl HermiteUvCurve {
                 nodes.len()
             )));
         }
+        let m = knots.len();
         for (i, w) in knots.windows(2).enumerate() {
-            if !(w[0].is_finite() && w[1].is_finite() && w[1] > w[0]) {
+            let repeat_ok = w[1] == w[0] && i > 0 && i + 2 < m && knots[i - 1] < w[0];
+            if !(w[0].is_finite() && w[1].is_finite() && (w[1] > w[0] || repeat_ok)) {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "Hermite knots must increase strictly: knot {} = {} then {}",
+                    "Hermite knots must increase (a knot may repeat once, inside): knot {} = {} \
+                     then {}",
                     i, w[0], w[1]
                 )));
             }
@@ -51,7 +60,8 @@ impl HermiteUvCurve {
                 error: Box::new(e),
             })?;
         }
-        let breaks = knots[1..knots.len() - 1].to_vec();
+        let mut breaks = knots[1..knots.len() - 1].to_vec();
+        breaks.dedup();
         Ok(HermiteUvCurve {
             knots,
             nodes,
@@ -217,6 +227,45 @@ mod tests {
                 assert!((g - w).abs() < 1e-11 * (1.0 + w.abs()), "t {t}: {g} vs {w}");
             }
         }
+    }
+
+    /// A repeated knot joins two pieces with different second derivatives.
+    #[test]
+    fn a_repeated_knot_lets_the_second_derivative_jump() {
+        let a = CurveJet {
+            u: 0.0,
+            v: 0.0,
+            du: 1.0,
+            dv: 0.0,
+            ddu: 0.0,
+            ddv: 1.0,
+        };
+        let b = CurveJet {
+            u: 1.0,
+            v: 0.5,
+            du: 1.0,
+            dv: 1.0,
+            ddu: 0.0,
+            ddv: 1.0,
+        };
+        let b2 = CurveJet { ddv: -1.0, ..b };
+        let c = CurveJet {
+            u: 2.0,
+            v: 1.0,
+            du: 1.0,
+            dv: 0.0,
+            ddu: 0.0,
+            ddv: -1.0,
+        };
+        let k = vec![0.0, 1.0, 1.0, 2.0];
+        let h = HermiteUvCurve::new(k, vec![a, b, b2, c]).unwrap();
+        assert_eq!(h.breakpoints(), &[1.0]);
+        let mut hint = SpanHint::default();
+        let at = h.checked_jet(1.0, &mut hint).unwrap();
+        assert_eq!((at.u, at.ddv), (1.0, -1.0)); // the right piece's start
+        let before = h.checked_jet(1.0 - 1e-9, &mut hint).unwrap();
+        assert!((before.ddv - 1.0).abs() < 1e-6);
+        assert!(HermiteUvCurve::new(vec![0.0, 0.0, 1.0], vec![a, a, c]).is_err());
     }
 
     #[test]

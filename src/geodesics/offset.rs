@@ -35,6 +35,10 @@
 //! distance measured between the curve and the offset points of the interval midpoints that
 //! were computed but not kept.
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 use crate::curve::UvCurve;
 use crate::error::{Result, StrakeError};
 use crate::geodesics::trace::{GeodesicEnd, StartDirection, TraceOptions, trace_geodesic};
@@ -158,17 +162,17 @@ impl OffsetOptions {
 
     /// Errors (`InvalidArgument`, naming the field) for a bad option.
     pub fn check(&self) -> Result<()> {
+        if !(self.chord_tolerance.is_finite() && self.chord_tolerance > 0.0) {
+            return Err(StrakeError::InvalidArgument(format!(
+                "chord_tolerance = {} must be positive and finite",
+                self.chord_tolerance
+            )));
+        }
         self.trace.check()?;
         if self.samples < 2 || self.max_samples < self.samples {
             return Err(StrakeError::InvalidArgument(format!(
                 "samples = {} must be at least 2 and max_samples = {} at least samples",
                 self.samples, self.max_samples
-            )));
-        }
-        if !(self.chord_tolerance.is_finite() && self.chord_tolerance > 0.0) {
-            return Err(StrakeError::InvalidArgument(format!(
-                "chord_tolerance = {} must be positive and finite",
-                self.chord_tolerance
             )));
         }
         Ok(())

@@ -6,6 +6,10 @@
 //! surface jets. The unit tests check the order conditions up to order 5 for the fifth-order
 //! weights and up to order 4 for the embedded ones, so a mistyped coefficient cannot pass.
 
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
+
 /// Number of stages.
 pub const STAGES: usize = 7;
 

@@ -21,10 +21,20 @@
 //!   tolerance with a step above its floor (1e-13 of the surface's size) or the step cap is
 //!   used up: never a loop, never a silent wrong curve.
 //!
+//! No step crosses a knot line of the surface ([`SurfaceSource::u_breaks`], `v_breaks`),
+//! where the parametrisation's second derivatives may jump: steps are aimed just short of the
+//! line (by a thousandth of the way) and then onto it, a step that would jump over one is
+//! refused, and the node on the line is doubled so that the curve's second derivative can
+//! jump with the surface's.
+//!
 //! The curve is the quintic Hermite interpolant of the accepted nodes (value, u', v' and the
 //! geodesic acceleration at each), parametrised by arc length: its frame has κg = 0 at the
 //! nodes to the accuracy of the state, and between them to the interpolant's O(h⁴) error in
 //! the second derivative (measured in the tests and `docs/geodesics.md`).
+
+// `!(x > 0.0)` and the like are meant: they refuse NaN too. Index loops follow the formulas
+// (Butcher tableaux, stage sums) term by term.
+#![allow(clippy::neg_cmp_op_on_partial_ord, clippy::needless_range_loop)]
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geodesics::christoffel::geodesic_acceleration;
@@ -167,6 +177,8 @@ struct Tracer<'a, S: SurfaceSource + ?Sized> {
     hi: [f64; 2],
     snap: [f64; 2],
     extent: [f64; 2],
+    /// The surface's knot lines in u and in v (derivatives may jump there).
+    breaks: [Vec<f64>; 2],
     jets: usize,
 }
 
@@ -210,7 +222,18 @@ impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
         let mut best = f64::INFINITY;
         for k in 0..2 {
             let (x, d, a) = (y[k], f[k], 0.5 * f[k + 2]);
-            for b in [self.lo[k], self.hi[k]] {
+            // Knot lines are aimed at just short of them (by a thousandth of the way), so that
+            // no stage of the step lands on the far side; the last approach is within the
+            // snap distance after a few such steps.
+            let lines = self.breaks[k]
+                .iter()
+                .copied()
+                .filter(|b| (x - b).abs() > self.snap[k])
+                .map(|b| (b, 0.999));
+            for (b, aim) in [(self.lo[k], 1.0), (self.hi[k], 1.0)]
+                .into_iter()
+                .chain(lines)
+            {
                 // a s² + d s + (x − b) = 0
                 let c = x - b;
                 let roots = if a.abs() <= 1e-300 || (a * c).abs() < 1e-12 * d * d {
@@ -231,14 +254,46 @@ impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
                     }
                 };
                 for r in roots {
-                    if r > 0.0 && r < best {
-                        best = r;
+                    if r > 0.0 && aim * r < best {
+                        best = aim * r;
                     }
                 }
             }
         }
         best
     }
+}
+
+impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
+    /// True when the step from `a` to `b` crosses a knot line by more than the snap distance
+    /// on both sides.
+    fn jumps_a_break(&self, a: &[f64; 4], b: &[f64; 4]) -> bool {
+        (0..2).any(|k| {
+            self.breaks[k].iter().any(|&l| {
+                let (x0, x1) = (a[k] - l, b[k] - l);
+                x0.abs() > self.snap[k] && x1.abs() > self.snap[k] && (x0 > 0.0) != (x1 > 0.0)
+            })
+        })
+    }
+}
+
+/// Appends the node of an accepted step at arc length `s`, or, when the step is below a
+/// thousandth of the last segment (the last approaches to the boundary or to a knot line),
+/// moves the last node there instead: segments that short would leave the curve's parameter
+/// at the rounding level of the arc length. Not across a doubled node (a knot line).
+pub(crate) fn push_node(knots: &mut Vec<f64>, nodes: &mut Vec<CurveJet>, s: f64, node: CurveJet) {
+    let n = knots.len();
+    if n >= 2 {
+        let last = knots[n - 1] - knots[n - 2];
+        let doubled = n >= 3 && knots[n - 2] == knots[n - 3];
+        if last > 0.0 && !doubled && s - knots[n - 1] < 1e-3 * last {
+            knots[n - 1] = s;
+            nodes[n - 1] = node;
+            return;
+        }
+    }
+    knots.push(s);
+    nodes.push(node);
 }
 
 /// The unit parameter velocity (u', v') (|Su u' + Sv v'| = 1) of a start direction at a
@@ -335,6 +390,7 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
         hi: [ud.hi, vd.hi],
         snap: [1e-11 * ud.width(), 1e-11 * vd.width()],
         extent: [ud.width(), vd.width()],
+        breaks: [surface.u_breaks().to_vec(), surface.v_breaks().to_vec()],
         jets: 1,
     };
     for (k, (x, d)) in [(u, p), (v, q)].into_iter().enumerate() {
@@ -449,6 +505,13 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
             y5[c] += hs * a5;
             d[c] = hs * ae;
         }
+        if tr.jumps_a_break(&y, &y5) {
+            // A step must not straddle a knot line: aim again (the reach includes them).
+            stats.rejected += 1;
+            just_rejected = true;
+            h = 0.7 * hs;
+            continue;
+        }
         let pos = (last_jet.su * d[0] + last_jet.sv * d[1]).norm();
         let dir_err = (last_jet.su * d[2] + last_jet.sv * d[3]).norm();
         let err = pos.max(hs * dir_err);
@@ -498,9 +561,45 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
             };
         just_rejected = false;
         s = s_new;
+        let y_before = y;
         y = y5;
         f = k[rk::STAGES - 1];
         jet = last_jet;
+        // Onto a knot line, exactly, when the step landed there: the node is doubled, the
+        // second copy with the derivatives of the far side.
+        let mut far_side = None;
+        for c in 0..2 {
+            for bi in 0..tr.breaks[c].len() {
+                let b = tr.breaks[c][bi];
+                if (y[c] - b).abs() <= tr.snap[c] && (y_before[c] - b).abs() > tr.snap[c] {
+                    y[c] = b;
+                    let mut probe = y;
+                    let dir = if y[c + 2] >= 0.0 { 1.0 } else { -1.0 };
+                    probe[c] = (b + dir * 1e-13 * tr.extent[c]).clamp(tr.lo[c], tr.hi[c]);
+                    if let Ok((fb, jb)) = tr.eval(&probe)? {
+                        far_side = Some((fb, jb));
+                    }
+                }
+            }
+        }
+        let doubled_here = far_side.is_some();
+        if let Some((fb, jb)) = far_side {
+            push_node(
+                &mut knots,
+                &mut nodes,
+                s,
+                CurveJet {
+                    u: y[0],
+                    v: y[1],
+                    du: y[2],
+                    dv: y[3],
+                    ddu: f[2],
+                    ddv: f[3],
+                },
+            );
+            f = [y[2], y[3], fb[2], fb[3]];
+            jet = jb;
+        }
         // Onto the boundary, exactly, once within the snap distance and heading out.
         let mut side = None;
         for c in 0..2 {
@@ -526,15 +625,21 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
                 jet = jb;
             }
         }
-        knots.push(s);
-        nodes.push(CurveJet {
+        let node = CurveJet {
             u: y[0],
             v: y[1],
             du: y[2],
             dv: y[3],
             ddu: f[2],
             ddv: f[3],
-        });
+        };
+        if doubled_here {
+            // The far side's copy of the node on the knot line: always a node of its own.
+            knots.push(s);
+            nodes.push(node);
+        } else {
+            push_node(&mut knots, &mut nodes, s, node);
+        }
         if let Some(side) = side {
             end = GeodesicEnd::Boundary(side);
             break;
