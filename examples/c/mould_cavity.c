@@ -651,6 +651,9 @@ static int plan_cavity_passes(int raw, const StrakeSurface *surface, const Strak
                "   the meeting of the two balls' swept tubes; the strip at the edge is not measured)\n");
     }
     return 0;
+}
+
+/* ----------------------------------------------------------------------------------------- */
 /* Courses across the wing skin: natural (geodesic) courses laid one tow band apart at their  */
 /* start, the gaps and overlaps they leave, and the parallel course that leaves none.        */
 

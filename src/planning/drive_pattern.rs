@@ -416,7 +416,7 @@ impl<'a, S: SurfaceSource + ?Sized> RayCaster<'a, S> {
             let (su, sv) = (jet.su, jet.sv);
             let c = su.cross(&sv);
             let det = -c.dot(&d);
-            if !(det.abs() > 1e-12 * c.norm()) {
+            if det.is_nan() || det.abs() <= 1e-12 * c.norm() {
                 return Ok(None);
             }
             let rhs = -f;
@@ -582,7 +582,7 @@ fn barycentric(p: [f64; 2], a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> Option<[f6
     let scale =
         ((b[0] - a[0]).abs() + (c[0] - a[0]).abs() + (b[1] - a[1]).abs() + (c[1] - a[1]).abs())
             .powi(2);
-    if !(det.abs() > 1e-14 * scale) {
+    if det.is_nan() || det.abs() <= 1e-14 * scale {
         return None;
     }
     let wb = ((p[0] - a[0]) * (c[1] - a[1]) - (c[0] - a[0]) * (p[1] - a[1])) / det;

@@ -59,7 +59,7 @@ pub fn parallel_lines(
             (a.min(o), b.max(o))
         });
     let count = ((ohi - olo) / spacing).floor();
-    if !(count < MAX_LINES as f64) {
+    if count.is_nan() || count >= MAX_LINES as f64 {
         return Err(StrakeError::InvalidArgument(format!(
             "line spacing = {spacing} gives more than {MAX_LINES} lines across the rectangle"
         )));
@@ -84,7 +84,7 @@ pub fn parallel_lines(
             a0 = a0.max(t0.min(t1));
             a1 = a1.min(t0.max(t1));
         }
-        if !(a1 > a0 + 1e-12 * spacing) {
+        if a0.is_nan() || a1.is_nan() || a1 <= a0 + 1e-12 * spacing {
             continue;
         }
         let (p0, p1) = ([fx + c * a0, fy + s * a0], [fx + c * a1, fy + s * a1]);

@@ -102,7 +102,7 @@ impl<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CentrePath<'_, S, C> {
                 best = (d, t);
             }
             let den = dc.norm_squared();
-            if !(den > 0.0) {
+            if den.is_nan() || den <= 0.0 {
                 break;
             }
             let tn = (t - r.dot(&dc) / den).clamp(dom.lo, dom.hi);
