@@ -604,9 +604,12 @@ typedef struct StrakeCutter {
  * Lead and tilt angles of the tool axis (radians, each strictly inside (-pi/2, pi/2)).
  *
  * The axis a (from the cutter tip toward the spindle) is
- * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, with n_t = N when the
- * tool is on the N side and -N otherwise: lead leans the axis from the tool-side normal toward
- * the feed direction T, tilt then toward B. Both 0: the axis along the tool-side normal.
+ * a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t, in the tool-side frame:
+ * n_t = N when the tool is on the N side and -N otherwise, b_t = n_t x T (B on the N side, -B
+ * on the other): lead leans the axis from the tool-side normal toward the feed direction T,
+ * tilt then toward b_t, the left of travel seen from the tool, whichever side it is on. Both
+ * 0: the axis along the tool-side normal. (Changed: tilt used to lean toward B on both
+ * sides.)
  */
 typedef struct StrakeToolAngles {
   /**
@@ -614,7 +617,7 @@ typedef struct StrakeToolAngles {
    */
   double lead;
   /**
-   * Tilt angle (radians): toward the side direction B.
+   * Tilt angle (radians): toward b_t = n_t x T (left of travel seen from the tool).
    */
   double tilt;
 } StrakeToolAngles;
@@ -638,7 +641,9 @@ typedef struct StrakeGougeState {
   /**
    * Effective cutting radius across the direction in which the axis is inclined by beta
    * from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
-   * INFINITY for a flat or toroidal cutter with its axis along the normal).
+   * INFINITY for a flat or toroidal cutter with its axis along the normal). Across the path
+   * only for pure lead: scallop and step-over need `StrakeCutterRadii.across_path`
+   * (`strake_cutter_radii`).
    */
   double effective_radius_cross;
   /**
@@ -652,16 +657,20 @@ typedef struct StrakeGougeState {
    */
   double margin;
   /**
-   * 1 when the cutter gouges locally (margin below zero beyond round-off), else 0.
+   * 1 when the cutter gouges locally (margin below zero beyond round-off) or at the rear
+   * (the bottom or the heel inside the material, see `strake_check_rear_gouge`), else 0.
+   * (Changed: it used to see local gouging only.)
    */
   int32_t gouges;
   /**
-   * 1 when some lead angle in [0, pi/2) avoids local gouging at the given tilt; 0 when none
-   * does (the cutter is too large for the concavity whatever its inclination).
+   * 1 when some lead angle in [0, pi/2) avoids local and rear gouging at the given tilt; 0
+   * when none does (the cutter is too large for the concavity whatever its inclination).
    */
   int32_t has_min_lead;
   /**
-   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise.
+   * The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise. (Changed:
+   * it used to avoid local gouging only, which let the heel of a flat or toroidal cutter
+   * into the material.)
    */
   double min_lead;
 } StrakeGougeState;
@@ -754,7 +763,9 @@ typedef struct StrakeFibreState {
    */
   double steering_radius;
   /**
-   * Tow-edge strain (w/2)|kg| (dimensionless): one edge stretched, the other compressed.
+   * The larger tow-edge strain magnitude, max(|e_left|, |e_right|) of `StrakeTowEdges`
+   * (dimensionless), including the Gaussian-curvature term. (Changed: it was (w/2)|kg|,
+   * which reads 0 along a great circle of a sphere where both edges shorten.)
    */
   double edge_strain;
   /**
@@ -774,12 +785,17 @@ typedef struct StrakeFibreState {
 
 /**
  * The tool axis at one sample (unit vector from the cutter tip toward the spindle).
+ *
+ * Changed: the components were along (T, B, N) in a field `darboux`; they are now along the
+ * tool-side frame (T, b_t, n_t) in `local` (n_t = N and b_t = B on the N side, n_t = -N and
+ * b_t = -B on the other side), and the tilt leans toward b_t.
  */
 typedef struct StrakeToolAxis {
   /**
-   * Components along (T, B, N) of the sample's frame (along N, not the tool-side normal).
+   * Components along the tool-side frame (T, b_t, n_t): (sin(lead), cos(lead) sin(tilt),
+   * cos(lead) cos(tilt)).
    */
-  double darboux[3];
+  double local[3];
   /**
    * The axis in space: the three components above times T, B and N, summed.
    */
@@ -877,6 +893,129 @@ typedef struct StrakeViolation {
    */
   double worst;
 } StrakeViolation;
+
+/**
+ * The cutter's radii of curvature at its contact point for given lead and tilt (host length
+ * unit), from `strake_cutter_radii`.
+ */
+typedef struct StrakeCutterRadii {
+  /**
+   * Radius of the profile the cutter sweeps across the path (the outline of the cutter seen
+   * along T, at the contact point): r + R sin(lead)^2 / sin(beta)^3, the radius scallop and
+   * step-over need. r for a ball; INFINITY for a flat or toroidal cutter upright (its flat
+   * bottom touches); 0 for a flat cutter tilted without lead (its sharp corner cuts across).
+   */
+  double across_path;
+  /**
+   * Radius of the cutter's normal section in the direction b_t (Euler's formula on the
+   * torus's principal curvatures 1/r and sin(beta)/(R + r sin(beta))).
+   */
+  double across_section;
+  /**
+   * Radius of the cutter's normal section along T.
+   */
+  double along_path;
+  /**
+   * R/sin(beta) + r: normal to the inclination plane (across the path only for pure lead).
+   */
+  double inclination_plane;
+  /**
+   * Inclination beta of the axis from the tool-side normal (radians).
+   */
+  double inclination;
+  /**
+   * 1 when the flat bottom (centred on the axis), not the corner, touches: R > 0 and the
+   * axis along the normal; else 0.
+   */
+  int32_t flat_bottom_contact;
+} StrakeCutterRadii;
+
+/**
+ * Rear (heel) gouging of a flat or toroidal cutter's bottom at one sample.
+ */
+typedef struct StrakeRearGouge {
+  /**
+   * Smallest normalised clearance of the bottom's rim over the surface (dimensionless, like
+   * a sine; negative: inside the material). 1 for a ball-end mill; -DBL_MAX when the corner
+   * does not fit the concavity (the cutter gouges locally anyway).
+   */
+  double margin;
+  /**
+   * Depth of the deepest rim point inside the material (host length unit; 0 when clear).
+   */
+  double depth;
+  /**
+   * Rim angle of the worst point (radians; 0 at the contact point, pi at the heel).
+   */
+  double worst_angle;
+  /**
+   * 1 when the bottom or the heel is inside the material, else 0.
+   */
+  int32_t gouges;
+} StrakeRearGouge;
+
+/**
+ * The strain of the two edges of a tow or tape centred on a course at one sample
+ * (dimensionless; negative = compressed, relative to the centreline).
+ */
+typedef struct StrakeTowEdges {
+  /**
+   * Left edge (y = +w/2, on the B side): -kg w/2 - K w^2/8.
+   */
+  double left;
+  /**
+   * Right edge (y = -w/2): +kg w/2 - K w^2/8.
+   */
+  double right;
+  /**
+   * Steering part (w/2)|kg|.
+   */
+  double steering_term;
+  /**
+   * Gaussian-curvature part -K w^2/8 (both edges).
+   */
+  double gaussian_term;
+  /**
+   * 1 when the left edge is compressed, else 0.
+   */
+  int32_t left_compressed;
+  /**
+   * 1 when the right edge is compressed, else 0.
+   */
+  int32_t right_compressed;
+} StrakeTowEdges;
+
+/**
+ * The step-over for a target scallop height with a given cutter and axis at one sample (host
+ * length unit), from `strake_check_step_over_cutter`.
+ */
+typedef struct StrakeCutterStepOver {
+  /**
+   * Curvature across the path, concave toward the tool (as in `StrakeScallop`).
+   */
+  double cross_curvature;
+  /**
+   * The step-over to use: min(model, width_limit).
+   */
+  double step_over;
+  /**
+   * Circle-geometry step-over for the swept profile's radius across the path (INFINITY when
+   * that model sets no limit: a flat bottom on a plane, a sharp corner).
+   */
+  double model;
+  /**
+   * The width the cutter cuts at the scallop height (exact on a plane).
+   */
+  double width_limit;
+  /**
+   * The radius across the path used by the model.
+   */
+  double radius_across;
+  /**
+   * 1 when the width limit set the step-over, else 0.
+   */
+  int32_t limited_by_width;
+} StrakeCutterStepOver;
 
 /**
  * Options of a geodesic trace or of the geodesic between two points.
@@ -1543,9 +1682,12 @@ StrakeStatus strake_surface_from_batch_callback(StrakeSurfaceBatchFn f,
  * in every tangent direction, it bends away from the surface at least as fast as the surface
  * bends toward it. For a ball-end mill of radius r this is r max(s k1, s k2) <= 1: the largest
  * ball free of local gouging has the radius `out->concave_radius`. For flat and toroidal
- * cutters the effective radius across the inclination is R/sin(beta) + r (beta the axis's
- * inclination from the tool-side normal), and `out->min_lead` is the smallest lead angle (at
- * the given tilt) that avoids local gouging.
+ * cutters the effective radius across the inclination plane is R/sin(beta) + r (beta the
+ * axis's inclination from the tool-side normal; across the path only for pure lead, see
+ * `strake_cutter_radii`). `out->gouges` also covers rear gouging (the bottom and the heel,
+ * `strake_check_rear_gouge`), and `out->min_lead` is the smallest lead angle (at the given
+ * tilt) that avoids local and rear gouging together. (Changed: both used to see local
+ * gouging only.)
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
  * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field, named);
@@ -1566,8 +1708,10 @@ StrakeStatus strake_check_gouge(const struct StrakeFrame *frame,
  * The scallop height left at the sample `frame` between this pass and an adjacent one a
  * step-over `step_over` away (arc length across the path), for a cutter of radius
  * `cutter_radius` across the path (the ball radius of a ball-end mill; for flat and toroidal
- * cutters their effective radius across the path, a common approximation), with the tool on
- * `tool_side`.
+ * cutters the radius of the profile they sweep across the path,
+ * `StrakeCutterRadii.across_path` from `strake_cutter_radii`, not the inclination-plane
+ * radius `effective_radius_cross`), with the tool on `tool_side`.
+ * `strake_check_step_over_cutter` also limits the step-over by the width the cutter cuts.
  *
  * In the plane across the path the surface is its osculating circle of curvature
  * kappa = s kn(B) (`out->cross_curvature`, concave toward the tool when positive). Exact
@@ -1592,8 +1736,10 @@ StrakeStatus strake_check_scallop(const struct StrakeFrame *frame,
 /**
  * The largest step-over (arc length across the path) that keeps the scallop height at the
  * sample `frame` at or below `scallop_height`, for a cutter of radius `cutter_radius` across
- * the path, with the tool on `tool_side`: the inverse of `strake_check_scallop` (on a plane
- * w = 2 sqrt(h (2r - h))). `out->step_over_approx` = sqrt(8 h / (1/r - kappa)).
+ * the path (`StrakeCutterRadii.across_path` for flat and toroidal cutters), with the tool on
+ * `tool_side`: the inverse of `strake_check_scallop` (on a plane w = 2 sqrt(h (2r - h))).
+ * `out->step_over_approx` = sqrt(8 h / (1/r - kappa)). Not limited by the width the cutter
+ * cuts: use `strake_check_step_over_cutter` for that.
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
  * `strake_check_scallop`, with `scallop_height` required positive and finite and reachable
@@ -1630,13 +1776,16 @@ StrakeStatus strake_check_feed(const struct StrakeFrame *frame,
 
 /**
  * Steering and twist of a fibre course at the sample `frame`: steering curvature |kg| and
- * radius 1/|kg| (INFINITY along a geodesic), tow-edge strain (w/2)|kg| for the tow width w,
+ * radius 1/|kg| (INFINITY along a geodesic), the larger tow-edge strain magnitude including
+ * the Gaussian-curvature term (`strake_check_tow_edges`; was (w/2)|kg| alone) for the tow
+ * width w,
  * twist rate tg (radians per length: the tangent plane turns about the course at that rate,
  * and the tow or the compaction roller with it), and whether the limits are exceeded.
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
  * NULL_POINTER (`frame`, `limits`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length, a limit not positive and finite, named). Thread-safe.
+ * frame vector not unit length, a limit not positive and finite, named; NON_FINITE for an
+ * edge strain that overflows). Thread-safe.
  *
  * # Safety
  * Each pointer NULL or valid for its type; `out` writable.
@@ -1647,13 +1796,17 @@ StrakeStatus strake_check_fibre(const struct StrakeFrame *frame,
 
 /**
  * The tool axis at the sample `frame` for lead and tilt `angles` with the tool on `tool_side`:
- * a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, n_t = N on the N side and
- * -N otherwise (unit vector from the cutter tip toward the spindle).
+ * a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t in the tool-side frame,
+ * n_t = N on the N side and -N otherwise, b_t = n_t x T (unit vector from the cutter tip
+ * toward the spindle; `out->local` its components along (T, b_t, n_t), `out->space` the unit
+ * vector). A positive tilt leans the axis to the left of travel seen from the tool on either
+ * side. (Changed: tilt used to lean toward B on both sides, and the components were along
+ * (T, B, N).) The frame's T and N are re-orthonormalised, so the axis is unit to round-off.
  *
  * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
  * NULL_POINTER (`frame`, `angles`, `out`); NON_FINITE (a frame field); INVALID_ARGUMENT (a
- * frame vector not unit length, `tool_side` not 0 or 1, an angle outside (-pi/2, pi/2)).
- * Thread-safe.
+ * frame vector not unit length, tangent and normal not orthogonal to 1e-6, `tool_side` not 0
+ * or 1, an angle outside (-pi/2, pi/2)). Thread-safe.
  *
  * # Safety
  * Each pointer NULL or valid for its type; `out` writable.
@@ -1712,6 +1865,205 @@ StrakeStatus strake_path_violations(const struct StrakeSample *samples,
                                     struct StrakeViolation *buf,
                                     size_t capacity,
                                     size_t *count);
+
+/**
+ * The cutter's radii of curvature at its contact point for the axis set by `angles` (lead
+ * toward T, tilt toward b_t, see `StrakeToolAngles`); pure cutter geometry, no frame needed.
+ *
+ * `out->across_path` is the radius of the profile the cutter sweeps across the path (the
+ * outline of the cutter seen along the feed direction, at the contact point):
+ * r + R sin(lead)^2 / sin(beta)^3 with R the major and r the corner radius of the cutter's
+ * torus (see `StrakeCutter`) and beta the inclination, cos(beta) = cos(lead) cos(tilt). This
+ * is the radius to pass as `cutter_radius` to `strake_check_scallop` and
+ * `strake_check_step_over` for flat and toroidal cutters; not `effective_radius_cross` of
+ * `StrakeGougeState`, which is across the inclination plane (a 5/1 mm toroidal cutter at 10
+ * degrees of tilt: 24.0 mm there, 1 mm across the path). Host length unit.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`cutter`, `angles`, `out`); INVALID_ARGUMENT (an unknown `cutter->kind`, a
+ * radius not positive and finite or subnormal, a corner radius above the radius, an angle
+ * outside (-pi/2, pi/2)). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_cutter_radii(const struct StrakeCutter *cutter,
+                                 const struct StrakeToolAngles *angles,
+                                 struct StrakeCutterRadii *out);
+
+/**
+ * Rear (heel) gouging of a flat or toroidal cutter at the sample `frame`: whether the rest of
+ * its bottom, up to the heel, stays out of the material when the front touches. The cutter is
+ * the solid swept by a disc of radius R and a ball of radius r, so it stays out exactly when
+ * the disc of corner-circle centres stays on the tool side of the surface offset by r; the
+ * disc's rim is checked against that offset surface at second order in every direction and
+ * with the exact osculating arc (exact on a circular arc concave along the feed: a flat
+ * cutter of radius 5 around a concave arc of radius 20 needs asin(5/20) = 14.48 degrees of
+ * lead). With the axis along the normal the flat bottom touches (centred on the axis). A
+ * ball-end mill has no bottom (`margin` 1, never gouges here).
+ *
+ * What it does not see: the holder and shank, the flank above the corner, the cutter against
+ * the part away from this sample, the surface between samples.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: as for
+ * `strake_check_gouge`, and INVALID_ARGUMENT for a frame whose tangent and normal are not
+ * orthogonal to 1e-6. Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_rear_gouge(const struct StrakeFrame *frame,
+                                     uint32_t tool_side,
+                                     const struct StrakeCutter *cutter,
+                                     const struct StrakeToolAngles *angles,
+                                     struct StrakeRearGouge *out);
+
+/**
+ * The strain of the two edges of a tow or tape of width `tow_width` centred on the course at
+ * the sample `frame`: e(y) = -kg y - K y^2/2 at y = +w/2 (left of travel, the B side) and
+ * y = -w/2 (right), K the Gaussian curvature (second order in w: the edges are geodesic
+ * parallels of the course). Negative = compressed; which edge is compressed is reported. A
+ * 150 mm tape along a great circle of a 1 m sphere: both edges at -0.28 %.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `out`); NON_FINITE (a frame field; or a strain that overflows, e.g.
+ * a width of 1e300); INVALID_ARGUMENT (a frame vector not unit length, `tow_width` not
+ * positive and finite). Thread-safe.
+ *
+ * # Safety
+ * `frame` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_check_tow_edges(const struct StrakeFrame *frame,
+                                    double tow_width,
+                                    struct StrakeTowEdges *out);
+
+/**
+ * The largest step-over at the sample `frame` that keeps the scallop height at or below
+ * `scallop_height`, for `cutter` with its axis set by `angles`, with the tool on `tool_side`:
+ * the circle model of `strake_check_step_over` with the radius of the profile the cutter
+ * sweeps across the path (`StrakeCutterRadii.across_path`), limited by the width the cutter
+ * actually cuts at that height (exact on a plane; conservative on a surface concave across
+ * the path). A flat 10 mm cutter at 5 degrees of lead and a 0.5 mm scallop: 10 mm, not the
+ * model's 15.1 mm.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`frame`, `cutter`, `angles`, `out`); NON_FINITE (a frame field);
+ * INVALID_ARGUMENT (as for `strake_check_gouge`, and `scallop_height` not positive and finite
+ * or unreachable, a cross-section the cutter's profile does not fit). Thread-safe.
+ *
+ * # Safety
+ * Each pointer NULL or valid for its type; `out` writable.
+ */
+StrakeStatus strake_check_step_over_cutter(const struct StrakeFrame *frame,
+                                           uint32_t tool_side,
+                                           const struct StrakeCutter *cutter,
+                                           const struct StrakeToolAngles *angles,
+                                           double scallop_height,
+                                           struct StrakeCutterStepOver *out);
+
+/**
+ * `strake_check_gouge` at every sample of a path (see the note above the path functions).
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `cutter`, `angles` NULL or valid; `out`
+ * NULL or room for `sample_count` results.
+ */
+StrakeStatus strake_check_gouge_path(const struct StrakeSample *samples,
+                                     size_t sample_count,
+                                     uint32_t tool_side,
+                                     const struct StrakeCutter *cutter,
+                                     const struct StrakeToolAngles *angles,
+                                     struct StrakeGougeState *out);
+
+/**
+ * `strake_check_rear_gouge` at every sample of a path.
+ *
+ * # Safety
+ * As for `strake_check_gouge_path`.
+ */
+StrakeStatus strake_check_rear_gouge_path(const struct StrakeSample *samples,
+                                          size_t sample_count,
+                                          uint32_t tool_side,
+                                          const struct StrakeCutter *cutter,
+                                          const struct StrakeToolAngles *angles,
+                                          struct StrakeRearGouge *out);
+
+/**
+ * `strake_check_scallop` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `out` NULL or room for `sample_count`
+ * results.
+ */
+StrakeStatus strake_check_scallop_path(const struct StrakeSample *samples,
+                                       size_t sample_count,
+                                       uint32_t tool_side,
+                                       double cutter_radius,
+                                       double step_over,
+                                       struct StrakeScallop *out);
+
+/**
+ * `strake_check_step_over_cutter` at every sample of a path.
+ *
+ * # Safety
+ * As for `strake_check_gouge_path`.
+ */
+StrakeStatus strake_check_step_over_cutter_path(const struct StrakeSample *samples,
+                                                size_t sample_count,
+                                                uint32_t tool_side,
+                                                const struct StrakeCutter *cutter,
+                                                const struct StrakeToolAngles *angles,
+                                                double scallop_height,
+                                                struct StrakeCutterStepOver *out);
+
+/**
+ * `strake_check_feed` at every sample of a path: `out[i]` the highest feed at sample i.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `limits` NULL or valid; `out` NULL or room
+ * for `sample_count` doubles.
+ */
+StrakeStatus strake_check_feed_path(const struct StrakeSample *samples,
+                                    size_t sample_count,
+                                    const struct StrakeFeedLimits *limits,
+                                    double *out);
+
+/**
+ * `strake_check_fibre` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `limits` NULL or valid; `out` NULL or room
+ * for `sample_count` results.
+ */
+StrakeStatus strake_check_fibre_path(const struct StrakeSample *samples,
+                                     size_t sample_count,
+                                     const struct StrakeFibreLimits *limits,
+                                     struct StrakeFibreState *out);
+
+/**
+ * `strake_check_tow_edges` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `out` NULL or room for `sample_count`
+ * results.
+ */
+StrakeStatus strake_check_tow_edges_path(const struct StrakeSample *samples,
+                                         size_t sample_count,
+                                         double tow_width,
+                                         struct StrakeTowEdges *out);
+
+/**
+ * `strake_tool_axis` at every sample of a path.
+ *
+ * # Safety
+ * `samples` NULL or `sample_count` valid samples; `angles` NULL or valid; `out` NULL or room
+ * for `sample_count` results.
+ */
+StrakeStatus strake_tool_axis_path(const struct StrakeSample *samples,
+                                   size_t sample_count,
+                                   uint32_t tool_side,
+                                   const struct StrakeToolAngles *angles,
+                                   struct StrakeToolAxis *out);
 
 /**
  * A fixed-angle course from (u, v): its unit tangent keeps the angle `angle` (radians) to the

@@ -150,6 +150,14 @@ pub enum StrakeError {
         /// The host's own code, passed back unchanged.
         code: i32,
     },
+    /// A check over a whole path failed at one sample; `error` says why. The C ABI takes the
+    /// status from `error`.
+    AtSample {
+        /// Index of the sample in the caller's array.
+        index: usize,
+        /// What is wrong there.
+        error: Box<StrakeError>,
+    },
     /// A geodesic trace could not go on: its error estimate stayed above the tolerance while
     /// the step shrank to its floor, or it used up its step cap. Never a silent wrong curve.
     GeodesicIncomplete {
@@ -249,6 +257,7 @@ impl fmt::Display for StrakeError {
             StrakeError::Callback { which, code } => {
                 write!(f, "host {which} callback failed with code {code}")
             }
+            StrakeError::AtSample { index, error } => write!(f, "sample {index}: {error}"),
             StrakeError::GeodesicIncomplete {
                 what,
                 arc_length,

@@ -81,6 +81,11 @@ struct Raw {
     /// Per pass of a plan: rule, side, index, row, has parent, parent, length, step-over min,
     /// max, scallop min, max.
     plan_passes: Vec<Vec<f64>>,
+    /// Bull-nose radius, corner radius, lead, tilt, radius across the path, inclination-plane
+    /// radius.
+    rear_setup: Vec<f64>,
+    /// Per sample: t, arc length, rear margin, depth, gouges, has min lead, min lead.
+    rear: Vec<[f64; 7]>,
     /// Courses: band width, start u, v, angle, trace tolerance, gap tolerance.
     plan_setup: Vec<f64>,
     /// Per course: index, start u, v, length, end, side, end u, v.
@@ -153,6 +158,8 @@ fn parse_raw(text: &str) -> Raw {
             "course_sample" => r.course.push(indexed(line, rest, r.course.len())),
             "plan" => r.plans.push(numbers(rest)),
             "plan_pass" => r.plan_passes.push(numbers(rest)),
+            "rear_setup" => r.rear_setup = numbers(rest),
+            "rear_sample" => r.rear.push(indexed(line, rest, r.rear.len())),
             "plan_setup" => r.plan_setup = numbers(rest),
             "plan_course" => r.plan_courses.push(numbers(rest)),
             "plan_gap" => r.plan_gaps.push(numbers(rest)),
@@ -589,7 +596,8 @@ fn rust_wing(w: &[f64]) -> impl strake::SurfaceSource + use<> {
 
 // The fibre course of the demo against the Rust API (the course projected onto the Rust wing
 // skin from the same NURBS data) and against the formulas of the composites trade
-// (REFERENCES.md): steering radius 1/|kg|, tow-edge strain (w/2)|kg|, twist rate tg. The
+// (REFERENCES.md): steering radius 1/|kg|, tow-edge strain (w/2)|kg| plus the Gaussian term,
+// twist rate tg. The
 // samples are evenly spaced in arc length, and the printed intervals are the Rust summaries of
 // the same values.
 #[test]
@@ -633,7 +641,17 @@ fn demo_fibre_course_matches_the_rust_api() {
         let f = pair.frame(t, &mut hints).unwrap();
         let kg = f.geodesic_curvature.abs();
         agree("steering curvature", c_steer, kg, 1e-8, 1e-3);
-        agree("edge strain", c_strain, 0.5 * tow * kg, 1e-8, 1e-3);
+        // Edge strain: the larger of |−kg y − K y²/2| at y = ±w/2 (geodesic parallels,
+        // REFERENCES.md; the steering part alone is (w/2)|kg|).
+        let (y, gauss) = (0.5 * tow, f.principal.k1 * f.principal.k2);
+        let edge = |y: f64| -f.geodesic_curvature * y - 0.5 * gauss * y * y;
+        agree(
+            "edge strain",
+            c_strain,
+            edge(y).abs().max(edge(-y).abs()),
+            1e-8,
+            1e-3,
+        );
         agree("twist rate", c_twist, f.geodesic_torsion, 1e-8, 1e-4);
         samples.push(PathSample {
             t,
@@ -956,6 +974,54 @@ fn demo_pass_plans_add_up_and_match_the_rust_api() {
     );
 }
 
+// The demo's bull-nose pass (rear gouging, through the _path functions) against the Rust API
+// at the same samples: the rear margin, depth and smallest safe lead sample for sample, the
+// radius across the path r + R sin²λ/sin³β (= r + R/sin λ for pure lead), and the printed
+// heel intervals as the Rust summary of the same margins.
+#[test]
+fn demo_rear_gouge_pass_matches_the_rust_checks() {
+    let raw = raw_output("mould_cavity_rear");
+    let [big, corner, lead, tilt, across, incl] = raw.rear_setup[..] else {
+        panic!("rear_setup has 6 numbers")
+    };
+    let cutter = Cutter::Toroidal {
+        radius: big,
+        corner_radius: corner,
+    };
+    let angles = ToolAngles { lead, tilt };
+    let want_across = corner + (big - corner) / lead.sin();
+    agree("radius across", across, want_across, 1e-12, 0.0);
+    agree("inclination-plane radius", incl, want_across, 1e-12, 0.0);
+    let surface = rust_surface(&raw);
+    let path = rust_pass(&raw, &surface);
+    let pair = CurveOnSurface::new(&surface, &path);
+    let mut hints = Hints::default();
+    let (mut samples, mut deficit) = (Vec::new(), Vec::new());
+    let length = raw.rear.last().unwrap()[1];
+    for r in &raw.rear {
+        let [t, s, margin, depth, gouges, has_lead, min_lead] = *r;
+        let f = pair.frame(t, &mut hints).unwrap();
+        let g = gouge_state(&f, ToolSide::AlongNormal, &cutter, &angles).unwrap();
+        agree("rear margin", margin, g.rear.margin, 1e-7, 1.0);
+        agree("rear depth", depth, g.rear.depth, 1e-7, 1e-3);
+        assert_eq!(gouges != 0.0, g.rear.gouges, "t = {t}");
+        assert_eq!(has_lead != 0.0, g.min_lead.is_some());
+        agree("min lead", min_lead, g.min_lead.unwrap_or(0.0), 1e-6, 1e-3);
+        samples.push(PathSample {
+            t,
+            arc_length: s,
+            frame: f,
+        });
+        deficit.push(-margin);
+    }
+    let mut rust = Vec::new();
+    violations(&samples, &deficit, 0.0, &mut rust).unwrap();
+    assert!(
+        !rust.is_empty(),
+        "the demo's bull-nose pass should rear-gouge somewhere"
+    );
+    same_intervals("rear", &printed(&raw, "rear"), &rust, length);
+}
 // The courses of the demo against the Rust API on the Rust wing skin: the natural courses
 // (geodesics from the printed starts), the gaps and overlaps between neighbours, and the
 // steering of the parallel course. The geodesics themselves are checked against closed forms

@@ -772,7 +772,7 @@ fn fibre_on_a_plane_circle() {
 
 // ---------------------------------------------------------------- tool axis
 
-// a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t (our convention, stated in
+// a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t (our convention, stated in
 // src/checks/tool_axis.rs): with both angles 0 the axis is the tool-side normal.
 #[test]
 fn tool_axis_conventions() {
@@ -783,7 +783,7 @@ fn tool_axis_conventions() {
     unsafe {
         assert_eq!(strake_tool_axis(&f, ALONG, &NO_ANGLES, &mut a), OK);
         assert_eq!(a.space, f.normal);
-        assert_eq!(a.darboux, [0.0, 0.0, 1.0]);
+        assert_eq!(a.local, [0.0, 0.0, 1.0]);
         assert_eq!(strake_tool_axis(&f, AGAINST, &NO_ANGLES, &mut a), OK);
         assert_eq!(a.space, f.normal.map(|x| -x));
         let ang = StrakeToolAngles {
@@ -791,10 +791,10 @@ fn tool_axis_conventions() {
             tilt: -0.2,
         };
         assert_eq!(strake_tool_axis(&f, ALONG, &ang, &mut a), OK);
-        close("along T", a.darboux[0], 0.3f64.sin(), 1e-15, 1.0);
+        close("along T", a.local[0], 0.3f64.sin(), 1e-15, 1.0);
         close(
             "along B",
-            a.darboux[1],
+            a.local[1],
             0.3f64.cos() * (-0.2f64).sin(),
             1e-15,
             1.0,

@@ -830,6 +830,99 @@ static void show_refusals(const StrakeSurface *surface, const StrakeCurve *pass,
     strake_curve_free(never); /* still NULL: nothing was created */
 }
 
+/* ----------------------------------------------------------------------------------------- */
+/* A toroidal pass along the same path: rear (heel) gouging, a whole path per call.           */
+
+#define BULL_RADIUS 5.0  /* 10 mm bull-nose cutter ... */
+#define BULL_CORNER 1.0  /* ... with 1 mm corners */
+#define BULL_LEAD_DEG 3.0 /* lead angle of the pass */
+
+static double negate(double x) { return -x; }
+
+/* The same pass with a bull-nose cutter leaning 3 degrees forward: where its heel (the back of
+ * its flat bottom) dips into the floor, and the smallest lead that would avoid local and rear
+ * gouging there. Every check of the pass is one call for the whole path (the _path functions).
+ * What the checks do not see: the holder and shank, the flank, the cutter against the part
+ * away from each sample, the floor between samples. */
+static int check_rear_gouge(int raw, const StrakeSurface *surface, const StrakeCurve *pass)
+{
+    const StrakeCutter bull = {STRAKE_CUTTER_KIND_TOROIDAL, BULL_RADIUS, BULL_CORNER};
+    const StrakeToolAngles lean = {BULL_LEAD_DEG * 3.14159265358979323846 / 180.0, 0.0};
+    StrakeSample *s = NULL;
+    StrakeRearGouge *rear = NULL;
+    StrakeGougeState *gouge = NULL;
+    double *deficit = NULL;
+    StrakeCutterRadii radii;
+    size_t n = 0, first_guess = 0, i, worst = 0;
+    StrakeStatus status;
+    char label[64];
+    int bad = 0;
+
+    if (sample_chordal(surface, pass, &s, &n, &first_guess) != 0) {
+        return 1;
+    }
+    rear = malloc(n * sizeof *rear);
+    gouge = malloc(n * sizeof *gouge);
+    deficit = malloc(n * sizeof *deficit);
+    if (rear == NULL || gouge == NULL || deficit == NULL) {
+        bad = out_of_memory();
+        goto done;
+    }
+    status = strake_cutter_radii(&bull, &lean, &radii);
+    if (status != STRAKE_STATUS_OK) {
+        bad = fail("strake_cutter_radii", status);
+        goto done;
+    }
+    status = strake_check_rear_gouge_path(s, n, STRAKE_TOOL_SIDE_ALONG_NORMAL, &bull, &lean, rear);
+    if (status != STRAKE_STATUS_OK) {
+        bad = fail("strake_check_rear_gouge_path", status);
+        goto done;
+    }
+    status = strake_check_gouge_path(s, n, STRAKE_TOOL_SIDE_ALONG_NORMAL, &bull, &lean, gouge);
+    if (status != STRAKE_STATUS_OK) {
+        bad = fail("strake_check_gouge_path", status);
+        goto done;
+    }
+    for (i = 0; i < n; i++) {
+        deficit[i] = -rear[i].margin; /* above 0 where the heel is in the material */
+        if (gouge[i].has_min_lead && (!gouge[worst].has_min_lead || gouge[i].min_lead > gouge[worst].min_lead)) {
+            worst = i;
+        }
+    }
+    if (raw) {
+        printf("rear_setup %.17g %.17g %.17g %.17g %.17g %.17g\n", BULL_RADIUS, BULL_CORNER, lean.lead, lean.tilt,
+               radii.across_path, radii.inclination_plane);
+        for (i = 0; i < n; i++) {
+            printf("rear_sample %zu %.17g %.17g %.17g %.17g %d %d %.17g\n", i, s[i].frame.curve_param,
+                   s[i].arc_length, rear[i].margin, rear[i].depth, rear[i].gouges, gouge[i].has_min_lead,
+                   gouge[i].min_lead);
+        }
+    } else {
+        printf("\nThe same pass with a %.0f mm bull-nose cutter (%.0f mm corners) leaning %.0f degrees forward:\n",
+               2.0 * BULL_RADIUS, BULL_CORNER, BULL_LEAD_DEG);
+        printf("  it cuts a profile of radius %.1f mm across the path (%.1f mm across its inclination plane)\n",
+               radii.across_path, radii.inclination_plane);
+        if (gouge[worst].has_min_lead) {
+            printf("  smallest lead free of local and rear gouging everywhere on the pass: %.2f degrees (at s = "
+                   "%.2f mm)\n",
+                   gouge[worst].min_lead * 180.0 / 3.14159265358979323846, s[worst].arc_length);
+        } else {
+            printf("  no lead angle avoids gouging at s = %.2f mm\n", s[worst].arc_length);
+        }
+        printf("\n  Where the heel is in the floor (arc length along the pass, mm):\n");
+    }
+    snprintf(label, sizeof label, "heel gouges at %.0f deg lead", BULL_LEAD_DEG);
+    if (report_violations(raw, "rear", label, "rim margin down to", negate, 3, "", s, deficit, n, 0.0)) {
+        bad = 1;
+    }
+done:
+    free(deficit);
+    free(gouge);
+    free(rear);
+    free(s);
+    return bad;
+}
+
 int main(int argc, char **argv)
 {
     double net[3 * COUNT_U * COUNT_V];
@@ -900,7 +993,8 @@ int main(int argc, char **argv)
                farthest, frames[FRAME_SAMPLES - 1].arc_length);
     }
     bad = bad || report_frames(raw, frames, FRAME_SAMPLES) || check_milling(raw, surface, pass) || check_course(raw) ||
-          plan_cavity_passes(raw, surface, pass) || plan_courses(raw);
+          check_rear_gouge(raw, surface, pass) || plan_cavity_passes(raw, surface, pass) ||
+          plan_courses(raw);
     if (!bad && !raw) {
         show_refusals(surface, pass, points);
     }

@@ -15,17 +15,22 @@ pub mod cutter;
 pub mod feed;
 pub mod fibre;
 pub mod gouge;
+pub mod path;
 pub mod scallop;
 pub mod summary;
 pub mod tool_axis;
 
-pub use cutter::{Cutter, ToolSide};
+pub use cutter::{Cutter, CutterRadii, ToolSide, cut_width, cutter_radii};
 pub use feed::{FeedLimits, curvature_limited_feed};
-pub use fibre::{FibreLimits, FibreState, fibre_state};
-pub use gouge::{GougeState, gouge_state};
+pub use fibre::{FibreLimits, FibreState, TowEdges, fibre_state, tow_edges};
+pub use gouge::{GougeState, RearGouge, gouge_state, rear_gouge};
+pub use path::{
+    ScallopSample, feed_path, fibre_path, gouge_path, rear_gouge_path, scallop_path,
+    step_over_path, tool_axis_path, tow_edges_path,
+};
 pub use scallop::{
-    cross_path_curvature, scallop_height, scallop_height_approx, step_over_for_scallop,
-    step_over_for_scallop_approx,
+    CutterStepOver, cross_path_curvature, scallop_height, scallop_height_approx,
+    step_over_for_cutter, step_over_for_scallop, step_over_for_scallop_approx,
 };
 pub use summary::{Extremes, PathPosition, Violation, extremes, violations};
-pub use tool_axis::{ToolAngles, tool_axis};
+pub use tool_axis::{ToolAngles, ToolAxis, ToolFrame, tool_axis};

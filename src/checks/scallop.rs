@@ -9,6 +9,9 @@
 //! two cutter circles meet (exact circle geometry).
 //!
 //! - Plane (κ = 0): h = r − √(r² − w²/4) (common practice).
+//!
+//! Which plane "across the path" is: the plane through the contact point spanned by b_t and
+//! n_t of the tool-side frame ([`super::tool_axis::ToolFrame`]), i.e. by B and N.
 //! - Curved, ρ = 1/|κ|, θ = w/ρ: the cutter centres lie on the circle of radius ρ ± r concentric
 //!   with the surface's (+ convex, − concave), θ apart; the cusp is on the bisector at distance
 //!   d from the centre, r² = d² + ρc² − 2 d ρc cos(θ/2) with ρc = ρ ± r; h = d − ρ (convex) or
@@ -16,8 +19,17 @@
 //!   Lin & Koren, J. Eng. Ind. 118 (1996) 20–28 (derived here, not copied).
 //! - Approximation: h ≈ (w²/8)(1/r − κ) (convex surfaces, κ < 0, give larger scallops).
 //!
-//! For flat and toroidal cutters, pass their effective cutting radius across the path
-//! (see [`super::Cutter::effective_radius`]) as `r`: a common approximation.
+//! For flat and toroidal cutters, pass the radius of the profile they sweep across the path,
+//! [`super::CutterRadii::across_path`] from [`super::cutter_radii`] (r + R sin²λ/sin³β), as
+//! `r`: the circle of that radius osculates the swept profile at the contact point, so heights
+//! agree to leading order in the step-over. Not [`super::Cutter::effective_radius`]: that is
+//! the radius normal to the inclination plane, across the path only for pure lead (a 5/1 mm
+//! toroidal cutter at 10° tilt: 24 mm there, 1 mm across the path). [`step_over_for_cutter`]
+//! does this and also limits the step-over by the width the cutter actually cuts.
+//!
+//! Scale: every length is divided by r before squaring (and multiplied back), so results keep
+//! their relative accuracy for any r, w and κ whose products are representable (tested from
+//! 1e-300 to 1e300).
 //! Lengths in the host's unit.
 
 use super::cutter::ToolSide;
@@ -53,6 +65,19 @@ fn check(name: &str, x: f64, positive: bool) -> Result<()> {
     }
 }
 
+/// A computed result, refused when it overflowed (a step-over far wider than the cutter).
+fn finite_result(what: &'static str, x: f64) -> Result<f64> {
+    if x.is_finite() {
+        Ok(x)
+    } else {
+        Err(StrakeError::NonFinite {
+            source: crate::error::NonFiniteSource::Result,
+            what,
+            value: x,
+        })
+    }
+}
+
 fn concave_fit(r: f64, kappa: f64) -> Result<()> {
     if kappa * r >= 1.0 {
         return Err(StrakeError::InvalidArgument(format!(
@@ -79,41 +104,49 @@ pub fn scallop_height(r: f64, w: f64, kappa: f64) -> Result<f64> {
             "step-over = {w} is too wide for cutter radius {r}: adjacent passes do not overlap"
         ))
     };
-    if kappa == 0.0 {
-        let q = r * r - 0.25 * w * w;
+    // Work in units of r: w' = w/r, κ' = κ r (no overflow for any representable r).
+    let (w1, k1) = (w / r, kappa * r);
+    let rho = 1.0 / k1.abs();
+    if !rho.is_finite() || k1 == 0.0 {
+        // |κ r| below ~1e-308: the plane's answer is exact to round-off.
+        let q = 1.0 - 0.25 * w1 * w1;
         if q < 0.0 {
             return Err(too_wide());
         }
-        // r − √q, written without cancellation.
-        return Ok(0.25 * w * w / (r + q.sqrt()));
+        return Ok(r * (0.25 * w1 * w1 / (1.0 + q.sqrt())));
     }
-    let rho = 1.0 / kappa.abs();
-    let half = 0.5 * w / rho;
+    let half = 0.5 * w1 / rho;
     if half >= std::f64::consts::FRAC_PI_2 {
         return Err(too_wide());
     }
     let sh = half.sin();
-    if kappa < 0.0 {
-        let rc = rho + r;
-        let q = r * r - (rc * sh).powi(2);
+    let ch = half.cos();
+    // 1 − cos(θ/2) = 2 s2², kept as its two factors: s2² underflows for a nearly flat
+    // cross-section (θ ~ 1e-160) while rc s2 and (ρ + d) s2 stay of order w.
+    let s2 = (0.5 * half).sin();
+    let h1 = if k1 < 0.0 {
+        let rc = rho + 1.0;
+        let q = (1.0 - rc * sh) * (1.0 + rc * sh);
         if q < 0.0 {
             return Err(too_wide());
         }
-        // d = rc cos(θ/2) − √q (the intersection nearer the surface); h = d − ρ, rearranged as
-        // (r − √q) − rc (1 − cos(θ/2)) with r − √q = (rc sin(θ/2))²/(r + √q), free of
-        // cancellation for small step-overs.
-        let one_minus_cos = 2.0 * (0.5 * half).sin().powi(2);
-        Ok((rc * sh).powi(2) / (r + q.sqrt()) - rc * one_minus_cos)
+        let sq = q.sqrt();
+        // The cusp nearer the surface is at d = rc cos(θ/2) − √q from the centre, and
+        // h = d − ρ. Without cancellation (r ≫ ρ made the direct forms lose every digit):
+        // d = (rc² − 1)/(rc cos(θ/2) + √q) = ρ (ρ + 2)/(rc cos(θ/2) + √q), and
+        // h = rc (1 − cos(θ/2)) (ρ + d)/(1 + √q) (from 1 − q = rc² sin²(θ/2)).
+        let d = rho * ((rho + 2.0) / (rc * ch + sq));
+        2.0 * (rc * s2) * (((rho + d) * s2) / (1.0 + sq))
     } else {
-        let rc = rho - r;
-        let q = r * r - (rc * sh).powi(2);
+        let rc = rho - 1.0;
+        let q = (1.0 - rc * sh) * (1.0 + rc * sh);
         if q < 0.0 {
             return Err(too_wide());
         }
-        // d = rc cos(θ/2) + √q; h = ρ − d = (r − √q) + rc (1 − cos(θ/2)).
-        let one_minus_cos = 2.0 * (0.5 * half).sin().powi(2);
-        Ok((rc * sh).powi(2) / (r + q.sqrt()) + rc * one_minus_cos)
-    }
+        // d = rc cos(θ/2) + √q; h = ρ − d = (1 − √q) + rc (1 − cos(θ/2)), both terms ≥ 0.
+        (rc * sh) * (rc * sh) / (1.0 + q.sqrt()) + 2.0 * (rc * s2) * s2
+    };
+    Ok(r * h1)
 }
 
 /// The common approximation h ≈ (w²/8)(1/r − κ) (same arguments and sign as
@@ -123,7 +156,9 @@ pub fn scallop_height_approx(r: f64, w: f64, kappa: f64) -> Result<f64> {
     check("step-over", w, true)?;
     check("cross-path curvature", kappa, false)?;
     concave_fit(r, kappa)?;
-    Ok(w * w / 8.0 * (1.0 / r - kappa))
+    // (w/8)(w/r)(1 − κ r): no square of a length, so no overflow at extreme scales.
+    let h = (w / 8.0) * (w / r) * (1.0 - kappa * r);
+    finite_result("approximate scallop height", h)
 }
 
 /// The largest step-over (arc length across the path) that keeps the exact scallop height at
@@ -141,30 +176,36 @@ pub fn step_over_for_scallop(r: f64, h: f64, kappa: f64) -> Result<f64> {
             "scallop height = {h} is not reachable with cutter radius {r} on this curvature"
         ))
     };
-    if kappa == 0.0 {
-        if h > r {
+    // Work in units of r (see the module docs).
+    let (h1, k1) = (h / r, kappa * r);
+    let rho = 1.0 / k1.abs();
+    if k1 == 0.0 || !rho.is_finite() {
+        if h1 > 1.0 {
             return Err(too_high());
         }
-        return Ok(2.0 * (h * (2.0 * r - h)).sqrt());
+        return Ok(r * (2.0 * (h1 * (2.0 - h1)).sqrt()));
     }
-    let rho = 1.0 / kappa.abs();
-    // Law of cosines at the cusp, distance d from the centre: cos(θ/2) = (d² + rc² − r²)/(2 d rc).
-    let (d, rc) = if kappa < 0.0 {
-        (rho + h, rho + r)
+    // Law of cosines at the cusp, distance d from the centre: cos(θ/2) = (d² + rc² − 1)/(2 d rc).
+    let (d, rc) = if k1 < 0.0 {
+        (rho + h1, rho + 1.0)
     } else {
-        (rho - h, rho - r)
+        (rho - h1, rho - 1.0)
     };
     if d <= 0.0 {
         return Err(too_high());
     }
-    // 1 − cos(θ/2) = (r² − (d − rc)²)/(2 d rc) = h (2r − h)/(2 d rc), since |d − rc| = |r − h|.
-    let one_minus_cos = h * (2.0 * r - h) / (2.0 * d * rc);
-    if !(0.0..=2.0).contains(&one_minus_cos) {
+    // 1 − cos(θ/2) = (1 − (d − rc)²)/(2 d rc) = h (2 − h)/(2 d rc), since |d − rc| = |1 − h|;
+    // θ/2 = 2 asin(√((1 − cos(θ/2))/2)), with the root taken factor by factor (d rc may be
+    // 1e600 for a nearly flat surface).
+    let num = h1 * (2.0 - h1);
+    if num.is_nan() || num < 0.0 {
         return Err(too_high());
     }
-    let cos_half = 1.0 - one_minus_cos;
-    let sin_half = (one_minus_cos * (2.0 - one_minus_cos)).sqrt();
-    Ok(2.0 * rho * sin_half.atan2(cos_half))
+    let x = num.sqrt() / (2.0 * d.sqrt() * rc.sqrt());
+    if x.is_nan() || x > 1.0 {
+        return Err(too_high());
+    }
+    Ok(r * (4.0 * rho * x.asin()))
 }
 
 /// The approximate inverse w ≈ √(8 h / (1/r − κ)).
@@ -173,5 +214,83 @@ pub fn step_over_for_scallop_approx(r: f64, h: f64, kappa: f64) -> Result<f64> {
     check("scallop height", h, true)?;
     check("cross-path curvature", kappa, false)?;
     concave_fit(r, kappa)?;
-    Ok((8.0 * h / (1.0 / r - kappa)).sqrt())
+    // √(8h) √(r/(1 − κ r)), scaled as above.
+    let w = (8.0 * h).sqrt() * (r / (1.0 - kappa * r)).sqrt();
+    finite_result("approximate step-over", w)
+}
+
+/// The step-over for a target scallop height with a given cutter and axis: see
+/// [`step_over_for_cutter`]. Lengths in the host's unit.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CutterStepOver {
+    /// The step-over to use: the smaller of `model` and `width_limit`.
+    pub step_over: f64,
+    /// The exact circle-geometry step-over of [`step_over_for_scallop`] for the radius of the
+    /// swept profile across the path ([`super::CutterRadii::across_path`]); infinite when that
+    /// radius is infinite on a surface that is flat across the path (a flat bottom leaves no
+    /// scallop of its own), not used (infinite) when it is 0 (a sharp corner cuts across).
+    pub model: f64,
+    /// The width the cutter actually cuts at the scallop height, [`super::cut_width`]: the
+    /// exact step-over on a plane, conservative on a surface concave across the path.
+    pub width_limit: f64,
+    /// The radius across the path used by the model.
+    pub radius_across: f64,
+    /// True when the width limit, not the model, set the step-over.
+    pub limited_by_width: bool,
+}
+
+/// The largest step-over (arc length across the path) that keeps the scallop height at or
+/// below `h` for `cutter` with its axis set by `angles`, on a surface of curvature across the
+/// path `kappa` (= s κn(B), positive concave toward the tool): the circle model of
+/// [`step_over_for_scallop`] with the radius of the profile the cutter sweeps across the path,
+/// limited by the width the cutter cuts at height h ([`super::cut_width`]). A flat 10 mm cutter
+/// at 5° lead and h = 0.5 mm: the model alone says 15.1 mm, the cutter is 10 mm wide.
+///
+/// With a flat bottom touching (R > 0, axis along the normal) the model is the exact line
+/// geometry: no scallop of its own on a plane (model infinite), on a convex cross-section of
+/// radius ρ the tangent lines of adjacent passes meet at h = ρ (1/cos(θ/2) − 1), θ = w/ρ;
+/// a concave cross-section gouges (error).
+///
+/// Errors (`InvalidArgument`): an invalid cutter or angles, `h` not positive and finite,
+/// `kappa` not finite, a cross-section the cutter's profile does not fit (κ ρ_across ≥ 1),
+/// an unreachable height.
+pub fn step_over_for_cutter(
+    cutter: &super::Cutter,
+    angles: &super::ToolAngles,
+    h: f64,
+    kappa: f64,
+) -> Result<CutterStepOver> {
+    check("scallop height", h, true)?;
+    check("cross-path curvature", kappa, false)?;
+    let radii = super::cutter_radii(cutter, angles)?;
+    let rho_c = radii.across_path;
+    let width_limit = super::cut_width(cutter, angles, h)?;
+    let model = if rho_c == 0.0 {
+        f64::INFINITY
+    } else if rho_c.is_infinite() {
+        if kappa > 0.0 {
+            return Err(StrakeError::InvalidArgument(format!(
+                "the flat bottom does not fit the concave cross-section of radius {}: the \
+                 cutter gouges",
+                1.0 / kappa
+            )));
+        } else if kappa == 0.0 {
+            f64::INFINITY
+        } else {
+            // cos(θ/2) = ρ/(ρ + h): θ/2 = atan(√(h (2ρ + h))/ρ), written in units of ρ.
+            let rho = 1.0 / -kappa;
+            let h1 = h / rho;
+            2.0 * rho * (h1 * (2.0 + h1)).sqrt().atan()
+        }
+    } else {
+        step_over_for_scallop(rho_c, h, kappa)?
+    };
+    let step_over = model.min(width_limit);
+    Ok(CutterStepOver {
+        step_over,
+        model,
+        width_limit,
+        radius_across: rho_c,
+        limited_by_width: width_limit < model,
+    })
 }

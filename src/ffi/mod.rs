@@ -101,3 +101,12 @@ pub use types::{
     StrakePathInterval, StrakePatternInterval, StrakePatternIntervalKind, StrakeStepRule,
 };
 pub use version::strake_version;
+// The cutter's radii, rear gouging, tow edges, the width-limited step-over and the path
+// versions of the checks.
+pub use checks::{
+    strake_check_feed_path, strake_check_fibre_path, strake_check_gouge_path,
+    strake_check_rear_gouge, strake_check_rear_gouge_path, strake_check_scallop_path,
+    strake_check_step_over_cutter, strake_check_step_over_cutter_path, strake_check_tow_edges,
+    strake_check_tow_edges_path, strake_cutter_radii, strake_tool_axis_path,
+};
+pub use types::{StrakeCutterRadii, StrakeCutterStepOver, StrakeRearGouge, StrakeTowEdges};

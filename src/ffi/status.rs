@@ -113,6 +113,7 @@ impl StrakeStatus {
             StrakeError::PassLimit { .. } => StrakeStatus::PassLimit,
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
+            StrakeError::AtSample { error, .. } => StrakeStatus::of(error),
             StrakeError::GeodesicIncomplete { .. } => StrakeStatus::GeodesicIncomplete,
             StrakeError::GeodesicNotFound { .. } => StrakeStatus::GeodesicNotFound,
             StrakeError::LeavesSurface { .. } => StrakeStatus::LeavesSurface,

@@ -4,7 +4,9 @@
 
 use crate::checks::summary::PathPosition;
 use crate::checks::tool_axis::ToolAxis;
-use crate::checks::{Extremes, FibreState, GougeState, Violation};
+use crate::checks::{
+    CutterRadii, CutterStepOver, Extremes, FibreState, GougeState, RearGouge, TowEdges, Violation,
+};
 use crate::error::{NonFiniteSource, StrakeError};
 use crate::geometry::frame::{Conditioning, DarbouxFrame, ParamScales};
 use crate::geometry::jet::{CurveJet, SurfaceJet};
@@ -423,15 +425,18 @@ pub struct StrakeCutter {
 /// Lead and tilt angles of the tool axis (radians, each strictly inside (-pi/2, pi/2)).
 ///
 /// The axis a (from the cutter tip toward the spindle) is
-/// a = sin(lead) T + cos(lead) sin(tilt) B + cos(lead) cos(tilt) n_t, with n_t = N when the
-/// tool is on the N side and -N otherwise: lead leans the axis from the tool-side normal toward
-/// the feed direction T, tilt then toward B. Both 0: the axis along the tool-side normal.
+/// a = sin(lead) T + cos(lead) sin(tilt) b_t + cos(lead) cos(tilt) n_t, in the tool-side frame:
+/// n_t = N when the tool is on the N side and -N otherwise, b_t = n_t x T (B on the N side, -B
+/// on the other): lead leans the axis from the tool-side normal toward the feed direction T,
+/// tilt then toward b_t, the left of travel seen from the tool, whichever side it is on. Both
+/// 0: the axis along the tool-side normal. (Changed: tilt used to lean toward B on both
+/// sides.)
 #[repr(C)]
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct StrakeToolAngles {
     /// Lead angle (radians): toward the feed direction T.
     pub lead: f64,
-    /// Tilt angle (radians): toward the side direction B.
+    /// Tilt angle (radians): toward b_t = n_t x T (left of travel seen from the tool).
     pub tilt: f64,
 }
 
@@ -449,7 +454,9 @@ pub struct StrakeGougeState {
     pub concave_radius: f64,
     /// Effective cutting radius across the direction in which the axis is inclined by beta
     /// from the tool-side normal: R/sin(beta) + r (the ball radius for a ball-end mill;
-    /// INFINITY for a flat or toroidal cutter with its axis along the normal).
+    /// INFINITY for a flat or toroidal cutter with its axis along the normal). Across the path
+    /// only for pure lead: scallop and step-over need `StrakeCutterRadii.across_path`
+    /// (`strake_cutter_radii`).
     pub effective_radius_cross: f64,
     /// Effective cutting radius along the inclination: the corner radius r (0 for a flat-end
     /// mill).
@@ -457,12 +464,16 @@ pub struct StrakeGougeState {
     /// Smallest eigenvalue of (cutter curvature - surface curvature toward the tool) over the
     /// tangent directions (1/length); negative means local gouging.
     pub margin: f64,
-    /// 1 when the cutter gouges locally (margin below zero beyond round-off), else 0.
+    /// 1 when the cutter gouges locally (margin below zero beyond round-off) or at the rear
+    /// (the bottom or the heel inside the material, see `strake_check_rear_gouge`), else 0.
+    /// (Changed: it used to see local gouging only.)
     pub gouges: i32,
-    /// 1 when some lead angle in [0, pi/2) avoids local gouging at the given tilt; 0 when none
-    /// does (the cutter is too large for the concavity whatever its inclination).
+    /// 1 when some lead angle in [0, pi/2) avoids local and rear gouging at the given tilt; 0
+    /// when none does (the cutter is too large for the concavity whatever its inclination).
     pub has_min_lead: i32,
-    /// The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise.
+    /// The smallest such lead angle (radians) when has_min_lead is 1; 0 otherwise. (Changed:
+    /// it used to avoid local gouging only, which let the heel of a flat or toroidal cutter
+    /// into the material.)
     pub min_lead: f64,
 }
 
@@ -540,7 +551,9 @@ pub struct StrakeFibreState {
     pub steering_curvature: f64,
     /// Steering radius 1/|kg| (INFINITY along a geodesic, the unsteered path).
     pub steering_radius: f64,
-    /// Tow-edge strain (w/2)|kg| (dimensionless): one edge stretched, the other compressed.
+    /// The larger tow-edge strain magnitude, max(|e_left|, |e_right|) of `StrakeTowEdges`
+    /// (dimensionless), including the Gaussian-curvature term. (Changed: it was (w/2)|kg|,
+    /// which reads 0 along a great circle of a sphere where both edges shorten.)
     pub edge_strain: f64,
     /// Twist rate tg (radians per length, signed): how fast the tangent plane turns about the
     /// course.
@@ -565,11 +578,16 @@ impl From<&FibreState> for StrakeFibreState {
 }
 
 /// The tool axis at one sample (unit vector from the cutter tip toward the spindle).
+///
+/// Changed: the components were along (T, B, N) in a field `darboux`; they are now along the
+/// tool-side frame (T, b_t, n_t) in `local` (n_t = N and b_t = B on the N side, n_t = -N and
+/// b_t = -B on the other side), and the tilt leans toward b_t.
 #[repr(C)]
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct StrakeToolAxis {
-    /// Components along (T, B, N) of the sample's frame (along N, not the tool-side normal).
-    pub darboux: [f64; 3],
+    /// Components along the tool-side frame (T, b_t, n_t): (sin(lead), cos(lead) sin(tilt),
+    /// cos(lead) cos(tilt)).
+    pub local: [f64; 3],
     /// The axis in space: the three components above times T, B and N, summed.
     pub space: [f64; 3],
 }
@@ -577,7 +595,7 @@ pub struct StrakeToolAxis {
 impl From<&ToolAxis> for StrakeToolAxis {
     fn from(a: &ToolAxis) -> Self {
         StrakeToolAxis {
-            darboux: a.darboux,
+            local: a.local,
             space: arr3(&a.space),
         }
     }
@@ -807,6 +825,135 @@ pub struct StrakePassInfo {
     pub loops: usize,
 }
 
+/// The cutter's radii of curvature at its contact point for given lead and tilt (host length
+/// unit), from `strake_cutter_radii`.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCutterRadii {
+    /// Radius of the profile the cutter sweeps across the path (the outline of the cutter seen
+    /// along T, at the contact point): r + R sin(lead)^2 / sin(beta)^3, the radius scallop and
+    /// step-over need. r for a ball; INFINITY for a flat or toroidal cutter upright (its flat
+    /// bottom touches); 0 for a flat cutter tilted without lead (its sharp corner cuts across).
+    pub across_path: f64,
+    /// Radius of the cutter's normal section in the direction b_t (Euler's formula on the
+    /// torus's principal curvatures 1/r and sin(beta)/(R + r sin(beta))).
+    pub across_section: f64,
+    /// Radius of the cutter's normal section along T.
+    pub along_path: f64,
+    /// R/sin(beta) + r: normal to the inclination plane (across the path only for pure lead).
+    pub inclination_plane: f64,
+    /// Inclination beta of the axis from the tool-side normal (radians).
+    pub inclination: f64,
+    /// 1 when the flat bottom (centred on the axis), not the corner, touches: R > 0 and the
+    /// axis along the normal; else 0.
+    pub flat_bottom_contact: i32,
+}
+
+impl From<&CutterRadii> for StrakeCutterRadii {
+    fn from(c: &CutterRadii) -> Self {
+        StrakeCutterRadii {
+            across_path: c.across_path,
+            across_section: c.across_section,
+            along_path: c.along_path,
+            inclination_plane: c.inclination_plane,
+            inclination: c.inclination,
+            flat_bottom_contact: i32::from(c.flat_bottom_contact),
+        }
+    }
+}
+
+/// Rear (heel) gouging of a flat or toroidal cutter's bottom at one sample.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeRearGouge {
+    /// Smallest normalised clearance of the bottom's rim over the surface (dimensionless, like
+    /// a sine; negative: inside the material). 1 for a ball-end mill; -DBL_MAX when the corner
+    /// does not fit the concavity (the cutter gouges locally anyway).
+    pub margin: f64,
+    /// Depth of the deepest rim point inside the material (host length unit; 0 when clear).
+    pub depth: f64,
+    /// Rim angle of the worst point (radians; 0 at the contact point, pi at the heel).
+    pub worst_angle: f64,
+    /// 1 when the bottom or the heel is inside the material, else 0.
+    pub gouges: i32,
+}
+
+impl From<&RearGouge> for StrakeRearGouge {
+    fn from(g: &RearGouge) -> Self {
+        StrakeRearGouge {
+            margin: g.margin,
+            depth: g.depth,
+            worst_angle: g.worst_angle,
+            gouges: i32::from(g.gouges),
+        }
+    }
+}
+
+/// The strain of the two edges of a tow or tape centred on a course at one sample
+/// (dimensionless; negative = compressed, relative to the centreline).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeTowEdges {
+    /// Left edge (y = +w/2, on the B side): -kg w/2 - K w^2/8.
+    pub left: f64,
+    /// Right edge (y = -w/2): +kg w/2 - K w^2/8.
+    pub right: f64,
+    /// Steering part (w/2)|kg|.
+    pub steering_term: f64,
+    /// Gaussian-curvature part -K w^2/8 (both edges).
+    pub gaussian_term: f64,
+    /// 1 when the left edge is compressed, else 0.
+    pub left_compressed: i32,
+    /// 1 when the right edge is compressed, else 0.
+    pub right_compressed: i32,
+}
+
+impl From<&TowEdges> for StrakeTowEdges {
+    fn from(t: &TowEdges) -> Self {
+        StrakeTowEdges {
+            left: t.left,
+            right: t.right,
+            steering_term: t.steering_term,
+            gaussian_term: t.gaussian_term,
+            left_compressed: i32::from(t.left_compressed),
+            right_compressed: i32::from(t.right_compressed),
+        }
+    }
+}
+
+/// The step-over for a target scallop height with a given cutter and axis at one sample (host
+/// length unit), from `strake_check_step_over_cutter`.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCutterStepOver {
+    /// Curvature across the path, concave toward the tool (as in `StrakeScallop`).
+    pub cross_curvature: f64,
+    /// The step-over to use: min(model, width_limit).
+    pub step_over: f64,
+    /// Circle-geometry step-over for the swept profile's radius across the path (INFINITY when
+    /// that model sets no limit: a flat bottom on a plane, a sharp corner).
+    pub model: f64,
+    /// The width the cutter cuts at the scallop height (exact on a plane).
+    pub width_limit: f64,
+    /// The radius across the path used by the model.
+    pub radius_across: f64,
+    /// 1 when the width limit set the step-over, else 0.
+    pub limited_by_width: i32,
+}
+
+impl StrakeCutterStepOver {
+    /// The C result for a step-over at cross-path curvature `kappa`.
+    pub fn new(kappa: f64, c: &CutterStepOver) -> Self {
+        StrakeCutterStepOver {
+            cross_curvature: kappa,
+            step_over: c.step_over,
+            model: c.model,
+            width_limit: c.width_limit,
+            radius_across: c.radius_across,
+            limited_by_width: i32::from(c.limited_by_width),
+        }
+    }
+}
 /// The kinds of start direction: the values of `direction_kind` in `strake_geodesic_trace`.
 #[repr(u32)]
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
