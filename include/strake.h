@@ -166,6 +166,17 @@ enum StrakeStatus
    */
   STRAKE_STATUS_LEAVES_SURFACE = 52,
   /**
+   * 55: a cutter does not fit the surface's concave curvature across a pass (its radius
+   * across the path reaches the radius of curvature): no step-over bounds the scallop and
+   * the cutter gouges; the message names the radius, the radius of curvature and (u, v).
+   */
+  STRAKE_STATUS_CUTTER_TOO_LARGE = 55,
+  /**
+   * 56: a plan of passes would need more passes than its cap (the surface is closed, or the
+   * step-over is too small for it); the message names the count and the cap.
+   */
+  STRAKE_STATUS_PASS_LIMIT = 56,
+  /**
    * 90: a bug in strake: a panic was caught at the C boundary. The message says where.
    * Please report it; the handles passed in are still valid.
    */
@@ -395,10 +406,23 @@ typedef uint32_t StrakeOffsetSide;
 typedef struct StrakeCurve StrakeCurve;
 
 /**
+ * A pattern projected onto a surface along a direction: its pieces (curves on the surface)
+ * and its intervals of misses, folds and multiple hits. Made by `strake_drive_project`,
+ * released by `strake_drive_result_free`; immutable, so it may be read from many threads.
+ */
+typedef struct StrakeDriveResult StrakeDriveResult;
+
+/**
  * An opaque offset of a path on a surface: made by `strake_offset_new`, released by
  * `strake_offset_free`. Immutable; may be read from many threads at once.
  */
 typedef struct StrakeOffset StrakeOffset;
+
+/**
+ * A plan of passes across a surface. Made by `strake_plan_passes`, released by
+ * `strake_pass_plan_free`; immutable, so it may be read from many threads.
+ */
+typedef struct StrakePassPlan StrakePassPlan;
 
 /**
  * An opaque surface: created by `strake_surface_from_callback`, released by
@@ -1401,6 +1425,212 @@ typedef struct StrakeProjection {
    */
   double signed_distance;
 } StrakeProjection;
+
+/**
+ * A plane in space with coordinates, for patterns projected along a direction: the pattern
+ * point (x, y) is origin + x * x_axis + y * y_axis (host length unit; the axes need not be
+ * unit or orthogonal, only independent).
+ */
+typedef struct StrakeDrivePlane {
+  /**
+   * A point of the plane: the pattern's (0, 0).
+   */
+  double origin[3];
+  /**
+   * The space vector of one unit of pattern x.
+   */
+  double x_axis[3];
+  /**
+   * The space vector of one unit of pattern y.
+   */
+  double y_axis[3];
+} StrakeDrivePlane;
+
+/**
+ * Options of `strake_drive_project`.
+ */
+typedef struct StrakeDriveOptions {
+  /**
+   * Hit tolerance (largest distance from a hit to its ray when Newton's steps stall),
+   * periodic directions, grid of the tessellation (0: 16) and iteration cap per start
+   * (0: 40).
+   */
+  struct StrakeProjectionOptions projection;
+  /**
+   * Even samples of the pattern to start from (0: 64; else 2..=100000).
+   */
+  uint32_t samples;
+  /**
+   * Largest distance from the first hit at an interval's midpoint to the fitted curve
+   * (host length unit; positive).
+   */
+  double fit_tolerance;
+  /**
+   * Width, relative to the pattern's domain, to which the ends of misses and folds are
+   * located (0: 1e-9; else in (0, 0.1]).
+   */
+  double locate_tolerance;
+} StrakeDriveOptions;
+
+/**
+ * An interval of the pattern's parameter where rays miss, fold or hit more than once.
+ */
+typedef struct StrakePatternInterval {
+  /**
+   * One of the `STRAKE_PATTERN_INTERVAL_KIND_...` values.
+   */
+  uint32_t kind;
+  /**
+   * First pattern parameter of the interval.
+   */
+  double start;
+  /**
+   * Last pattern parameter of the interval.
+   */
+  double end;
+} StrakePatternInterval;
+
+/**
+ * Options of `strake_plan_passes` (host length unit).
+ */
+typedef struct StrakePassOptions {
+  /**
+   * Radius of the ball-end mill; positive and finite.
+   */
+  double ball_radius;
+  /**
+   * One of the `STRAKE_TOOL_SIDE_...` values.
+   */
+  uint32_t tool_side;
+  /**
+   * One of the `STRAKE_STEP_RULE_...` values.
+   */
+  uint32_t rule;
+  /**
+   * Target scallop height (rule ISO_SCALLOP); positive and finite.
+   */
+  double scallop_height;
+  /**
+   * Step-over, geodesic distance across the path (rule CONSTANT_STEP_OVER); positive and
+   * finite.
+   */
+  double step_over;
+  /**
+   * 0: each next pass to the left of the one before (toward B = N x T); 1: to the right.
+   */
+  uint32_t advance;
+  /**
+   * Chord tolerance of the offsets (host length unit; positive): their sampling and fit.
+   */
+  double chord_tolerance;
+  /**
+   * Parameters of each pass at which the step-over is computed (0: 33; else 2..=10000).
+   */
+  uint32_t distance_samples;
+  /**
+   * Points of each new pass at which the scallop left is measured (0: 9; else 1..=10000).
+   */
+  uint32_t scallop_samples;
+  /**
+   * Most passes, the first included (0: 1000; else 1..=100000).
+   */
+  uint32_t max_passes;
+  /**
+   * Most rows beside the first pass (0: no limit, until the surface is covered); a plan
+   * stopped by it is a band around the first pass (`StrakePassSummary.covered` = 0).
+   */
+  uint32_t max_rows;
+} StrakePassOptions;
+
+/**
+ * Totals of a plan of passes.
+ */
+typedef struct StrakePassSummary {
+  /**
+   * Number of passes, the first included.
+   */
+  size_t count;
+  /**
+   * Rows of passes, the first pass being row 0.
+   */
+  size_t rows;
+  /**
+   * Length of the first pass.
+   */
+  double first_length;
+  /**
+   * Length of all passes, the first included.
+   */
+  double total_length;
+  /**
+   * Largest scallop measured between neighbouring passes (0 with a single pass).
+   */
+  double scallop_max;
+  /**
+   * Smallest scallop measured between neighbouring passes (0 with a single pass).
+   */
+  double scallop_min;
+  /**
+   * Points of all the offsets (the output points of the plan).
+   */
+  size_t offset_points;
+  /**
+   * Surface jets evaluated by the geodesic traces of the offsets.
+   */
+  size_t trace_jets;
+  /**
+   * 1 when the plan ran until no parallel lay on the surface; 0 when it stopped at
+   * `max_rows` before trying the parallels of its last row.
+   */
+  int32_t covered;
+} StrakePassSummary;
+
+/**
+ * One pass after the first in a plan of passes.
+ */
+typedef struct StrakePassInfo {
+  /**
+   * Its row: 1 for the neighbours of the first pass, 2 for theirs, ...
+   */
+  size_t row;
+  /**
+   * 1 when it was laid beside another pass after the first (index in `parent`), 0 when
+   * beside the first pass.
+   */
+  int32_t has_parent;
+  /**
+   * The index of the pass it was laid beside, when `has_parent` is 1 (else 0).
+   */
+  size_t parent;
+  /**
+   * Its length on the surface.
+   */
+  double length;
+  /**
+   * Smallest step-over from its parent (geodesic distance).
+   */
+  double step_over_min;
+  /**
+   * Largest step-over from its parent.
+   */
+  double step_over_max;
+  /**
+   * Largest scallop measured between it and its parent.
+   */
+  double scallop_max;
+  /**
+   * Smallest scallop measured between it and its parent.
+   */
+  double scallop_min;
+  /**
+   * Intervals of its parent whose parallel left the surface.
+   */
+  size_t exits;
+  /**
+   * Intervals of its parent whose parallel looped and was cut.
+   */
+  size_t loops;
+} StrakePassInfo;
 
 /**
  * A host surface evaluator.
@@ -2455,7 +2685,8 @@ StrakeStatus strake_tool_axis_path(const struct StrakeSample *samples,
 /* ==== Planning ============================================================================
  * Making the next path: geodesics traced from a point or between two points, offsets of a
  * path on the surface at a geodesic distance, fibre courses and the gaps and overlaps
- * between neighbouring courses.
+ * between neighbouring courses; first passes projected along a direction and iso-scallop
+ * or constant step-over passes across a surface.
  */
 
 /**
@@ -2728,6 +2959,198 @@ StrakeStatus strake_course_check(const struct StrakeSurface *surface,
                                  const struct StrakeFibreLimits *limits,
                                  size_t samples,
                                  struct StrakeCourseCheck *out);
+
+/**
+ * Creates the curve handle of an Archimedean spiral in a plane, for `strake_drive_project`
+ * (its u and v are read as the plane's x and y): r(theta) = r_start + pitch theta / (2 pi)
+ * about `centre` (2 doubles), theta from 0 to 2 pi (r_end - r_start) / pitch, turning
+ * counter-clockwise (from x toward y); the curve's parameter is theta (radians).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_curve_free`); otherwise `*out` is untouched. Errors: NULL_POINTER (`centre`, `out`);
+ * INVALID_ARGUMENT naming the value (non-finite values, r_start < 0, r_end <= r_start, pitch
+ * not positive, more than 1e6 turns). Thread-safe.
+ *
+ * # Safety
+ * `centre` NULL or 2 doubles; `out` NULL or a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_new_spiral(const double *centre,
+                                     double r_start,
+                                     double r_end,
+                                     double pitch,
+                                     struct StrakeCurve **out);
+
+/**
+ * Projects the planar curve `pattern` (its u and v read as the plane's x and y: make lines
+ * with `strake_curve_new_nurbs` of degree 1, a spiral with `strake_curve_new_spiral`, or use
+ * any curve handle) onto `surface` along `direction` (3 doubles, any nonzero length): each
+ * pattern point's ray is the whole line through it along the direction, and the hit taken is
+ * the **first along the direction** (the smallest signed distance), by Newton's method on
+ * (u, v, distance) from a coarse tessellation. Where the first hit moves continuously the hits
+ * form a piece, fitted by a C2 cubic in the parameter plane (t in [0, 1]) to
+ * `options->fit_tolerance`; the pattern intervals where rays miss the surface, where the first
+ * hit jumps (a fold: a silhouette, a nearer sheet), and where rays hit more than once are
+ * reported. Misses and folds are located to `options->locate_tolerance`; detail narrower than
+ * the sample spacing may be missed.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new result to `*out` (free it with
+ * `strake_drive_result_free`; read it with `strake_drive_result_piece_count`,
+ * `strake_drive_result_piece` and `strake_drive_result_intervals`); otherwise `*out` is
+ * untouched. A pattern that misses the surface everywhere is a success with no piece and one
+ * miss interval. Errors: NULL_POINTER (`surface`, `plane`, `direction`, `pattern`, `options`,
+ * `out`); INVALID_ARGUMENT (a direction of zero length, parallel plane axes, a bad option, a
+ * fit that still fails at 100000 samples); NON_FINITE (a coordinate of the plane or the
+ * direction); the surface's and the pattern's own errors (naming the pattern parameter).
+ * Thread-safe.
+ *
+ * # Safety
+ * `surface` and `pattern` NULL or live handles; `plane`, `options` NULL or valid;
+ * `direction` NULL or 3 doubles; `out` NULL or a writable `StrakeDriveResult *`.
+ */
+StrakeStatus strake_drive_project(const struct StrakeSurface *surface,
+                                  const struct StrakeDrivePlane *plane,
+                                  const double *direction,
+                                  const struct StrakeCurve *pattern,
+                                  const struct StrakeDriveOptions *options,
+                                  struct StrakeDriveResult **out);
+
+/**
+ * Writes the number of pieces of `result` to `*count` (0 when every ray misses).
+ *
+ * Returns `STRAKE_STATUS_OK`, or NULL_POINTER (`result`, `count`). Thread-safe.
+ *
+ * # Safety
+ * `result` NULL or a live result; `count` NULL or writable.
+ */
+StrakeStatus strake_drive_result_piece_count(const struct StrakeDriveResult *result,
+                                             size_t *count);
+
+/**
+ * Creates a curve handle for piece `index` of `result` (the curve in the surface's parameter
+ * plane, t in [0, 1], wrapped across the seams declared periodic and held on the domain's
+ * edges), and writes to `pattern_range` (NULL, or 2 doubles) the pattern parameters where the
+ * piece starts and ends.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out` (free it with `strake_curve_free`; it does not
+ * depend on `result`) and `pattern_range`; otherwise nothing. Errors: NULL_POINTER (`result`,
+ * `out`); INVALID_ARGUMENT (`index` not below the piece count). Thread-safe.
+ *
+ * # Safety
+ * `result` NULL or live; `pattern_range` NULL or 2 writable doubles; `out` NULL or writable.
+ */
+StrakeStatus strake_drive_result_piece(const struct StrakeDriveResult *result,
+                                       size_t index,
+                                       double *pattern_range,
+                                       struct StrakeCurve **out);
+
+/**
+ * Copies the intervals of `result` (misses, folds, multiple hits, ordered by start) to `buf`
+ * through the buffer protocol: `*count` receives their number; when `capacity` is smaller,
+ * STRAKE_STATUS_BUFFER_TOO_SMALL and only `*count` is written (`buf` may be NULL with
+ * `capacity` 0 to ask for the size).
+ *
+ * Errors: NULL_POINTER (`result`, `count`, `buf` with `capacity` > 0); BUFFER_TOO_SMALL.
+ * Thread-safe.
+ *
+ * # Safety
+ * `result` NULL or live; `buf` NULL or room for `capacity` intervals; `count` NULL or
+ * writable.
+ */
+StrakeStatus strake_drive_result_intervals(const struct StrakeDriveResult *result,
+                                           struct StrakePatternInterval *buf,
+                                           size_t capacity,
+                                           size_t *count);
+
+/**
+ * Releases a result of `strake_drive_project`. NULL is a no-op; curve handles made from it
+ * stay valid.
+ *
+ * # Safety
+ * `result` NULL or a live result not in use by another thread.
+ */
+void strake_drive_result_free(struct StrakeDriveResult *result);
+
+/**
+ * Plans passes of a ball-end mill across `surface` from the pass `first` (a curve handle on
+ * it): each next pass is the geodesic parallel of the one before at the step-over that leaves
+ * `options->scallop_height` point by point (iso-scallop: the exact two-circle rule with the
+ * surface's curvature across the path), or at `options->step_over` (constant), laid to the
+ * side `options->advance`, until no parallel lies on the surface any more (or for
+ * `options->max_rows` rows, when not 0: a band around the first pass). A parallel that
+ * breaks (the boundary, a trimmed loop) gives several passes. Between every pass and the one
+ * it was laid beside, the scallop left is measured by a direct construction (the meeting of
+ * the two balls' swept tubes), not by the rule.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new plan to `*out` (free it with
+ * `strake_pass_plan_free`; read it with `strake_pass_plan_summary`, `strake_pass_plan_passes`
+ * and `strake_pass_plan_curve`); otherwise `*out` is untouched. Errors: NULL_POINTER
+ * (`surface`, `first`, `options`, `out`); INVALID_ARGUMENT naming the field and value (a
+ * target scallop of zero, NaN or negative, a radius, step-over or tolerance that is not
+ * positive and finite, a flag out of range, balls that do not overlap at the constant
+ * step-over); CUTTER_TOO_LARGE (the ball does not fit the concave curvature across a pass);
+ * PASS_LIMIT (more than `max_passes` passes needed); the errors of the offsets
+ * (GEODESIC_INCOMPLETE, DEGENERATE_SURFACE, NOT_CONVERGED ...) and of the surface and curve.
+ * Thread-safe.
+ *
+ * # Safety
+ * `surface` and `first` NULL or live handles; `options` NULL or valid; `out` NULL or a
+ * writable `StrakePassPlan *`.
+ */
+StrakeStatus strake_plan_passes(const struct StrakeSurface *surface,
+                                const struct StrakeCurve *first,
+                                const struct StrakePassOptions *options,
+                                struct StrakePassPlan **out);
+
+/**
+ * Writes the totals of `plan` to `*out`.
+ *
+ * Returns `STRAKE_STATUS_OK`, or NULL_POINTER (`plan`, `out`). Thread-safe.
+ *
+ * # Safety
+ * `plan` NULL or live; `out` NULL or writable.
+ */
+StrakeStatus strake_pass_plan_summary(const struct StrakePassPlan *plan,
+                                      struct StrakePassSummary *out);
+
+/**
+ * Copies one `StrakePassInfo` per pass after the first (in plan order: row by row) to `buf`
+ * through the buffer protocol: `*count` receives their number (count - 1 of the summary);
+ * when `capacity` is smaller, STRAKE_STATUS_BUFFER_TOO_SMALL and only `*count` is written.
+ *
+ * Errors: NULL_POINTER (`plan`, `count`, `buf` with `capacity` > 0); BUFFER_TOO_SMALL.
+ * Thread-safe.
+ *
+ * # Safety
+ * `plan` NULL or live; `buf` NULL or room for `capacity` entries; `count` NULL or writable.
+ */
+StrakeStatus strake_pass_plan_passes(const struct StrakePassPlan *plan,
+                                     struct StrakePassInfo *buf,
+                                     size_t capacity,
+                                     size_t *count);
+
+/**
+ * Creates a curve handle for pass `index` after the first (0-based, in the order of
+ * `strake_pass_plan_passes`): the pass in the surface's parameter plane, t in [0, 1].
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out` (free it with `strake_curve_free`; it does not
+ * depend on `plan`); otherwise `*out` is untouched. Errors: NULL_POINTER (`plan`, `out`);
+ * INVALID_ARGUMENT (`index` not below the number of passes after the first). Thread-safe.
+ *
+ * # Safety
+ * `plan` NULL or live; `out` NULL or writable.
+ */
+StrakeStatus strake_pass_plan_curve(const struct StrakePassPlan *plan,
+                                    size_t index,
+                                    struct StrakeCurve **out);
+
+/**
+ * Releases a plan of `strake_plan_passes`. NULL is a no-op; curve handles made from it stay
+ * valid.
+ *
+ * # Safety
+ * `plan` NULL or a live plan not in use by another thread.
+ */
+void strake_pass_plan_free(struct StrakePassPlan *plan);
 
 #ifdef __cplusplus
 }  // extern "C"

@@ -122,6 +122,27 @@ pub enum StrakeError {
         /// Iterations spent.
         iterations: usize,
     },
+    /// A cutter does not fit the surface's concave curvature across a path: its radius (across
+    /// the path) reaches the radius of curvature, so no step-over leaves a bounded scallop and
+    /// the cutter gouges there.
+    CutterTooLarge {
+        /// The cutter's radius across the path (host length unit).
+        radius: f64,
+        /// The concave radius of curvature across the path, 1/κ (host length unit).
+        curvature_radius: f64,
+        /// Surface parameter u of the point.
+        u: f64,
+        /// Surface parameter v of the point.
+        v: f64,
+    },
+    /// A plan of passes needs more passes than its cap allows (a closed surface, or a step-over
+    /// too small for the surface).
+    PassLimit {
+        /// The number of passes reached.
+        passes: usize,
+        /// The cap.
+        limit: usize,
+    },
     /// A host callback returned a non-zero code.
     Callback {
         /// Which callback (`"surface"` or `"curve"`).
@@ -244,6 +265,21 @@ impl fmt::Display for StrakeError {
             StrakeError::NotConverged { what, iterations } => {
                 write!(f, "not converged after {iterations} iterations: {what}")
             }
+            StrakeError::CutterTooLarge {
+                radius,
+                curvature_radius,
+                u,
+                v,
+            } => write!(
+                f,
+                "cutter too large: radius across the path {radius} reaches the concave radius \
+                 of curvature {curvature_radius} at (u, v) = ({u}, {v}); the cutter gouges there"
+            ),
+            StrakeError::PassLimit { passes, limit } => write!(
+                f,
+                "pass limit: {passes} passes would be needed, above the cap max_passes = \
+                 {limit}; the surface is closed or the step-over too small for it"
+            ),
             StrakeError::Callback {
                 which,
                 code,

@@ -65,6 +65,15 @@ pub use planning::courses::{
     CourseCheck, CourseGap, CourseGaps, FieldCourse, adjacent_course, course_check, course_gaps,
     fixed_angle_course, natural_course,
 };
+pub use planning::drive_pattern::{
+    DriveOptions, DrivePiece, DrivePlane, DriveProjection, PatternInterval, PatternIntervalKind,
+    PieceCurve, RayCaster, RayHit, project_along,
+};
+pub use planning::passes::{PassOptions, PassPlan, PlannedPass, StepRule, plan_passes};
+pub use planning::planar_pattern::{ArchimedeanSpiral, parallel_lines};
+pub use planning::scallop_left::{
+    ScallopLeft, check_target_scallop, scallop_between, step_over_at,
+};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
 pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,

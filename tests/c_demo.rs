@@ -75,6 +75,12 @@ struct Raw {
     course_setup: Vec<f64>,
     /// Per sample: t, arc length, steering curvature, edge strain, twist rate.
     course: Vec<[f64; 5]>,
+    /// Per pass plan: rule, side, count, rows, first length, total length, scallop min,
+    /// scallop max, offset points, trace jets, covered.
+    plans: Vec<Vec<f64>>,
+    /// Per pass of a plan: rule, side, index, row, has parent, parent, length, step-over min,
+    /// max, scallop min, max.
+    plan_passes: Vec<Vec<f64>>,
     /// Bull-nose radius, corner radius, lead, tilt, radius across the path, inclination-plane
     /// radius.
     rear_setup: Vec<f64>,
@@ -150,6 +156,8 @@ fn parse_raw(text: &str) -> Raw {
             "course_points" => r.course_points = triples(numbers(rest)),
             "course_setup" => r.course_setup = numbers(rest),
             "course_sample" => r.course.push(indexed(line, rest, r.course.len())),
+            "plan" => r.plans.push(numbers(rest)),
+            "plan_pass" => r.plan_passes.push(numbers(rest)),
             "rear_setup" => r.rear_setup = numbers(rest),
             "rear_sample" => r.rear.push(indexed(line, rest, r.rear.len())),
             "plan_setup" => r.plan_setup = numbers(rest),
@@ -914,6 +922,59 @@ fn readme_example_runs() {
     assert!(
         readme.contains(body),
         "README.md's C example differs from tests/c/readme_example.c"
+    );
+}
+
+// The passes the demo plans across the cavity (iso-scallop and constant step-over, 8 rows to
+// each side): the totals add up, and the iso-scallop plan to the left matches the Rust API
+// planning from the same pass on the Rust evaluation of the same surface (round-off of the two
+// evaluators differs, so the agreement is to 1e-6 rather than to the last bit).
+#[test]
+fn demo_pass_plans_add_up_and_match_the_rust_api() {
+    use strake::{OffsetSide, PassOptions, plan_passes};
+    let raw = raw_output("mould_cavity_plans");
+    assert_eq!(raw.plans.len(), 4);
+    for p in &raw.plans {
+        let (rule, side) = (p[0], p[1]);
+        assert_eq!((p[2], p[3], p[10]), (9.0, 9.0, 0.0), "{p:?}");
+        let passes: Vec<&Vec<f64>> = raw
+            .plan_passes
+            .iter()
+            .filter(|q| q[0] == rule && q[1] == side)
+            .collect();
+        assert_eq!(passes.len(), 8);
+        let sum: f64 = p[4] + passes.iter().map(|q| q[6]).sum::<f64>();
+        assert!((sum - p[5]).abs() < 1e-9 * p[5], "{sum} vs {}", p[5]);
+        let hmax = passes.iter().map(|q| q[10]).fold(0.0, f64::max);
+        let hmin = passes.iter().map(|q| q[9]).fold(f64::INFINITY, f64::min);
+        assert_eq!((hmin, hmax), (p[6], p[7]));
+    }
+    let surface = rust_surface(&raw);
+    let pass = rust_pass(&raw, &surface);
+    let mut opts =
+        PassOptions::iso_scallop(4.0, ToolSide::AlongNormal, 0.05, OffsetSide::Left, 0.01);
+    opts.max_rows = Some(8);
+    let plan = plan_passes(&surface, &pass, &opts).unwrap();
+    let c = &raw.plans[0];
+    assert_eq!((c[0], c[1]), (0.0, 0.0));
+    assert_eq!(plan.count as f64, c[2]);
+    assert!(
+        (plan.total_length - c[5]).abs() < 1e-6 * c[5],
+        "{} vs {}",
+        plan.total_length,
+        c[5]
+    );
+    assert!(
+        (plan.scallop_max - c[7]).abs() < 1e-6,
+        "{} vs {}",
+        plan.scallop_max,
+        c[7]
+    );
+    assert!(
+        (plan.scallop_min - c[6]).abs() < 1e-6,
+        "{} vs {}",
+        plan.scallop_min,
+        c[6]
     );
 }
 

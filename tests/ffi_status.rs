@@ -44,6 +44,8 @@ fn status_numbers_are_stable() {
         (GeodesicIncomplete, 50),
         (GeodesicNotFound, 51),
         (LeavesSurface, 52),
+        (CutterTooLarge, 55),
+        (PassLimit, 56),
         (InternalPanic, 90),
         (OrderUnavailable, 32),
         (CentrePathFolds, 40),

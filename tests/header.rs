@@ -75,8 +75,9 @@ const GROUPS: &[(&str, &str, &[&str])] = &[
         "Planning",
         "Making the next path: geodesics traced from a point or between two points, offsets of a\n \
          * path on the surface at a geodesic distance, fibre courses and the gaps and overlaps\n \
-         * between neighbouring courses.",
-        &["geodesics.rs", "courses.rs"],
+         * between neighbouring courses; first passes projected along a direction and iso-scallop\n \
+         * or constant step-over passes across a surface.",
+        &["geodesics.rs", "courses.rs", "planning.rs"],
     ),
 ];
 
@@ -316,6 +317,17 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_callback_report",
         "strake_samples_at",
         "strake_surface_evaluate",
+        "strake_curve_new_spiral",
+        "strake_drive_project",
+        "strake_drive_result_free",
+        "strake_drive_result_intervals",
+        "strake_drive_result_piece",
+        "strake_drive_result_piece_count",
+        "strake_pass_plan_curve",
+        "strake_pass_plan_free",
+        "strake_pass_plan_passes",
+        "strake_pass_plan_summary",
+        "strake_plan_passes",
         "strake_cutter_radii",
         "strake_check_rear_gouge",
         "strake_check_tow_edges",

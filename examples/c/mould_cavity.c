@@ -663,6 +663,82 @@ done:
 }
 
 /* ----------------------------------------------------------------------------------------- */
+/* The finishing passes planned across the cavity from the host's pass: iso-scallop passes of a */
+/* smaller ball (it must fit the fillets) to both sides, and the same at the constant           */
+/* step-over a flat floor would give, for comparison.                                         */
+
+#define PLAN_BALL_RADIUS 4.0 /* mm */
+#define PLAN_SCALLOP 0.05     /* mm, the target */
+#define PLAN_CHORD 0.01       /* mm, sampling and fit of each pass */
+#define PLAN_ROWS 8           /* rows to each side: a band across the floor around the host's pass */
+
+static int plan_cavity_passes(int raw, const StrakeSurface *surface, const StrakeCurve *pass)
+{
+    /* On a plane the step-over for the target: w = 2 sqrt(h (2r - h)). */
+    const double flat_step = 2.0 * sqrt(PLAN_SCALLOP * (2.0 * PLAN_BALL_RADIUS - PLAN_SCALLOP));
+    static const char *const side_name[2] = {"left (+B)", "right (-B)"};
+    static const char *const rule_name[2] = {"iso-scallop", "constant step-over"};
+    uint32_t rule, side;
+    if (!raw) {
+        printf("\nPasses across the cavity floor, %d rows to each side of the host's pass: %.0f mm ball-end mill,\n"
+               "  target scallop %.3f mm (a flat floor would take a step-over of %.3f mm)\n\n",
+               PLAN_ROWS, 2.0 * PLAN_BALL_RADIUS, PLAN_SCALLOP, flat_step);
+        printf("  %-19s %-10s %6s %5s %12s %10s %10s %9s\n", "rule", "side", "passes", "rows", "length (mm)",
+               "h min (mm)", "h max (mm)", "pts/pass");
+    }
+    for (rule = 0; rule < 2; rule++) {
+        for (side = 0; side < 2; side++) {
+            StrakePassOptions options = {PLAN_BALL_RADIUS, STRAKE_TOOL_SIDE_ALONG_NORMAL, rule, PLAN_SCALLOP,
+                                         flat_step, side, PLAN_CHORD, 0, 0, 0, PLAN_ROWS};
+            StrakePassPlan *plan = NULL;
+            StrakePassSummary sum;
+            StrakePassInfo *info = NULL;
+            size_t count = 0, i;
+            StrakeStatus status = strake_plan_passes(surface, pass, &options, &plan);
+            if (status != STRAKE_STATUS_OK) {
+                return fail("strake_plan_passes", status);
+            }
+            status = strake_pass_plan_summary(plan, &sum);
+            if (status == STRAKE_STATUS_OK) {
+                /* The buffer protocol: ask for the size, then fetch. */
+                status = strake_pass_plan_passes(plan, NULL, 0, &count);
+                if (status == STRAKE_STATUS_BUFFER_TOO_SMALL || status == STRAKE_STATUS_OK) {
+                    info = malloc((count > 0 ? count : 1) * sizeof *info);
+                    status = info == NULL ? STRAKE_STATUS_INVALID_ARGUMENT
+                                          : strake_pass_plan_passes(plan, info, count, &count);
+                }
+            }
+            if (status != STRAKE_STATUS_OK) {
+                free(info);
+                strake_pass_plan_free(plan);
+                return fail("strake_pass_plan_passes", status);
+            }
+            if (raw) {
+                printf("plan %u %u %zu %zu %.17g %.17g %.17g %.17g %zu %zu %d\n", rule, side, sum.count, sum.rows,
+                       sum.first_length, sum.total_length, sum.scallop_min, sum.scallop_max, sum.offset_points,
+                       sum.trace_jets, sum.covered);
+                for (i = 0; i < count; i++) {
+                    printf("plan_pass %u %u %zu %zu %d %zu %.17g %.17g %.17g %.17g %.17g\n", rule, side, i, info[i].row,
+                           info[i].has_parent, info[i].parent, info[i].length, info[i].step_over_min,
+                           info[i].step_over_max, info[i].scallop_min, info[i].scallop_max);
+                }
+            } else {
+                printf("  %-19s %-10s %6zu %5zu %12.1f %10.4f %10.4f %9.1f\n", rule_name[rule], side_name[side],
+                       sum.count, sum.rows, sum.total_length, sum.scallop_min, sum.scallop_max,
+                       sum.count > 1 ? (double)sum.offset_points / (double)(sum.count - 1) : 0.0);
+            }
+            free(info);
+            strake_pass_plan_free(plan);
+        }
+    }
+    if (!raw) {
+        printf("  (passes counted with the host's pass; h = the scallop left between neighbours, measured by\n"
+               "   the meeting of the two balls' swept tubes; the strip at the edge is not measured)\n");
+    }
+    return 0;
+}
+
+/* ----------------------------------------------------------------------------------------- */
 /* Courses across the wing skin: natural (geodesic) courses laid one tow band apart at their  */
 /* start, the gaps and overlaps they leave, and the parallel course that leaves none.        */
 
@@ -1003,7 +1079,7 @@ int main(int argc, char **argv)
                farthest, frames[FRAME_SAMPLES - 1].arc_length);
     }
     bad = bad || report_frames(raw, frames, FRAME_SAMPLES) || check_milling(raw, surface, pass) || check_course(raw) ||
-          check_rear_gouge(raw, surface, pass);
+          check_rear_gouge(raw, surface, pass) || plan_cavity_passes(raw, surface, pass) ||
           plan_courses(raw);
     if (!bad && !raw) {
         show_refusals(surface, pass, points);

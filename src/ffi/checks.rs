@@ -42,7 +42,7 @@ unsafe fn frame(p: *const StrakeFrame) -> Result<DarbouxFrame, Failure> {
 }
 
 /// The tool side for a `tool_side` argument.
-fn tool_side(code: u32) -> Result<ToolSide, Failure> {
+pub(crate) fn tool_side(code: u32) -> Result<ToolSide, Failure> {
     match code {
         c if c == StrakeToolSide::AlongNormal as u32 => Ok(ToolSide::AlongNormal),
         c if c == StrakeToolSide::AgainstNormal as u32 => Ok(ToolSide::AgainstNormal),

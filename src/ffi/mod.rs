@@ -40,6 +40,7 @@ pub mod message;
 pub mod nurbs_surface;
 pub mod parallel;
 pub mod path_curves;
+pub mod planning;
 pub mod sampling;
 pub mod status;
 pub mod surface;
@@ -72,6 +73,12 @@ pub use path_curves::{
     strake_curve_project_nurbs, strake_curve_through_space_points, strake_curve_through_uv_points,
     strake_surface_project_points,
 };
+pub use planning::{
+    StrakeDriveResult, StrakePassPlan, strake_curve_new_spiral, strake_drive_project,
+    strake_drive_result_free, strake_drive_result_intervals, strake_drive_result_piece,
+    strake_drive_result_piece_count, strake_pass_plan_curve, strake_pass_plan_free,
+    strake_pass_plan_passes, strake_pass_plan_summary, strake_plan_passes,
+};
 pub use sampling::{
     strake_arc_length, strake_sample_chordal, strake_sample_even_arc, strake_sample_even_t,
     strake_samples_at,
@@ -91,9 +98,10 @@ pub use types::{
     StrakeViolation,
 };
 pub use types::{
-    StrakeDirectionKind, StrakeDomainSide, StrakeGeodesicEnd, StrakeGeodesicInfo,
-    StrakeGeodesicOptions, StrakeOffsetOptions, StrakeOffsetPoint, StrakeOffsetSide,
-    StrakeOffsetSummary, StrakePathInterval,
+    StrakeDirectionKind, StrakeDomainSide, StrakeDriveOptions, StrakeDrivePlane, StrakeGeodesicEnd,
+    StrakeGeodesicInfo, StrakeGeodesicOptions, StrakeOffsetOptions, StrakeOffsetPoint,
+    StrakeOffsetSide, StrakeOffsetSummary, StrakePassInfo, StrakePassOptions, StrakePassSummary,
+    StrakePathInterval, StrakePatternInterval, StrakePatternIntervalKind, StrakeStepRule,
 };
 pub use version::strake_version;
 // The cutter's radii, rear gouging, tow edges, the width-limited step-over and the path

@@ -43,7 +43,9 @@ fn flag(name: &str, x: i32) -> Result<bool, Failure> {
 
 /// The projection options of the Rust API for the C options (0 = default for the grid and the
 /// iteration cap), checked.
-fn projection_options(o: &StrakeProjectionOptions) -> Result<ProjectionOptions, Failure> {
+pub(crate) fn projection_options(
+    o: &StrakeProjectionOptions,
+) -> Result<ProjectionOptions, Failure> {
     let mut opts = ProjectionOptions::new(o.tolerance).periodic(
         flag("options.periodic_u", o.periodic_u)?,
         flag("options.periodic_v", o.periodic_v)?,

@@ -88,6 +88,13 @@ pub enum StrakeStatus {
     /// heading out, or an offset of which no part lies on the surface (the message names the
     /// value).
     LeavesSurface = 52,
+    /// 55: a cutter does not fit the surface's concave curvature across a pass (its radius
+    /// across the path reaches the radius of curvature): no step-over bounds the scallop and
+    /// the cutter gouges; the message names the radius, the radius of curvature and (u, v).
+    CutterTooLarge = 55,
+    /// 56: a plan of passes would need more passes than its cap (the surface is closed, or the
+    /// step-over is too small for it); the message names the count and the cap.
+    PassLimit = 56,
     /// 90: a bug in strake: a panic was caught at the C boundary. The message says where.
     /// Please report it; the handles passed in are still valid.
     InternalPanic = 90,
@@ -110,6 +117,8 @@ impl StrakeStatus {
             StrakeError::TooFarFromSurface { .. } => StrakeStatus::TooFarFromSurface,
             StrakeError::NotConverged { .. } => StrakeStatus::NotConverged,
             StrakeError::AtPoint { error, .. } => StrakeStatus::of(error),
+            StrakeError::CutterTooLarge { .. } => StrakeStatus::CutterTooLarge,
+            StrakeError::PassLimit { .. } => StrakeStatus::PassLimit,
             StrakeError::Callback { which: "curve", .. } => StrakeStatus::CurveCallbackFailed,
             StrakeError::Callback { .. } => StrakeStatus::SurfaceCallbackFailed,
             StrakeError::AtSample { error, .. } => StrakeStatus::of(error),
@@ -122,7 +131,7 @@ impl StrakeStatus {
     }
 
     /// Every status, in numeric order.
-    pub const ALL: [StrakeStatus; 22] = [
+    pub const ALL: [StrakeStatus; 24] = [
         StrakeStatus::Ok,
         StrakeStatus::NullPointer,
         StrakeStatus::InvalidArgument,
@@ -144,6 +153,8 @@ impl StrakeStatus {
         StrakeStatus::GeodesicIncomplete,
         StrakeStatus::GeodesicNotFound,
         StrakeStatus::LeavesSurface,
+        StrakeStatus::CutterTooLarge,
+        StrakeStatus::PassLimit,
         StrakeStatus::InternalPanic,
     ];
 
@@ -171,6 +182,8 @@ impl StrakeStatus {
             StrakeStatus::LeavesSurface => c"STRAKE_STATUS_LEAVES_SURFACE",
             StrakeStatus::OrderUnavailable => c"STRAKE_STATUS_ORDER_UNAVAILABLE",
             StrakeStatus::CentrePathFolds => c"STRAKE_STATUS_CENTRE_PATH_FOLDS",
+            StrakeStatus::CutterTooLarge => c"STRAKE_STATUS_CUTTER_TOO_LARGE",
+            StrakeStatus::PassLimit => c"STRAKE_STATUS_PASS_LIMIT",
             StrakeStatus::InternalPanic => c"STRAKE_STATUS_INTERNAL_PANIC",
         }
     }

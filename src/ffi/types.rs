@@ -675,6 +675,156 @@ impl From<&Violation> for StrakeViolation {
     }
 }
 
+/// A plane in space with coordinates, for patterns projected along a direction: the pattern
+/// point (x, y) is origin + x * x_axis + y * y_axis (host length unit; the axes need not be
+/// unit or orthogonal, only independent).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeDrivePlane {
+    /// A point of the plane: the pattern's (0, 0).
+    pub origin: [f64; 3],
+    /// The space vector of one unit of pattern x.
+    pub x_axis: [f64; 3],
+    /// The space vector of one unit of pattern y.
+    pub y_axis: [f64; 3],
+}
+
+/// Options of `strake_drive_project`.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct StrakeDriveOptions {
+    /// Hit tolerance (largest distance from a hit to its ray when Newton's steps stall),
+    /// periodic directions, grid of the tessellation (0: 16) and iteration cap per start
+    /// (0: 40).
+    pub projection: StrakeProjectionOptions,
+    /// Even samples of the pattern to start from (0: 64; else 2..=100000).
+    pub samples: u32,
+    /// Largest distance from the first hit at an interval's midpoint to the fitted curve
+    /// (host length unit; positive).
+    pub fit_tolerance: f64,
+    /// Width, relative to the pattern's domain, to which the ends of misses and folds are
+    /// located (0: 1e-9; else in (0, 0.1]).
+    pub locate_tolerance: f64,
+}
+
+/// The kinds of pattern interval: the values of `StrakePatternInterval.kind`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakePatternIntervalKind {
+    /// 0: the rays miss the surface (within its domain).
+    Miss = 0,
+    /// 1: the first hit jumps (the image of the pattern breaks between two parts of the
+    /// surface: a silhouette, or a nearer sheet appearing).
+    Fold = 1,
+    /// 2: the rays meet the surface more than once; the first hit along the direction is taken.
+    SeveralHits = 2,
+}
+
+/// An interval of the pattern's parameter where rays miss, fold or hit more than once.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakePatternInterval {
+    /// One of the `STRAKE_PATTERN_INTERVAL_KIND_...` values.
+    pub kind: u32,
+    /// First pattern parameter of the interval.
+    pub start: f64,
+    /// Last pattern parameter of the interval.
+    pub end: f64,
+}
+
+/// The rules for the distance between neighbouring passes: the values of
+/// `StrakePassOptions.rule`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeStepRule {
+    /// 0: iso-scallop: each next pass where the ball leaves `scallop_height`, point by point.
+    IsoScallop = 0,
+    /// 1: each next pass the geodesic distance `step_over` away.
+    ConstantStepOver = 1,
+}
+
+/// Options of `strake_plan_passes` (host length unit).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakePassOptions {
+    /// Radius of the ball-end mill; positive and finite.
+    pub ball_radius: f64,
+    /// One of the `STRAKE_TOOL_SIDE_...` values.
+    pub tool_side: u32,
+    /// One of the `STRAKE_STEP_RULE_...` values.
+    pub rule: u32,
+    /// Target scallop height (rule ISO_SCALLOP); positive and finite.
+    pub scallop_height: f64,
+    /// Step-over, geodesic distance across the path (rule CONSTANT_STEP_OVER); positive and
+    /// finite.
+    pub step_over: f64,
+    /// 0: each next pass to the left of the one before (toward B = N x T); 1: to the right.
+    pub advance: u32,
+    /// Chord tolerance of the offsets (host length unit; positive): their sampling and fit.
+    pub chord_tolerance: f64,
+    /// Parameters of each pass at which the step-over is computed (0: 33; else 2..=10000).
+    pub distance_samples: u32,
+    /// Points of each new pass at which the scallop left is measured (0: 9; else 1..=10000).
+    pub scallop_samples: u32,
+    /// Most passes, the first included (0: 1000; else 1..=100000).
+    pub max_passes: u32,
+    /// Most rows beside the first pass (0: no limit, until the surface is covered); a plan
+    /// stopped by it is a band around the first pass (`StrakePassSummary.covered` = 0).
+    pub max_rows: u32,
+}
+
+/// Totals of a plan of passes.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakePassSummary {
+    /// Number of passes, the first included.
+    pub count: usize,
+    /// Rows of passes, the first pass being row 0.
+    pub rows: usize,
+    /// Length of the first pass.
+    pub first_length: f64,
+    /// Length of all passes, the first included.
+    pub total_length: f64,
+    /// Largest scallop measured between neighbouring passes (0 with a single pass).
+    pub scallop_max: f64,
+    /// Smallest scallop measured between neighbouring passes (0 with a single pass).
+    pub scallop_min: f64,
+    /// Points of all the offsets (the output points of the plan).
+    pub offset_points: usize,
+    /// Surface jets evaluated by the geodesic traces of the offsets.
+    pub trace_jets: usize,
+    /// 1 when the plan ran until no parallel lay on the surface; 0 when it stopped at
+    /// `max_rows` before trying the parallels of its last row.
+    pub covered: i32,
+}
+
+/// One pass after the first in a plan of passes.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakePassInfo {
+    /// Its row: 1 for the neighbours of the first pass, 2 for theirs, ...
+    pub row: usize,
+    /// 1 when it was laid beside another pass after the first (index in `parent`), 0 when
+    /// beside the first pass.
+    pub has_parent: i32,
+    /// The index of the pass it was laid beside, when `has_parent` is 1 (else 0).
+    pub parent: usize,
+    /// Its length on the surface.
+    pub length: f64,
+    /// Smallest step-over from its parent (geodesic distance).
+    pub step_over_min: f64,
+    /// Largest step-over from its parent.
+    pub step_over_max: f64,
+    /// Largest scallop measured between it and its parent.
+    pub scallop_max: f64,
+    /// Smallest scallop measured between it and its parent.
+    pub scallop_min: f64,
+    /// Intervals of its parent whose parallel left the surface.
+    pub exits: usize,
+    /// Intervals of its parent whose parallel looped and was cut.
+    pub loops: usize,
+}
+
 /// The cutter's radii of curvature at its contact point for given lead and tilt (host length
 /// unit), from `strake_cutter_radii`.
 #[repr(C)]

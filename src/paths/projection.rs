@@ -625,7 +625,7 @@ fn periods<S: SurfaceSource + ?Sized>(
     )
 }
 
-fn fit_projections<S: SurfaceSource + ?Sized>(
+pub(crate) fn fit_projections<S: SurfaceSource + ?Sized>(
     surface: &S,
     projections: Vec<Projection>,
     opts: &ProjectionOptions,
@@ -797,9 +797,9 @@ pub fn project_curve<S: SurfaceSource + ?Sized>(
 /// Distance from `x` to the curve S(u(t), v(t)) for t in [a, b]: Newton's method on
 /// ½|c(t) − x|² started at the midpoint, clamped to [a, b], 8 steps at most (enough for the
 /// nearly-quadratic convergence near a foot point), compared with the ends.
-fn distance_to_fitted<S: SurfaceSource + ?Sized>(
+pub(crate) fn distance_to_fitted<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     surface: &S,
-    curve: &SeamCurve,
+    curve: &C,
     a: f64,
     b: f64,
     x: &Vec3,

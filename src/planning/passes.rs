@@ -1,0 +1,352 @@
+//! Passes across a surface, one beside the other, from a first pass: iso-scallop (each next
+//! pass where a ball leaves a target scallop height with its neighbour, point by point) or at a
+//! constant step-over, until the surface is covered.
+//!
+//! **The rule, point by point** (iso-scallop; the method of Suresh & Yang, J. Eng. Ind. 116
+//! (1994) 253–259, and Lin & Koren, J. Eng. Ind. 118 (1996) 20–28, derived here): at
+//! [`PassOptions::distance_samples`] even parameters t of the current pass the frame gives the
+//! curvature across the path κ = s κn(B) (positive concave toward the tool), and the exact
+//! two-circle inverse gives the step-over w(t) for the target height h with the ball's radius r
+//! ([`super::scallop_left::step_over_at`]). The next pass is the geodesic parallel of the
+//! current one at the distance w(t) (tabulated at those parameters, linear between them) on
+//! the side [`PassOptions::advance`] ([`crate::geodesics::offset::offset_path`], which also
+//! trims loops and ends pieces where they leave the surface). In the constant mode w is the
+//! same everywhere.
+//!
+//! **Stopping.** A pass whose parallel has no point on the surface ([`StrakeError::LeavesSurface`]
+//! from the offset) is the last of its line: the strip between it and the boundary is narrower
+//! than its step-over. When the parallel of a pass breaks into several pieces (the boundary
+//! cuts it, a loop is cut out), each piece is a pass and is carried on by itself. The plan
+//! ends when no pass of the last row has a parallel on the surface; more than
+//! [`PassOptions::max_passes`] passes is [`StrakeError::PassLimit`] (a closed surface, or a
+//! step-over too small for the surface).
+//!
+//! **The scallop left.** Between every pass and the pass it was made from, the scallop is
+//! measured at [`PassOptions::scallop_samples`] points of the new pass by the direct
+//! construction of [`super::scallop_left::scallop_between`] (the two swept balls), not by the
+//! formula the distances came from: where the surface's curvature across the path changes
+//! between the two passes, or the parallel is bent by a varying distance, the measured value
+//! differs from the target, and the report shows by how much.
+//!
+//! What it does not see: the scallop between passes of different lines that meet (pieces of
+//! a broken parallel, passes of two lines that end up side by side), the strip left between
+//! the last pass and the boundary (narrower than one step-over, its scallop not measured),
+//! cutters other than the ball (the direct construction is for the ball's swept tube).
+
+use super::scallop_left::{check_target_scallop, scallop_between, step_over_at};
+use crate::checks::cutter::ToolSide;
+use crate::curve::UvCurve;
+use crate::error::{Result, StrakeError};
+use crate::geodesics::offset::{
+    OffsetDistance, OffsetOptions, OffsetSide, PathInterval, offset_path,
+};
+use crate::nurbs::NurbsCurve;
+use crate::paths::curve_on_surface::{CurveOnSurface, Hints};
+use crate::paths::sampling::arc_length;
+use crate::surface::SurfaceSource;
+
+/// Relative tolerance of the pass lengths.
+pub const PASS_LENGTH_TOLERANCE: f64 = 1e-9;
+
+/// How far apart neighbouring passes are.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum StepRule {
+    /// Each next pass where the ball leaves this scallop height (host length unit, > 0) by the
+    /// point-by-point rule of the module docs.
+    IsoScallop {
+        /// The target scallop height.
+        height: f64,
+    },
+    /// Each next pass this geodesic distance away (host length unit, > 0).
+    ConstantStepOver {
+        /// The step-over, arc length on the surface across the path.
+        step_over: f64,
+    },
+}
+
+/// Options of a pass plan.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PassOptions {
+    /// Radius of the ball-end mill (host length unit, > 0).
+    pub ball_radius: f64,
+    /// The side of the surface the tool is on.
+    pub tool_side: ToolSide,
+    /// The rule for the distance between neighbours.
+    pub rule: StepRule,
+    /// The side of each pass on which the next one is laid (left: toward B = N × T).
+    pub advance: OffsetSide,
+    /// Options of the offsets (geodesic traces, sampling and fit).
+    pub offset: OffsetOptions,
+    /// Parameters of each pass at which the step-over is computed (2..=10000; default 33).
+    pub distance_samples: usize,
+    /// Points of each new pass at which the scallop left is measured (1..=10000; default 9).
+    pub scallop_samples: usize,
+    /// Most passes, the first included (1..=100000; default 1000).
+    pub max_passes: usize,
+    /// Most rows of passes beside the first (`None`: until the surface is covered). A plan
+    /// stopped by it is a band around the first pass; [`PassPlan::covered`] says so.
+    pub max_rows: Option<usize>,
+}
+
+impl PassOptions {
+    /// Iso-scallop passes of a ball of `ball_radius` on `tool_side` for the target `height`,
+    /// laid toward `advance`, offsets fitted to `chord_tolerance`.
+    pub fn iso_scallop(
+        ball_radius: f64,
+        tool_side: ToolSide,
+        height: f64,
+        advance: OffsetSide,
+        chord_tolerance: f64,
+    ) -> Self {
+        PassOptions {
+            ball_radius,
+            tool_side,
+            rule: StepRule::IsoScallop { height },
+            advance,
+            offset: OffsetOptions::new(chord_tolerance),
+            distance_samples: 33,
+            scallop_samples: 9,
+            max_passes: 1000,
+            max_rows: None,
+        }
+    }
+
+    /// Fails naming the field and value unless every option is in range.
+    pub fn check(&self) -> Result<()> {
+        if !(self.ball_radius.is_finite() && self.ball_radius > 0.0) {
+            return Err(StrakeError::InvalidArgument(format!(
+                "ball radius = {}: it must be positive and finite",
+                self.ball_radius
+            )));
+        }
+        match self.rule {
+            StepRule::IsoScallop { height } => check_target_scallop(height)?,
+            StepRule::ConstantStepOver { step_over } => {
+                if !(step_over.is_finite() && step_over > 0.0) {
+                    return Err(StrakeError::InvalidArgument(format!(
+                        "step-over = {step_over}: it must be positive and finite"
+                    )));
+                }
+            }
+        }
+        self.offset.check()?;
+        for (name, x, lo, hi) in [
+            ("distance_samples", self.distance_samples, 2, 10_000),
+            ("scallop_samples", self.scallop_samples, 1, 10_000),
+            ("max_passes", self.max_passes, 1, 100_000),
+        ] {
+            if !(lo..=hi).contains(&x) {
+                return Err(StrakeError::InvalidArgument(format!(
+                    "{name} = {x}: it must lie in {lo}..={hi}"
+                )));
+            }
+        }
+        if self.max_rows == Some(0) {
+            return Err(StrakeError::InvalidArgument(
+                "max_rows = 0: give at least one row, or no limit".into(),
+            ));
+        }
+        Ok(())
+    }
+}
+
+/// One planned pass after the first.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PlannedPass {
+    /// The pass in the parameter plane (t in [0, 1]).
+    pub curve: NurbsCurve<2>,
+    /// Its row: 1 for the neighbours of the first pass, 2 for theirs, ...
+    pub row: usize,
+    /// The pass it was laid beside: `None` for the first pass, else its index in
+    /// [`PassPlan::passes`].
+    pub parent: Option<usize>,
+    /// Its length on the surface (host length unit).
+    pub length: f64,
+    /// Smallest and largest step-over from its parent (geodesic distance).
+    pub step_over: (f64, f64),
+    /// Largest scallop measured between it and its parent.
+    pub scallop_max: f64,
+    /// Smallest scallop measured between it and its parent.
+    pub scallop_min: f64,
+    /// Intervals of the parent's parameter whose parallel left the surface.
+    pub exits: Vec<PathInterval>,
+    /// Intervals of the parent's parameter whose parallel looped and was cut.
+    pub loops: Vec<PathInterval>,
+}
+
+/// A plan of passes.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PassPlan {
+    /// The passes after the first, row by row.
+    pub passes: Vec<PlannedPass>,
+    /// Length of the first pass.
+    pub first_length: f64,
+    /// Length of all passes, the first included.
+    pub total_length: f64,
+    /// Number of passes, the first included.
+    pub count: usize,
+    /// Rows: 1 + the row of the last pass.
+    pub rows: usize,
+    /// Largest scallop measured between neighbours (0 with a single pass).
+    pub scallop_max: f64,
+    /// Smallest scallop measured between neighbours (0 with a single pass).
+    pub scallop_min: f64,
+    /// Points of all the parallels (offset samples kept), for the cost per output point.
+    pub offset_points: usize,
+    /// Surface jets evaluated by the geodesic traces of the offsets.
+    pub trace_jets: usize,
+    /// True when the plan ran until no parallel lay on the surface; false when it stopped at
+    /// [`PassOptions::max_rows`] before trying the parallels of its last row.
+    pub covered: bool,
+}
+
+fn length<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(s: &S, c: &C) -> Result<f64> {
+    let d = c.domain();
+    arc_length(
+        &CurveOnSurface::new(s, c),
+        d.lo,
+        d.hi,
+        PASS_LENGTH_TOLERANCE,
+    )
+}
+
+fn at_pass(pass: usize, t: f64, error: StrakeError) -> StrakeError {
+    match error {
+        e @ StrakeError::CutterTooLarge { .. } => e,
+        e => StrakeError::InvalidArgument(format!("pass {pass}, t = {t}: {e}")),
+    }
+}
+
+/// Plans passes across `surface` from `first` (see the module docs).
+///
+/// Errors: `InvalidArgument` naming the field for bad options (a target scallop of zero or
+/// NaN, a radius or step-over that is not positive and finite); [`StrakeError::CutterTooLarge`]
+/// where the ball does not fit the concave curvature across a pass; [`StrakeError::PassLimit`]
+/// when more than `max_passes` passes would be needed; every error of the offsets (except
+/// `LeavesSurface`, which ends a line of passes), of the frames and of the scallop measurement
+/// (passes that do not overlap: the constant step-over too wide for the ball), wrapped with the
+/// pass index and parameter where that helps.
+pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    surface: &S,
+    first: &C,
+    opts: &PassOptions,
+) -> Result<PassPlan> {
+    opts.check()?;
+    let first_length = length(surface, first)?;
+    let mut plan = PassPlan {
+        passes: Vec::new(),
+        first_length,
+        total_length: first_length,
+        count: 1,
+        rows: 1,
+        scallop_max: 0.0,
+        scallop_min: 0.0,
+        offset_points: 0,
+        trace_jets: 0,
+        covered: true,
+    };
+    let r = opts.ball_radius;
+    // The passes of the current row: None = the first pass, Some(i) = plan.passes[i].
+    let mut row: Vec<Option<usize>> = vec![None];
+    let mut row_number = 0;
+    let mut scallops = (f64::INFINITY, 0.0_f64);
+    while !row.is_empty() {
+        if opts.max_rows.is_some_and(|m| row_number >= m) {
+            plan.covered = false;
+            break;
+        }
+        row_number += 1;
+        let mut next = Vec::new();
+        for &parent in &row {
+            let pass_index = parent.map_or(0, |i| i + 1);
+            let curve: &dyn UvCurve = match parent {
+                None => &first,
+                Some(i) => &plan.passes[i].curve,
+            };
+            let dom = curve.domain();
+            let n = opts.distance_samples;
+            let path = CurveOnSurface::new(surface, curve);
+            let mut hints = Hints::default();
+            let mut ts = Vec::with_capacity(n);
+            let mut ds = Vec::with_capacity(n);
+            for k in 0..n {
+                let t = dom.even(k, n);
+                let w = match opts.rule {
+                    StepRule::ConstantStepOver { step_over } => step_over,
+                    StepRule::IsoScallop { height } => {
+                        let f = path
+                            .frame(t, &mut hints)
+                            .map_err(|e| at_pass(pass_index, t, e))?;
+                        step_over_at(&f, r, opts.tool_side, height)
+                            .map_err(|e| at_pass(pass_index, t, e))?
+                    }
+                };
+                ts.push(t);
+                ds.push(w);
+            }
+            let step = ds
+                .iter()
+                .fold((f64::INFINITY, 0.0_f64), |(a, b), &w| (a.min(w), b.max(w)));
+            let distance = OffsetDistance::Table { t: ts, d: ds };
+            let off = match offset_path(surface, curve, opts.advance, &distance, &opts.offset) {
+                Ok(o) => o,
+                Err(StrakeError::LeavesSurface { .. }) => continue,
+                Err(e) => return Err(e),
+            };
+            plan.trace_jets += off.jets;
+            let mut made = Vec::with_capacity(off.pieces.len());
+            for piece in off.pieces {
+                if plan.count >= opts.max_passes {
+                    return Err(StrakeError::PassLimit {
+                        passes: plan.count + 1,
+                        limit: opts.max_passes,
+                    });
+                }
+                plan.offset_points += piece.samples.len();
+                let m = opts.scallop_samples;
+                let pd = piece.curve.domain();
+                let probe: Vec<f64> = (0..m)
+                    .map(|k| pd.lo + pd.width() * (k as f64 + 0.5) / m as f64)
+                    .collect();
+                let t_parent = piece.samples[piece.samples.len() / 2].t;
+                let left = scallop_between(
+                    surface,
+                    &piece.curve,
+                    curve,
+                    r,
+                    opts.tool_side,
+                    &probe,
+                    t_parent,
+                )
+                .map_err(|e| at_pass(pass_index, t_parent, e))?;
+                let (lo, hi) = left.iter().fold((f64::INFINITY, 0.0_f64), |(a, b), x| {
+                    (a.min(x.height), b.max(x.height))
+                });
+                scallops = (scallops.0.min(lo), scallops.1.max(hi));
+                let len = length(surface, &piece.curve)?;
+                plan.total_length += len;
+                plan.count += 1;
+                plan.rows = row_number + 1;
+                next.push(Some(plan.passes.len() + made.len()));
+                made.push(PlannedPass {
+                    curve: piece.curve,
+                    row: row_number,
+                    parent,
+                    length: len,
+                    step_over: step,
+                    scallop_max: hi,
+                    scallop_min: lo,
+                    exits: off.exits.clone(),
+                    loops: off.loops.clone(),
+                });
+            }
+            plan.passes.extend(made);
+        }
+        row = next;
+    }
+    if plan.count > 1 {
+        plan.scallop_min = scallops.0;
+        plan.scallop_max = scallops.1;
+    }
+    Ok(plan)
+}
