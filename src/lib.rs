@@ -27,7 +27,7 @@ pub use error::{NonFiniteSource, Result, StrakeError};
 pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
-pub use geometry::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
+pub use geometry::jet::{CurveJet, DOMAIN_SNAP_ULPS, DerivOrder, Interval, SurfaceJet};
 pub use geometry::math::Vec3;
 pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use nurbs::{
