@@ -17,6 +17,7 @@ pub mod engine;
 pub mod error;
 pub mod ffi;
 pub mod geometry;
+pub(crate) mod numfmt;
 pub mod nurbs;
 pub mod paths;
 pub mod surface;
@@ -42,4 +43,5 @@ pub use paths::projection::{
 pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
+pub use paths::sampling::{MAX_QUADRATURE_RULES, RESOLUTION_ULPS};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};

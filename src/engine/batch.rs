@@ -53,7 +53,13 @@ pub struct SampleError {
 
 impl std::fmt::Display for SampleError {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(f, "sample {} (t = {}): {}", self.index, self.t, self.error)
+        write!(
+            f,
+            "sample {} (t = {}): {}",
+            self.index,
+            crate::numfmt::Exact(self.t),
+            self.error
+        )
     }
 }
 
