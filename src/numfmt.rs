@@ -94,6 +94,7 @@ fn write_g(f: &mut fmt::Formatter<'_>, x: f64, digits: Option<usize>) -> fmt::Re
 }
 
 #[cfg(test)]
+#[allow(clippy::excessive_precision)]
 mod tests {
     use super::*;
 

@@ -135,7 +135,7 @@ fn numbers_in_messages_read_as_c_prints_them() {
     let e = strake::StrakeError::DegenerateSurface {
         u: 0.0,
         v: 0.25,
-        conditioning: 4.9947054245269523e-7,
+        conditioning: 4.994_705_424_526_952e-7,
     };
     let m = e.to_string();
     assert!(m.contains("(u, v) = (0, 0.25)"), "{m}");

@@ -169,11 +169,10 @@ where
         }
         // t within round-off of an end of the curve's domain is snapped onto it (as
         // `UvCurve::checked_jet` does); the first t that cannot be is the pending failure.
-        for i in 0..len {
-            let t = ts[i];
-            if !(td.lo <= t && t <= td.hi) {
-                match td.snap("t", t) {
-                    Ok(s) => ts[i] = s,
+        for (i, t) in ts[..len].iter_mut().enumerate() {
+            if !(td.lo <= *t && *t <= td.hi) {
+                match td.snap("t", *t) {
+                    Ok(s) => *t = s,
                     Err(e) => {
                         good = i;
                         pending = Some(e);
