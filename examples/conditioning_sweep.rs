@@ -284,13 +284,7 @@ fn main() {
                 let fig = if stall {
                     curve_speed_figure(&r.cj, &r.scales)
                 } else {
-                    surface_conditioning(
-                        &jet.su,
-                        &jet.sv,
-                        cross,
-                        r.scales.u_extent,
-                        r.scales.v_extent,
-                    )
+                    surface_conditioning(&jet, cross, r.scales.u_extent, r.scales.v_extent)
                 };
                 figure = figure.min(fig);
                 match errors(&jet, &r.cj, &r.scales, &r.want) {
@@ -373,13 +367,7 @@ fn nurbs_sphere_pole(summary: &mut Vec<String>) {
                         .checked_jet(u, v, DerivOrder::Second, &mut Default::default())
                         .unwrap();
                     let cross = jet.su.cross(&jet.sv).norm();
-                    let fig = surface_conditioning(
-                        &jet.su,
-                        &jet.sv,
-                        cross,
-                        scales.u_extent,
-                        scales.v_extent,
-                    );
+                    let fig = surface_conditioning(&jet, cross, scales.u_extent, scales.v_extent);
                     figure = figure.min(fig);
                     let Ok(sp) = SurfacePoint::new_with_limit(
                         &jet,

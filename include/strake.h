@@ -1687,7 +1687,9 @@ const char *strake_status_name(uint32_t status);
  * than `buf_len`. The message is UTF-8 text (in practice ASCII) naming the function, what was
  * wrong, and the index, value or sample where it was found.
  *
- * Successful calls do not clear the message; messages are per thread.
+ * Successful calls do not clear the message; messages are per thread. Called from a
+ * thread-exit destructor after the thread's message is gone, it behaves as on a thread on
+ * which nothing has failed (returns 1, writes the NUL).
  *
  * # Safety
  * `buf` must be NULL or point to at least `buf_len` writable bytes.

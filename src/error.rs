@@ -1,6 +1,7 @@
 //! The one error type of the crate. Every failure names what was wrong (which input, which
 //! index, which value); the C ABI maps each variant to a stable status number.
 
+use crate::numfmt::{Exact, Num};
 use std::fmt;
 
 /// Which input held a value that was not finite (NaN or infinite).
@@ -219,16 +220,22 @@ impl fmt::Display for StrakeError {
                 what,
                 value,
             } => {
-                write!(f, "non-finite value in {source}: {what} = {value}")
+                write!(
+                    f,
+                    "non-finite value in {source}: {what} = {}",
+                    Exact(*value)
+                )
             }
             StrakeError::InvalidKnots(m) => write!(f, "invalid knot vector: {m}"),
             StrakeError::InvalidWeight { index, value } => write!(
                 f,
-                "invalid weight: weight[{index}] = {value}; weights must be positive and finite"
+                "invalid weight: weight[{index}] = {}; weights must be positive and finite",
+                Exact(*value)
             ),
             StrakeError::InvalidControlPoint { index, value } => write!(
                 f,
-                "invalid control point: control point {index} has non-finite coordinate {value}"
+                "invalid control point: control point {index} has non-finite coordinate {}",
+                Exact(*value)
             ),
             StrakeError::InvalidDegree(m) => write!(f, "invalid degree: {m}"),
             StrakeError::OutOfDomain {
@@ -238,18 +245,26 @@ impl fmt::Display for StrakeError {
                 hi,
             } => write!(
                 f,
-                "parameter out of domain: {name} = {value} is outside [{lo}, {hi}]"
+                "parameter out of domain: {name} = {} is outside [{}, {}]",
+                Exact(*value),
+                Exact(*lo),
+                Exact(*hi)
             ),
             StrakeError::DegenerateSurface { u, v, conditioning } => write!(
                 f,
-                "degenerate surface point at (u, v) = ({u}, {v}): |Su x Sv| vanishes relative \
-                 to |Su| and |Sv| (conditioning {conditioning:e}); the normal is undefined"
+                "degenerate surface point at (u, v) = ({}, {}): |Su x Sv| vanishes relative \
+                 to the reference speeds of Su and Sv over the patch (conditioning {}); the \
+                 normal is undefined",
+                Exact(*u),
+                Exact(*v),
+                Num(*conditioning)
             ),
             StrakeError::StalledCurve { t, speed_figure } => write!(
                 f,
-                "stalled curve at t = {t}: the parameter-plane velocity (u', v') vanishes \
-                 relative to the curve's scale (speed figure {speed_figure:e}); the tangent is \
-                 undefined"
+                "stalled curve at t = {}: the parameter-plane velocity (u', v') vanishes \
+                 relative to the curve's scale (speed figure {}); the tangent is undefined",
+                Exact(*t),
+                Num(*speed_figure)
             ),
             StrakeError::AtPoint { index, error } => write!(f, "point {index}: {error}"),
             StrakeError::TooFarFromSurface {
@@ -260,7 +275,11 @@ impl fmt::Display for StrakeError {
             } => write!(
                 f,
                 "too far from the surface: the nearest surface point found, at (u, v) = \
-                 ({u}, {v}), is {distance:e} away, above the tolerance {tolerance:e}"
+                 ({}, {}), is {} away, above the tolerance {}",
+                Exact(*u),
+                Exact(*v),
+                Num(*distance),
+                Num(*tolerance)
             ),
             StrakeError::NotConverged { what, iterations } => {
                 write!(f, "not converged after {iterations} iterations: {what}")

@@ -22,6 +22,7 @@ pub mod ffi;
 pub mod geodesics;
 pub mod geometry;
 pub mod isa;
+pub(crate) mod numfmt;
 pub mod nurbs;
 pub mod paths;
 pub mod planning;
@@ -43,7 +44,7 @@ pub use geodesics::trace::{
 pub use geometry::frame::{
     Conditioning, DarbouxFrame, ParamScales, darboux_frame, principal_angle, space_curvature,
 };
-pub use geometry::jet::{CurveJet, DerivOrder, Interval, SurfaceJet};
+pub use geometry::jet::{CurveJet, DOMAIN_SNAP_ULPS, DerivOrder, Interval, SurfaceJet};
 pub use geometry::jet::{CurvePartials, MAX_PARTIAL_ORDER, SurfacePartials};
 pub use geometry::math::Vec3;
 pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
@@ -61,6 +62,7 @@ pub use paths::projection::{
 pub use paths::sampling::{
     ChordalOptions, SampleSink, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
+pub use paths::sampling::{MAX_QUADRATURE_RULES, RESOLUTION_ULPS};
 pub use planning::courses::{
     CourseCheck, CourseGap, CourseGaps, FieldCourse, adjacent_course, course_check, course_gaps,
     fixed_angle_course, natural_course,

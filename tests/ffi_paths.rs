@@ -814,7 +814,7 @@ fn points_project_to_known_foot_points() {
         &[
             "strake_surface_project_points",
             "point 3",
-            "above the tolerance 1e0",
+            "above the tolerance 1",
         ],
     );
     assert!(out.iter().all(|p| *p == projection_sentinel()));

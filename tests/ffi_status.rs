@@ -575,7 +575,7 @@ fn out_of_domain_and_non_finite_parameters() {
         expect(
             strake_frame_at(s, c, -1e-9, &mut f),
             StrakeStatus::OutOfDomain,
-            &["t = -0.000000001"],
+            &["t = -1e-09"],
         );
         expect(
             strake_frame_at(s, c, f64::NAN, &mut f),

@@ -316,12 +316,13 @@ fn refusals() {
     let e = sample_chordal(&path, &capped, &mut out).unwrap_err();
     assert_eq!(e.index, 10, "{e}");
     assert!(e.to_string().contains("more than max samples = 10"), "{e}");
-    // A tolerance below round-off cannot be met: refused at the sample that could not be
-    // placed.
+    // A tolerance below round-off of the coordinates cannot be met: refused at once, naming
+    // the option (tests/regression_unbounded_work.rs).
     let e =
         sample_chordal(&path, &ChordalOptions::new(1e-19, f64::INFINITY), &mut out).unwrap_err();
+    assert!(e.to_string().contains("chord tolerance = 1e-19"), "{e}");
     assert!(e.to_string().contains("cannot be met"), "{e}");
-    assert_eq!(e.index, 1);
+    assert_eq!(e.index, 0);
     // A curve that leaves the surface's domain: the first sample outside is named.
     let p = plane((0.0, 1.0), (0.0, 1.0));
     let off = uv_line(0.5, 0.5, 1.5, 0.5).unwrap();

@@ -87,11 +87,12 @@ pub trait UvCurve: Send + Sync {
         Ok(p)
     }
 
-    /// The jet at t: checks that t is finite and inside the domain, evaluates, and checks that
+    /// The jet at t: checks that t is finite and inside the domain (within
+    /// [`Interval::snap_tolerance`] of an end snapped onto it exactly), evaluates, and checks that
     /// the jet is finite. Errors: `NonFinite`, `OutOfDomain`, and whatever the source reports.
     #[inline]
     fn checked_jet(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet> {
-        self.domain().check("t", t)?;
+        let t = self.domain().snap("t", t)?;
         let jet = self.jet_in_domain(t, hint)?;
         jet.check_finite()?;
         Ok(jet)

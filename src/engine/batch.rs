@@ -53,7 +53,13 @@ pub struct SampleError {
 
 impl std::fmt::Display for SampleError {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(f, "sample {} (t = {}): {}", self.index, self.t, self.error)
+        write!(
+            f,
+            "sample {} (t = {}): {}",
+            self.index,
+            crate::numfmt::Exact(self.t),
+            self.error
+        )
     }
 }
 
@@ -161,12 +167,19 @@ where
         for (i, t) in ts[..len].iter_mut().enumerate() {
             *t = t_of(base + i);
         }
-        if let Some(i) = ts[..len]
-            .iter()
-            .position(|&t| !(t.is_finite() && td.lo <= t && t <= td.hi))
-        {
-            good = i;
-            pending = td.check("t", ts[i]).err();
+        // t within round-off of an end of the curve's domain is snapped onto it (as
+        // `UvCurve::checked_jet` does); the first t that cannot be is the pending failure.
+        for (i, t) in ts[..len].iter_mut().enumerate() {
+            if !(td.lo <= *t && *t <= td.hi) {
+                match td.snap("t", *t) {
+                    Ok(s) => *t = s,
+                    Err(e) => {
+                        good = i;
+                        pending = Some(e);
+                        break;
+                    }
+                }
+            }
         }
         if good > 0 {
             let block = curve.jets_in_domain_block(&ts[..good], &mut hints.curve, &mut cj[..good]);
@@ -177,15 +190,24 @@ where
             })?;
         }
         let evaluated = good;
-        for (i, c) in cj[..evaluated].iter().enumerate() {
-            let checked = c
-                .check_finite()
-                .and_then(|()| ud.check("u", c.u))
-                .and_then(|()| vd.check("v", c.v));
-            if let Err(e) = checked {
-                good = i;
-                pending = Some(e);
-                break;
+        for (i, c) in cj[..evaluated].iter_mut().enumerate() {
+            // (u, v) within round-off of the surface's edge snapped onto it, as in
+            // `CurveOnSurface::frame`.
+            let checked = c.check_finite().and_then(|()| {
+                let u = ud.snap("u", c.u)?;
+                let v = vd.snap("v", c.v)?;
+                Ok((u, v))
+            });
+            match checked {
+                Ok((u, v)) => {
+                    c.u = u;
+                    c.v = v;
+                }
+                Err(e) => {
+                    good = i;
+                    pending = Some(e);
+                    break;
+                }
             }
             us[i] = c.u;
             vs[i] = c.v;

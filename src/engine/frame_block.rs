@@ -34,7 +34,9 @@ use crate::geometry::frame::{
 };
 use crate::geometry::jet::{CurveJet, SurfaceJet};
 use crate::geometry::math::Vec3;
-use crate::geometry::principal::{DEGENERATE_SURFACE_LIMIT, Orientation, PrincipalCurvatures};
+use crate::geometry::principal::{
+    DEGENERATE_SURFACE_LIMIT, EIGEN_SAFE_HI, EIGEN_SAFE_LO, Orientation, PrincipalCurvatures,
+};
 use crate::isa::VectorKernels;
 use std::marker::PhantomData;
 use std::mem::{MaybeUninit, size_of};
@@ -588,10 +590,15 @@ where
     let su_len = e.sqrt();
     let inv_su = 1.0 / su_len;
     // surface_conditioning
-    let ea = dot(su, su) * scalar_mul(s.u_extent, s.u_extent);
-    let eb = dot(sv, sv) * scalar_mul(s.v_extent, s.v_extent);
-    let mx = ea.max(eb);
-    let cond_raw = (area * s.u_extent * s.v_extent) / mx;
+    let (uu, vv) = (
+        scalar_mul(s.u_extent, s.u_extent),
+        scalar_mul(s.v_extent, s.v_extent),
+    );
+    let cross2 = dot(suv, suv);
+    let ru2 = e + dot(suu, suu) * uu + cross2 * vv;
+    let rv2 = dot(sv, sv) + dot(svv, svv) * vv + cross2 * uu;
+    let mx = ru2.sqrt() * rv2.sqrt();
+    let cond_raw = area / mx;
     // Degenerate where mx == 0 or mx is not finite.
     let regular = mx.ne(zero) & mx.finite();
     let conditioning = T::select(regular, cond_raw, zero);
@@ -619,6 +626,12 @@ where
     let half_diff = 0.5 * (w11 - w22);
     let mean = 0.5 * (w11 + w22);
     let d = (half_diff * half_diff + w12 * w12).sqrt();
+    // Where the squares could under- or overflow, the one-point path scales first (exactly):
+    // such lanes are flagged and go through it.
+    let big = half_diff.abs().max(w12.abs());
+    let (safe_lo, safe_hi) = unsafe { (T::splat(EIGEN_SAFE_LO), T::splat(EIGEN_SAFE_HI)) };
+    let probe = T::select(big.ne(zero), big, safe_lo);
+    ok = ok & probe.ge(safe_lo) & probe.le(safe_hi);
     let k1 = mean + d;
     let k2 = mean - d;
     let sc = w11.abs().max(w22.abs()).max(w12.abs());

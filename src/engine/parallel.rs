@@ -9,6 +9,12 @@
 //! one per thread, would leave the whole call waiting for the slower thread whenever the
 //! operating system gives one of them less time (another program on the same core); with
 //! pieces, the faster thread takes more of them.
+//!
+//! A thread that cannot be started (an address-space or thread-count limit, as batch
+//! schedulers set) is not an error: the batch goes on with the threads that did start, down to
+//! the calling thread alone, and gives the same results (regression tests in this module: a
+//! spawn failure simulated at every position, and in `tests/regression_parallel_spawn.rs` a real
+//! address-space limit in a child process).
 
 use crate::curve::UvCurve;
 use crate::engine::batch::{CHUNK, SinkSlice};
@@ -17,7 +23,7 @@ use crate::geometry::frame::ParamScales;
 use crate::surface::SurfaceSource;
 use std::panic::{AssertUnwindSafe, catch_unwind};
 use std::sync::atomic::{AtomicUsize, Ordering};
-use std::sync::{Barrier, Mutex, PoisonError};
+use std::sync::{Condvar, Mutex, PoisonError};
 
 /// Below this many samples per thread, extra threads cost more than they save (thread start-up
 /// is tens of microseconds; one frame is well under a microsecond).
@@ -100,9 +106,10 @@ where
     let todo = Mutex::new(out.chunks_mut(piece).enumerate());
     let done = Mutex::new(Vec::with_capacity(n.div_ceil(piece)));
     let lowest_failure = AtomicUsize::new(usize::MAX);
-    // Every worker reaches the barrier, even after a failure or a panic (caught, resumed after
-    // the join), so that none waits forever.
-    let barrier = Barrier::new(threads);
+    // Every worker reaches the gate, even after a failure or a panic (caught, resumed after
+    // the join), so that none waits forever; the gate opens when all the workers that started
+    // (known once the calling thread has tried to start them) have arrived.
+    let barrier = Gate::default();
     let (todo, done, lowest_failure, barrier, publish) =
         (&todo, &done, &lowest_failure, &barrier, &publish);
     let work = move || -> WorkerEnd {
@@ -142,7 +149,16 @@ where
         end
     };
     std::thread::scope(|scope| {
-        let handles: Vec<_> = (1..threads).map(|_| scope.spawn(work)).collect();
+        let mut handles = Vec::with_capacity(threads - 1);
+        for k in 1..threads {
+            match spawn_worker(scope, k, work) {
+                Ok(h) => handles.push(h),
+                // Could not start: go on with the threads that did (the calling thread works
+                // in any case), never wait for one that does not exist.
+                Err(_) => break,
+            }
+        }
+        barrier.expect(handles.len() + 1);
         let mine = work();
         let ends: Vec<WorkerEnd> = std::iter::once(mine)
             .chain(handles.into_iter().map(|h| h.join().unwrap_or_else(Err)))
@@ -162,9 +178,108 @@ where
     })
 }
 
+/// A barrier whose number of participants is known only after some of them have arrived:
+/// [`Gate::wait`] returns once [`Gate::expect`] has been called and that many have arrived.
+#[derive(Default)]
+struct Gate {
+    /// (arrived, expected).
+    state: Mutex<(usize, Option<usize>)>,
+    open: Condvar,
+}
+
+impl Gate {
+    fn expect(&self, n: usize) {
+        let mut s = self.state.lock().unwrap_or_else(PoisonError::into_inner);
+        s.1 = Some(n);
+        self.open.notify_all();
+    }
+
+    fn wait(&self) {
+        let mut s = self.state.lock().unwrap_or_else(PoisonError::into_inner);
+        s.0 += 1;
+        self.open.notify_all();
+        while s.1 != Some(s.0) {
+            s = self.open.wait(s).unwrap_or_else(PoisonError::into_inner);
+        }
+    }
+}
+
+/// Starts worker `k` (1-based; the calling thread is worker 0) with
+/// `std::thread::Builder::spawn_scoped`, which reports a thread that cannot be started instead
+/// of panicking. In unit tests, [`tests::FAIL_SPAWN_FROM`] simulates the failure.
+fn spawn_worker<'scope, 'env, F>(
+    scope: &'scope std::thread::Scope<'scope, 'env>,
+    k: usize,
+    work: F,
+) -> std::io::Result<std::thread::ScopedJoinHandle<'scope, WorkerEnd>>
+where
+    F: FnOnce() -> WorkerEnd + Send + 'scope,
+{
+    #[cfg(test)]
+    if tests::FAIL_SPAWN_FROM.with(|f| f.get()) <= k {
+        return Err(std::io::Error::other("simulated: thread cannot start"));
+    }
+    let _ = k;
+    std::thread::Builder::new()
+        .name("strake-batch".into())
+        .spawn_scoped(scope, work)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+    use std::cell::Cell;
+
+    thread_local! {
+        /// Workers from this index on fail to start (simulated); `usize::MAX`: none fails.
+        pub(super) static FAIL_SPAWN_FROM: Cell<usize> = const { Cell::new(usize::MAX) };
+    }
+
+    // Regression: a thread that could not start panicked inside the scope, and the started
+    // threads waited at the barrier forever. Every position of the failure, and a failure
+    // with samples that fail too, must finish with the serial results.
+    #[test]
+    fn parallel_batch_never_hangs_when_a_thread_cannot_start() {
+        use crate::analytic::sphere;
+        use crate::curve::uv_line;
+        use crate::geometry::frame::DarbouxFrame;
+        let s = sphere(2.0);
+        let (ud, vd) = (s.u_domain(), s.v_domain());
+        let c = uv_line(ud.lo + 0.1, vd.lo + 0.3, ud.hi - 0.2, vd.hi - 0.4).unwrap();
+        let scales = ParamScales {
+            u_extent: ud.width(),
+            v_extent: vd.width(),
+            t_extent: 1.0,
+        };
+        let n = 5000;
+        let t_of = |i: usize| i as f64 / (n - 1) as f64;
+        let blank: DarbouxFrame = crate::CurveOnSurface::new(&s, &c)
+            .frame(0.5, &mut Default::default())
+            .unwrap();
+        let serial = {
+            let mut out = vec![blank; n];
+            frames_parallel_with(&s, &c, scales, 1, t_of, &mut out, |_, _| {}).unwrap();
+            out
+        };
+        for threads in [2, 3, 4] {
+            for fail_from in 1..threads {
+                FAIL_SPAWN_FROM.with(|f| f.set(fail_from));
+                let mut out = vec![blank; n];
+                frames_parallel_with(&s, &c, scales, threads, t_of, &mut out, |_, _| {}).unwrap();
+                assert!(
+                    out.iter()
+                        .zip(&serial)
+                        .all(|(a, b)| a.to_array() == b.to_array())
+                );
+                // A failing sample is still reported, with the lowest index.
+                let bad = |i: usize| if i == 3001 { 7.0 } else { t_of(i) };
+                let e = frames_parallel_with(&s, &c, scales, threads, bad, &mut out, |_, _| {})
+                    .unwrap_err();
+                assert_eq!(e.index, 3001);
+            }
+        }
+        FAIL_SPAWN_FROM.with(|f| f.set(usize::MAX));
+    }
 
     // Common practice: pieces are whole chunks, cover the samples in about 16 per thread, and
     // stay within their bounds.

@@ -73,8 +73,16 @@ impl From<SampleError> for Failure {
     fn from(e: SampleError) -> Self {
         Failure {
             status: StrakeStatus::of(&e.error),
-            // A failure of the whole call (bad options) carries no sample: t is NaN then.
-            message: if e.t.is_nan() {
+            // A failure of the whole call (bad options) carries no sample: t is NaN then. A
+            // sample whose own t is NaN is a sample, and is named with its index.
+            message: if e.t.is_nan()
+                && !matches!(
+                    e.error,
+                    crate::error::StrakeError::NonFinite {
+                        source: crate::error::NonFiniteSource::Parameter,
+                        ..
+                    }
+                ) {
                 e.error.to_string()
             } else {
                 e.to_string()

@@ -72,7 +72,9 @@ pub fn last_message() -> String {
 /// than `buf_len`. The message is UTF-8 text (in practice ASCII) naming the function, what was
 /// wrong, and the index, value or sample where it was found.
 ///
-/// Successful calls do not clear the message; messages are per thread.
+/// Successful calls do not clear the message; messages are per thread. Called from a
+/// thread-exit destructor after the thread's message is gone, it behaves as on a thread on
+/// which nothing has failed (returns 1, writes the NUL).
 ///
 /// # Safety
 /// `buf` must be NULL or point to at least `buf_len` writable bytes.
@@ -98,7 +100,16 @@ pub unsafe extern "C" fn strake_last_error_message(buf: *mut c_char, buf_len: us
                 }
                 needed
             })
-            .unwrap_or(0)
+            .unwrap_or_else(|_| {
+                // The thread's message is already destroyed (a call from a thread-exit
+                // destructor): no message, as the contract says for a thread on which nothing
+                // has failed: the size 1 and, where there is room, the terminating NUL.
+                if !buf.is_null() && buf_len > 0 {
+                    // SAFETY: the caller guarantees `buf_len` ≥ 1 writable bytes at `buf`.
+                    unsafe { *buf = 0 };
+                }
+                1
+            })
     })
 }
 

@@ -88,8 +88,8 @@ pub use surface::{
     StrakeSurface, StrakeSurfaceFn, strake_surface_free, strake_surface_from_callback,
     strake_surface_set_knot_lines,
 };
-pub use types::{StrakeCourseCheck, StrakeCourseGap};
 pub use surface_evaluate::strake_surface_evaluate;
+pub use types::{StrakeCourseCheck, StrakeCourseGap};
 pub use types::{
     StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
     StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,

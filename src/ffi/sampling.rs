@@ -47,6 +47,9 @@ fn sample(
                 "`n` is 0; at least 1 sample is needed".into(),
             ));
         }
+        // Validate every argument before answering a size query, as chordal sampling does:
+        // an invalid tolerance is INVALID_ARGUMENT whatever the capacity.
+        crate::paths::sampling::check_arc_tolerance(arc_tolerance)?;
         if n > capacity {
             return Err(buf.too_small(n, "samples"));
         }

@@ -207,7 +207,7 @@ impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
         self.jets += 1;
         jet.check_finite()?;
         let cross = jet.su.cross(&jet.sv).norm();
-        let cond = surface_conditioning(&jet.su, &jet.sv, cross, self.extent[0], self.extent[1]);
+        let cond = surface_conditioning(&jet, cross, self.extent[0], self.extent[1]);
         if cond.is_nan() || cond < DEGENERATE_SURFACE_LIMIT {
             return Ok(Err(Refusal::Degenerate(cond)));
         }

@@ -147,6 +147,11 @@ impl CurveJet {
     }
 }
 
+/// How many units of round-off (of the larger end's magnitude) a parameter may lie outside a
+/// domain and still be taken as on its end, and snapped onto it exactly: see
+/// [`Interval::snap`].
+pub const DOMAIN_SNAP_ULPS: f64 = 8.0;
+
 /// A closed interval `[lo, hi]` of a parameter, with `lo < hi`.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Interval {
@@ -158,6 +163,9 @@ pub struct Interval {
 
 impl Interval {
     /// Validates and builds an interval; `name` is used in the error message.
+    ///
+    /// Errors: `InvalidArgument` for a non-finite end, `lo ≥ hi`, or a width `hi − lo` that
+    /// overflows (e.g. [−1e308, 1e308]): every figure scaled by the width would be meaningless.
     pub fn new(name: &str, lo: f64, hi: f64) -> Result<Self> {
         if !lo.is_finite() || !hi.is_finite() {
             return Err(StrakeError::InvalidArgument(format!(
@@ -169,6 +177,12 @@ impl Interval {
                 "{name} range [{lo}, {hi}] is empty: the lower end must be below the upper end"
             )));
         }
+        if !(hi - lo).is_finite() {
+            return Err(StrakeError::InvalidArgument(format!(
+                "{name} range [{lo}, {hi}] is too wide: its width hi - lo overflows to {}",
+                hi - lo
+            )));
+        }
         Ok(Interval { lo, hi })
     }
 
@@ -178,9 +192,26 @@ impl Interval {
         self.hi - self.lo
     }
 
-    /// Fails with [`StrakeError::OutOfDomain`] (or `NonFinite`) unless `lo ≤ x ≤ hi`.
+    /// How far outside the interval a parameter may lie and still be taken as on its end:
+    /// [`DOMAIN_SNAP_ULPS`] units of round-off of the larger end's magnitude,
+    /// `DOMAIN_SNAP_ULPS · ε · max(|lo|, |hi|)` (ε = `f64::EPSILON`). A curve that ends on
+    /// (or runs along) the edge of a surface computes its (u, v) a few ulps off the edge; such
+    /// a point is on the edge, not outside it.
     #[inline]
-    pub fn check(&self, name: &'static str, x: f64) -> Result<()> {
+    pub fn snap_tolerance(&self) -> f64 {
+        DOMAIN_SNAP_ULPS * f64::EPSILON * self.lo.abs().max(self.hi.abs())
+    }
+
+    /// The parameter `x` as evaluated: `x` itself when `lo ≤ x ≤ hi`; exactly `lo` (or `hi`)
+    /// when `x` lies below `lo` (above `hi`) by at most [`Self::snap_tolerance`].
+    ///
+    /// Errors: [`StrakeError::NonFinite`] for a non-finite `x`, [`StrakeError::OutOfDomain`]
+    /// for an `x` farther outside.
+    #[inline]
+    pub fn snap(&self, name: &'static str, x: f64) -> Result<f64> {
+        if self.lo <= x && x <= self.hi {
+            return Ok(x);
+        }
         if !x.is_finite() {
             return Err(StrakeError::NonFinite {
                 source: NonFiniteSource::Parameter,
@@ -188,15 +219,27 @@ impl Interval {
                 value: x,
             });
         }
-        if x < self.lo || x > self.hi {
-            return Err(StrakeError::OutOfDomain {
-                name,
-                value: x,
-                lo: self.lo,
-                hi: self.hi,
-            });
+        let tol = self.snap_tolerance();
+        if x < self.lo && self.lo - x <= tol {
+            return Ok(self.lo);
         }
-        Ok(())
+        if x > self.hi && x - self.hi <= tol {
+            return Ok(self.hi);
+        }
+        Err(StrakeError::OutOfDomain {
+            name,
+            value: x,
+            lo: self.lo,
+            hi: self.hi,
+        })
+    }
+
+    /// Fails with [`StrakeError::OutOfDomain`] (or `NonFinite`) unless `x` lies in
+    /// `[lo, hi]` or within [`Self::snap_tolerance`] of it (see [`Self::snap`], which also
+    /// gives the value to evaluate at).
+    #[inline]
+    pub fn check(&self, name: &'static str, x: f64) -> Result<()> {
+        self.snap(name, x).map(|_| ())
     }
 
     /// `n` evenly spaced values from `lo` to `hi` inclusive (`n ≥ 2`), or `lo` when `n == 1`.

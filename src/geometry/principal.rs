@@ -42,35 +42,57 @@ impl Orientation {
 ///
 /// Measured (`examples/conditioning_sweep.rs`, tables in `docs/accuracy.md`): with surface jets
 /// that carry the rounding error of an ordinary evaluator (ε = 2.2e-16 times the size of each
-/// derivative order), the relative error of κn, τg, k1 and k2 grows like 7 ε/c² near a pole and
-/// where Su and Sv turn parallel (fitted exponent 2.0), and reaches 1e-6 at c ≈ 4e-5. At this
-/// limit the worst measured error is about 2e-7; above it, below 1e-6 with a margin of five for
-/// noisier host evaluators.
-pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-4;
+/// derivative order), the relative error of κn, τg, k1 and k2 grows like 1/c² near a pole and
+/// where Su and Sv turn parallel (fitted exponent 2.0), and first exceeds 1e-6 at c ≈ 1.6e-6
+/// (Su and Sv nearly parallel; near a pole at c ≈ 4.5e-7). At this limit the worst measured
+/// error is about 6e-8; above it, below 1e-6 with a margin of six for noisier evaluators.
+pub const DEGENERATE_SURFACE_LIMIT: f64 = 1e-5;
+
+/// The eigen-solve squares (W11 − W22)/2 and W12 directly when the larger lies in
+/// [`EIGEN_SAFE_LO`, `EIGEN_SAFE_HI`] (2^−450 … 2^450), and scales them by a power of two first
+/// otherwise (see [`SurfacePoint::new`]).
+pub const EIGEN_SAFE_LO: f64 = 3.4395525670743494e-136; // 2^-450
+/// Upper end of the range squared directly (2^450).
+pub const EIGEN_SAFE_HI: f64 = 2.9073548971824276e135; // 2^450
 
 /// The conditioning figure of a surface point: how far it is from a degenerate one.
 ///
-/// c = |Su × Sv| Δu Δv / max(|Su| Δu, |Sv| Δv)², where Δu and Δv are the widths of the
-/// parameter domain (so that the figure does not depend on how the parameters are scaled).
-/// It is the sine of the angle between Su and Sv when |Su| Δu = |Sv| Δv, at most that sine
-/// otherwise, and it tends to 0 both when Su and Sv become parallel and when one of them
-/// vanishes (a pole). c = 0 when Su = Sv = 0. Dimensionless, in [0, 1].
+/// c = |Su × Sv| / (ρu ρv), with the reference speeds
+///
+/// - ρu² = |Su|² + |Suu|² Δu² + |Suv|² Δv²,
+/// - ρv² = |Sv|² + |Svv|² Δv² + |Suv|² Δu²,
+///
+/// Δu, Δv the widths of the parameter domain. ρu estimates how large Su is over the patch (its
+/// value plus how much it changes across the domain), so |Su|/ρu tends to 0 where Su collapses
+/// locally (a pole, a collapsed edge, a parameter that stops), while a patch of any proportions
+/// whose Su does not change (a plane or a cylinder strip, however long and thin) keeps
+/// |Su|/ρu = 1. c = sin∠(Su, Sv) · (|Su|/ρu) · (|Sv|/ρv): it tends to 0 when Su and Sv turn
+/// parallel and when either collapses, and it does not depend on how the parameters are scaled
+/// (u → a u leaves every term's ratio unchanged) nor on the patch's aspect ratio.
+/// Dimensionless, in [0, 1]; 1 on a plane parametrised by orthogonal straight lines; c = 0
+/// when ρu ρv is 0 or overflows. Costs two square roots and one division.
+///
+/// Evaluated as `cross_norm / (√ρu² · √ρv²)` with ρu² = (Su·Su + (Suu·Suu)(Δu Δu)) +
+/// (Suv·Suv)(Δv Δv) and ρv² = (Sv·Sv + (Svv·Svv)(Δv Δv)) + (Suv·Suv)(Δu Δu), in that order (the
+/// batch frame kernel performs the same operations).
 #[inline]
 pub fn surface_conditioning(
-    su: &Vec3,
-    sv: &Vec3,
+    jet: &SurfaceJet,
     cross_norm: f64,
     u_extent: f64,
     v_extent: f64,
 ) -> f64 {
-    // max(|Su| Δu, |Sv| Δv)² = max(E Δu², G Δv²): no square roots needed.
-    let a = su.norm_squared() * (u_extent * u_extent);
-    let b = sv.norm_squared() * (v_extent * v_extent);
-    let m = a.max(b);
+    let (uu, vv) = (u_extent * u_extent, v_extent * v_extent);
+    let cross2 = jet.suv.dot(&jet.suv);
+    let ru2 = jet.su.dot(&jet.su) + jet.suu.dot(&jet.suu) * uu + cross2 * vv;
+    let rv2 = jet.sv.dot(&jet.sv) + jet.svv.dot(&jet.svv) * vv + cross2 * uu;
+    // Two square roots rather than √(ρu² ρv²): the product would overflow for curvatures
+    // times domain widths above ~1e77, each factor only above ~1e154.
+    let m = ru2.sqrt() * rv2.sqrt();
     if m == 0.0 || !m.is_finite() {
         return 0.0;
     }
-    (cross_norm * u_extent * v_extent) / m
+    cross_norm / m
 }
 
 /// Principal curvatures and directions at a surface point.
@@ -168,7 +190,7 @@ impl SurfacePoint {
         let sv = &jet.sv;
         let cross = su.cross(sv);
         let area = cross.norm();
-        let conditioning = surface_conditioning(su, sv, area, u_extent, v_extent);
+        let conditioning = surface_conditioning(jet, area, u_extent, v_extent);
         if conditioning.is_nan() || limit.is_nan() || conditioning < limit {
             return Err(StrakeError::DegenerateSurface { u, v, conditioning });
         }
@@ -192,23 +214,41 @@ impl SurfacePoint {
         let w11 = l * inv_su * inv_su;
         let w12 = (l * alpha + m * beta) * inv_su;
         let w22 = l * alpha * alpha + 2.0 * m * alpha * beta + nn * beta * beta;
-        let half_diff = 0.5 * (w11 - w22);
+        let mut half_diff = 0.5 * (w11 - w22);
         let mean = 0.5 * (w11 + w22);
-        // √ rather than hypot: hypot is several times slower, and the squares cannot overflow
-        // for curvatures below 1e150 per unit length.
-        let d = (half_diff * half_diff + w12 * w12).sqrt();
+        let mut w12s = w12;
+        // √ rather than hypot: hypot is several times slower. Where the squares could
+        // under- or overflow (curvatures beyond 2^±450 per unit length, e.g. a surface scaled
+        // by 1e±150), h and W12 are first scaled by a power of two, which is exact: the
+        // eigen-solve then gives the bits it would give without the scaling, and neither a
+        // false umbilic (d = 0) nor a zero or infinite direction. The batch kernel sends such
+        // points here.
+        let big = half_diff.abs().max(w12.abs());
+        let unscale = if (EIGEN_SAFE_LO..=EIGEN_SAFE_HI).contains(&big) || big == 0.0 {
+            1.0
+        } else {
+            // 2^-e with e the binary exponent of `big` (exact; `big` is finite here or the
+            // jet check above would have failed, or it is NaN and everything is NaN).
+            let e = ((big.to_bits() >> 52) & 0x7ff) as i32 - 1023;
+            let s = 2f64.powi(-e.clamp(-1000, 1000));
+            half_diff *= s;
+            w12s *= s;
+            1.0 / s
+        };
+        let ds = (half_diff * half_diff + w12s * w12s).sqrt();
+        let d = ds * unscale;
         let k1 = mean + d;
         let k2 = mean - d;
         // Eigenvector of k1, from whichever of the two equivalent forms is better conditioned:
-        // (d + h, W12) when h = (W11 − W22)/2 ≥ 0, else (W12, d − h). At an umbilic (d at
-        // round-off level) every direction is principal: take e1.
+        // (d + h, W12) when h = (W11 − W22)/2 ≥ 0, else (W12, d − h) (in the scaled units).
+        // At an umbilic (d at round-off level) every direction is principal: take e1.
         let scale = w11.abs().max(w22.abs()).max(w12.abs());
         let (x, y) = if d <= 4.0 * f64::EPSILON * scale {
             (1.0, 0.0)
         } else if half_diff >= 0.0 {
-            (d + half_diff, w12)
+            (ds + half_diff, w12s)
         } else {
-            (w12, d - half_diff)
+            (w12s, ds - half_diff)
         };
         let inv = 1.0 / (x * x + y * y).sqrt();
         let e1 = su * inv_su;

@@ -153,7 +153,8 @@ impl<const D: usize> NurbsCurve<D> {
 
     /// The point and derivatives at `t` up to `order` (higher entries are zero).
     ///
-    /// Errors: `NonFinite` for a non-finite t, `OutOfDomain` outside [`Self::domain`].
+    /// Errors: `NonFinite` for a non-finite t, `OutOfDomain` outside [`Self::domain`] (a t within
+    /// [`Interval::snap_tolerance`] of an end is evaluated exactly at the end).
     /// `hint` remembers the knot span for the next call.
     #[inline]
     pub fn derivs(
@@ -162,7 +163,7 @@ impl<const D: usize> NurbsCurve<D> {
         order: DerivOrder,
         hint: &mut SpanHint,
     ) -> Result<CurvePointDerivs<D>> {
-        self.domain().check("t", t)?;
+        let t = self.domain().snap("t", t)?;
         Ok(self.derivs_unchecked(t, order, hint))
     }
 

@@ -31,7 +31,8 @@ impl KnotVector {
     /// `name` (e.g. `"u knots"`) prefixes the messages. Errors: `InvalidDegree` for a degree of 0
     /// or above [`MAX_DEGREE`], too few control points or a knot count other than
     /// count + degree + 1; `InvalidKnots` for a non-finite or decreasing knot (naming its index
-    /// and value), a knot of multiplicity above degree + 1, or a zero-length domain.
+    /// and value), a knot of multiplicity above degree + 1, a zero-length domain, or a domain whose
+    /// width overflows.
     pub fn new(name: &str, knots: &[f64], degree: usize, count: usize) -> Result<Self> {
         if degree == 0 || degree > MAX_DEGREE {
             return Err(StrakeError::InvalidDegree(format!(
@@ -85,6 +86,11 @@ impl KnotVector {
         if lo >= hi {
             return Err(StrakeError::InvalidKnots(format!(
                 "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] has zero length"
+            )));
+        }
+        if !(hi - lo).is_finite() {
+            return Err(StrakeError::InvalidKnots(format!(
+                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] is too wide: its width overflows"
             )));
         }
         let mut breaks: Vec<f64> = knots[degree + 1..count]

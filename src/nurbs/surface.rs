@@ -235,7 +235,8 @@ impl NurbsSurface {
     }
 
     /// The jet at (u, v) up to `order`: checks that u and v are finite and inside the domain
-    /// (no clamping), then evaluates. Entries above `order` are zero.
+    /// (a parameter within [`Interval::snap_tolerance`] of an end is snapped onto it exactly;
+    /// anything farther out is refused, no clamping), then evaluates. Entries above `order` are zero.
     ///
     /// Errors: `NonFinite` for a non-finite parameter, `OutOfDomain` outside the domain.
     /// `hint` remembers the knot spans for the next call; a wrong or stale hint costs a search,
@@ -248,8 +249,8 @@ impl NurbsSurface {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> Result<SurfaceJet> {
-        self.u_knots.domain().check("u", u)?;
-        self.v_knots.domain().check("v", v)?;
+        let u = self.u_knots.domain().snap("u", u)?;
+        let v = self.v_knots.domain().snap("v", v)?;
         Ok(self.jet_unchecked(u, v, order, hint))
     }
 

@@ -67,7 +67,11 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     /// [`crate::geometry::frame::darboux_frame`].
     #[inline]
     pub fn frame(&self, t: f64, hints: &mut Hints) -> Result<DarbouxFrame> {
-        let cj = self.curve.checked_jet(t, &mut hints.curve)?;
+        let mut cj = self.curve.checked_jet(t, &mut hints.curve)?;
+        // A (u, v) within round-off of the surface's edge is on the edge: snapped onto it
+        // exactly, so the frame and the batch see the same point.
+        cj.u = self.surface.u_domain().snap("u", cj.u)?;
+        cj.v = self.surface.v_domain().snap("v", cj.v)?;
         let sj = self
             .surface
             .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?;

@@ -421,13 +421,7 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
         }
         let cross = b.jet.su.cross(&b.jet.sv);
         let area = cross.norm();
-        let cond = surface_conditioning(
-            &b.jet.su,
-            &b.jet.sv,
-            area,
-            self.u_dom.width(),
-            self.v_dom.width(),
-        );
+        let cond = surface_conditioning(&b.jet, area, self.u_dom.width(), self.v_dom.width());
         if cond.is_nan() || cond < DEGENERATE_SURFACE_LIMIT {
             return Err(StrakeError::DegenerateSurface {
                 u: uw,

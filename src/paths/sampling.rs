@@ -76,6 +76,15 @@ pub const GL5_WEIGHTS: [f64; 5] = [
 /// is accepted as it is.
 pub const MAX_QUADRATURE_DEPTH: u32 = 60;
 
+/// Most applications of the 5-point rule (pairs of halves compared) in one adaptive
+/// quadrature over a smooth piece of the curve: 2¹⁵, about 330 000 evaluations of the speed.
+/// A smooth integrand needs a few dozen at the default tolerance; one that does not settle
+/// (a host evaluator whose results carry noise above the tolerance) would otherwise be split
+/// to [`MAX_QUADRATURE_DEPTH`] everywhere. When the budget is spent the quadrature stops with
+/// `NotConverged`, naming the interval where it stopped, the difference left there and the
+/// estimate reached.
+pub const MAX_QUADRATURE_RULES: usize = 1 << 15;
+
 /// Chord-tolerance sampling aims each step at this fraction of the tolerance δ and accepts up
 /// to δ itself: the margin absorbs the error of the estimated peak deviation, at a cost of
 /// about 1/√0.97 − 1 ≈ 1.5 % more samples.
@@ -124,7 +133,7 @@ impl<F: FnMut(usize, &PathSample)> SampleSink for SinkFn<F> {
     }
 }
 
-fn check_arc_tolerance(tol: f64) -> Result<()> {
+pub(crate) fn check_arc_tolerance(tol: f64) -> Result<()> {
     if !(tol.is_finite() && tol > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
             "arc length tolerance = {tol}: it must be positive and finite"
@@ -175,6 +184,15 @@ fn gl5<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     Ok(s * h)
 }
 
+/// What one adaptive quadrature may still spend, and what it has reached (for the message
+/// when it runs out).
+struct Budget {
+    /// Rule applications left.
+    left: usize,
+    /// Sum of the intervals accepted so far.
+    accepted: f64,
+}
+
 #[allow(clippy::too_many_arguments)]
 fn gl_recursive<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     path: &CurveOnSurface<'_, S, C>,
@@ -185,16 +203,43 @@ fn gl_recursive<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     floor: f64,
     depth: u32,
     hints: &mut Hints,
+    budget: &mut Budget,
 ) -> Result<f64> {
+    if budget.left == 0 {
+        return Err(StrakeError::NotConverged {
+            what: format!(
+                "arc length: the adaptive quadrature spent its budget of {MAX_QUADRATURE_RULES} \
+                 rule applications (the speed does not settle: a noisy evaluator?); it stopped \
+                 on t in [{}, {}] with {} accepted so far, the tolerance there being {}",
+                crate::numfmt::Exact(a),
+                crate::numfmt::Exact(b),
+                crate::numfmt::Num(budget.accepted),
+                crate::numfmt::Num(tol.max(floor))
+            ),
+            iterations: MAX_QUADRATURE_RULES,
+        });
+    }
+    budget.left -= 1;
     let m = 0.5 * (a + b);
     let left = gl5(path, a, m, hints)?;
     let right = gl5(path, m, b, hints)?;
     let both = left + right;
     if (both - whole).abs() <= tol.max(floor) || depth >= MAX_QUADRATURE_DEPTH || m <= a || m >= b {
+        budget.accepted += both;
         return Ok(both);
     }
-    let l = gl_recursive(path, a, m, left, 0.5 * tol, floor, depth + 1, hints)?;
-    let r = gl_recursive(path, m, b, right, 0.5 * tol, floor, depth + 1, hints)?;
+    let l = gl_recursive(path, a, m, left, 0.5 * tol, floor, depth + 1, hints, budget)?;
+    let r = gl_recursive(
+        path,
+        m,
+        b,
+        right,
+        0.5 * tol,
+        floor,
+        depth + 1,
+        hints,
+        budget,
+    )?;
     Ok(l + r)
 }
 
@@ -254,7 +299,11 @@ fn quadrature<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     let whole = gl5(path, a, b, hints)?;
     let tol = rel_tol * whole.abs();
     let floor = 16.0 * f64::EPSILON * whole.abs();
-    gl_recursive(path, a, b, whole, tol, floor, 0, hints)
+    let mut budget = Budget {
+        left: MAX_QUADRATURE_RULES,
+        accepted: 0.0,
+    };
+    gl_recursive(path, a, b, whole, tol, floor, 0, hints, &mut budget)
 }
 
 /// Steps of the scan for knot-line crossings in one piece of the curve.
@@ -656,6 +705,66 @@ fn peak_deviation(e1: f64, e2: f64, e3: f64) -> f64 {
     measured
 }
 
+/// How many units of round-off of the curve's coordinates a chord tolerance or a maximum step
+/// must at least be: below `RESOLUTION_ULPS · ε · R` (R the largest coordinate magnitude of
+/// the curve's start, middle and end points) a deviation or a step cannot be measured at all.
+pub const RESOLUTION_ULPS: f64 = 64.0;
+
+/// Refuses at once, naming the option, what chord-tolerance sampling could only refuse after
+/// placing millions of samples: a chord tolerance or a maximum step below the resolution of
+/// the curve's coordinates ([`RESOLUTION_ULPS`]), and a maximum step that would need more
+/// than `max_samples` samples over the curve's length.
+fn check_reachable<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    path: &CurveOnSurface<'_, S, C>,
+    opts: &ChordalOptions,
+    hints: &mut Hints,
+) -> std::result::Result<(), SampleError> {
+    use crate::numfmt::Num;
+    let dom = path.curve().domain();
+    let mut size: f64 = 0.0;
+    for t in [dom.lo, 0.5 * (dom.lo + dom.hi), dom.hi] {
+        let p = position(path, t, hints).map_err(|error| SampleError { index: 0, t, error })?;
+        size = size.max(p.amax());
+    }
+    let resolution = RESOLUTION_ULPS * f64::EPSILON * size;
+    for (name, x) in [
+        ("chord tolerance", opts.chord_tolerance),
+        ("max step", opts.max_step),
+    ] {
+        if x < resolution {
+            return Err(whole_error(StrakeError::InvalidArgument(format!(
+                "{name} = {}: below what the curve's coordinates (up to {}) resolve in f64, \
+                 {RESOLUTION_ULPS} ulps = {}; it cannot be met",
+                Num(x),
+                Num(size),
+                Num(resolution)
+            ))));
+        }
+    }
+    if opts.max_step.is_finite() {
+        let length =
+            integrate(path, dom.lo, dom.hi, opts.arc_tolerance, hints).map_err(|error| {
+                SampleError {
+                    index: 0,
+                    t: dom.lo,
+                    error,
+                }
+            })?;
+        let needed = (length / opts.max_step).ceil() + 1.0;
+        if needed > opts.max_samples as f64 {
+            return Err(whole_error(StrakeError::InvalidArgument(format!(
+                "max step = {}: the curve's length {} needs at least {} samples, above max \
+                 samples = {}",
+                Num(opts.max_step),
+                Num(length),
+                Num(needed),
+                opts.max_samples
+            ))));
+        }
+    }
+    Ok(())
+}
+
 /// Samples adaptively so that the chord between consecutive samples stays within
 /// `opts.chord_tolerance` of the curve and their arc-length spacing within `opts.max_step`
 /// (see the module docs for the step rule and its verification). The first sample is at the
@@ -665,7 +774,9 @@ fn peak_deviation(e1: f64, e2: f64, e3: f64) -> f64 {
 /// first `len` of them, and a caller whose slice was shorter than the count can call again
 /// with a slice of that size (the result is deterministic).
 ///
-/// Errors: `InvalidArgument` for bad options (index 0), or when the step needed falls below
+/// Errors: `InvalidArgument` for bad options (index 0), a chord tolerance or maximum step
+/// below the resolution of the curve's coordinates or a maximum step that would need more than
+/// `max_samples` samples (index 0, refused before any sample is placed), or when the step needed falls below
 /// 1e-13 of the curve's parameter range (a tolerance below round-off), or the count would
 /// exceed `opts.max_samples`, with the index of the sample that could not be placed; every
 /// evaluation error, with its sample's index and t.
@@ -685,6 +796,7 @@ where
     let min_dt = 1e-13 * dom.width();
     let mut hints = Hints::default();
     let mut qh = Hints::default();
+    check_reachable(path, opts, &mut qh)?;
     let mut cur = sample_at(path, 0, dom.lo, 0.0, &mut hints)?;
     sink.put(0, &cur);
     let mut count = 1;

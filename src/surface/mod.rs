@@ -137,7 +137,8 @@ pub trait SurfaceSource: Send + Sync {
         Ok(p)
     }
 
-    /// The jet at (u, v): checks that u and v are finite and inside the domain (no clamping),
+    /// The jet at (u, v): checks that u and v are finite and inside the domain (within
+    /// [`Interval::snap_tolerance`] of an end snapped onto it exactly; farther out refused),
     /// evaluates, and checks that every requested entry is finite.
     ///
     /// Errors: `NonFinite` (parameter or jet), `OutOfDomain`, and whatever the source reports.
@@ -149,8 +150,8 @@ pub trait SurfaceSource: Send + Sync {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> Result<SurfaceJet> {
-        self.u_domain().check("u", u)?;
-        self.v_domain().check("v", v)?;
+        let u = self.u_domain().snap("u", u)?;
+        let v = self.v_domain().snap("v", v)?;
         let jet = self.jet_in_domain(u, v, order, hint)?;
         jet.check_finite()?;
         Ok(jet)

@@ -391,8 +391,12 @@ def path_samples(surf_name, path_name, ut, vt, t_extent, ts, fields):
 
         # Conditioning figures, by their definitions in src/principal.rs and src/frame.rs.
         ue, ve, te = (mpf(sp.N(x, 70)) for x in (u_ext, v_ext, t_extent))
-        a, b = mnorm(Su) * ue, mnorm(Sv) * ve
-        cond_s = mnorm(crv) * ue * ve / max(a, b) ** 2
+        # c = |Su x Sv| / (rho_u rho_v), rho_u^2 = |Su|^2 + |Suu|^2 du^2 + |Suv|^2 dv^2,
+        # rho_v^2 = |Sv|^2 + |Svv|^2 dv^2 + |Suv|^2 du^2.
+        suu, suv, svv = jet[3], jet[4], jet[5]
+        rho_u = mpmath.sqrt(mdot(Su, Su) + mdot(suu, suu) * ue**2 + mdot(suv, suv) * ve**2)
+        rho_v = mpmath.sqrt(mdot(Sv, Sv) + mdot(svv, svv) * ve**2 + mdot(suv, suv) * ue**2)
+        cond_s = mnorm(crv) / (rho_u * rho_v)
         cond_c = mpmath.hypot(cj[2] / ue, cj[3] / ve) * te
         values = (
             [surf_name, path_name, fmt(ue), fmt(ve), fmt(te), fmt(mpf(t0.p) / t0.q)]
