@@ -252,19 +252,19 @@ fn march(s: &NurbsSurface, q: Vec3, d: Vec3, h: f64) -> Option<Vec3> {
             ln = lo;
             cur = height(ln);
         }
-        if let (Some(a), Some(b)) = (prev, cur) {
-            if (a > 0.0) != (b > 0.0) {
-                let (mut lo, mut hi) = (l, ln);
-                for _ in 0..80 {
-                    let m = 0.5 * (lo + hi);
-                    if (height(m).unwrap() > 0.0) == (a > 0.0) {
-                        lo = m;
-                    } else {
-                        hi = m;
-                    }
+        if let (Some(a), Some(b)) = (prev, cur)
+            && (a > 0.0) != (b > 0.0)
+        {
+            let (mut lo, mut hi) = (l, ln);
+            for _ in 0..80 {
+                let m = 0.5 * (lo + hi);
+                if (height(m).unwrap() > 0.0) == (a > 0.0) {
+                    lo = m;
+                } else {
+                    hi = m;
                 }
-                return Some(q + d * (0.5 * (lo + hi)));
             }
+            return Some(q + d * (0.5 * (lo + hi)));
         }
         prev = height(l + h);
         l += h;

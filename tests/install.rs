@@ -31,10 +31,10 @@ fn scratch() -> &'static Path {
         if let Ok(entries) = std::fs::read_dir(&base) {
             for e in entries.flatten() {
                 let name = e.file_name().to_string_lossy().into_owned();
-                if let Some(pid) = name.strip_prefix("strake-install-test-") {
-                    if !Path::new("/proc").join(pid).exists() {
-                        let _ = std::fs::remove_dir_all(e.path());
-                    }
+                if let Some(pid) = name.strip_prefix("strake-install-test-")
+                    && !Path::new("/proc").join(pid).exists()
+                {
+                    let _ = std::fs::remove_dir_all(e.path());
                 }
             }
         }

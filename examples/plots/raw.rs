@@ -155,10 +155,10 @@ fn fields(
             v.len()
         ));
     }
-    if let Some(i) = index {
-        if v[0] != i as f64 {
-            return Err(format!("expected index {i}: {line}"));
-        }
+    if let Some(i) = index
+        && v[0] != i as f64
+    {
+        return Err(format!("expected index {i}: {line}"));
     }
     Ok(v[skip..].to_vec())
 }

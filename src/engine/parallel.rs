@@ -13,8 +13,8 @@
 //! A thread that cannot be started (an address-space or thread-count limit, as batch
 //! schedulers set) is not an error: the batch goes on with the threads that did start, down to
 //! the calling thread alone, and gives the same results (regression tests in this module: a
-//! spawn failure simulated at every position, and in `tests/regression_parallel_spawn.rs` a real
-//! address-space limit in a child process).
+//! spawn failure simulated at every position; a real address-space limit in a child process is not
+//! tested yet).
 
 use crate::curve::UvCurve;
 use crate::engine::batch::{CHUNK, SinkSlice};
