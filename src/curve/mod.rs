@@ -241,3 +241,15 @@ pub fn uv_line(u0: f64, v0: f64, u1: f64, v1: f64) -> Result<NurbsCurve<2>> {
     }
     NurbsCurve::new(1, &[0.0, 0.0, 1.0, 1.0], &[[u0, v0], [u1, v1]], None)
 }
+
+/// How many leading lanes of a block evaluation's output hold jets, from its result: all `len`
+/// on success, the lanes before the failing point of a [`StrakeError::AtPoint`] error, none for
+/// any other error. Curves that post-process the jets of an inner curve's block (seam wrapping,
+/// domain holding) treat exactly these lanes.
+pub(crate) fn lanes_written(r: &Result<()>, len: usize) -> usize {
+    match r {
+        Ok(()) => len,
+        Err(StrakeError::AtPoint { index, .. }) => *index,
+        Err(_) => 0,
+    }
+}

@@ -554,13 +554,11 @@ impl UvCurve for SeamCurve {
         out: &mut [CurveJet],
     ) -> Result<()> {
         let r = self.curve.jets_in_domain_block(ts, hint, out);
-        // The lanes before a failing point are used by the caller too: wrap them as well.
-        let written = match &r {
-            Ok(()) => ts.len(),
-            Err(StrakeError::AtPoint { index, .. }) => *index,
-            Err(_) => 0,
-        };
-        for j in out.iter_mut().take(written) {
+        // The lanes before a failing point are used by the caller too.
+        for j in out
+            .iter_mut()
+            .take(crate::curve::lanes_written(&r, ts.len()))
+        {
             self.wrap(j);
         }
         r

@@ -248,12 +248,11 @@ impl UvCurve for PieceCurve {
         out: &mut [CurveJet],
     ) -> Result<()> {
         let r = self.curve.jets_in_domain_block(ts, hint, out);
-        let written = match &r {
-            Ok(()) => ts.len(),
-            Err(StrakeError::AtPoint { index, .. }) => *index,
-            Err(_) => 0,
-        };
-        for j in out.iter_mut().take(written) {
+        // The lanes before a failing point are used by the caller too.
+        for j in out
+            .iter_mut()
+            .take(crate::curve::lanes_written(&r, ts.len()))
+        {
             self.hold(j);
         }
         r
