@@ -339,8 +339,9 @@ impl fmt::Display for StrakeError {
             } => write!(
                 f,
                 "the tool-centre path folds back at sample {index} (t = {t}): d(centre)/ds \
-                 along the contact tangent is {speed_along:e} (the cutter is larger than a \
-                 concave radius there); {count} sample(s) of the call fold"
+                 along the contact tangent is {speed_along} (the cutter is larger than a \
+                 concave radius there); {count} sample(s) of the call fold",
+                speed_along = crate::numfmt::Num(*speed_along)
             ),
         }
     }

@@ -62,7 +62,8 @@ impl Cutter {
             } else {
                 Err(StrakeError::InvalidArgument(format!(
                     "cutter {name} = {x} must be positive, finite and not subnormal (its \
-                     curvature 1/{name} must be finite)"
+                     curvature 1/{name} must be finite)",
+                    x = crate::numfmt::Exact(x)
                 )))
             }
         };
@@ -240,7 +241,8 @@ pub fn cut_width(cutter: &Cutter, angles: &ToolAngles, h: f64) -> Result<f64> {
     angles.validate()?;
     if !(h.is_finite() && h > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "scallop height = {h} must be positive and finite"
+            "scallop height = {h} must be positive and finite",
+            h = crate::numfmt::Exact(h)
         )));
     }
     let (big_r, r) = cutter.torus_radii();

@@ -36,7 +36,8 @@ impl FeedLimits {
             if let Some(x) = x {
                 if !(x.is_finite() && x > 0.0) {
                     return Err(StrakeError::InvalidArgument(format!(
-                        "{name} = {x} must be positive and finite"
+                        "{name} = {x} must be positive and finite",
+                        x = crate::numfmt::Exact(x)
                     )));
                 }
             }

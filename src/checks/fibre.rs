@@ -43,7 +43,8 @@ impl FibreLimits {
         for (name, x) in fields {
             if !(x.is_finite() && x > 0.0) {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "{name} = {x} must be positive and finite"
+                    "{name} = {x} must be positive and finite",
+                    x = crate::numfmt::Exact(x)
                 )));
             }
         }
@@ -99,7 +100,8 @@ pub struct TowEdges {
 pub fn tow_edges(f: &DarbouxFrame, tow_width: f64) -> Result<TowEdges> {
     if !(tow_width.is_finite() && tow_width > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "tow_width = {tow_width} must be positive and finite"
+            "tow_width = {tow_width} must be positive and finite",
+            tow_width = crate::numfmt::Exact(tow_width)
         )));
     }
     let y = 0.5 * tow_width;

@@ -60,7 +60,8 @@ fn check(name: &str, x: f64, positive: bool) -> Result<()> {
                 "positive and finite"
             } else {
                 "finite"
-            }
+            },
+            x = crate::numfmt::Exact(x)
         )))
     }
 }
@@ -101,7 +102,9 @@ pub fn scallop_height(r: f64, w: f64, kappa: f64) -> Result<f64> {
     concave_fit(r, kappa)?;
     let too_wide = || {
         StrakeError::InvalidArgument(format!(
-            "step-over = {w} is too wide for cutter radius {r}: adjacent passes do not overlap"
+            "step-over = {w} is too wide for cutter radius {r}: adjacent passes do not overlap",
+            w = crate::numfmt::Exact(w),
+            r = crate::numfmt::Exact(r)
         ))
     };
     // Work in units of r: w' = w/r, κ' = κ r (no overflow for any representable r).
@@ -173,7 +176,9 @@ pub fn step_over_for_scallop(r: f64, h: f64, kappa: f64) -> Result<f64> {
     concave_fit(r, kappa)?;
     let too_high = || {
         StrakeError::InvalidArgument(format!(
-            "scallop height = {h} is not reachable with cutter radius {r} on this curvature"
+            "scallop height = {h} is not reachable with cutter radius {r} on this curvature",
+            h = crate::numfmt::Exact(h),
+            r = crate::numfmt::Exact(r)
         ))
     };
     // Work in units of r (see the module docs).

@@ -85,7 +85,8 @@ fn check_lengths<P: PathPosition>(samples: &[P], values: &[f64]) -> Result<()> {
         for (what, x) in [("t", p.t()), ("arc length", p.arc_length())] {
             if !x.is_finite() {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "sample[{i}] has {what} = {x}; it must be finite"
+                    "sample[{i}] has {what} = {}; it must be finite",
+                    crate::numfmt::Exact(x)
                 )));
             }
         }
@@ -119,16 +120,28 @@ pub fn extremes<P: PathPosition>(samples: &[P], values: &[f64]) -> Result<Extrem
     })
 }
 
-/// Where the crossing of `limit` lies between samples a and b, as (arc length, t).
+/// The point a fraction `f` in [0, 1] of the way from `a` to `b`, without overflow for any
+/// finite ends: (1 − f) a + f b never exceeds the larger end in magnitude (where b − a would
+/// overflow for ends of opposite sign near ±DBL_MAX), kept between the ends against rounding.
+fn lerp(a: f64, b: f64, f: f64) -> f64 {
+    ((1.0 - f) * a + f * b).clamp(a.min(b), a.max(b))
+}
+
+/// Where the crossing of `limit` lies between samples a and b, as (arc length, t). The
+/// fraction is computed on halved values when the differences overflow (values near
+/// ±DBL_MAX), which changes nothing else: halving is exact there.
 fn crossing<P: PathPosition>(a: &P, va: f64, b: &P, vb: f64, limit: f64) -> (f64, f64) {
-    let f = (limit - va) / (vb - va);
+    let mut f = (limit - va) / (vb - va);
+    if !f.is_finite() {
+        f = (0.5 * limit - 0.5 * va) / (0.5 * vb - 0.5 * va);
+    }
     if !f.is_finite() {
         return (b.arc_length(), b.t());
     }
     let f = f.clamp(0.0, 1.0);
     (
-        a.arc_length() + f * (b.arc_length() - a.arc_length()),
-        a.t() + f * (b.t() - a.t()),
+        lerp(a.arc_length(), b.arc_length(), f),
+        lerp(a.t(), b.t(), f),
     )
 }
 
@@ -192,4 +205,50 @@ pub fn violations<P: PathPosition>(
         i += 1;
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    struct At(f64, f64);
+    impl PathPosition for At {
+        fn t(&self) -> f64 {
+            self.0
+        }
+        fn arc_length(&self) -> f64 {
+            self.1
+        }
+    }
+
+    fn one(samples: &[At], values: &[f64], limit: f64) -> Violation {
+        let mut out = Vec::new();
+        violations(samples, values, limit, &mut out).unwrap();
+        assert_eq!(out.len(), 1, "{out:?}");
+        out[0]
+    }
+
+    // Regression (issue 16, item 6): ends of a violation between samples at ±1.7e308 were
+    // infinite (b − a overflowed). Exact expected values: the crossings lie half-way, and
+    // half-way between −M and M is 0, between 0 and M is M/2 (all exact in binary).
+    #[test]
+    fn violation_ends_at_extreme_arc_lengths_and_values_are_finite_and_exact() {
+        let m = 1.7e308;
+        let v = one(&[At(-m, -m), At(0.0, 0.0), At(m, m)], &[0.0, 2.0, 0.0], 1.0);
+        assert_eq!((v.start_arc_length, v.end_arc_length), (-0.5 * m, 0.5 * m));
+        assert_eq!((v.start_t, v.end_t), (-0.5 * m, 0.5 * m));
+        let v = one(&[At(-m, -m), At(m, m)], &[0.0, 2.0], 1.0);
+        assert_eq!((v.start_arc_length, v.start_t), (0.0, 0.0));
+        // Values at ±1.7e308: (limit − va)/(vb − va) overflowed to inf/inf.
+        let v = one(
+            &[At(0.0, 0.0), At(1.0, 1.0), At(2.0, 2.0)],
+            &[-m, m, -m],
+            0.0,
+        );
+        assert_eq!((v.start_arc_length, v.end_arc_length), (0.5, 1.5));
+        assert_eq!(v.worst, m);
+        // Ordinary values are unchanged: a quarter of the way.
+        let v = one(&[At(0.0, 0.0), At(4.0, 8.0)], &[0.0, 4.0], 1.0);
+        assert_eq!((v.start_t, v.start_arc_length), (1.0, 2.0));
+    }
 }

@@ -46,7 +46,8 @@ impl ToolAngles {
         for (name, x) in [("lead", self.lead), ("tilt", self.tilt)] {
             if !(x.is_finite() && x.abs() < std::f64::consts::FRAC_PI_2) {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "{name} angle = {x} rad is outside (-pi/2, pi/2)"
+                    "{name} angle = {x} rad is outside (-pi/2, pi/2)",
+                    x = crate::numfmt::Exact(x)
                 )));
             }
         }
@@ -110,8 +111,9 @@ impl ToolFrame {
         let dot = t.dot(&f.n);
         if dot.abs() > FRAME_ORTHOGONALITY_SLACK {
             return Err(StrakeError::InvalidArgument(format!(
-                "frame tangent and normal are not orthogonal (T.N = {dot:e}); pass a frame \
-                 computed by strake"
+                "frame tangent and normal are not orthogonal (T.N = {dot}); pass a frame \
+                 computed by strake",
+                dot = crate::numfmt::Num(dot)
             )));
         }
         let n0 = f.n - t * dot;

@@ -73,7 +73,7 @@ fn feed_limits(l: &StrakeFeedLimits) -> Result<FeedLimits, Failure> {
     if !(l.max_jerk.is_finite() && l.max_jerk >= 0.0) {
         return Err(Failure::invalid(format!(
             "limits->max_jerk = {} must be positive and finite, or 0 for no jerk limit",
-            l.max_jerk
+            crate::numfmt::Exact(l.max_jerk)
         )));
     }
     Ok(FeedLimits {

@@ -286,8 +286,8 @@ pub unsafe extern "C" fn strake_frame_from_jets(
                 StrakeStatus::StalledCurve,
                 format!(
                     "stalled curve: the curve jet's velocity (du, dv) = ({}, {}) vanishes relative \
-                     to the parameter scales (speed figure {speed_figure:e}); the tangent is undefined",
-                    cj.du, cj.dv
+                     to the parameter scales (speed figure {speed_figure}); the tangent is undefined",
+                    cj.du, cj.dv, speed_figure = crate::numfmt::Num(speed_figure)
                 ),
             ),
             e => e.into(),

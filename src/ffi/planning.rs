@@ -288,7 +288,7 @@ fn pass_options(o: &StrakePassOptions) -> Result<PassOptions, Failure> {
     if !(o.chord_tolerance.is_finite() && o.chord_tolerance > 0.0) {
         return Err(Failure::invalid(format!(
             "`options->chord_tolerance` = {}: it must be positive and finite",
-            o.chord_tolerance
+            crate::numfmt::Exact(o.chord_tolerance)
         )));
     }
     let mut p = PassOptions::iso_scallop(o.ball_radius, side, 1.0, advance, o.chord_tolerance);

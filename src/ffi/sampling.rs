@@ -272,7 +272,8 @@ pub unsafe extern "C" fn strake_samples_at(
         super::guard::check_count::<StrakeSample>(count, "count")?;
         if !(arc_tolerance.is_finite() && arc_tolerance > 0.0) {
             return Err(Failure::invalid(format!(
-                "`arc_tolerance` = {arc_tolerance} must be positive and finite (e.g. 1e-10)"
+                "`arc_tolerance` = {arc_tolerance} must be positive and finite (e.g. 1e-10)",
+                arc_tolerance = crate::numfmt::Exact(arc_tolerance)
             )));
         }
         let pair = CurveOnSurface::new(s.source(), c.curve());

@@ -140,7 +140,9 @@ fn checked_lines(
         if !(domain.lo < x && x < domain.hi) {
             return Err(Failure::invalid(format!(
                 "{name}[{i}] = {x} is not strictly inside the domain [{}, {}]",
-                domain.lo, domain.hi
+                crate::numfmt::Exact(domain.lo),
+                crate::numfmt::Exact(domain.hi),
+                x = crate::numfmt::Exact(x)
             )));
         }
         if i > 0 && x <= xs[i - 1] {

@@ -35,6 +35,7 @@ use crate::geodesics::trace::{
 use crate::geometry::jet::DerivOrder;
 use crate::geometry::math::Vec3;
 use crate::geometry::principal::SurfacePoint;
+use crate::numfmt::Exact;
 use crate::paths::curve_on_surface::CurveOnSurface;
 use crate::paths::sampling::arc_length;
 use crate::surface::{SurfaceHint, SurfaceSource};
@@ -65,7 +66,8 @@ impl BetweenOptions {
         if !(self.tolerance.is_finite() && self.tolerance > 0.0) || self.max_iterations == 0 {
             return Err(StrakeError::InvalidArgument(format!(
                 "tolerance = {} must be positive and finite and max_iterations = {} at least 1",
-                self.tolerance, self.max_iterations
+                crate::numfmt::Exact(self.tolerance),
+                self.max_iterations
             )));
         }
         Ok(())
@@ -177,7 +179,10 @@ impl<S: SurfaceSource + ?Sized> Shooter<'_, S> {
             }
             if !improved {
                 return Ok(Solve::Failed(format!(
-                    "no Newton step reduced the miss {miss:e} (angle {theta}, length {len})"
+                    "no Newton step reduced the miss {miss} (angle {theta}, length {len})",
+                    miss = crate::numfmt::Num(miss),
+                    theta = crate::numfmt::Num(theta),
+                    len = crate::numfmt::Num(len)
                 )));
             }
         }
@@ -185,8 +190,11 @@ impl<S: SurfaceSource + ?Sized> Shooter<'_, S> {
             return Ok(Solve::Done(g, theta, len, miss));
         }
         Ok(Solve::Failed(format!(
-            "{} iterations left a miss of {miss:e} (angle {theta}, length {len})",
-            self.opts.max_iterations
+            "{} iterations left a miss of {miss} (angle {theta}, length {len})",
+            self.opts.max_iterations,
+            miss = crate::numfmt::Num(miss),
+            theta = crate::numfmt::Num(theta),
+            len = crate::numfmt::Num(len)
         )))
     }
 }
@@ -227,8 +235,12 @@ pub fn geodesic_between<S: SurfaceSource + ?Sized>(
     )?;
     if (jp.p - jq.p).norm() <= opts.tolerance {
         return Err(StrakeError::InvalidArgument(format!(
-            "the points ({}, {}) and ({}, {}) coincide within the tolerance {:e}",
-            from.0, from.1, to.0, to.1, opts.tolerance
+            "the points ({}, {}) and ({}, {}) coincide within the tolerance {}",
+            Exact(from.0),
+            Exact(from.1),
+            Exact(to.0),
+            Exact(to.1),
+            crate::numfmt::Num(opts.tolerance)
         )));
     }
     let line = uv_line(from.0, from.1, to.0, to.1)?;
@@ -282,7 +294,10 @@ pub fn geodesic_between<S: SurfaceSource + ?Sized>(
         Solve::Failed(what) => Err(StrakeError::GeodesicNotFound {
             what: format!(
                 "shooting from ({}, {}) to ({}, {}) failed, also with continuation: {what}",
-                from.0, from.1, to.0, to.1
+                Exact(from.0),
+                Exact(from.1),
+                Exact(to.0),
+                Exact(to.1)
             ),
         }),
         Solve::Done(geodesic, angle, len, miss) => {
@@ -291,9 +306,14 @@ pub fn geodesic_between<S: SurfaceSource + ?Sized>(
                     return Err(StrakeError::GeodesicNotFound {
                         what: format!(
                             "shooting from ({}, {}) to ({}, {}) converged to a geodesic of \
-                             length {len}, longer than the straight parameter line ({bound}): \
+                             length {}, longer than the straight parameter line ({}): \
                              not the shortest path",
-                            from.0, from.1, to.0, to.1
+                            Exact(from.0),
+                            Exact(from.1),
+                            Exact(to.0),
+                            Exact(to.1),
+                            crate::numfmt::Num(len),
+                            crate::numfmt::Num(bound)
                         ),
                     });
                 }

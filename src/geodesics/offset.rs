@@ -93,7 +93,7 @@ impl OffsetDistance {
                         return Err(StrakeError::InvalidArgument(format!(
                             "distance table: t[{i}] = {} must be finite and above the one \
                              before",
-                            t[i]
+                            crate::numfmt::Exact(t[i])
                         )));
                     }
                     check_distance(d[i], t[i])?;
@@ -129,9 +129,16 @@ fn check_distance(d: f64, t: f64) -> Result<()> {
         return Ok(());
     }
     Err(StrakeError::InvalidArgument(if t.is_nan() {
-        format!("offset distance = {d} must be finite and >= 0")
+        format!(
+            "offset distance = {d} must be finite and >= 0",
+            d = crate::numfmt::Exact(d)
+        )
     } else {
-        format!("offset distance at path parameter t = {t} is {d}; it must be finite and >= 0")
+        format!(
+            "offset distance at path parameter t = {t} is {d}; it must be finite and >= 0",
+            t = crate::numfmt::Exact(t),
+            d = crate::numfmt::Exact(d)
+        )
     }))
 }
 
@@ -165,7 +172,7 @@ impl OffsetOptions {
         if !(self.chord_tolerance.is_finite() && self.chord_tolerance > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
                 "chord_tolerance = {} must be positive and finite",
-                self.chord_tolerance
+                crate::numfmt::Exact(self.chord_tolerance)
             )));
         }
         self.trace.check()?;
@@ -344,11 +351,11 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
             what: format!(
                 "the offset at distance {} leaves the surface at every sample: at path \
                  parameter t = {} the geodesic ends after {} at (u, v) = ({}, {})",
-                distance.at(first.t),
-                first.t,
-                first.distance,
-                first.u,
-                first.v
+                crate::numfmt::Exact(distance.at(first.t)),
+                crate::numfmt::Exact(first.t),
+                crate::numfmt::Num(first.distance),
+                crate::numfmt::Exact(first.u),
+                crate::numfmt::Exact(first.v)
             ),
         });
     }
@@ -378,9 +385,11 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
             if computed >= opts.max_samples {
                 return Err(StrakeError::NotConverged {
                     what: format!(
-                        "offset: max_samples = {} used up before the chord tolerance {:e} \
-                         was met (near path parameter t = {tm})",
-                        opts.max_samples, opts.chord_tolerance
+                        "offset: max_samples = {} used up before the chord tolerance {} \
+                         was met (near path parameter t = {})",
+                        opts.max_samples,
+                        crate::numfmt::Num(opts.chord_tolerance),
+                        crate::numfmt::Exact(tm)
                     ),
                     iterations: computed,
                 });

@@ -82,7 +82,7 @@ impl TraceOptions {
         if !(self.tolerance.is_finite() && self.tolerance > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
                 "tolerance = {} must be positive and finite",
-                self.tolerance
+                crate::numfmt::Exact(self.tolerance)
             )));
         }
         if self.max_steps == 0 {
@@ -375,7 +375,8 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
     opts.check()?;
     if !(length.is_finite() && length > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "length = {length} must be positive and finite"
+            "length = {length} must be positive and finite",
+            length = crate::numfmt::Exact(length)
         )));
     }
     let (ud, vd) = (surface.u_domain(), surface.v_domain());
@@ -398,7 +399,9 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
             return Err(StrakeError::LeavesSurface {
                 what: format!(
                     "the geodesic from (u, v) = ({u}, {v}) on the domain boundary heads out of \
-                     the domain at once (direction (du, dv) = ({p}, {q}))"
+                     the domain at once (direction (du, dv) = ({p}, {q}))",
+                    u = crate::numfmt::Exact(u),
+                    v = crate::numfmt::Exact(v)
                 ),
             });
         }
@@ -527,8 +530,11 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
             if h < h_min {
                 return Err(StrakeError::GeodesicIncomplete {
                     what: format!(
-                        "the error estimate {err:e} stays above the tolerance {tol:e} with the \
-                         step at its floor {h_min:e}"
+                        "the error estimate {err} stays above the tolerance {tol} with the \
+                         step at its floor {h_min}",
+                        err = crate::numfmt::Num(err),
+                        tol = crate::numfmt::Num(tol),
+                        h_min = crate::numfmt::Num(h_min)
                     ),
                     arc_length: s,
                     u: y[0],
@@ -541,7 +547,10 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
         let s_new = if hs >= remaining { length } else { s + hs };
         if s_new <= s {
             return Err(StrakeError::GeodesicIncomplete {
-                what: format!("the step {hs:e} no longer advances the arc length"),
+                what: format!(
+                    "the step {hs} no longer advances the arc length",
+                    hs = crate::numfmt::Num(hs)
+                ),
                 arc_length: s,
                 u: y[0],
                 v: y[1],

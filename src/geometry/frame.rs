@@ -58,7 +58,8 @@ impl ParamScales {
         ] {
             if !(x.is_finite() && x > 0.0) {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "{name} = {x}: parameter extents must be positive and finite"
+                    "{name} = {x}: parameter extents must be positive and finite",
+                    x = crate::numfmt::Exact(x)
                 )));
             }
         }

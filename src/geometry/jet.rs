@@ -169,18 +169,24 @@ impl Interval {
     pub fn new(name: &str, lo: f64, hi: f64) -> Result<Self> {
         if !lo.is_finite() || !hi.is_finite() {
             return Err(StrakeError::InvalidArgument(format!(
-                "{name} range [{lo}, {hi}] is not finite"
+                "{name} range [{lo}, {hi}] is not finite",
+                lo = crate::numfmt::Exact(lo),
+                hi = crate::numfmt::Exact(hi)
             )));
         }
         if lo >= hi {
             return Err(StrakeError::InvalidArgument(format!(
-                "{name} range [{lo}, {hi}] is empty: the lower end must be below the upper end"
+                "{name} range [{lo}, {hi}] is empty: the lower end must be below the upper end",
+                lo = crate::numfmt::Exact(lo),
+                hi = crate::numfmt::Exact(hi)
             )));
         }
         if !(hi - lo).is_finite() {
             return Err(StrakeError::InvalidArgument(format!(
                 "{name} range [{lo}, {hi}] is too wide: its width hi - lo overflows to {}",
-                hi - lo
+                hi - lo,
+                lo = crate::numfmt::Exact(lo),
+                hi = crate::numfmt::Exact(hi)
             )));
         }
         Ok(Interval { lo, hi })

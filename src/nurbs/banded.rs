@@ -67,7 +67,8 @@ impl BandMatrix {
             if best.is_nan() || best <= pivot_floor {
                 return Err(StrakeError::InvalidArgument(format!(
                     "the interpolation system is singular at column {k} (largest pivot \
-                     {best:e}); the parameters do not suit the degree"
+                     {best}); the parameters do not suit the degree",
+                    best = crate::numfmt::Num(best)
                 )));
             }
             let last_col = (k + kl + ku).min(n - 1);

@@ -100,7 +100,8 @@ fn unit_half_circle() -> PlanarNurbs {
 fn check_length(name: &str, x: f64) -> Result<()> {
     if !(x.is_finite() && x > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "{name} = {x} must be positive and finite"
+            "{name} = {x} must be positive and finite",
+            x = crate::numfmt::Exact(x)
         )));
     }
     Ok(())

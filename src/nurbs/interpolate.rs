@@ -141,9 +141,10 @@ pub fn interpolation_parameters<const D: usize>(
             return Err(at_point(
                 k,
                 StrakeError::InvalidArgument(format!(
-                    "point {k} coincides with point {} (chord length {chord:e}): consecutive \
+                    "point {k} coincides with point {} (chord length {chord}): consecutive \
                      points must differ",
-                    k - 1
+                    k - 1,
+                    chord = crate::numfmt::Num(chord)
                 )),
             ));
         }

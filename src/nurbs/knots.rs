@@ -56,14 +56,16 @@ impl KnotVector {
         for (i, &k) in knots.iter().enumerate() {
             if !k.is_finite() {
                 return Err(StrakeError::InvalidKnots(format!(
-                    "{name}: knot[{i}] = {k} is not finite"
+                    "{name}: knot[{i}] = {k} is not finite",
+                    k = crate::numfmt::Exact(k)
                 )));
             }
             if i > 0 && k < knots[i - 1] {
                 return Err(StrakeError::InvalidKnots(format!(
                     "{name}: knot[{i}] = {k} is below knot[{}] = {}; knots must be non-decreasing",
                     i - 1,
-                    knots[i - 1]
+                    crate::numfmt::Exact(knots[i - 1]),
+                    k = crate::numfmt::Exact(k)
                 )));
             }
         }

@@ -109,7 +109,7 @@ impl ProjectionOptions {
         if self.tolerance.is_nan() || self.tolerance <= 0.0 {
             return Err(StrakeError::InvalidArgument(format!(
                 "projection tolerance = {}: it must be positive",
-                self.tolerance
+                crate::numfmt::Exact(self.tolerance)
             )));
         }
         if !(2..=1000).contains(&self.grid) {
@@ -391,7 +391,8 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
                 return Err(StrakeError::NotConverged {
                     what: format!(
                         "Newton's method for point inversion from the {GRID_CANDIDATES} nearest \
-                         grid nodes (best distance {d:e} at (u, v) = ({u}, {v}))"
+                         grid nodes (best distance {d} at (u, v) = ({u}, {v}))",
+                        d = crate::numfmt::Num(d)
                     ),
                     iterations: spent,
                 });
@@ -673,7 +674,9 @@ pub const MAX_CURVE_SAMPLES: usize = 100_000;
 /// Errors (`index` = sample number, or for a midpoint check the number of the sample that
 /// starts the interval; `t` = parameter of `curve` there): every error of
 /// [`Projector::project`] (`TooFarFromSurface`, `NotConverged`, …); `InvalidArgument` when the
-/// fit tolerance is not positive, or when the fit is still outside it at the sample cap;
+/// fit tolerance is not positive or below the resolution of the curve's coordinates
+/// ([`crate::paths::sampling::RESOLUTION_ULPS`] ulps of its largest coordinate, refused before
+/// any projection), or when the fit is still outside it at the sample cap;
 /// interpolation errors.
 pub fn project_curve<S: SurfaceSource + ?Sized>(
     surface: &S,
@@ -689,7 +692,8 @@ pub fn project_curve<S: SurfaceSource + ?Sized>(
     };
     if fit_tolerance.is_nan() || fit_tolerance <= 0.0 {
         return Err(whole(StrakeError::InvalidArgument(format!(
-            "fit tolerance = {fit_tolerance}: it must be positive"
+            "fit tolerance = {}: it must be positive",
+            crate::numfmt::Num(fit_tolerance)
         ))));
     }
     let kv = curve.knot_vector();
@@ -707,6 +711,28 @@ pub fn project_curve<S: SurfaceSource + ?Sized>(
     }
     ts.push(curve.domain().hi);
     let mut hint = SpanHint::default();
+    // A fit tolerance below what the curve's coordinates resolve cannot be met: refused at
+    // once rather than after halving the intervals down to the sample cap (a denormal
+    // tolerance took 40 s).
+    let mut size = 0.0_f64;
+    for (index, &t) in ts.iter().enumerate() {
+        let q = curve
+            .derivs(t, DerivOrder::Position, &mut hint)
+            .map_err(|error| SampleError { index, t, error })?
+            .p;
+        size = size.max(q.iter().fold(0.0_f64, |m, x| m.max(x.abs())));
+    }
+    let resolution = crate::paths::sampling::RESOLUTION_ULPS * f64::EPSILON * size;
+    if fit_tolerance < resolution {
+        return Err(whole(StrakeError::InvalidArgument(format!(
+            "fit tolerance = {}: below what the curve's coordinates (up to {}) resolve in f64, \
+             {} ulps = {}; it cannot be met",
+            crate::numfmt::Num(fit_tolerance),
+            crate::numfmt::Num(size),
+            crate::paths::sampling::RESOLUTION_ULPS,
+            crate::numfmt::Num(resolution)
+        ))));
+    }
     let mut pr = Projector::new(surface, *opts).map_err(whole)?;
     loop {
         pr.reset();
@@ -776,10 +802,12 @@ pub fn project_curve<S: SurfaceSource + ?Sized>(
         }
         if refined.len() > MAX_CURVE_SAMPLES {
             return Err(whole(StrakeError::InvalidArgument(format!(
-                "the fit of the projected curve is still {worst:e} away (fit tolerance \
-                 {fit_tolerance:e}) at {} samples; split the curve at its corners or loosen \
+                "the fit of the projected curve is still {worst} away (fit tolerance \
+                 {fit_tolerance}) at {} samples; split the curve at its corners or loosen \
                  the fit tolerance",
-                ts.len()
+                ts.len(),
+                worst = crate::numfmt::Num(worst),
+                fit_tolerance = crate::numfmt::Num(fit_tolerance)
             ))));
         }
         ts = refined;

@@ -136,7 +136,8 @@ impl<F: FnMut(usize, &PathSample)> SampleSink for SinkFn<F> {
 pub(crate) fn check_arc_tolerance(tol: f64) -> Result<()> {
     if !(tol.is_finite() && tol > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "arc length tolerance = {tol}: it must be positive and finite"
+            "arc length tolerance = {tol}: it must be positive and finite",
+            tol = crate::numfmt::Exact(tol)
         )));
     }
     Ok(())
@@ -540,7 +541,10 @@ fn invert_arc_length<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     }
     Err(StrakeError::NotConverged {
         what: format!(
-            "inverting arc length: s({t}) misses its target by {f:e} (tolerance {abs_tol:e})"
+            "inverting arc length: s({t}) misses its target by {f} (tolerance {abs_tol})",
+            f = crate::numfmt::Num(f),
+            abs_tol = crate::numfmt::Num(abs_tol),
+            t = crate::numfmt::Exact(t)
         ),
         iterations: 200,
     })
@@ -642,13 +646,13 @@ impl ChordalOptions {
         if !(self.chord_tolerance.is_finite() && self.chord_tolerance > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
                 "chord tolerance = {}: it must be positive and finite",
-                self.chord_tolerance
+                crate::numfmt::Exact(self.chord_tolerance)
             )));
         }
         if self.max_step.is_nan() || self.max_step <= 0.0 {
             return Err(StrakeError::InvalidArgument(format!(
                 "max step = {}: it must be positive (or infinite for no limit)",
-                self.max_step
+                crate::numfmt::Exact(self.max_step)
             )));
         }
         if self.max_samples < 2 {
@@ -852,8 +856,11 @@ where
                 return Err(err(
                     cur.t,
                     StrakeError::InvalidArgument(format!(
-                        "the chord tolerance {delta:e} cannot be met: the step fell below \
-                         {min_dt:e} in t (deviation {peak:e} remains)"
+                        "the chord tolerance {delta} cannot be met: the step fell below \
+                         {min_dt} in t (deviation {peak} remains)",
+                        delta = crate::numfmt::Num(delta),
+                        min_dt = crate::numfmt::Num(min_dt),
+                        peak = crate::numfmt::Num(peak)
                     )),
                 ));
             }

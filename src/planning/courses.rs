@@ -144,7 +144,9 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
     }
     if !(angle.is_finite() && length.is_finite() && length > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "angle = {angle} must be finite and length = {length} positive and finite"
+            "angle = {angle} must be finite and length = {length} positive and finite",
+            angle = crate::numfmt::Exact(angle),
+            length = crate::numfmt::Exact(length)
         )));
     }
     let (ud, vd) = (surface.u_domain(), surface.v_domain());
@@ -183,8 +185,11 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
     let f0 = field(&j0, &sp0, &axis, cos_a, sin_a).map_err(|r| {
         StrakeError::InvalidArgument(format!(
             "axis ({}, {}, {}) is along the normal at the start (u, v) = ({u}, {v}): its \
-             tangent part is {r:e} of its length",
-            axis.x, axis.y, axis.z
+             tangent part is {r} of its length",
+            axis.x,
+            axis.y,
+            axis.z,
+            r = crate::numfmt::Num(r)
         ))
     })?;
     for k in 0..2 {
@@ -192,7 +197,9 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
         if (x <= lo[k] && f0[k] < 0.0) || (x >= hi[k] && f0[k] > 0.0) {
             return Err(StrakeError::LeavesSurface {
                 what: format!(
-                    "the course from (u, v) = ({u}, {v}) on the domain boundary heads out at once"
+                    "the course from (u, v) = ({u}, {v}) on the domain boundary heads out at once",
+                    u = crate::numfmt::Exact(u),
+                    v = crate::numfmt::Exact(v)
                 ),
             });
         }
@@ -316,8 +323,10 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
             if h < h_min {
                 return Err(StrakeError::GeodesicIncomplete {
                     what: format!(
-                        "fixed-angle course: the error estimate {err:e} stays above the \
-                         tolerance {tol:e} with the step at its floor"
+                        "fixed-angle course: the error estimate {err} stays above the \
+                         tolerance {tol} with the step at its floor",
+                        err = crate::numfmt::Num(err),
+                        tol = crate::numfmt::Num(tol)
                     ),
                     arc_length: s,
                     u: y[0],
@@ -399,7 +408,8 @@ pub fn adjacent_course<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
 ) -> Result<SurfaceOffset> {
     if !(band_width.is_finite() && band_width > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "band_width = {band_width} must be positive and finite"
+            "band_width = {band_width} must be positive and finite",
+            band_width = crate::numfmt::Exact(band_width)
         )));
     }
     offset_path(
@@ -440,7 +450,10 @@ pub struct CourseGaps {
 /// (B to `side` of A), at `samples` even parameters of A, intervals where the edge-to-edge
 /// width exceeds `tolerance` in size (see the module docs).
 ///
-/// Errors: `InvalidArgument` for a band width or tolerance not positive, fewer than 2 samples;
+/// Errors: `InvalidArgument` for a band width or tolerance not positive, below the resolution of
+/// A's coordinates ([`crate::paths::sampling::RESOLUTION_ULPS`] ulps of the largest, 100 times
+/// that for the tolerance) or a band width whose triple overflows, fewer than 2 samples or
+/// more than [`MAX_COURSE_SAMPLES`];
 /// the errors of A's frames and of the traces.
 #[allow(clippy::too_many_arguments)]
 pub fn course_gaps<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + ?Sized>(
@@ -458,7 +471,40 @@ pub fn course_gaps<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + 
     {
         return Err(StrakeError::InvalidArgument(format!(
             "band_width = {band_width} and tolerance = {tolerance} must be positive and \
-             finite, samples = {samples} at least 2"
+             finite, samples = {samples} at least 2",
+            band_width = crate::numfmt::Exact(band_width),
+            tolerance = crate::numfmt::Exact(tolerance)
+        )));
+    }
+    check_course_samples(samples)?;
+    // A band or a tolerance the coordinates cannot resolve (a denormal width gave a NaN in
+    // the traces' jets), or a search length 3 w that overflows, is refused at once.
+    let path = CurveOnSurface::new(surface, a);
+    let mut hints = Hints::default();
+    let ad = a.domain();
+    let mut size = 0.0_f64;
+    for t in [ad.lo, 0.5 * (ad.lo + ad.hi), ad.hi] {
+        size = size.max(path.frame(t, &mut hints)?.point.amax());
+    }
+    let resolution = crate::paths::sampling::RESOLUTION_ULPS * f64::EPSILON * size;
+    for (name, x, floor) in [
+        ("band_width", band_width, resolution),
+        ("tolerance", tolerance, 100.0 * resolution),
+    ] {
+        if x < floor {
+            return Err(StrakeError::InvalidArgument(format!(
+                "{name} = {}: below what the course's coordinates (up to {}) resolve in f64, \
+                 {}; it cannot be met",
+                crate::numfmt::Exact(x),
+                crate::numfmt::Num(size),
+                crate::numfmt::Num(floor)
+            )));
+        }
+    }
+    if !(3.0 * band_width).is_finite() {
+        return Err(StrakeError::InvalidArgument(format!(
+            "band_width = {}: three band widths (the search length) overflow",
+            crate::numfmt::Exact(band_width)
         )));
     }
     // B's band edge facing A: its geodesic parallel at w/2, as polygons in (u, v) fine
@@ -493,9 +539,6 @@ pub fn course_gaps<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + 
         }
         polys.push(poly);
     }
-    let path = CurveOnSurface::new(surface, a);
-    let mut hints = Hints::default();
-    let ad = a.domain();
     let sign = match side {
         OffsetSide::Left => 1.0,
         OffsetSide::Right => -1.0,
@@ -634,6 +677,20 @@ fn crossing_distance<B: UvCurve + ?Sized>(
     Ok(None)
 }
 
+/// The most samples [`course_check`] and [`course_gaps`] take: each costs at least one frame
+/// (a gap sample a geodesic trace), so a count above it is refused at once rather than
+/// evaluated for hours (a `SIZE_MAX` from a host's unsigned underflow).
+pub const MAX_COURSE_SAMPLES: usize = 10_000_000;
+
+fn check_course_samples(samples: usize) -> Result<()> {
+    if samples > MAX_COURSE_SAMPLES {
+        return Err(StrakeError::InvalidArgument(format!(
+            "samples = {samples}: at most {MAX_COURSE_SAMPLES} are taken"
+        )));
+    }
+    Ok(())
+}
+
 /// Steering and twist along a course, at even samples.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct CourseCheck {
@@ -655,7 +712,8 @@ pub struct CourseCheck {
 
 /// [`fibre_state`] at `samples` even parameters of `course` (≥ 2), summarised.
 ///
-/// Errors: `InvalidArgument` for bad limits or samples; the errors of the course's frames.
+/// Errors: `InvalidArgument` for bad limits, fewer than 2 samples or more than
+/// [`MAX_COURSE_SAMPLES`]; the errors of the course's frames.
 pub fn course_check<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     surface: &S,
     course: &C,
@@ -663,6 +721,7 @@ pub fn course_check<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     samples: usize,
 ) -> Result<CourseCheck> {
     limits.validate()?;
+    check_course_samples(samples)?;
     if samples < 2 {
         return Err(StrakeError::InvalidArgument(format!(
             "samples = {samples}: at least 2 are needed"

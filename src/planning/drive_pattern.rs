@@ -144,13 +144,13 @@ impl DriveOptions {
         if !(self.fit_tolerance.is_finite() && self.fit_tolerance > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
                 "drive fit_tolerance = {}: it must be positive and finite",
-                self.fit_tolerance
+                crate::numfmt::Exact(self.fit_tolerance)
             )));
         }
         if !(self.locate_tolerance > 0.0 && self.locate_tolerance <= 0.1) {
             return Err(StrakeError::InvalidArgument(format!(
                 "drive locate_tolerance = {}: it must lie in (0, 0.1]",
-                self.locate_tolerance
+                crate::numfmt::Exact(self.locate_tolerance)
             )));
         }
         Ok(())

@@ -116,7 +116,7 @@ impl PassOptions {
         if !(self.ball_radius.is_finite() && self.ball_radius > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
                 "ball radius = {}: it must be positive and finite",
-                self.ball_radius
+                crate::numfmt::Exact(self.ball_radius)
             )));
         }
         match self.rule {
@@ -124,7 +124,8 @@ impl PassOptions {
             StepRule::ConstantStepOver { step_over } => {
                 if !(step_over.is_finite() && step_over > 0.0) {
                     return Err(StrakeError::InvalidArgument(format!(
-                        "step-over = {step_over}: it must be positive and finite"
+                        "step-over = {step_over}: it must be positive and finite",
+                        step_over = crate::numfmt::Exact(step_over)
                     )));
                 }
             }

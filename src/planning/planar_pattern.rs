@@ -12,7 +12,8 @@ fn finite(name: &str, x: f64) -> Result<f64> {
         Ok(x)
     } else {
         Err(StrakeError::InvalidArgument(format!(
-            "{name} = {x}: it must be finite"
+            "{name} = {x}: it must be finite",
+            x = crate::numfmt::Exact(x)
         )))
     }
 }
@@ -40,7 +41,8 @@ pub fn parallel_lines(
     let yr = Interval::new("pattern y", y.0, y.1)?;
     if !(spacing.is_finite() && spacing > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "line spacing = {spacing}: it must be positive and finite"
+            "line spacing = {spacing}: it must be positive and finite",
+            spacing = crate::numfmt::Exact(spacing)
         )));
     }
     let angle = finite("line angle", angle)?;
@@ -123,12 +125,26 @@ impl ArchimedeanSpiral {
         if r_start < 0.0 || r_end <= r_start {
             return Err(StrakeError::InvalidArgument(format!(
                 "spiral radii r_start = {r_start}, r_end = {r_end}: they must satisfy \
-                 0 <= r_start < r_end"
+                 0 <= r_start < r_end",
+                r_start = crate::numfmt::Exact(r_start),
+                r_end = crate::numfmt::Exact(r_end)
             )));
         }
-        if !(pitch.is_finite() && pitch > 0.0) || (r_end - r_start) / pitch > 1e6 {
+        if !(pitch.is_finite() && pitch > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
-                "spiral pitch = {pitch}: it must be positive, finite and give at most 1e6 turns"
+                "spiral pitch = {}: it must be positive and finite",
+                crate::numfmt::Exact(pitch)
+            )));
+        }
+        let turns = (r_end - r_start) / pitch;
+        if !(turns <= 1e6) {
+            return Err(StrakeError::InvalidArgument(format!(
+                "spiral radii r_start = {} to r_end = {} at pitch = {}: {} turns, above the \
+                 cap of 1e+06",
+                crate::numfmt::Exact(r_start),
+                crate::numfmt::Exact(r_end),
+                crate::numfmt::Exact(pitch),
+                crate::numfmt::Num(turns)
             )));
         }
         let b = pitch / std::f64::consts::TAU;

@@ -42,7 +42,8 @@ pub fn check_target_scallop(h: f64) -> Result<()> {
         Ok(())
     } else {
         Err(StrakeError::InvalidArgument(format!(
-            "target scallop height = {h}: it must be positive and finite"
+            "target scallop height = {h}: it must be positive and finite",
+            h = crate::numfmt::Exact(h)
         )))
     }
 }
@@ -154,7 +155,8 @@ where
 {
     if !(r.is_finite() && r > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "cutter radius = {r}: it must be positive and finite"
+            "cutter radius = {r}: it must be positive and finite",
+            r = crate::numfmt::Exact(r)
         )));
     }
     let s = side.sign();
@@ -199,9 +201,11 @@ where
         let (mut lo, mut hi) = (0.0, std::f64::consts::FRAC_PI_2);
         if excess(hi, &mut tq)? >= 0.0 {
             return Err(StrakeError::InvalidArgument(format!(
-                "at t = {t} on the pass the neighbouring ball (radius {r}) does not reach the \
-                 side of this one: the centres are {:e} apart, the passes do not overlap",
-                (cb_near - centre).norm()
+                "at t = {} on the pass the neighbouring ball (radius {}) does not reach the \
+                 side of this one: the centres are {} apart, the passes do not overlap",
+                crate::numfmt::Exact(t),
+                crate::numfmt::Num(r),
+                crate::numfmt::Num((cb_near - centre).norm())
             )));
         }
         while hi - lo > 1e-13 {
