@@ -26,7 +26,7 @@ pub use fibre::{FibreLimits, FibreState, TowEdges, fibre_state, tow_edges};
 pub use gouge::{GougeState, RearGouge, gouge_state, rear_gouge};
 pub use path::{
     ScallopSample, feed_path, fibre_path, gouge_path, rear_gouge_path, scallop_path,
-    step_over_path, tool_axis_path, tow_edges_path,
+    scallop_sample, step_over_path, tool_axis_path, tow_edges_path,
 };
 pub use scallop::{
     CutterStepOver, cross_path_curvature, scallop_height, scallop_height_approx,

@@ -93,13 +93,17 @@ pub fn scallop_path(
     out: &mut Vec<ScallopSample>,
 ) -> Result<()> {
     scallop_height(r, w, 0.0)?;
-    along(frames, out, |f| {
-        let kappa = cross_path_curvature(f, side);
-        Ok(ScallopSample {
-            cross_curvature: kappa,
-            height: scallop_height(r, w, kappa)?,
-            height_approx: scallop_height_approx(r, w, kappa)?,
-        })
+    along(frames, out, |f| scallop_sample(f, side, r, w))
+}
+
+/// The scallop at one frame: the cross-path curvature, [`scallop_height`] and
+/// [`scallop_height_approx`] there (what [`scallop_path`] gives at each frame).
+pub fn scallop_sample(f: &DarbouxFrame, side: ToolSide, r: f64, w: f64) -> Result<ScallopSample> {
+    let kappa = cross_path_curvature(f, side);
+    Ok(ScallopSample {
+        cross_curvature: kappa,
+        height: scallop_height(r, w, kappa)?,
+        height_approx: scallop_height_approx(r, w, kappa)?,
     })
 }
 

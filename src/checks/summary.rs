@@ -131,10 +131,11 @@ fn lerp(a: f64, b: f64, f: f64) -> f64 {
 /// fraction is computed on halved values when the differences overflow (values near
 /// ±DBL_MAX), which changes nothing else: halving is exact there.
 fn crossing<P: PathPosition>(a: &P, va: f64, b: &P, vb: f64, limit: f64) -> (f64, f64) {
-    let mut f = (limit - va) / (vb - va);
-    if !f.is_finite() {
-        f = (0.5 * limit - 0.5 * va) / (0.5 * vb - 0.5 * va);
-    }
+    let f = if (vb - va).is_finite() && (limit - va).is_finite() {
+        (limit - va) / (vb - va)
+    } else {
+        (0.5 * limit - 0.5 * va) / (0.5 * vb - 0.5 * va)
+    };
     if !f.is_finite() {
         return (b.arc_length(), b.t());
     }

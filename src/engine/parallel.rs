@@ -13,8 +13,8 @@
 //! A thread that cannot be started (an address-space or thread-count limit, as batch
 //! schedulers set) is not an error: the batch goes on with the threads that did start, down to
 //! the calling thread alone, and gives the same results (regression tests in this module: a
-//! spawn failure simulated at every position; a real address-space limit in a child process is not
-//! tested yet).
+//! spawn failure simulated at every position; `tests/regression_parallel_address_limit.rs`: a
+//! real address-space limit, `setrlimit(RLIMIT_AS)`, in a child process).
 
 use crate::curve::UvCurve;
 use crate::engine::batch::{CHUNK, SinkSlice};

@@ -21,11 +21,11 @@ use super::types::{
     StrakeToolSide, StrakeTowEdges, StrakeViolation,
 };
 use crate::checks::{
-    Cutter, FeedLimits, FibreLimits, ToolAngles, ToolSide, cross_path_curvature,
+    Cutter, FeedLimits, FibreLimits, ScallopSample, ToolAngles, ToolSide, cross_path_curvature,
     curvature_limited_feed, cutter_radii, extremes, feed_path, fibre_path, fibre_state, gouge_path,
-    gouge_state, rear_gouge, rear_gouge_path, scallop_height, scallop_height_approx, scallop_path,
-    step_over_for_cutter, step_over_for_scallop, step_over_for_scallop_approx, step_over_path,
-    tool_axis, tool_axis_path, tow_edges, tow_edges_path, violations,
+    gouge_state, rear_gouge, rear_gouge_path, scallop_path, scallop_sample, step_over_for_cutter,
+    step_over_for_scallop, step_over_for_scallop_approx, step_over_path, tool_axis, tool_axis_path,
+    tow_edges, tow_edges_path, violations,
 };
 use crate::error::StrakeError;
 use crate::geometry::frame::DarbouxFrame;
@@ -107,6 +107,54 @@ fn path_frames(samples: &[StrakeSample]) -> Result<Vec<DarbouxFrame>, Failure> {
         .collect()
 }
 
+/// The cutter and tool angles behind `const StrakeCutter *` and `const StrakeToolAngles *`
+/// arguments (NULL checked, the cutter validated), for every check that takes both.
+///
+/// # Safety
+/// Each pointer NULL or valid for its type.
+unsafe fn cutter_and_angles(
+    cutter: *const StrakeCutter,
+    angles: *const StrakeToolAngles,
+) -> Result<(Cutter, ToolAngles), Failure> {
+    // SAFETY: the caller's contract.
+    let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
+    let a = self::angles(unsafe { input(angles, "angles")? });
+    Ok((c, a))
+}
+
+/// The part every `..._path` function shares: the samples' frames checked (a bad one names
+/// its sample), `check` run over them, and its results converted (with the frame they belong
+/// to) and copied to the checked output array `dst`, only when every sample succeeded.
+fn over_path<G, T>(
+    samples: &[StrakeSample],
+    dst: NonNull<T>,
+    check: impl FnOnce(&[DarbouxFrame], &mut Vec<G>) -> crate::error::Result<()>,
+    convert: impl Fn(&DarbouxFrame, &G) -> T,
+) -> Result<(), Failure> {
+    let frames = path_frames(samples)?;
+    let mut got = Vec::new();
+    check(&frames, &mut got)?;
+    deliver(
+        dst,
+        frames
+            .iter()
+            .zip(&got)
+            .map(|(f, g)| convert(f, g))
+            .collect(),
+    );
+    Ok(())
+}
+
+impl From<&ScallopSample> for StrakeScallop {
+    fn from(g: &ScallopSample) -> Self {
+        StrakeScallop {
+            cross_curvature: g.cross_curvature,
+            height: g.height,
+            height_approx: g.height_approx,
+        }
+    }
+}
+
 /// An output array of `count` elements (NULL, alignment and size checked); written only on
 /// success, by [`deliver`].
 fn out_array<T>(p: *mut T, count: usize, name: &str) -> Result<NonNull<T>, Failure> {
@@ -171,8 +219,7 @@ pub unsafe extern "C" fn strake_check_gouge(
     guard("strake_check_gouge", || {
         // SAFETY: the caller passes valid values or NULL.
         let f = unsafe { self::frame(frame)? };
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let slot = output(out, "out")?;
         let g = gouge_state(&f, self::tool_side(tool_side)?, &c, &a)?;
         put(slot, StrakeGougeState::from(&g));
@@ -213,13 +260,9 @@ pub unsafe extern "C" fn strake_check_scallop(
         // SAFETY: the caller passes a valid frame or NULL.
         let f = unsafe { self::frame(frame)? };
         let slot = output(out, "out")?;
-        let kappa = cross_path_curvature(&f, self::tool_side(tool_side)?);
-        let result = StrakeScallop {
-            cross_curvature: kappa,
-            height: scallop_height(cutter_radius, step_over, kappa)?,
-            height_approx: scallop_height_approx(cutter_radius, step_over, kappa)?,
-        };
-        put(slot, result);
+        let side = self::tool_side(tool_side)?;
+        let g = scallop_sample(&f, side, cutter_radius, step_over)?;
+        put(slot, StrakeScallop::from(&g));
         Ok(())
     })
 }
@@ -456,8 +499,7 @@ pub unsafe extern "C" fn strake_cutter_radii(
 ) -> StrakeStatus {
     guard("strake_cutter_radii", || {
         // SAFETY: the caller passes valid values or NULL.
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let slot = output(out, "out")?;
         put(slot, StrakeCutterRadii::from(&cutter_radii(&c, &a)?));
         Ok(())
@@ -494,8 +536,7 @@ pub unsafe extern "C" fn strake_check_rear_gouge(
     guard("strake_check_rear_gouge", || {
         // SAFETY: the caller passes valid values or NULL.
         let f = unsafe { self::frame(frame)? };
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let slot = output(out, "out")?;
         let g = rear_gouge(&f, self::tool_side(tool_side)?, &c, &a)?;
         put(slot, StrakeRearGouge::from(&g));
@@ -558,8 +599,7 @@ pub unsafe extern "C" fn strake_check_step_over_cutter(
     guard("strake_check_step_over_cutter", || {
         // SAFETY: the caller passes valid values or NULL.
         let f = unsafe { self::frame(frame)? };
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let slot = output(out, "out")?;
         let kappa = cross_path_curvature(&f, self::tool_side(tool_side)?);
         let so = step_over_for_cutter(&c, &a, scallop_height, kappa)?;
@@ -594,15 +634,15 @@ pub unsafe extern "C" fn strake_check_gouge_path(
     guard("strake_check_gouge_path", || {
         // SAFETY: the caller passes valid values or NULL.
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let dst = out_array(out, sample_count, "out")?;
         let side = self::tool_side(tool_side)?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        gouge_path(&frames, side, &c, &a, &mut got)?;
-        deliver(dst, got.iter().map(StrakeGougeState::from).collect());
-        Ok(())
+        over_path(
+            s,
+            dst,
+            |frames, got| gouge_path(frames, side, &c, &a, got),
+            |_, g| StrakeGougeState::from(g),
+        )
     })
 }
 
@@ -622,15 +662,15 @@ pub unsafe extern "C" fn strake_check_rear_gouge_path(
     guard("strake_check_rear_gouge_path", || {
         // SAFETY: the caller passes valid values or NULL.
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let dst = out_array(out, sample_count, "out")?;
         let side = self::tool_side(tool_side)?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        rear_gouge_path(&frames, side, &c, &a, &mut got)?;
-        deliver(dst, got.iter().map(StrakeRearGouge::from).collect());
-        Ok(())
+        over_path(
+            s,
+            dst,
+            |frames, got| rear_gouge_path(frames, side, &c, &a, got),
+            |_, g| StrakeRearGouge::from(g),
+        )
     })
 }
 
@@ -653,20 +693,12 @@ pub unsafe extern "C" fn strake_check_scallop_path(
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
         let dst = out_array(out, sample_count, "out")?;
         let side = self::tool_side(tool_side)?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        scallop_path(&frames, side, cutter_radius, step_over, &mut got)?;
-        deliver(
+        over_path(
+            s,
             dst,
-            got.iter()
-                .map(|g| StrakeScallop {
-                    cross_curvature: g.cross_curvature,
-                    height: g.height,
-                    height_approx: g.height_approx,
-                })
-                .collect(),
-        );
-        Ok(())
+            |frames, got| scallop_path(frames, side, cutter_radius, step_over, got),
+            |_, g| StrakeScallop::from(g),
+        )
     })
 }
 
@@ -687,22 +719,15 @@ pub unsafe extern "C" fn strake_check_step_over_cutter_path(
     guard("strake_check_step_over_cutter_path", || {
         // SAFETY: the caller passes valid values or NULL.
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
-        let c = self::cutter(unsafe { input(cutter, "cutter")? })?;
-        let a = self::angles(unsafe { input(angles, "angles")? });
+        let (c, a) = unsafe { cutter_and_angles(cutter, angles)? };
         let dst = out_array(out, sample_count, "out")?;
         let side = self::tool_side(tool_side)?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        step_over_path(&frames, side, &c, &a, scallop_height, &mut got)?;
-        deliver(
+        over_path(
+            s,
             dst,
-            frames
-                .iter()
-                .zip(&got)
-                .map(|(f, g)| StrakeCutterStepOver::new(cross_path_curvature(f, side), g))
-                .collect(),
-        );
-        Ok(())
+            |frames, got| step_over_path(frames, side, &c, &a, scallop_height, got),
+            |f, g| StrakeCutterStepOver::new(cross_path_curvature(f, side), g),
+        )
     })
 }
 
@@ -723,11 +748,7 @@ pub unsafe extern "C" fn strake_check_feed_path(
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
         let l = feed_limits(unsafe { input(limits, "limits")? })?;
         let dst = out_array(out, sample_count, "out")?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        feed_path(&frames, &l, &mut got)?;
-        deliver(dst, got);
-        Ok(())
+        over_path(s, dst, |frames, got| feed_path(frames, &l, got), |_, g| *g)
     })
 }
 
@@ -748,11 +769,12 @@ pub unsafe extern "C" fn strake_check_fibre_path(
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
         let l = fibre_limits(unsafe { input(limits, "limits")? });
         let dst = out_array(out, sample_count, "out")?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        fibre_path(&frames, &l, &mut got)?;
-        deliver(dst, got.iter().map(StrakeFibreState::from).collect());
-        Ok(())
+        over_path(
+            s,
+            dst,
+            |frames, got| fibre_path(frames, &l, got),
+            |_, g| StrakeFibreState::from(g),
+        )
     })
 }
 
@@ -772,11 +794,12 @@ pub unsafe extern "C" fn strake_check_tow_edges_path(
         // SAFETY: the caller passes valid values or NULL.
         let s = unsafe { input_slice(samples, sample_count, "samples", "sample_count")? };
         let dst = out_array(out, sample_count, "out")?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        tow_edges_path(&frames, tow_width, &mut got)?;
-        deliver(dst, got.iter().map(StrakeTowEdges::from).collect());
-        Ok(())
+        over_path(
+            s,
+            dst,
+            |frames, got| tow_edges_path(frames, tow_width, got),
+            |_, g| StrakeTowEdges::from(g),
+        )
     })
 }
 
@@ -799,10 +822,11 @@ pub unsafe extern "C" fn strake_tool_axis_path(
         let a = self::angles(unsafe { input(angles, "angles")? });
         let dst = out_array(out, sample_count, "out")?;
         let side = self::tool_side(tool_side)?;
-        let frames = path_frames(s)?;
-        let mut got = Vec::new();
-        tool_axis_path(&frames, side, &a, &mut got)?;
-        deliver(dst, got.iter().map(StrakeToolAxis::from).collect());
-        Ok(())
+        over_path(
+            s,
+            dst,
+            |frames, got| tool_axis_path(frames, side, &a, got),
+            |_, g| StrakeToolAxis::from(g),
+        )
     })
 }
