@@ -137,7 +137,7 @@ impl ArchimedeanSpiral {
             )));
         }
         let turns = (r_end - r_start) / pitch;
-        if !(turns <= 1e6) {
+        if turns.is_nan() || turns > 1e6 {
             return Err(StrakeError::InvalidArgument(format!(
                 "spiral radii r_start = {} to r_end = {} at pitch = {}: {} turns, above the \
                  cap of 1e+06",
