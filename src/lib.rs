@@ -51,7 +51,7 @@ pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use geometry::rates::{InvariantRates, invariant_rates};
 pub use isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels, vector_kernels};
 pub use nurbs::{
-    EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
+    EndDerivatives, KnotLine, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
     SpanHint, interpolate,
 };
 pub use paths::curve_on_surface::{CurveOnSurface, Hints, PathSample, SampleError};
@@ -77,6 +77,7 @@ pub use planning::scallop_left::{
     ScallopLeft, check_target_scallop, scallop_between, step_over_at,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
+pub use surface::{CreaseFlags, KnotSide, KnotSides};
 pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
     centre_point,
