@@ -27,9 +27,9 @@ use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
 use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::geometry::principal::SurfacePoint;
 use crate::nurbs::SpanHint;
+use crate::surface::SurfaceSource;
 use crate::surface::crease::snap_onto_surface_creases;
 use crate::surface::{KnotSides, SurfaceHint};
-use crate::surface::SurfaceSource;
 use std::mem::MaybeUninit;
 
 /// Per-caller evaluation state: span hints for the surface and the curve.

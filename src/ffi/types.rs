@@ -1161,9 +1161,9 @@ pub enum StrakeKnotLineFlag {
     /// 2: the same for a v knot line.
     VLine = 2,
     /// 4: that u line is at most C0 (multiplicity >= p): the normal may differ between sides.
-    UC0 = 4,
+    UOnlyC0 = 4,
     /// 8: the same for the v line.
-    VC0 = 8,
+    VOnlyC0 = 8,
     /// 16: the curve runs along the u line (u' is zero to round-off): the side was chosen by
     /// the rule above, not by the direction of travel.
     AlongU = 16,

@@ -719,8 +719,10 @@ mod tests {
                 let u = du.lo + du.width() * if i % 10 == 0 { 0.0 } else { lcg(&mut st) };
                 let v = dv.lo + dv.width() * if i % 7 == 0 { 1.0 } else { lcg(&mut st) };
                 let a = s.jet_unchecked(u, v, DerivOrder::Second, &mut h);
-                let b = s.eval::<2, MAX_ORDER, 0, 0, false, Scalar>(u, v, KnotSides::default(), &mut h);
-                let full = s.eval::<2, MAX_ORDER, 0, 0, true, Scalar>(u, v, KnotSides::default(), &mut h);
+                let b =
+                    s.eval::<2, MAX_ORDER, 0, 0, false, Scalar>(u, v, KnotSides::default(), &mut h);
+                let full =
+                    s.eval::<2, MAX_ORDER, 0, 0, true, Scalar>(u, v, KnotSides::default(), &mut h);
                 assert_eq!(a, full, "degrees ({p}, {q}): sized rows vs MAX_ORDER rows");
                 // Every vector arithmetic gives the same bits (see `quad`).
                 for order in [DerivOrder::Position, DerivOrder::First, DerivOrder::Second] {

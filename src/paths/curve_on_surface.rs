@@ -6,10 +6,10 @@ use crate::curve::UvCurve;
 pub use crate::engine::batch::{Hints, SampleError};
 use crate::error::{Result, StrakeError};
 use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
+use crate::geometry::jet::CurveJet;
 use crate::geometry::jet::{CurvePartials, DerivOrder, SurfacePartials};
 use crate::geometry::principal::SurfacePoint;
 use crate::geometry::rates::{InvariantRates, invariant_rates};
-use crate::geometry::jet::CurveJet;
 use crate::surface::crease::snap_onto_surface_creases;
 use crate::surface::{CreaseFlags, KnotSides, SurfaceSource};
 

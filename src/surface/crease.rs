@@ -25,8 +25,8 @@
 
 use crate::geometry::frame::ParamScales;
 use crate::geometry::jet::{CurveJet, DOMAIN_SNAP_ULPS, Interval};
-use crate::surface::SurfaceSource;
 pub use crate::nurbs::KnotLine;
+use crate::surface::SurfaceSource;
 
 /// Which side of a knot line a jet is evaluated on.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -175,14 +175,7 @@ pub fn snap_onto_surface_creases<S: SurfaceSource + ?Sized>(
     if ul.is_empty() && vl.is_empty() {
         return (CreaseFlags(0), KnotSides::default());
     }
-    snap_onto_creases(
-        cj,
-        surface.u_domain(),
-        surface.v_domain(),
-        ul,
-        vl,
-        scales,
-    )
+    snap_onto_creases(cj, surface.u_domain(), surface.v_domain(), ul, vl, scales)
 }
 
 #[cfg(test)]
