@@ -213,11 +213,10 @@ pub fn darboux_frame_at(
     }
     let (du, dv) = (curve.du, curve.dv);
     let c1 = surface.su * du + surface.sv * dv;
-    let c2 = surface.suu * (du * du)
-        + surface.suv * (2.0 * du * dv)
-        + surface.svv * (dv * dv)
-        + surface.su * curve.ddu
-        + surface.sv * curve.ddv;
+    // W = Suu u'² + 2 Suv u'v' + Svv v'²: c'' without its part Su u'' + Sv v'' (see κg below).
+    let w = surface.suu * (du * du) + surface.suv * (2.0 * du * dv) + surface.svv * (dv * dv);
+    // u'v'' − v'u'': the turning of the curve in the parameter plane.
+    let turn = du * curve.ddv - dv * curve.ddu;
     let speed2 = c1.norm_squared();
     let speed = speed2.sqrt();
     let inv_speed = 1.0 / speed;
@@ -229,7 +228,15 @@ pub fn darboux_frame_at(
     // Taking c''·N instead subtracts the tangential part Su u'' + Sv v'' of c'' numerically,
     // which costs ε|c''|/(κn|c'|²) near a stalled curve (docs/accuracy.md).
     let kn = sp.second_form((du, dv), (du, dv)) * inv_speed2;
-    let kg = c2.dot(&b) * inv_speed2;
+    // κg = c''·B/|c'|² with c'' = W + Su u'' + Sv v'': since (Su u'' + Sv v'')·(N × T) =
+    // N·(Su × Sv) (u'v'' − v'u'')/|c'|,
+    //   κg = (W·B + σ|Su × Sv| (u'v'' − v'u'')/|c'|) / |c'|²,
+    // the parameter-plane (Christoffel) form: W's tangential part is Su Γ¹(u', v') +
+    // Sv Γ²(u', v') (`geodesics::christoffel`), and only its B part enters. The tangential
+    // part of the acceleration along T, which c''·B cancels numerically (costing
+    // ε|c''|/|c'|² as the curve stalls), cancels exactly in u'v'' − v'u'' when (u'', v'') is
+    // parallel to (u', v') (docs/accuracy.md has the measurement).
+    let kg = (w.dot(&b) + sp.signed_area * turn * inv_speed) * inv_speed2;
     // τg = II(T, B): T has (u, v) components (u', v')/|c'|; those of B come from B·Su, B·Sv.
     let tc = (du * inv_speed, dv * inv_speed);
     let bc = sp.components(b.dot(&surface.su), b.dot(&surface.sv));
