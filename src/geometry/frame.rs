@@ -31,9 +31,11 @@ pub use crate::geometry::principal::{Orientation, PrincipalCurvatures, SurfacePo
 /// Measured (`examples/conditioning_sweep.rs`, tables in `docs/accuracy.md`): κn, τg, k1 and k2
 /// do not depend on the speed and keep round-off accuracy at any f. The geodesic curvature of a
 /// curve that starts from rest along a straight (u, v) line (u' ~ t, u'' constant, as at a doubled
-/// end control point) loses accuracy like 0.07 ε/f² (fitted exponent 2.0) and reaches 1e-6
-/// relative at f ≈ 4e-6; a curve that stops while turning, or comes to rest more smoothly, loses
-/// less. At this limit the worst measured error of κg is about 1.5e-7.
+/// end control point) loses accuracy like ε/f² (fitted exponent 2.0), because its inputs do:
+/// computed in the parameter plane it stays within 0.2 of the change that rounding the inputs
+/// alone causes, and with jets carrying one unit of round-off it reaches 1e-6 relative between
+/// f = 3.2e-6 and 1e-6; a curve that stops while turning, or comes to rest more smoothly, loses
+/// less. At this limit the worst measured error of κg is about 6e-8.
 pub const STALLED_CURVE_LIMIT: f64 = 1e-5;
 
 /// The widths of the parameter domains, which set the scale against which degeneracy is
