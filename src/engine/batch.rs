@@ -235,7 +235,8 @@ where
             })?;
             // A lane on a crease: the jet of the side the curve moves into, from the one-point
             // evaluation `CurveOnSurface::frame` makes (the same bits).
-            for i in 0..good {
+            let evaluated = good;
+            for i in 0..evaluated {
                 if creased[i] {
                     let jet = surface.jet_in_domain_sided(
                         us[i],
