@@ -965,6 +965,18 @@ fn table() -> Vec<Case> {
                 a[5].p()
             ))
         ),
+        case!(
+            strake_knot_line_flags,
+            [],
+            |f, s| vec![hp(f.cyl), hp(f.line), sp(&f.ts), Z(3), s.out::<u32>(3)],
+            |a| st(strake_knot_line_flags(
+                a[0].p(),
+                a[1].p(),
+                a[2].p(),
+                a[3].z(),
+                a[4].p()
+            ))
+        ),
         // --- sampling
         case!(
             strake_sample_even_t,
