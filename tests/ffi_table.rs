@@ -69,22 +69,14 @@ fn header_functions() -> Vec<Decl> {
         }
         let open = decl.find('(').unwrap();
         let head = &decl[..open];
-        let name = head
-            .rsplit(|c: char| c == ' ' || c == '*')
-            .next()
-            .unwrap()
-            .to_string();
+        let name = head.rsplit([' ', '*']).next().unwrap().to_string();
         assert!(name.starts_with("strake_"), "{decl}");
         let inner = &decl[open + 1..decl.rfind(')').unwrap()];
         let mut params = Vec::new();
         if inner.trim() != "void" {
             for p in inner.split(',') {
                 let p = p.trim();
-                let pname = p
-                    .rsplit(|c: char| c == ' ' || c == '*')
-                    .next()
-                    .unwrap()
-                    .to_string();
+                let pname = p.rsplit([' ', '*']).next().unwrap().to_string();
                 let ty = p[..p.len() - pname.len()].trim();
                 let kind = if ty.contains('*') || ty.ends_with("Fn") {
                     Kind::Ptr
