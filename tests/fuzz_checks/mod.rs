@@ -1031,7 +1031,7 @@ pub fn run_fit(data: &[u8]) {
 
 /// A frame for the checks: computed from arbitrary jets (so usually valid), then maybe with
 /// one field replaced by an arbitrary value.
-fn read_frame(inp: &mut Input) -> StrakeFrame {
+pub fn read_frame(inp: &mut Input) -> StrakeFrame {
     let g = |inp: &mut Input| match inp.u8() % 4 {
         0 => inp.f64(),
         _ => f64::from(inp.u8() as i8) / 32.0,
@@ -1058,6 +1058,9 @@ fn read_frame(inp: &mut Input) -> StrakeFrame {
         t_extent: 1.0,
     };
     let mut f = StrakeFrame::default();
+    if std::env::var("FUZZ_DEBUG").is_ok() {
+        eprintln!("{sj:?}\n{cj:?}");
+    }
     // SAFETY: valid inputs and a writable frame.
     let st = unsafe { strake_frame_from_jets(&sj, &cj, i32::from(inp.u8() % 2), &scales, &mut f) };
     if status("strake_frame_from_jets", st) {
