@@ -118,7 +118,7 @@ impl<'a> Input<'a> {
         if mode == 3 || n < 2 {
             return (0..n).map(|_| self.f64()).collect();
         }
-        let (a, w) = if self.u8() % 4 == 0 {
+        let (a, w) = if self.u8().is_multiple_of(4) {
             (self.f64(), self.f64())
         } else {
             (0.0, 1.0)
@@ -750,7 +750,7 @@ pub fn run_curve(data: &[u8]) {
     }
 
     for rule in 0..4 {
-        if inp.u8() % 2 == 0 {
+        if inp.u8().is_multiple_of(2) {
             continue;
         }
         let capacity = inp.small(40);
@@ -846,8 +846,9 @@ fn projection_options(inp: &mut Input) -> StrakeProjectionOptions {
             1 => f64::INFINITY,
             _ => 1.0,
         },
-        periodic_u: i32::from(inp.u8() % 3 == 0) * if inp.u8() % 5 == 0 { 2 } else { 1 },
-        periodic_v: i32::from(inp.u8() % 3 == 0),
+        periodic_u: i32::from(inp.u8().is_multiple_of(3))
+            * if inp.u8().is_multiple_of(5) { 2 } else { 1 },
+        periodic_v: i32::from(inp.u8().is_multiple_of(3)),
         grid: match inp.u8() % 4 {
             0 => u32::from(inp.u8()),
             _ => 0,
@@ -873,7 +874,8 @@ pub fn run_fit(data: &[u8]) {
         .collect();
     let degree = inp.degree();
     let method = u32::from(inp.u8() % 3);
-    let ends = (inp.u8() % 3 == 0).then(|| [[inp.f64(), inp.f64()], [inp.f64(), inp.f64()]]);
+    let ends =
+        (inp.u8().is_multiple_of(3)).then(|| [[inp.f64(), inp.f64()], [inp.f64(), inp.f64()]]);
     let mut out = ptr::null_mut();
     // SAFETY: 2n readable doubles, optional 2-double ends, writable out.
     let st = unsafe {
@@ -993,12 +995,12 @@ pub fn run_fit(data: &[u8]) {
     let v3 = |inp: &mut Input| [inp.f64(), inp.f64(), inp.f64()];
     let sj = StrakeSurfaceJet {
         p: v3(&mut inp),
-        su: if inp.u8() % 2 == 0 {
+        su: if inp.u8().is_multiple_of(2) {
             [1.0, 0.0, 0.0]
         } else {
             v3(&mut inp)
         },
-        sv: if inp.u8() % 2 == 0 {
+        sv: if inp.u8().is_multiple_of(2) {
             [0.0, 1.0, 0.0]
         } else {
             v3(&mut inp)
@@ -1016,9 +1018,21 @@ pub fn run_fit(data: &[u8]) {
         ddv: inp.f64(),
     };
     let scales = StrakeParamScales {
-        u_extent: if inp.u8() % 2 == 0 { 1.0 } else { inp.f64() },
-        v_extent: if inp.u8() % 2 == 0 { 1.0 } else { inp.f64() },
-        t_extent: if inp.u8() % 2 == 0 { 1.0 } else { inp.f64() },
+        u_extent: if inp.u8().is_multiple_of(2) {
+            1.0
+        } else {
+            inp.f64()
+        },
+        v_extent: if inp.u8().is_multiple_of(2) {
+            1.0
+        } else {
+            inp.f64()
+        },
+        t_extent: if inp.u8().is_multiple_of(2) {
+            1.0
+        } else {
+            inp.f64()
+        },
     };
     let flip = i32::from(inp.u8() % 2);
     let mut f = StrakeFrame::default();
@@ -1066,7 +1080,7 @@ pub fn read_frame(inp: &mut Input) -> StrakeFrame {
     if status("strake_frame_from_jets", st) {
         frame("checks: frame_from_jets", &f);
     }
-    if inp.u8() % 4 == 0 {
+    if inp.u8().is_multiple_of(4) {
         let x = inp.f64();
         let field = inp.u8() % 14;
         match field {
@@ -1182,7 +1196,7 @@ pub fn run_checks(data: &[u8]) {
                 let l = StrakeFeedLimits {
                     feed: positive(&mut inp),
                     max_acceleration: positive(&mut inp),
-                    max_jerk: if inp.u8() % 2 == 0 {
+                    max_jerk: if inp.u8().is_multiple_of(2) {
                         0.0
                     } else {
                         positive(&mut inp)
@@ -1288,7 +1302,7 @@ fn path_summaries(inp: &mut Input) {
     let mut values = Vec::with_capacity(n);
     for _ in 0..n {
         let mut s = StrakeSample::default();
-        if inp.u8() % 4 == 0 {
+        if inp.u8().is_multiple_of(4) {
             s.frame.curve_param = inp.f64();
             s.arc_length = inp.f64();
         } else {
@@ -1358,8 +1372,11 @@ fn path_summaries(inp: &mut Input) {
     }
 }
 
+/// A fuzz target: one input in, panics on a broken invariant.
+pub type Target = fn(&[u8]);
+
 /// The fuzz targets by name, for the corpus replay.
-pub const TARGETS: [(&str, fn(&[u8])); 4] = [
+pub const TARGETS: [(&str, Target); 4] = [
     ("surface", run_surface),
     ("curve", run_curve),
     ("fit", run_fit),
