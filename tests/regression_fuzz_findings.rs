@@ -151,3 +151,27 @@ fn overflowing_su_cross_sv_is_refused_not_an_infinite_conditioning() {
     );
     assert_eq!(f.k1, 7.0, "output written on failure");
 }
+
+/// A point a denormal 5e-324 above the plane: the distance |P − S| underflowed to 0 while the
+/// signed distance (P − S)·N was 5e-324, so |signed distance| exceeded the distance.
+#[test]
+fn signed_distance_never_exceeds_the_distance_at_a_denormal_gap() {
+    let s = fixed_surface(2);
+    let p = [1.0, 0.75, 5e-324];
+    let opts = StrakeProjectionOptions {
+        tolerance: 1.0,
+        periodic_u: 0,
+        periodic_v: 0,
+        grid: 0,
+        max_iterations: 0,
+    };
+    let mut out = [StrakeProjection::default()];
+    // SAFETY: one readable point, one writable projection.
+    let st = unsafe { strake_surface_project_points(s.0, p.as_ptr(), 1, &opts, out.as_mut_ptr()) };
+    assert_eq!(st, StrakeStatus::Ok);
+    assert!(
+        out[0].signed_distance.abs() <= out[0].distance,
+        "{:?}",
+        out[0]
+    );
+}

@@ -700,21 +700,25 @@ fn samples(what: &str, st: StrakeStatus, buf: &[StrakeSample], count: usize, cap
         count <= capacity,
         "{what}: count {count} > capacity {capacity}"
     );
-    let mut last = -1.0f64;
-    let mut last_t = f64::NEG_INFINITY;
+    // The sampling rules place samples in increasing t; `strake_samples_at` takes the host's t
+    // in any order, its arc length signed (a t below the one before gives a smaller s).
+    let ordered = what != "strake_samples_at";
     for (i, s) in buf[..count].iter().enumerate() {
         frame(&format!("{what} sample {i}"), &s.frame);
         finite(what, "arc_length", s.arc_length);
-        assert!(
-            s.arc_length >= last,
-            "{what}: arc length decreases at sample {i}"
+        if i == 0 {
+            continue;
+        }
+        let p = &buf[i - 1];
+        let (dt, ds) = (
+            s.frame.curve_param - p.frame.curve_param,
+            s.arc_length - p.arc_length,
         );
+        assert!(!ordered || dt >= 0.0, "{what}: t decreases at sample {i}");
         assert!(
-            s.frame.curve_param >= last_t,
-            "{what}: t decreases at sample {i}"
+            (dt >= 0.0 || ds <= 0.0) && (dt <= 0.0 || ds >= 0.0),
+            "{what}: arc length moves against t at sample {i} (dt {dt:e}, ds {ds:e})"
         );
-        last = s.arc_length;
-        last_t = s.frame.curve_param;
     }
 }
 
