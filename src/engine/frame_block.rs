@@ -605,7 +605,8 @@ where
     let regular = mx.ne(zero) & mx.finite();
     let conditioning = T::select(regular, cond_raw, zero);
     let limit = unsafe { T::splat(DEGENERATE_SURFACE_LIMIT) };
-    let mut ok = inputs_finite & conditioning.ge(limit) & speed_figure.ge(stalled);
+    // An overflowing |Su x Sv| is refused by the one-point path (NonFinite): flagged.
+    let mut ok = inputs_finite & area.finite() & conditioning.ge(limit) & speed_figure.ge(stalled);
     let inv_area = 1.0 / area;
     let n = scale(cr, sigma * inv_area);
     let f = dot(su, sv);

@@ -41,6 +41,9 @@ pub unsafe extern "C" fn strake_frame_at(
         let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
         let slot = output(out, "out")?;
         let frame = CurveOnSurface::new(s.source(), c.curve()).frame(t, &mut Hints::default())?;
+        // The t evaluated: a t within round-off of an end of the domain is that end (as the
+        // batch calls report it); cannot fail once the frame was computed.
+        let t = c.curve().domain().snap("t", t)?;
         // SAFETY: `out` checked non-null and aligned; the caller provides a writable frame.
         unsafe {
             slot.as_ptr()

@@ -291,9 +291,12 @@ pub unsafe extern "C" fn strake_samples_at(
         samples.try_reserve_exact(count).map_err(|_| {
             Failure::invalid(format!("cannot allocate scratch space for {count} samples"))
         })?;
-        // Every frame was evaluated, so every t lies inside the domain.
-        let (mut t_prev, mut s_prev) = (pair.curve().domain().lo, 0.0);
+        // Every frame was evaluated, so every t lies inside the domain or within round-off of
+        // an end, where it is taken as that end (as the frame reports it).
+        let domain = pair.curve().domain();
+        let (mut t_prev, mut s_prev) = (domain.lo, 0.0);
         for (index, (f, &t)) in frames.iter().zip(ts).enumerate() {
+            let t = domain.snap("t", t)?;
             let ds = arc_length(&pair, t_prev, t, arc_tolerance)
                 .map_err(|error| crate::paths::curve_on_surface::SampleError { index, t, error })?;
             s_prev += ds;

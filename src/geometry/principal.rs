@@ -193,6 +193,16 @@ impl SurfacePoint {
         let sv = &jet.sv;
         let cross = su.cross(sv);
         let area = cross.norm();
+        // Finite partials whose cross product (or its squared length) overflows, |Su||Sv| above
+        // ~1e154: no normal can be formed from them; refused rather than an infinite
+        // conditioning figure and a zero normal under OK.
+        if !area.is_finite() {
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Result,
+                what: "|Su x Sv|",
+                value: area,
+            });
+        }
         let conditioning = surface_conditioning(jet, area, u_extent, v_extent);
         if conditioning.is_nan() || limit.is_nan() || conditioning < limit {
             return Err(StrakeError::DegenerateSurface { u, v, conditioning });

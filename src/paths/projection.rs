@@ -439,7 +439,8 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
             v_path: b.v,
             foot: b.jet.p,
             distance: b.distance,
-            signed_distance: (pv - b.jet.p).dot(&n),
+            // |(P − S)·N| ≤ |P − S|, also where |P − S| underflowed to 0 (a denormal gap).
+            signed_distance: (pv - b.jet.p).dot(&n).clamp(-b.distance, b.distance),
             iterations: b.iterations + spent,
         })
     }

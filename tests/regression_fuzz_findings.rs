@@ -1,0 +1,177 @@
+//! Regressions found by the fuzz targets (`fuzz/`, `tests/fuzz_checks/mod.rs`); the inputs that
+//! found them are also in the committed corpus (`fuzz/corpus/<target>/finding-*`).
+
+mod fuzz_checks;
+
+use fuzz_checks::{fixed_surface, line};
+use strake::ffi::*;
+use strake::geometry::frame::darboux_frame;
+use strake::{CurveJet, Orientation, ParamScales, StrakeError, SurfaceJet, Vec3};
+
+/// A t one ulp past the end of the curve's domain is on the end (it is snapped, issue 16 item
+/// 1): `strake_frame_at` reported the caller's t in `curve_param` while the batch calls
+/// reported the end, so the one-point and batch frames differed in that field.
+#[test]
+fn frame_at_reports_the_snapped_t_as_the_batch_calls_do() {
+    let s = fixed_surface(0);
+    let c = line([0.1, 0.2], [0.9, 0.7]).expect("line");
+    for t in [1f64.next_up(), -5e-324, 0.0, 0.5, 1.0] {
+        let mut one = StrakeFrame::default();
+        // SAFETY: live handles, writable frame.
+        let st = unsafe { strake_frame_at(s.0, c.0, t, &mut one) };
+        assert_eq!(st, StrakeStatus::Ok, "t = {t:e}");
+        let mut batch = [StrakeFrame::default()];
+        // SAFETY: one readable t, one writable frame.
+        let st = unsafe { strake_frames_at(s.0, c.0, &t, 1, batch.as_mut_ptr()) };
+        assert_eq!(st, StrakeStatus::Ok, "t = {t:e}");
+        let snapped = t.clamp(0.0, 1.0);
+        assert_eq!(one.curve_param.to_bits(), snapped.to_bits(), "t = {t:e}");
+        assert_eq!(one, batch[0], "t = {t:e}");
+    }
+}
+
+/// `strake_samples_at` measured arc length up to the caller's unsnapped t (and reported it)
+/// although the frame was evaluated at the snapped end.
+#[test]
+fn samples_at_takes_a_t_within_round_off_of_an_end_as_that_end() {
+    let s = fixed_surface(1);
+    let c = line([0.1, 0.2], [0.9, 0.7]).expect("line");
+    let ts = [-5e-324, 0.5, 1f64.next_up()];
+    let mut out = [StrakeSample::default(); 3];
+    // SAFETY: three readable t, three writable samples.
+    let st = unsafe { strake_samples_at(s.0, c.0, ts.as_ptr(), 3, 1e-10, out.as_mut_ptr()) };
+    assert_eq!(st, StrakeStatus::Ok);
+    assert_eq!(out[0].frame.curve_param.to_bits(), 0f64.to_bits());
+    assert_eq!(out[0].arc_length, 0.0);
+    assert_eq!(out[2].frame.curve_param, 1.0);
+    let mut whole = f64::NAN;
+    // SAFETY: live handles, writable output.
+    let st = unsafe { strake_arc_length(s.0, c.0, 0.0, 1.0, 1e-10, &mut whole) };
+    assert_eq!(st, StrakeStatus::Ok);
+    assert!((out[2].arc_length - whole).abs() <= 1e-9 * whole);
+}
+
+/// Finite partials with |Su| |Sv| ~ 1e300: |Su x Sv| overflowed, and the frame came back under
+/// OK with an infinite conditioning figure and a zero normal. Now refused as NON_FINITE naming
+/// |Su x Sv|, in the Rust API and through the C ABI.
+#[test]
+fn overflowing_su_cross_sv_is_refused_not_an_infinite_conditioning() {
+    let sj = SurfaceJet {
+        p: Vec3::new(f64::MAX, 1.125, -0.03125),
+        su: Vec3::new(1.0, 1e150, -0.03125),
+        sv: Vec3::new(1e150, 1.0, 0.0),
+        suu: Vec3::new(0.0, 15.375, 1.53125),
+        suv: Vec3::zeros(),
+        svv: Vec3::zeros(),
+    };
+    let cj = CurveJet {
+        u: 0.5,
+        v: 0.5,
+        du: 1.0,
+        dv: 0.0,
+        ddu: 0.0,
+        ddv: 0.0,
+    };
+    let scales = ParamScales {
+        u_extent: 1.0,
+        v_extent: 1.0,
+        t_extent: 1.0,
+    };
+    let e = darboux_frame(&sj, &cj, Orientation::Forward, &scales, 0.0).unwrap_err();
+    assert!(
+        matches!(
+            e,
+            StrakeError::NonFinite {
+                what: "|Su x Sv|",
+                ..
+            }
+        ),
+        "{e}"
+    );
+    // The batch kernel flags the lane and the one-point path gives the same error.
+    let regular = SurfaceJet {
+        su: Vec3::new(1.0, 0.0, 0.0),
+        sv: Vec3::new(0.0, 1.0, 0.0),
+        ..sj
+    };
+    let ok = darboux_frame(&regular, &cj, Orientation::Forward, &scales, 0.0).expect("regular");
+    let mut out = [ok; 4];
+    let jets = [regular, regular, sj, regular];
+    let e = strake::darboux_frames(
+        &jets,
+        &[cj; 4],
+        &[0.0; 4],
+        Orientation::Forward,
+        &scales,
+        &mut out,
+    )
+    .unwrap_err();
+    assert_eq!(e.index, 2);
+    assert!(
+        matches!(
+            e.error,
+            StrakeError::NonFinite {
+                what: "|Su x Sv|",
+                ..
+            }
+        ),
+        "{}",
+        e.error
+    );
+    let c_sj = StrakeSurfaceJet {
+        p: [f64::MAX, 1.125, -0.03125],
+        su: [1.0, 1e150, -0.03125],
+        sv: [1e150, 1.0, 0.0],
+        suu: [0.0, 15.375, 1.53125],
+        suv: [0.0; 3],
+        svv: [0.0; 3],
+    };
+    let c_cj = StrakeCurveJet {
+        du: 1.0,
+        u: 0.5,
+        v: 0.5,
+        ..StrakeCurveJet::default()
+    };
+    let c_scales = StrakeParamScales {
+        u_extent: 1.0,
+        v_extent: 1.0,
+        t_extent: 1.0,
+    };
+    let mut f = StrakeFrame {
+        k1: 7.0,
+        ..StrakeFrame::default()
+    };
+    // SAFETY: valid inputs, writable frame.
+    let st = unsafe { strake_frame_from_jets(&c_sj, &c_cj, 0, &c_scales, &mut f) };
+    assert_eq!(st, StrakeStatus::NonFinite);
+    assert!(
+        fuzz_checks::message().contains("|Su x Sv|"),
+        "{}",
+        fuzz_checks::message()
+    );
+    assert_eq!(f.k1, 7.0, "output written on failure");
+}
+
+/// A point a denormal 5e-324 above the plane: the distance |P − S| underflowed to 0 while the
+/// signed distance (P − S)·N was 5e-324, so |signed distance| exceeded the distance.
+#[test]
+fn signed_distance_never_exceeds_the_distance_at_a_denormal_gap() {
+    let s = fixed_surface(2);
+    let p = [1.0, 0.75, 5e-324];
+    let opts = StrakeProjectionOptions {
+        tolerance: 1.0,
+        periodic_u: 0,
+        periodic_v: 0,
+        grid: 0,
+        max_iterations: 0,
+    };
+    let mut out = [StrakeProjection::default()];
+    // SAFETY: one readable point, one writable projection.
+    let st = unsafe { strake_surface_project_points(s.0, p.as_ptr(), 1, &opts, out.as_mut_ptr()) };
+    assert_eq!(st, StrakeStatus::Ok);
+    assert!(
+        out[0].signed_distance.abs() <= out[0].distance,
+        "{:?}",
+        out[0]
+    );
+}
