@@ -21,7 +21,8 @@
 
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geometry::frame::DarbouxFrame;
-use crate::geometry::jet::{CurvePartials, SurfacePartials};
+use crate::geometry::jet::{CurveJet, CurvePartials, SurfaceJet, SurfacePartials};
+use crate::geometry::math::Vec3;
 use crate::geometry::principal::Orientation;
 use crate::geometry::taylor::{LEN, TVec, Tay};
 
@@ -51,7 +52,8 @@ pub(crate) struct PathSeries {
     pub(crate) n: TVec,
     /// |c'|, valid to degree `order − 1`.
     pub(crate) speed: Tay,
-    /// c'', valid to degree `order − 2`.
+    /// c'', valid to degree `order − 2` (read by the tests' series route).
+    #[cfg_attr(not(test), allow(dead_code))]
     pub(crate) c2: TVec,
 }
 
@@ -111,6 +113,7 @@ pub(crate) fn path_series(
 }
 
 /// The invariants κn, κg, τg as series in t (valid to degree `order − 2`).
+#[cfg(test)]
 pub(crate) fn invariant_series(ps: &PathSeries) -> (Tay, Tay, Tay) {
     let speed2 = ps.speed.mul(&ps.speed);
     let kn = ps.c2.dot(&ps.n).div(&speed2);
@@ -119,9 +122,16 @@ pub(crate) fn invariant_series(ps: &PathSeries) -> (Tay, Tay, Tay) {
     (kn, kg, tg)
 }
 
+/// The third partials of a surface at a point, [Suuu, Suuv, Suvv, Svvv] (host length per
+/// unit of the surface parameters cubed): what the rates need beyond a [`SurfaceJet`].
+pub type ThirdPartials = [Vec3; 4];
+
 /// The rates of change along arc length of κn, κg, τg and κ at a sample whose frame `f` has
 /// already been computed (so the point is known not to be degenerate), from the surface's
 /// partials and the curve's derivatives there, both of order 3 or more.
+///
+/// The closed forms of [`rates_from_jets`] (which the one-point and the batch paths share, so
+/// both give the same bits). `orientation` is that of the frame, which already carries it.
 ///
 /// Errors: `OrderUnavailable` when either has order below 3 (naming which);
 /// `NonFinite` (result) when a rate overflows.
@@ -131,6 +141,7 @@ pub fn invariant_rates(
     curve: &CurvePartials,
     orientation: Orientation,
 ) -> Result<InvariantRates> {
+    let _ = orientation;
     for (which, have) in [("surface", surface.order), ("curve", curve.order)] {
         if have < 3 {
             return Err(StrakeError::OrderUnavailable {
@@ -140,6 +151,133 @@ pub fn invariant_rates(
             });
         }
     }
+    let third = [
+        surface.d[3][0],
+        surface.d[2][1],
+        surface.d[1][2],
+        surface.d[0][3],
+    ];
+    rates_from_jets(
+        f,
+        &surface.jet(),
+        &third,
+        &curve.jet(),
+        [curve.u[3], curve.v[3]],
+    )
+}
+
+/// The rates of change along arc length of κn, κg, τg and κ from the frame `f` at a sample,
+/// the surface's second-order jet `s` and third partials `s3` there, the curve's jet `c` and
+/// third derivatives `c3` = [u''', v'''] (t the curve parameter).
+///
+/// Closed forms, from the Darboux equations dN/dt = −σ(κn T + τg B), dB/dt = σ(−κg T + τg N)
+/// with σ = |c'| = ds/dt (do Carmo §3-2), so that no derivative of the normal beyond the
+/// second is formed:
+///
+/// - c' = Su u' + Sv v', σ = c'·T, σ' = c''·T (= dσ/dt),
+///   c'' = Suu u'² + 2 Suv u'v' + Svv v'² + Su u'' + Sv v'',
+///   c''' = Suuu u'³ + 3 Suuv u'² v' + 3 Suvv u' v'² + Svvv v'³
+///   + 3 (Suu u' u'' + Suv (u' v'' + u'' v') + Svv v' v'') + Su u''' + Sv v''';
+/// - dκn/ds = c'''·N / σ³ − 3 κn σ'/σ² − κg τg;
+/// - dκg/ds = c'''·B / σ³ − 3 κg σ'/σ² + κn τg;
+/// - with m = Su × Sv (N = ±m/|m|, so |m| = ±N·m), m' = Su' × Sv + Su × Sv',
+///   m'' = Su'' × Sv + 2 Su' × Sv' + Su × Sv'' (Su' = Suu u' + Suv v', Su'' = Suuu u'² +
+///   2 Suuv u'v' + Suvv v'² + Suu u'' + Suv v'', likewise Sv' and Sv''):
+///   N''·B = (m''·B + 2 (N·m') σ τg) / (N·m) and dτg/ds = −(N''·B + σ² κn κg + τg σ') / σ²;
+/// - dκ/ds = (κn dκn/ds + κg dκg/ds)/κ with κ = √(κn² + κg²), or √((dκn/ds)² + (dκg/ds)²)
+///   where κ = 0 (the one-sided rate).
+///
+/// Only IEEE additions, subtractions, multiplications, divisions and square roots, in the
+/// order written (no fused multiply-add). Checked against the Taylor-series route of this
+/// module and a symbolic differentiation (tests).
+///
+/// Errors: `NonFinite` (result) when a rate is not finite.
+#[inline]
+pub fn rates_from_jets(
+    f: &DarbouxFrame,
+    s: &SurfaceJet,
+    s3: &ThirdPartials,
+    c: &CurveJet,
+    c3: [f64; 2],
+) -> Result<InvariantRates> {
+    let (u1, v1, u2, v2, u3, v3) = (c.du, c.dv, c.ddu, c.ddv, c3[0], c3[1]);
+    let (uu, uv, vv) = (u1 * u1, u1 * v1, v1 * v1);
+    let uv2 = 2.0 * uv;
+    let cp = s.su * u1 + s.sv * v1;
+    let su1 = s.suu * u1 + s.suv * v1;
+    let sv1 = s.suv * u1 + s.svv * v1;
+    let su2 = s3[0] * uu + s3[1] * uv2 + s3[2] * vv + s.suu * u2 + s.suv * v2;
+    let sv2 = s3[1] * uu + s3[2] * uv2 + s3[3] * vv + s.suv * u2 + s.svv * v2;
+    let c2 = s.suu * uu + s.suv * uv2 + s.svv * vv + s.su * u2 + s.sv * v2;
+    let c3v = s3[0] * (uu * u1)
+        + s3[1] * (3.0 * (uu * v1))
+        + s3[2] * (3.0 * (u1 * vv))
+        + s3[3] * (vv * v1)
+        + (s.suu * (u1 * u2) + s.suv * (u1 * v2 + u2 * v1) + s.svv * (v1 * v2)) * 3.0
+        + s.su * u3
+        + s.sv * v3;
+    let (kn, kg, tg) = (f.normal_curvature, f.geodesic_curvature, f.geodesic_torsion);
+    let sigma = cp.dot(&f.t);
+    let dsigma = c2.dot(&f.t);
+    let inv = 1.0 / sigma;
+    let inv2 = inv * inv;
+    let inv3 = inv2 * inv;
+    let dkn = c3v.dot(&f.n) * inv3 - 3.0 * kn * dsigma * inv2 - kg * tg;
+    let dkg = c3v.dot(&f.b) * inv3 - 3.0 * kg * dsigma * inv2 + kn * tg;
+    let m = s.su.cross(&s.sv);
+    let m1 = su1.cross(&s.sv) + s.su.cross(&sv1);
+    let m2 = su2.cross(&s.sv) + su1.cross(&sv1) * 2.0 + s.su.cross(&sv2);
+    let nbb = (m2.dot(&f.b) + 2.0 * f.n.dot(&m1) * sigma * tg) / f.n.dot(&m);
+    let dtg = -(nbb + sigma * sigma * kn * kg + tg * dsigma) * inv2;
+    let kappa = (kn * kn + kg * kg).sqrt();
+    let dk = if kappa > 0.0 {
+        (kn * dkn + kg * dkg) / kappa
+    } else {
+        (dkn * dkn + dkg * dkg).sqrt()
+    };
+    let r = InvariantRates {
+        normal_curvature: dkn,
+        geodesic_curvature: dkg,
+        geodesic_torsion: dtg,
+        space_curvature: dk,
+    };
+    // One test for the common case: the product of zero and a non-finite value is NaN.
+    if (dkn * 0.0 + dkg * 0.0 + dtg * 0.0 + dk * 0.0) == 0.0 {
+        return Ok(r);
+    }
+    non_finite_rate(&r)
+}
+
+#[cold]
+#[inline(never)]
+fn non_finite_rate(r: &InvariantRates) -> Result<InvariantRates> {
+    for (what, value) in [
+        ("dkn/ds", r.normal_curvature),
+        ("dkg/ds", r.geodesic_curvature),
+        ("dtg/ds", r.geodesic_torsion),
+        ("dk/ds", r.space_curvature),
+    ] {
+        if !value.is_finite() {
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Result,
+                what,
+                value,
+            });
+        }
+    }
+    Ok(*r)
+}
+
+/// The rates by the Taylor-series route (the series of the frame along the path, then the
+/// invariants' series): an independent computation the tests compare [`rates_from_jets`]
+/// with.
+#[cfg(test)]
+pub(crate) fn invariant_rates_by_series(
+    f: &DarbouxFrame,
+    surface: &SurfacePartials,
+    curve: &CurvePartials,
+    orientation: Orientation,
+) -> Result<InvariantRates> {
     let ps = path_series(surface, curve, orientation, 3);
     let (kn, kg, tg) = invariant_series(&ps);
     let inv_speed = 1.0 / ps.speed.0[0];
@@ -174,4 +312,64 @@ pub fn invariant_rates(
         }
     }
     Ok(r)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::nurbs::NurbsCurve;
+    use crate::nurbs::surface::random_test_surface;
+    use crate::paths::curve_on_surface::{CurveOnSurface, Hints};
+    use crate::surface::SurfaceSource;
+
+    /// The closed forms of `rates_from_jets` against the Taylor-series route, on rational and
+    /// polynomial bicubic and biquadratic surfaces along rational cubic curves, at samples on
+    /// and off knot lines: the same rates to round-off (1e-9 relative to the rates' scale).
+    #[test]
+    fn closed_forms_agree_with_the_series_route() {
+        let mut checked = 0;
+        for (seed, p, q, rational) in [(3u64, 3, 3, true), (5, 3, 2, false), (11, 2, 2, true)] {
+            let mut st = seed;
+            let s = random_test_surface(p, q, p + 5, q + 4, rational, &mut st);
+            let (ud, vd) = (s.u_domain(), s.v_domain());
+            let at = |a: f64, b: f64| [ud.lo + a * ud.width(), vd.lo + b * vd.width()];
+            let pts = [
+                at(0.1, 0.2),
+                at(0.3, 0.8),
+                at(0.6, 0.1),
+                at(0.8, 0.7),
+                at(0.9, 0.4),
+            ];
+            let knots = [0.0, 0.0, 0.0, 0.0, 0.45, 1.0, 1.0, 1.0, 1.0];
+            let c =
+                NurbsCurve::<2>::new(3, &knots, &pts, Some(&[1.0, 0.7, 1.4, 0.9, 1.1])).unwrap();
+            let path = CurveOnSurface::new(&s, &c);
+            for i in 0..40 {
+                let t = (i as f64 + 0.5) / 40.0;
+                let mut h = Hints::default();
+                let Ok((f, sp, cp)) = path.frame_and_partials(t, 3, &mut h) else {
+                    continue;
+                };
+                let a = invariant_rates(&f, &sp, &cp, s.orientation()).unwrap();
+                let b = invariant_rates_by_series(&f, &sp, &cp, s.orientation()).unwrap();
+                let scale = 1.0
+                    + b.normal_curvature.abs()
+                    + b.geodesic_curvature.abs()
+                    + b.geodesic_torsion.abs();
+                for (x, y) in [
+                    (a.normal_curvature, b.normal_curvature),
+                    (a.geodesic_curvature, b.geodesic_curvature),
+                    (a.geodesic_torsion, b.geodesic_torsion),
+                    (a.space_curvature, b.space_curvature),
+                ] {
+                    assert!(
+                        (x - y).abs() <= 1e-9 * scale,
+                        "seed {seed} t {t}: {x} vs {y} ({a:?} / {b:?})"
+                    );
+                }
+                checked += 1;
+            }
+        }
+        assert!(checked > 100, "only {checked} samples checked");
+    }
 }
