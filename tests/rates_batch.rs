@@ -6,7 +6,10 @@
 
 use strake::analytic;
 use strake::isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels};
-use strake::{CurveOnSurface, Hints, InvariantRates, NurbsCurve, NurbsSurface, NurbsSurfaceData};
+use strake::{
+    CurveOnSurface, Hints, InvariantRates, NurbsCurve, NurbsSurface, NurbsSurfaceData, SurfaceSource,
+    UvCurve,
+};
 
 /// A rational bicubic "wing skin" of 7 × 6 control points over [0, 1]² with interior knots.
 fn wing_skin() -> NurbsSurface {
@@ -64,7 +67,7 @@ fn bits(r: &InvariantRates) -> [u64; 4] {
     ]
 }
 
-fn check_path<S: strake::SurfaceSource, C: strake::UvCurve>(path: &CurveOnSurface<'_, S, C>) {
+fn check_path<S: SurfaceSource, C: UvCurve>(path: &CurveOnSurface<'_, S, C>) {
     let n = 203;
     let ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
     let f0 = path.frame(0.0, &mut Hints::default()).unwrap();
@@ -135,5 +138,67 @@ fn the_first_failure_is_that_of_the_one_point_path() {
     for i in [0, 63, 64, 96] {
         let (_, r) = path.frame_with_rates(ts[i], &mut Hints::default()).unwrap();
         assert_eq!(bits(&r), bits(&rates[i]));
+    }
+}
+
+/// The tool-centre path at order 3 (closed forms from the frame and the rates, by the
+/// batch) against the series route (order 4, one sample at a time): the same centre,
+/// tangent, speed ratio, curvature and axis rate to round-off, for a ball, a flat and a
+/// toroidal cutter with lead and tilt.
+#[test]
+fn centre_path_third_order_agrees_with_the_series_route() {
+    use strake::checks::tool_axis::ToolAngles;
+    use strake::checks::{Cutter, ToolSide};
+    use strake::toolpath::{ToolSetup, centre_path_at};
+    let s = wing_skin();
+    let c = pass();
+    let path = CurveOnSurface::new(&s, &c);
+    let n = 150;
+    let ts: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+    let cutters = [
+        Cutter::Ball { radius: 0.05 },
+        Cutter::Flat { radius: 0.04 },
+        Cutter::Toroidal {
+            radius: 0.05,
+            corner_radius: 0.01,
+        },
+    ];
+    for cutter in cutters {
+        let setup = ToolSetup {
+            cutter,
+            side: ToolSide::AlongNormal,
+            angles: ToolAngles {
+                lead: 0.1,
+                tilt: 0.05,
+            },
+        };
+        let f0 = path.frame(0.0, &mut Hints::default()).unwrap();
+        let p0 = strake::centre_point(
+            &f0,
+            &s.checked_partials(f0.u, f0.v, 4, &mut Default::default()).unwrap(),
+            &c.checked_partials(0.0, 4, &mut Default::default()).unwrap(),
+            s.orientation(),
+            &setup,
+            0.0,
+        )
+        .unwrap();
+        let (mut a, mut b) = (vec![p0; n], vec![p0; n]);
+        centre_path_at(&path, &ts, &setup, 3, &mut a).unwrap();
+        centre_path_at(&path, &ts, &setup, 4, &mut b).unwrap();
+        for i in 0..n {
+            let (x, y) = (&a[i], &b[i]);
+            let close = |p: f64, q: f64, what: &str| {
+                assert!(
+                    (p - q).abs() <= 1e-9 * (1.0 + q.abs()),
+                    "{cutter:?} sample {i} {what}: {p} vs {q}"
+                )
+            };
+            close((x.centre - y.centre).norm(), 0.0, "centre");
+            close((x.tangent - y.tangent).norm(), 0.0, "tangent");
+            close(x.speed_ratio, y.speed_ratio, "speed ratio");
+            close(x.curvature, y.curvature, "curvature");
+            close(x.axis_rate, y.axis_rate, "axis rate");
+            assert!(x.curvature_rate.is_none() && y.curvature_rate.is_some());
+        }
     }
 }

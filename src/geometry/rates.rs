@@ -166,6 +166,152 @@ pub fn invariant_rates(
     )
 }
 
+/// Arithmetic the closed forms of [`rates_from_jets`] are written in once: `f64` (the
+/// one-point path) and the lane types of the batch engine (every lane performing the `f64`
+/// operation of the same name, so both give the same bits).
+pub(crate) trait RateNum:
+    Copy
+    + std::ops::Add<Output = Self>
+    + std::ops::Sub<Output = Self>
+    + std::ops::Mul<Output = Self>
+    + std::ops::Div<Output = Self>
+{
+    /// The constant x in every lane.
+    fn k(x: f64) -> Self;
+    /// IEEE square root.
+    fn root(self) -> Self;
+    /// `a` where `x != 0` (also where x is NaN), else `b`.
+    fn nonzero_select(x: Self, a: Self, b: Self) -> Self;
+}
+
+impl RateNum for f64 {
+    #[inline(always)]
+    fn k(x: f64) -> Self {
+        x
+    }
+    #[inline(always)]
+    fn root(self) -> Self {
+        self.sqrt()
+    }
+    #[inline(always)]
+    fn nonzero_select(x: Self, a: Self, b: Self) -> Self {
+        if x != 0.0 { a } else { b }
+    }
+}
+
+impl<T: crate::engine::lanes::Lane> RateNum for T {
+    #[inline(always)]
+    fn k(x: f64) -> Self {
+        // SAFETY: a value of a lane type exists only where its instructions are available
+        // (the `Lane` contract), and these functions only ever combine existing values.
+        unsafe { T::splat(x) }
+    }
+    #[inline(always)]
+    fn root(self) -> Self {
+        self.sqrt()
+    }
+    #[inline(always)]
+    fn nonzero_select(x: Self, a: Self, b: Self) -> Self {
+        T::select(x.ne(Self::k(0.0)), a, b)
+    }
+}
+
+/// The inputs of the closed forms at one point (or one lane group): the curve's u', v', u'',
+/// v'', u''', v'''; the surface's Su, Sv, Suu, Suv, Svv and [Suuu, Suuv, Suvv, Svvv]; the
+/// frame's T, B, N, κn, κg, τg.
+#[derive(Clone, Copy)]
+pub(crate) struct RatesIn<T> {
+    pub(crate) c: [T; 6],
+    pub(crate) s: [[T; 3]; 5],
+    pub(crate) s3: [[T; 3]; 4],
+    pub(crate) tbn: [[T; 3]; 3],
+    pub(crate) k: [T; 3],
+}
+
+#[inline(always)]
+fn dot<T: RateNum>(a: &[T; 3], b: &[T; 3]) -> T {
+    a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
+}
+
+#[inline(always)]
+fn cross<T: RateNum>(a: &[T; 3], b: &[T; 3]) -> [T; 3] {
+    [
+        a[1] * b[2] - a[2] * b[1],
+        a[2] * b[0] - a[0] * b[2],
+        a[0] * b[1] - a[1] * b[0],
+    ]
+}
+
+/// Σ vᵢ xᵢ, component by component, left to right.
+#[inline(always)]
+fn comb<T: RateNum, const K: usize>(v: [&[T; 3]; K], x: [T; K]) -> [T; 3] {
+    std::array::from_fn(|c| {
+        let mut acc = v[0][c] * x[0];
+        for i in 1..K {
+            acc = acc + v[i][c] * x[i];
+        }
+        acc
+    })
+}
+
+#[inline(always)]
+fn add3<T: RateNum>(a: [T; 3], b: [T; 3]) -> [T; 3] {
+    [a[0] + b[0], a[1] + b[1], a[2] + b[2]]
+}
+
+/// The closed forms of [`rates_from_jets`]: [dκn/ds, dκg/ds, dτg/ds, dκ/ds].
+#[inline(always)]
+pub(crate) fn rates_math<T: RateNum>(x: &RatesIn<T>) -> [T; 4] {
+    let [u1, v1, u2, v2, u3, v3] = x.c;
+    let [su, sv, suu, suv, svv] = &x.s;
+    let [t, b, n] = &x.tbn;
+    let [kn, kg, tg] = x.k;
+    let (two, three) = (T::k(2.0), T::k(3.0));
+    let (uu, uv, vv) = (u1 * u1, u1 * v1, v1 * v1);
+    let uv2 = two * uv;
+    let cp = comb([su, sv], [u1, v1]);
+    let su1 = comb([suu, suv], [u1, v1]);
+    let sv1 = comb([suv, svv], [u1, v1]);
+    let s3 = &x.s3;
+    let su2 = comb([&s3[0], &s3[1], &s3[2], suu, suv], [uu, uv2, vv, u2, v2]);
+    let sv2 = comb([&s3[1], &s3[2], &s3[3], suv, svv], [uu, uv2, vv, u2, v2]);
+    let c2 = comb([suu, suv, svv, su, sv], [uu, uv2, vv, u2, v2]);
+    let mixed = comb([suu, suv, svv], [u1 * u2, u1 * v2 + u2 * v1, v1 * v2]);
+    let c3 = add3(
+        comb(
+            [&s3[0], &s3[1], &s3[2], &s3[3]],
+            [uu * u1, three * (uu * v1), three * (u1 * vv), vv * v1],
+        ),
+        add3(
+            [mixed[0] * three, mixed[1] * three, mixed[2] * three],
+            comb([su, sv], [u3, v3]),
+        ),
+    );
+    let sigma = dot(&cp, t);
+    let dsigma = dot(&c2, t);
+    let inv = T::k(1.0) / sigma;
+    let inv2 = inv * inv;
+    let inv3 = inv2 * inv;
+    let dkn = dot(&c3, n) * inv3 - three * kn * dsigma * inv2 - kg * tg;
+    let dkg = dot(&c3, b) * inv3 - three * kg * dsigma * inv2 + kn * tg;
+    let m = cross(su, sv);
+    let m1 = add3(cross(&su1, sv), cross(su, &sv1));
+    let mid = cross(&su1, &sv1);
+    let m2 = add3(
+        add3(cross(&su2, sv), [mid[0] * two, mid[1] * two, mid[2] * two]),
+        cross(su, &sv2),
+    );
+    let nbb = (dot(&m2, b) + two * dot(n, &m1) * sigma * tg) / dot(n, &m);
+    let dtg = T::k(0.0) - (nbb + sigma * sigma * kn * kg + tg * dsigma) * inv2;
+    let kappa = (kn * kn + kg * kg).root();
+    let dk = T::nonzero_select(
+        kappa,
+        (kn * dkn + kg * dkg) / kappa,
+        (dkn * dkn + dkg * dkg).root(),
+    );
+    [dkn, dkg, dtg, dk]
+}
+
 /// The rates of change along arc length of κn, κg, τg and κ from the frame `f` at a sample,
 /// the surface's second-order jet `s` and third partials `s3` there, the curve's jet `c` and
 /// third derivatives `c3` = [u''', v'''] (t the curve parameter).
@@ -188,7 +334,8 @@ pub fn invariant_rates(
 ///   where κ = 0 (the one-sided rate).
 ///
 /// Only IEEE additions, subtractions, multiplications, divisions and square roots, in the
-/// order written (no fused multiply-add). Checked against the Taylor-series route of this
+/// order written (no fused multiply-add; dot and cross products component by component, left
+/// to right), written once for `f64` and for the batch engine's lanes (the same bits). Checked against the Taylor-series route of this
 /// module and a symbolic differentiation (tests).
 ///
 /// Errors: `NonFinite` (result) when a rate is not finite.
@@ -200,49 +347,33 @@ pub fn rates_from_jets(
     c: &CurveJet,
     c3: [f64; 2],
 ) -> Result<InvariantRates> {
-    let (u1, v1, u2, v2, u3, v3) = (c.du, c.dv, c.ddu, c.ddv, c3[0], c3[1]);
-    let (uu, uv, vv) = (u1 * u1, u1 * v1, v1 * v1);
-    let uv2 = 2.0 * uv;
-    let cp = s.su * u1 + s.sv * v1;
-    let su1 = s.suu * u1 + s.suv * v1;
-    let sv1 = s.suv * u1 + s.svv * v1;
-    let su2 = s3[0] * uu + s3[1] * uv2 + s3[2] * vv + s.suu * u2 + s.suv * v2;
-    let sv2 = s3[1] * uu + s3[2] * uv2 + s3[3] * vv + s.suv * u2 + s.svv * v2;
-    let c2 = s.suu * uu + s.suv * uv2 + s.svv * vv + s.su * u2 + s.sv * v2;
-    let c3v = s3[0] * (uu * u1)
-        + s3[1] * (3.0 * (uu * v1))
-        + s3[2] * (3.0 * (u1 * vv))
-        + s3[3] * (vv * v1)
-        + (s.suu * (u1 * u2) + s.suv * (u1 * v2 + u2 * v1) + s.svv * (v1 * v2)) * 3.0
-        + s.su * u3
-        + s.sv * v3;
-    let (kn, kg, tg) = (f.normal_curvature, f.geodesic_curvature, f.geodesic_torsion);
-    let sigma = cp.dot(&f.t);
-    let dsigma = c2.dot(&f.t);
-    let inv = 1.0 / sigma;
-    let inv2 = inv * inv;
-    let inv3 = inv2 * inv;
-    let dkn = c3v.dot(&f.n) * inv3 - 3.0 * kn * dsigma * inv2 - kg * tg;
-    let dkg = c3v.dot(&f.b) * inv3 - 3.0 * kg * dsigma * inv2 + kn * tg;
-    let m = s.su.cross(&s.sv);
-    let m1 = su1.cross(&s.sv) + s.su.cross(&sv1);
-    let m2 = su2.cross(&s.sv) + su1.cross(&sv1) * 2.0 + s.su.cross(&sv2);
-    let nbb = (m2.dot(&f.b) + 2.0 * f.n.dot(&m1) * sigma * tg) / f.n.dot(&m);
-    let dtg = -(nbb + sigma * sigma * kn * kg + tg * dsigma) * inv2;
-    let kappa = (kn * kn + kg * kg).sqrt();
-    let dk = if kappa > 0.0 {
-        (kn * dkn + kg * dkg) / kappa
-    } else {
-        (dkn * dkn + dkg * dkg).sqrt()
+    let a3 = |v: &Vec3| [v.x, v.y, v.z];
+    let x = RatesIn {
+        c: [c.du, c.dv, c.ddu, c.ddv, c3[0], c3[1]],
+        s: [a3(&s.su), a3(&s.sv), a3(&s.suu), a3(&s.suv), a3(&s.svv)],
+        s3: [a3(&s3[0]), a3(&s3[1]), a3(&s3[2]), a3(&s3[3])],
+        tbn: [a3(&f.t), a3(&f.b), a3(&f.n)],
+        k: [f.normal_curvature, f.geodesic_curvature, f.geodesic_torsion],
     };
+    let [dkn, dkg, dtg, dk] = rates_math(&x);
     let r = InvariantRates {
         normal_curvature: dkn,
         geodesic_curvature: dkg,
         geodesic_torsion: dtg,
         space_curvature: dk,
     };
+    checked_rates(r)
+}
+
+/// `r` if every rate is finite, else `NonFinite` (result) naming the first that is not.
+#[inline]
+pub(crate) fn checked_rates(r: InvariantRates) -> Result<InvariantRates> {
     // One test for the common case: the product of zero and a non-finite value is NaN.
-    if (dkn * 0.0 + dkg * 0.0 + dtg * 0.0 + dk * 0.0) == 0.0 {
+    let z = r.normal_curvature * 0.0
+        + r.geodesic_curvature * 0.0
+        + r.geodesic_torsion * 0.0
+        + r.space_curvature * 0.0;
+    if z == 0.0 {
         return Ok(r);
     }
     non_finite_rate(&r)
