@@ -7,8 +7,8 @@
 use strake::analytic;
 use strake::isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels};
 use strake::{
-    CurveOnSurface, Hints, InvariantRates, NurbsCurve, NurbsSurface, NurbsSurfaceData, SurfaceSource,
-    UvCurve,
+    CurveOnSurface, Hints, InvariantRates, NurbsCurve, NurbsSurface, NurbsSurfaceData,
+    SurfaceSource, UvCurve,
 };
 
 /// A rational bicubic "wing skin" of 7 × 6 control points over [0, 1]² with interior knots.
@@ -82,7 +82,12 @@ fn check_path<S: SurfaceSource, C: UvCurve>(path: &CurveOnSurface<'_, S, C>) {
     for (i, &t) in ts.iter().enumerate() {
         let (f, r) = path.frame_with_rates(t, &mut hints).unwrap();
         assert_eq!(f, frames[i], "frame at sample {i}");
-        assert_eq!(bits(&r), bits(&rates[i]), "rates at sample {i}: {r:?} vs {:?}", rates[i]);
+        assert_eq!(
+            bits(&r),
+            bits(&rates[i]),
+            "rates at sample {i}: {r:?} vs {:?}",
+            rates[i]
+        );
         // A fresh hint gives the same bits (hints only affect speed).
         let (_, r2) = path.frame_with_rates(t, &mut Hints::default()).unwrap();
         assert_eq!(bits(&r2), bits(&r));
@@ -133,7 +138,9 @@ fn the_first_failure_is_that_of_the_one_point_path() {
         .frames_with_rates_at(&ts, &mut frames, &mut rates)
         .unwrap_err();
     assert_eq!(e.index, 97);
-    let one = path.frame_with_rates(1.5, &mut Hints::default()).unwrap_err();
+    let one = path
+        .frame_with_rates(1.5, &mut Hints::default())
+        .unwrap_err();
     assert_eq!(e.error, one);
     for i in [0, 63, 64, 96] {
         let (_, r) = path.frame_with_rates(ts[i], &mut Hints::default()).unwrap();
@@ -175,7 +182,8 @@ fn centre_path_third_order_agrees_with_the_series_route() {
         let f0 = path.frame(0.0, &mut Hints::default()).unwrap();
         let p0 = strake::centre_point(
             &f0,
-            &s.checked_partials(f0.u, f0.v, 4, &mut Default::default()).unwrap(),
+            &s.checked_partials(f0.u, f0.v, 4, &mut Default::default())
+                .unwrap(),
             &c.checked_partials(0.0, 4, &mut Default::default()).unwrap(),
             s.orientation(),
             &setup,

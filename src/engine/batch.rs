@@ -261,7 +261,8 @@ where
         if good > 0 {
             let (sg, cg) = (&sj[..good], &cj[..good]);
             let bits = kernel.frames(sg, cg, orientation, &scales, sink.room(base, good));
-            for i in 0..good {
+            let kernel_lanes = good;
+            for i in 0..kernel_lanes {
                 // A lane with a non-finite jet is flagged by the kernel; the one-point path
                 // then reports the jet's `NonFinite` error.
                 if bits & (1 << i) != 0 {
@@ -279,14 +280,7 @@ where
             }
         }
         if good > 0 {
-            sink.chunk_done(
-                surface,
-                curve,
-                base,
-                &ts[..good],
-                &cj[..good],
-                &sj[..good],
-            )?;
+            sink.chunk_done(surface, curve, base, &ts[..good], &cj[..good], &sj[..good])?;
         }
         if let Some(error) = pending {
             return Err(SampleError {

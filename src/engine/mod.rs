@@ -7,5 +7,5 @@
 pub(crate) mod batch;
 pub(crate) mod frame_block;
 pub(crate) mod lanes;
-pub(crate) mod rates_batch;
 pub mod parallel;
+pub(crate) mod rates_batch;

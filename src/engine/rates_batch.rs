@@ -139,8 +139,7 @@ impl FrameSink for RatesSink<'_> {
         hint: &mut SurfaceHint,
         out: &mut [SurfaceJet],
     ) -> Result<()> {
-        self.have_third =
-            surface.jets_and_third_block(u, v, hint, out, &mut self.third[..u.len()]);
+        self.have_third = surface.jets_and_third_block(u, v, hint, out, &mut self.third[..u.len()]);
         if self.have_third {
             return Ok(());
         }
@@ -177,9 +176,9 @@ impl FrameSink for RatesSink<'_> {
                 error,
             };
             if i == written {
-                let error = failure.take().unwrap_or_else(|| StrakeError::InvalidArgument(
-                    "third derivatives of the curve missing".into(),
-                ));
+                let error = failure.take().unwrap_or_else(|| {
+                    StrakeError::InvalidArgument("third derivatives of the curve missing".into())
+                });
                 return Err(fail(error));
             }
             let third = self.have_third.then_some(&self.third[i]);

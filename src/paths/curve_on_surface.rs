@@ -4,11 +4,11 @@
 
 use crate::curve::UvCurve;
 pub use crate::engine::batch::{Hints, SampleError};
+use crate::engine::rates_batch::{RatesSink, curve_third_at, rates_at};
 use crate::error::{Result, StrakeError};
 use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
 use crate::geometry::jet::{CurvePartials, DerivOrder, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::SurfacePoint;
-use crate::engine::rates_batch::{RatesSink, curve_third_at, rates_at};
 use crate::geometry::rates::InvariantRates;
 use crate::surface::SurfaceSource;
 

@@ -265,13 +265,19 @@ impl NurbsSurface {
         let (three_wuu, three_wvv) = (mul(three, wuu), mul(three, wvv));
         let two_wuv = mul(two, wuv);
         let suuu = mul(
-            sub(sub(sub(h[6], mul(suu, three_wu)), mul(su, three_wuu)), mul(s, wuuu)),
+            sub(
+                sub(sub(h[6], mul(suu, three_wu)), mul(su, three_wuu)),
+                mul(s, wuuu),
+            ),
             inv_w,
         );
         let suuv = mul(
             sub(
                 sub(
-                    sub(sub(sub(h[7], mul(suu, wv)), mul(suv, two_wu)), mul(su, two_wuv)),
+                    sub(
+                        sub(sub(h[7], mul(suu, wv)), mul(suv, two_wu)),
+                        mul(su, two_wuv),
+                    ),
                     mul(sv, wuu),
                 ),
                 mul(s, wuuv),
@@ -281,7 +287,10 @@ impl NurbsSurface {
         let suvv = mul(
             sub(
                 sub(
-                    sub(sub(sub(h[8], mul(svv, wu)), mul(suv, two_wv)), mul(sv, two_wuv)),
+                    sub(
+                        sub(sub(h[8], mul(svv, wu)), mul(suv, two_wv)),
+                        mul(sv, two_wuv),
+                    ),
                     mul(su, wvv),
                 ),
                 mul(s, wuvv),
@@ -289,7 +298,10 @@ impl NurbsSurface {
             inv_w,
         );
         let svvv = mul(
-            sub(sub(sub(h[9], mul(svv, three_wv)), mul(sv, three_wvv)), mul(s, wvvv)),
+            sub(
+                sub(sub(h[9], mul(svv, three_wv)), mul(sv, three_wvv)),
+                mul(s, wvvv),
+            ),
             inv_w,
         );
         put(suuu, &mut third[0]);
@@ -322,7 +334,16 @@ mod tests {
     #[test]
     fn jets_are_the_one_point_bits_and_third_partials_agree() {
         let supported = crate::isa::supported_vector_kernels();
-        for (p, q) in [(3, 3), (3, 2), (2, 3), (2, 2), (2, 1), (1, 2), (1, 1), (4, 3)] {
+        for (p, q) in [
+            (3, 3),
+            (3, 2),
+            (2, 3),
+            (2, 2),
+            (2, 1),
+            (1, 2),
+            (1, 1),
+            (4, 3),
+        ] {
             for rational in [false, true] {
                 let mut st = (p * 10 + q) as u64 + rational as u64;
                 let s = super::super::random_test_surface(p, q, p + 5, q + 4, rational, &mut st);
