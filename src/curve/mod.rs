@@ -17,6 +17,30 @@ pub trait UvCurve: Send + Sync {
     /// ([`UvCurve::checked_jet`]).
     fn jet_in_domain(&self, t: f64, hint: &mut SpanHint) -> Result<CurveJet>;
 
+    /// The third derivatives [u''', v'''] at `ts[i]` into `out[i]` (same lengths, t inside
+    /// the domain), for the batch of the rates of change; checked for finiteness by the
+    /// caller. The default asks [`UvCurve::partials_in_domain`] for order 3 point by point (a
+    /// curve without third order refuses there, naming the order), a failure at point i
+    /// returned as `StrakeError::AtPoint { index: i, .. }`; a source that evaluates the block
+    /// as a whole may fail for the whole block with any other error.
+    fn third_derivatives_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [[f64; 2]],
+    ) -> Result<()> {
+        for (index, (&t, o)) in ts.iter().zip(out.iter_mut()).enumerate() {
+            let p = self
+                .partials_in_domain(t, 3, hint)
+                .map_err(|error| StrakeError::AtPoint {
+                    index,
+                    error: Box::new(error),
+                })?;
+            *o = [p.u[3], p.v[3]];
+        }
+        Ok(())
+    }
+
     /// The jets at `ts[i]` into `out[i]`, i = 0..ts.len() (`ts` and `out` have the same
     /// length), all called with t inside the domain; batch entry points call it once per block
     /// of samples. The hint is carried through the points in order.
@@ -148,6 +172,16 @@ impl UvCurve for NurbsCurve<2> {
         self.jets_block(ts, hint, out);
         Ok(())
     }
+    #[inline]
+    fn third_derivatives_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [[f64; 2]],
+    ) -> Result<()> {
+        self.third_block(ts, hint, out);
+        Ok(())
+    }
     fn max_order(&self) -> usize {
         MAX_PARTIAL_ORDER
     }
@@ -214,6 +248,14 @@ impl<C: UvCurve + ?Sized> UvCurve for &C {
         out: &mut [CurveJet],
     ) -> Result<()> {
         (**self).jets_in_domain_block(ts, hint, out)
+    }
+    fn third_derivatives_block(
+        &self,
+        ts: &[f64],
+        hint: &mut SpanHint,
+        out: &mut [[f64; 2]],
+    ) -> Result<()> {
+        (**self).third_derivatives_block(ts, hint, out)
     }
     fn breakpoints(&self) -> &[f64] {
         (**self).breakpoints()

@@ -85,6 +85,38 @@ pub(crate) trait FrameSink {
     /// The frame of sample `index` (at parameter `t`), computed by the one-point path because
     /// the kernel flagged it.
     fn put(&mut self, index: usize, t: f64, frame: &DarbouxFrame);
+    /// The second-order surface jets of a chunk's points, for the frames: by default
+    /// [`SurfaceSource::jets_in_domain_block`]. A sink that needs more of the surface per
+    /// point (the third partials of the rates) evaluates them here in the same pass; the jets
+    /// must be the same bits.
+    #[inline]
+    fn surface_jets<S: SurfaceSource + ?Sized>(
+        &mut self,
+        surface: &S,
+        u: &[f64],
+        v: &[f64],
+        hint: &mut SurfaceHint,
+        out: &mut [SurfaceJet],
+    ) -> crate::error::Result<()> {
+        surface.jets_in_domain_block(u, v, DerivOrder::Second, hint, out)
+    }
+    /// Every frame of the chunk's samples `base .. base + ts.len()` is final (`ts`, `cj`, `sj`
+    /// their parameters and jets): work that needs the frames is done here, in sample order.
+    /// A failure is that of its sample, and it ends the batch (samples of the chunk after
+    /// the first failing frame never come here).
+    #[inline]
+    fn chunk_done<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+        &mut self,
+        surface: &S,
+        curve: &C,
+        base: usize,
+        ts: &[f64],
+        cj: &[CurveJet],
+        sj: &[SurfaceJet],
+    ) -> Result<(), SampleError> {
+        let _ = (surface, curve, base, ts, cj, sj);
+        Ok(())
+    }
 }
 
 /// A sink that is the caller's array of frames (`count` long): the kernel writes into it
@@ -221,10 +253,10 @@ where
             vs[i] = c.v;
         }
         if good > 0 {
-            let block = surface.jets_in_domain_block(
+            let block = sink.surface_jets(
+                surface,
                 &us[..good],
                 &vs[..good],
-                DerivOrder::Second,
                 &mut hints.surface,
                 &mut sj[..good],
             );
@@ -259,23 +291,26 @@ where
         if good > 0 {
             let (sg, cg) = (&sj[..good], &cj[..good]);
             let bits = kernel.frames(sg, cg, orientation, &scales, sink.room(base, good));
-            for i in 0..good {
+            let kernel_lanes = good;
+            for i in 0..kernel_lanes {
                 // A lane with a non-finite jet is flagged by the kernel; the one-point path
                 // then reports the jet's `NonFinite` error.
                 if bits & (1 << i) != 0 {
                     sink.placed(base + i, ts[i]);
                 } else {
-                    let frame =
-                        one_point(surface, &scales, &sj[i], &cj[i], ts[i]).map_err(|error| {
-                            SampleError {
-                                index: base + i,
-                                t: ts[i],
-                                error,
-                            }
-                        })?;
-                    sink.put(base + i, ts[i], &frame);
+                    match one_point(surface, &scales, &sj[i], &cj[i], ts[i]) {
+                        Ok(frame) => sink.put(base + i, ts[i], &frame),
+                        Err(e) => {
+                            good = i;
+                            pending = Some(e);
+                            break;
+                        }
+                    }
                 }
             }
+        }
+        if good > 0 {
+            sink.chunk_done(surface, curve, base, &ts[..good], &cj[..good], &sj[..good])?;
         }
         if let Some(error) = pending {
             return Err(SampleError {

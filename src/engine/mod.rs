@@ -8,3 +8,4 @@ pub(crate) mod batch;
 pub(crate) mod frame_block;
 pub(crate) mod lanes;
 pub mod parallel;
+pub(crate) mod rates_batch;

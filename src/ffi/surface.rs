@@ -103,6 +103,17 @@ impl SurfaceSource for StrakeSurface {
     ) -> Result<SurfaceJet> {
         self.source.jet_in_domain(u, v, order, hint)
     }
+    #[inline]
+    fn jets_and_third_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        hint: &mut SurfaceHint,
+        jets: &mut [SurfaceJet],
+        third: &mut [crate::geometry::rates::ThirdPartials],
+    ) -> bool {
+        self.source.jets_and_third_block(u, v, hint, jets, third)
+    }
     fn u_creases(&self) -> &[crate::surface::crease::KnotLine] {
         self.source.u_creases()
     }

@@ -243,17 +243,26 @@ lane_op!(Div, div, /);
 /// the latencies of the lanes' recursions overlap. `d[k][r]` lane l is `d[k][r]` of
 /// [`basis_rows_in`] at point l. Same preconditions per lane as [`basis_rows_in`].
 ///
+/// `R` = 3 gives rows to the second derivative, `R` = 4 also the third (row 3, zero below
+/// degree 3); rows 0..3 are the same bits either way.
+///
 /// With `SAME` the caller promises that every lane has the span of lane 0 (the common case on a
 /// path, which crosses a knot line now and then): the knots and reciprocals are then read once
 /// and broadcast instead of gathered lane by lane. The same values either way.
 #[inline(always)]
-pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize, const SAME: bool>(
+pub(crate) fn basis_rows_lanes<
+    const N: usize,
+    const P: usize,
+    const L: usize,
+    const SAME: bool,
+    const R: usize,
+>(
     knots: &[f64],
     recips: &[f64],
     spans: &[usize; L],
     x: Lanes<L>,
     order: usize,
-) -> [[Lanes<L>; N]; 3] {
+) -> [[Lanes<L>; N]; R] {
     const { assert!(P > 0 && P < N) };
     debug_assert!(!SAME || spans.iter().all(|&s| s == spans[0]));
     let per_span = reciprocals_per_span(P);
@@ -268,11 +277,13 @@ pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize, c
         rc[l] = &recips[(spans[l] - P) * per_span..][..per_span];
     }
     let zero = Lanes::splat(0.0);
-    let mut out = [[zero; N]; 3];
+    const { assert!(R == 3 || R == 4) };
+    let mut out = [[zero; N]; R];
     let mut left = [zero; N];
     let mut right = [zero; N];
     let mut deg_p1 = [zero; N];
     let mut deg_p2 = [zero; N];
+    let mut deg_p3 = [zero; N];
     let row = &mut out[0];
     row[0] = Lanes::splat(1.0);
     for j in 1..P + 1 {
@@ -281,6 +292,9 @@ pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize, c
         }
         if j + 1 == P {
             deg_p2 = *row;
+        }
+        if R > 3 && j + 2 == P {
+            deg_p3 = *row;
         }
         left[j] = x - Lanes::gather::<SAME>(&kw, P - j);
         right[j] = Lanes::gather::<SAME>(&kw, P - 1 + j) - x;
@@ -299,6 +313,14 @@ pub(crate) fn basis_rows_lanes<const N: usize, const P: usize, const L: usize, c
         let mut der_p1 = [zero; N];
         derivative_row_lanes::<N, L, SAME>(P - 1, &rc, &deg_p2, &mut der_p1);
         derivative_row_lanes::<N, L, SAME>(P, &rc, &der_p1, &mut out[2]);
+    }
+    // The third derivative (rows of four only): the derivative formula three times, through
+    // degrees p − 2 and p − 1, as the second through degree p − 1.
+    if R > 3 && order >= 3 && P >= 3 {
+        let (mut d1, mut d2) = ([zero; N], [zero; N]);
+        derivative_row_lanes::<N, L, SAME>(P - 2, &rc, &deg_p3, &mut d1);
+        derivative_row_lanes::<N, L, SAME>(P - 1, &rc, &d1, &mut d2);
+        derivative_row_lanes::<N, L, SAME>(P, &rc, &d2, &mut out[R - 1]);
     }
     out
 }

@@ -38,6 +38,7 @@ use crate::surface::crease::KnotLine;
 use crate::surface::{KnotSide, KnotSides, SurfaceHint, SurfaceSource};
 
 mod block;
+mod block3;
 mod high;
 
 /// The arrays that define a NURBS surface, borrowed from the caller, as handed to
@@ -636,6 +637,18 @@ impl SurfaceSource for NurbsSurface {
         hint: &mut SurfaceHint,
     ) -> Result<SurfaceJet> {
         Ok(self.jet_unchecked(u, v, order, hint))
+    }
+    #[inline]
+    fn jets_and_third_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        hint: &mut SurfaceHint,
+        jets: &mut [SurfaceJet],
+        third: &mut [crate::geometry::rates::ThirdPartials],
+    ) -> bool {
+        self.jets_third_unchecked_block(u, v, hint, jets, third);
+        true
     }
     /// The points of the block a group at a time, with the latencies of several points
     /// overlapping (see `nurbs/surface/block.rs`); the bits of [`NurbsSurface::jet_unchecked`]

@@ -4,12 +4,13 @@
 
 use crate::curve::UvCurve;
 pub use crate::engine::batch::{Hints, SampleError};
+use crate::engine::rates_batch::{RatesSink, curve_third_at, rates_at};
 use crate::error::{Result, StrakeError};
 use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
 use crate::geometry::jet::CurveJet;
-use crate::geometry::jet::{CurvePartials, DerivOrder, SurfacePartials};
+use crate::geometry::jet::{CurvePartials, DerivOrder, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::SurfacePoint;
-use crate::geometry::rates::{InvariantRates, invariant_rates};
+use crate::geometry::rates::InvariantRates;
 use crate::surface::crease::snap_onto_surface_creases;
 use crate::surface::{CreaseFlags, KnotSides, SurfaceSource};
 
@@ -242,61 +243,98 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     }
 
     /// The frame at `t` and the rates of change along arc length of κn, κg, τg and κ there
-    /// (see [`crate::geometry::rates`]), from third-order jets.
+    /// (see [`crate::geometry::rates`]), from third-order jets: the frame of [`Self::frame`]
+    /// and the rates of [`crate::geometry::rates::rates_from_jets`] from its jets, the
+    /// curve's third derivatives ([`UvCurve::third_derivatives_block`]) and the surface's
+    /// third partials ([`SurfaceSource::jets_and_third_block`], else
+    /// [`SurfaceSource::checked_partials`]), bit for bit those of
+    /// [`Self::frames_with_rates_at`].
     ///
-    /// Errors: those of [`Self::frame_and_partials`] with order 3.
+    /// Errors: those of [`Self::frame`]; `OrderUnavailable` when the curve or the surface
+    /// does not provide third order (a host callback that gives second order only);
+    /// `NonFinite` for a non-finite third derivative (named) or rate.
     pub fn frame_with_rates(
         &self,
         t: f64,
         hints: &mut Hints,
     ) -> Result<(DarbouxFrame, InvariantRates)> {
-        let (f, sp, cp) = self.frame_and_partials(t, 3, hints)?;
-        let r = invariant_rates(&f, &sp, &cp, self.surface.orientation())?;
+        // The steps of `Self::frame_flagged`, keeping the jets.
+        let (cj, flags, sides) = self.curve_point(t, hints)?;
+        let sj = if flags.is_smooth() {
+            self.surface
+                .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?
+        } else {
+            let sj = self.surface.jet_in_domain_sided(
+                cj.u,
+                cj.v,
+                sides,
+                DerivOrder::Second,
+                &mut hints.surface,
+            )?;
+            sj.check_finite()?;
+            sj
+        };
+        let sp = SurfacePoint::new(
+            &sj,
+            self.surface.orientation(),
+            cj.u,
+            cj.v,
+            self.scales.u_extent,
+            self.scales.v_extent,
+        )?;
+        let f = darboux_frame_at(&sj, &sp, &cj, &self.scales, t)?;
+        let ts = self.curve.domain().snap("t", t)?;
+        let c3 = curve_third_at(self.curve, ts, &mut hints.curve)?;
+        let mut third = [[crate::geometry::math::Vec3::zeros(); 4]];
+        let (mut h, mut scratch) = (hints.surface, [SurfaceJet::default()]);
+        let have =
+            self.surface
+                .jets_and_third_block(&[cj.u], &[cj.v], &mut h, &mut scratch, &mut third);
+        let r = rates_at(
+            self.surface,
+            &f,
+            &sj,
+            &cj,
+            c3,
+            have.then_some(&third[0]),
+            &mut hints.surface,
+        )?;
         Ok((f, r))
     }
 
     /// Frames and rates of change of the invariants at each of `ts`, into `frames` and
     /// `rates` (all three the same length): the frames of [`Self::frames_at`] (same bits),
-    /// the rates of [`Self::frame_with_rates`] at each sample. Nothing is allocated; the span
-    /// hints are carried along. Stops at the first failing sample and reports it (the outputs
-    /// are then partly written).
+    /// the rates of [`Self::frame_with_rates`] at each sample (same bits, same errors).
+    /// Evaluated a chunk at a time by the frame batch, with the surface's third partials
+    /// from the same evaluation as its jets where the surface has one (native NURBS); nothing
+    /// is allocated. Stops at the first failing sample and reports it (the outputs are then
+    /// partly written).
     pub fn frames_with_rates_at(
         &self,
         ts: &[f64],
         frames: &mut [DarbouxFrame],
         rates: &mut [InvariantRates],
     ) -> std::result::Result<(), SampleError> {
-        if rates.len() != ts.len() {
+        if rates.len() != ts.len() || frames.len() != ts.len() {
             return Err(SampleError {
                 index: 0,
                 t: f64::NAN,
                 error: StrakeError::InvalidArgument(format!(
-                    "{} parameters but room for {} rates",
+                    "{} parameters but room for {} frames and {} rates",
                     ts.len(),
+                    frames.len(),
                     rates.len()
                 )),
             });
         }
-        self.frames_at(ts, frames)?;
-        let mut hints = Hints::default();
-        let orientation = self.surface.orientation();
-        for (index, ((&t, f), r)) in ts
-            .iter()
-            .zip(frames.iter())
-            .zip(rates.iter_mut())
-            .enumerate()
-        {
-            let at = |error| SampleError { index, t, error };
-            let cp = self
-                .curve
-                .checked_partials(t, 3, &mut hints.curve)
-                .map_err(at)?;
-            let sp = self
-                .surface
-                .checked_partials(cp.u[0], cp.v[0], 3, &mut hints.surface)
-                .map_err(at)?;
-            *r = invariant_rates(f, &sp, &cp, orientation).map_err(at)?;
-        }
-        Ok(())
+        crate::engine::batch::frames_blocked_into(
+            self.surface,
+            self.curve,
+            self.scales,
+            ts.len(),
+            &mut Hints::default(),
+            |i| ts[i],
+            &mut RatesSink::new(frames, rates),
+        )
     }
 }

@@ -10,6 +10,7 @@ pub use crease::{CreaseFlags, KnotSide, KnotSides};
 use crate::error::{Result, StrakeError};
 use crate::geometry::jet::{DerivOrder, Interval, MAX_PARTIAL_ORDER, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::Orientation;
+use crate::geometry::rates::ThirdPartials;
 use crate::nurbs::SpanHint;
 
 /// Remembered knot spans in u and v, for surfaces that have them; ignored by others.
@@ -106,6 +107,28 @@ pub trait SurfaceSource: Send + Sync {
                 })?;
         }
         Ok(())
+    }
+
+    /// The second-order jets and the third partials [Suuu, Suuv, Suvv, Svvv] at the points
+    /// (u\[i\], v\[i\]) into `jets[i]` and `third[i]` (all of the same length, points inside
+    /// the domain), for the batch of the rates of change: `true` when written. The jets must
+    /// be the bits [`SurfaceSource::jets_in_domain_block`] gives at second order; results are
+    /// checked for finiteness by the caller.
+    ///
+    /// The default writes nothing and returns `false`: the caller then takes the jets from
+    /// [`SurfaceSource::jets_in_domain_block`] and the third partials from
+    /// [`SurfaceSource::checked_partials`] point by point (a source without third order
+    /// refuses there, naming the order). Native NURBS surfaces evaluate both in one pass.
+    fn jets_and_third_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        hint: &mut SurfaceHint,
+        jets: &mut [SurfaceJet],
+        third: &mut [ThirdPartials],
+    ) -> bool {
+        let _ = (u, v, hint, jets, third);
+        false
     }
 
     /// The highest derivative order [`SurfaceSource::partials_in_domain`] provides: 2 by
@@ -236,6 +259,16 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
         out: &mut [SurfaceJet],
     ) -> Result<()> {
         (**self).jets_in_domain_block(u, v, order, hint, out)
+    }
+    fn jets_and_third_block(
+        &self,
+        u: &[f64],
+        v: &[f64],
+        hint: &mut SurfaceHint,
+        jets: &mut [SurfaceJet],
+        third: &mut [ThirdPartials],
+    ) -> bool {
+        (**self).jets_and_third_block(u, v, hint, jets, third)
     }
     fn max_order(&self) -> usize {
         (**self).max_order()

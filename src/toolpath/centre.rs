@@ -39,7 +39,7 @@ use crate::geometry::frame::DarbouxFrame;
 use crate::geometry::jet::{CurvePartials, SurfacePartials};
 use crate::geometry::math::Vec3;
 use crate::geometry::principal::Orientation;
-use crate::geometry::rates::path_series;
+use crate::geometry::rates::{InvariantRates, invariant_rates, path_series};
 use crate::paths::curve_on_surface::{CurveOnSurface, Hints, SampleError};
 use crate::surface::SurfaceSource;
 
@@ -99,7 +99,9 @@ pub struct CentrePoint {
 
 /// The tool-centre path at a sample with frame `f` (from the second-order path) and the
 /// surface's and curve's partials there, of order 3 (position, axis, tangent, speed ratio,
-/// curvature) or 4 (also the curvature's rate of change and the torsion).
+/// curvature) or 4 (also the curvature's rate of change and the torsion). At order 3 the
+/// closed forms of `centre_from_rates` from the rates of [`invariant_rates`] (ω and dω/ds in
+/// frame components); at order 4 the series route of the module's description.
 ///
 /// Errors: those of [`ToolSetup::validate`]; `OrderUnavailable` when a partial order is
 /// below 3; [`StrakeError::CentrePathFolds`] (index 0) where the component of dCL/ds along
@@ -127,17 +129,9 @@ pub fn centre_point(
         });
     }
     let order = order.min(4);
-    let axis = tool_axis(f, setup.side, &setup.angles)?.space;
-    // Frame components of the axis and of the tool-side normal.
-    let a = Vec3::new(axis.dot(&f.t), axis.dot(&f.b), axis.dot(&f.n));
-    let nt = Vec3::new(0.0, 0.0, setup.side.sign());
-    let (big_r, r) = setup.cutter.torus_radii();
-    let perp = nt - a * nt.dot(&a);
-    let perp_len = perp.norm();
-    let mut d = nt * r;
-    if big_r > 0.0 && perp_len > 0.0 {
-        d += perp * (big_r / perp_len);
-    }
+    // Frame components of the offset and of the axis.
+    let (d, a, axis) = offset_and_axis(f, setup)?;
+    let (_, r) = setup.cutter.torus_radii();
     // dCL/ds = T + ω × d in frame components.
     let omega = Vec3::new(
         f.geodesic_torsion,
@@ -152,6 +146,10 @@ pub fn centre_point(
             speed_along: p1.x,
             count: 1,
         });
+    }
+    if order == 3 {
+        let r = invariant_rates(f, surface, curve, orientation)?;
+        return centre_from_rates(f, &r, setup, t);
     }
     let to_space = |x: Vec3| f.t * x.x + f.b * x.y + f.n * x.z;
     let centre = f.point + to_space(d);
@@ -229,9 +227,108 @@ pub fn centre_point(
     Ok(p)
 }
 
+/// The offset d = CL − c in frame components (T, B, N) and the axis a in frame components,
+/// for the setup at frame `f` (see the module's formulas).
+fn offset_and_axis(f: &DarbouxFrame, setup: &ToolSetup) -> Result<(Vec3, Vec3, Vec3)> {
+    let axis = tool_axis(f, setup.side, &setup.angles)?.space;
+    let a = Vec3::new(axis.dot(&f.t), axis.dot(&f.b), axis.dot(&f.n));
+    let nt = Vec3::new(0.0, 0.0, setup.side.sign());
+    let (big_r, r) = setup.cutter.torus_radii();
+    let perp = nt - a * nt.dot(&a);
+    let perp_len = perp.norm();
+    let mut d = nt * r;
+    if big_r > 0.0 && perp_len > 0.0 {
+        d += perp * (big_r / perp_len);
+    }
+    Ok((d, a, axis))
+}
+
+/// The tool-centre path at a sample from its frame and the rates of change of its
+/// invariants ([`crate::geometry::rates`]), to third order (no curvature rate, torsion or
+/// jerk figure): closed forms in frame components. With ω = (τg, −κn, κg) and
+/// ω' = dω/ds = (dτg/ds, −dκn/ds, dκg/ds), dCL/ds = F y with y = e₁ + ω × d, and
+/// d²CL/ds² = F z with z = ω' × d + ω × y (d is constant in the frame); so the speed ratio is
+/// |y|, the tangent F y / |y| and the curvature |y × z| / |y|³ (do Carmo §1-5, any
+/// parameter). The same quantities as the series route of order 4, to round-off (tested).
+///
+/// Errors: those of [`ToolSetup::validate`] and [`tool_axis`];
+/// [`StrakeError::CentrePathFolds`] (index 0) where y·e₁ < [`FOLD_LIMIT`]; `NonFinite`
+/// (result) on overflow.
+pub(crate) fn centre_from_rates(
+    f: &DarbouxFrame,
+    rates: &InvariantRates,
+    setup: &ToolSetup,
+    t: f64,
+) -> Result<CentrePoint> {
+    setup.validate()?;
+    let (d, a, axis) = offset_and_axis(f, setup)?;
+    let (_, r) = setup.cutter.torus_radii();
+    let omega = Vec3::new(
+        f.geodesic_torsion,
+        -f.normal_curvature,
+        f.geodesic_curvature,
+    );
+    let y = Vec3::new(1.0, 0.0, 0.0) + omega.cross(&d);
+    if y.x.is_nan() || y.x < FOLD_LIMIT {
+        return Err(StrakeError::CentrePathFolds {
+            index: 0,
+            t,
+            speed_along: y.x,
+            count: 1,
+        });
+    }
+    let domega = Vec3::new(
+        rates.geodesic_torsion,
+        -rates.normal_curvature,
+        rates.geodesic_curvature,
+    );
+    let z = domega.cross(&d) + omega.cross(&y);
+    let to_space = |x: Vec3| f.t * x.x + f.b * x.y + f.n * x.z;
+    let centre = f.point + to_space(d);
+    let sc = y.norm();
+    let p = CentrePoint {
+        centre,
+        tip: centre - axis * r,
+        axis,
+        tangent: to_space(y / sc),
+        speed_ratio: sc,
+        curvature: y.cross(&z).norm() / (sc * sc * sc),
+        curvature_rate: None,
+        torsion: None,
+        jerk_figure: None,
+        axis_rate: omega.cross(&a).norm() / sc,
+    };
+    for (what, value) in [
+        ("centre speed ratio", p.speed_ratio),
+        ("centre curvature", p.curvature),
+        ("axis rate", p.axis_rate),
+        ("centre", p.centre.norm()),
+        ("centre tangent", p.tangent.norm()),
+    ] {
+        if !value.is_finite() {
+            return Err(StrakeError::NonFinite {
+                source: NonFiniteSource::Result,
+                what,
+                value,
+            });
+        }
+    }
+    Ok(p)
+}
+
 /// The tool-centre path at each of `ts` into `out` (same length), from partials of `order`
 /// (3: no curvature rate, torsion or jerk figure; 4: all). The frame at each sample is that of
-/// [`CurveOnSurface::frame`]; span hints are carried along, nothing is allocated.
+/// [`CurveOnSurface::frame`]; span hints are carried along, nothing is allocated. At order 3
+/// the frames and the rates come from the third-order batch
+/// ([`CurveOnSurface::frames_with_rates_at`], 64 samples at a time) and the centre point from
+/// the closed forms [`centre_point`] uses at order 3 (agreeing with it to round-off: its
+/// rates come from the surface's partials, whose second-order entries may differ from the
+/// jets' by a few units in the last place); at order 4 one sample at a time. At order 3
+/// the frames and the rates come from the third-order batch
+/// ([`CurveOnSurface::frames_with_rates_at`], 64 samples at a time) and the centre point from
+/// the closed forms of [`centre_point`] at order 3 (agreeing with it to round-off: its rates
+/// come from the surface's partials, whose second-order entries may differ from the jets'
+/// by a few units in the last place); at order 4 one sample at a time.
 ///
 /// Errors, naming the sample: those of [`CurveOnSurface::frame_and_partials`] and
 /// [`centre_point`]; where the centre path folds back, [`StrakeError::CentrePathFolds`]
@@ -258,6 +355,9 @@ pub fn centre_path_at<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         ));
     }
     setup.validate().map_err(|e| fail(0, f64::NAN, e))?;
+    if order == 3 {
+        return centre_path_third(path, ts, setup, out);
+    }
     let mut hints = Hints::default();
     let orientation = path.surface().orientation();
     let mut first_fold: Option<(usize, f64, f64)> = None;
@@ -286,6 +386,67 @@ pub fn centre_path_at<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
                 count: folds,
             },
         ));
+    }
+    Ok(())
+}
+
+/// [`centre_path_at`] at order 3: frames and rates by the third-order batch
+/// ([`CurveOnSurface::frames_with_rates_at`], a chunk of samples at a time on the stack),
+/// then [`centre_from_rates`] per sample; folds counted through the whole path.
+fn centre_path_third<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    path: &CurveOnSurface<'_, S, C>,
+    ts: &[f64],
+    setup: &ToolSetup,
+    out: &mut [CentrePoint],
+) -> std::result::Result<(), SampleError> {
+    const PIECE: usize = 64;
+    let Some(&t0) = ts.first() else {
+        return Ok(());
+    };
+    // Any frame fills the scratch (the batch overwrites it); sample 0's fails as the batch
+    // would fail there.
+    let f0 = path
+        .frame(t0, &mut Hints::default())
+        .map_err(|error| SampleError {
+            index: 0,
+            t: t0,
+            error,
+        })?;
+    let mut frames = [f0; PIECE];
+    let mut rates = [InvariantRates::default(); PIECE];
+    let mut first_fold: Option<(usize, f64, f64)> = None;
+    let mut folds = 0;
+    for (k, (tp, op)) in ts.chunks(PIECE).zip(out.chunks_mut(PIECE)).enumerate() {
+        let base = k * PIECE;
+        let n = tp.len();
+        path.frames_with_rates_at(tp, &mut frames[..n], &mut rates[..n])
+            .map_err(|e| SampleError {
+                index: base + e.index,
+                ..e
+            })?;
+        for (i, o) in op.iter_mut().enumerate() {
+            let (index, t) = (base + i, tp[i]);
+            match centre_from_rates(&frames[i], &rates[i], setup, t) {
+                Ok(p) => *o = p,
+                Err(StrakeError::CentrePathFolds { speed_along, .. }) => {
+                    folds += 1;
+                    first_fold.get_or_insert((index, t, speed_along));
+                }
+                Err(error) => return Err(SampleError { index, t, error }),
+            }
+        }
+    }
+    if let Some((index, t, speed_along)) = first_fold {
+        return Err(SampleError {
+            index,
+            t,
+            error: StrakeError::CentrePathFolds {
+                index,
+                t,
+                speed_along,
+                count: folds,
+            },
+        });
     }
     Ok(())
 }

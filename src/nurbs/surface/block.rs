@@ -142,14 +142,14 @@ impl NurbsSurface {
             let (span_v, same_v) = self.v_knots.group_spans(&xv, len, &mut hint.v);
             let (ru, rv) = (&self.u_recip[..], &self.v_recip[..]);
             let nu = if same_u {
-                basis_rows_lanes::<N, P, GROUP, true>(knots_u, ru, &span_u, Lanes(xu), K)
+                basis_rows_lanes::<N, P, GROUP, true, 3>(knots_u, ru, &span_u, Lanes(xu), K)
             } else {
-                basis_rows_lanes::<N, P, GROUP, false>(knots_u, ru, &span_u, Lanes(xu), K)
+                basis_rows_lanes::<N, P, GROUP, false, 3>(knots_u, ru, &span_u, Lanes(xu), K)
             };
             let nv = if same_v {
-                basis_rows_lanes::<N, Q, GROUP, true>(knots_v, rv, &span_v, Lanes(xv), K)
+                basis_rows_lanes::<N, Q, GROUP, true, 3>(knots_v, rv, &span_v, Lanes(xv), K)
             } else {
-                basis_rows_lanes::<N, Q, GROUP, false>(knots_v, rv, &span_v, Lanes(xv), K)
+                basis_rows_lanes::<N, Q, GROUP, false, 3>(knots_v, rv, &span_v, Lanes(xv), K)
             };
             // Per point in vector form: first the tensor sums of every point, then the
             // quotient rule of every point, written straight into `out` (the divisions and the
@@ -176,8 +176,8 @@ impl NurbsSurface {
 
 /// Lane `l` of basis rows.
 #[inline(always)]
-fn lane<const N: usize>(rows: &[[L; N]; 3], l: usize) -> [[f64; N]; 3] {
-    let mut out = [[0.0; N]; 3];
+fn lane<const N: usize, const R: usize>(rows: &[[L; N]; R], l: usize) -> [[f64; N]; R] {
+    let mut out = [[0.0; N]; R];
     for (o, row) in out.iter_mut().zip(rows) {
         for (o, x) in o.iter_mut().zip(row) {
             *o = x.0[l];
