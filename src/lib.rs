@@ -81,3 +81,4 @@ pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
     centre_point,
 };
+pub use toolpath::centre_feed_path;

@@ -72,6 +72,13 @@ const GROUPS: &[(&str, &str, &[&str])] = &[
         &["checks.rs"],
     ),
     (
+        "Tool-centre path",
+        "The path the machine runs: rates of change of the invariants along a path (third\n \
+         * order), the tool-centre path of a cutter at lead and tilt, and the feed judged on it\n \
+         * (acceleration, jerk with the curvature's rate of change, the axis's angular speed).",
+        &["toolpath.rs"],
+    ),
+    (
         "Planning",
         "Making the next path: geodesics traced from a point or between two points, offsets of a\n \
          * path on the surface at a geodesic distance, fibre courses and the gaps and overlaps\n \
@@ -353,6 +360,12 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_course_adjacent",
         "strake_course_gaps",
         "strake_course_check",
+        "strake_invariant_rates_at",
+        "strake_invariant_rates_path",
+        "strake_centre_point_at",
+        "strake_centre_path_at",
+        "strake_centre_feed",
+        "strake_centre_feed_path",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

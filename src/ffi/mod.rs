@@ -45,6 +45,7 @@ pub mod sampling;
 pub mod status;
 pub mod surface;
 pub mod surface_evaluate;
+pub mod toolpath;
 pub mod types;
 pub mod version;
 
@@ -113,3 +114,12 @@ pub use checks::{
     strake_check_tow_edges_path, strake_cutter_radii, strake_tool_axis_path,
 };
 pub use types::{StrakeCutterRadii, StrakeCutterStepOver, StrakeRearGouge, StrakeTowEdges};
+// The path the machine runs: rates of the invariants, the tool-centre path, its feed.
+pub use toolpath::{
+    strake_centre_feed, strake_centre_feed_path, strake_centre_path_at, strake_centre_point_at,
+    strake_invariant_rates_at, strake_invariant_rates_path,
+};
+pub use types::{
+    StrakeCentreFeed, StrakeCentreFeedLimits, StrakeCentrePoint, StrakeFeedBound,
+    StrakeInvariantRates,
+};

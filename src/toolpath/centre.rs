@@ -68,8 +68,9 @@ impl ToolSetup {
     }
 }
 
-/// The tool-centre path at one sample.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// The tool-centre path at one sample. (`Default`: every field zero or `None`, a placeholder
+/// for output arrays, not a valid point.)
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct CentrePoint {
     /// Cutter-location point: on the axis, in the plane of the corner-circle centres (a
     /// ball's centre) (host length unit).

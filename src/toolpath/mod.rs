@@ -19,4 +19,4 @@ pub mod centre;
 pub mod feed;
 
 pub use centre::{CentrePoint, FOLD_LIMIT, ToolSetup, centre_path_at, centre_point};
-pub use feed::{CentreFeed, CentreFeedLimits, FeedBound, centre_feed};
+pub use feed::{CentreFeed, CentreFeedLimits, FeedBound, centre_feed, centre_feed_path};
