@@ -1317,6 +1317,94 @@ typedef struct StrakePathInterval {
 } StrakePathInterval;
 
 /**
+ * A surface point with its partial derivatives to fourth order, filled by a host callback of
+ * `strake_surface_from_high_callback`. The first six entries are those of
+ * `StrakeSurfaceJet`, in the same order; each entry is an (x, y, z) triple in the host's
+ * length unit per power of the surface parameters. strake sets every entry to zero before it
+ * calls the host, so entries above the requested order may be left alone.
+ */
+typedef struct StrakeSurfaceHighJet {
+  /**
+   * The point S(u, v).
+   */
+  double p[3];
+  /**
+   * dS/du (order >= 1).
+   */
+  double su[3];
+  /**
+   * dS/dv (order >= 1).
+   */
+  double sv[3];
+  /**
+   * d2S/du2 (order >= 2).
+   */
+  double suu[3];
+  /**
+   * d2S/dudv (order >= 2).
+   */
+  double suv[3];
+  /**
+   * d2S/dv2 (order >= 2).
+   */
+  double svv[3];
+  /**
+   * d3S/du3 (order >= 3).
+   */
+  double suuu[3];
+  /**
+   * d3S/du2dv (order >= 3).
+   */
+  double suuv[3];
+  /**
+   * d3S/dudv2 (order >= 3).
+   */
+  double suvv[3];
+  /**
+   * d3S/dv3 (order >= 3).
+   */
+  double svvv[3];
+  /**
+   * d4S/du4 (order 4).
+   */
+  double suuuu[3];
+  /**
+   * d4S/du3dv (order 4).
+   */
+  double suuuv[3];
+  /**
+   * d4S/du2dv2 (order 4).
+   */
+  double suuvv[3];
+  /**
+   * d4S/dudv3 (order 4).
+   */
+  double suvvv[3];
+  /**
+   * d4S/dv4 (order 4).
+   */
+  double svvvv[3];
+} StrakeSurfaceHighJet;
+
+/**
+ * A host surface evaluator with derivatives to third or fourth order.
+ *
+ * Called with the host's `user_data`, a point (u, v) inside the domain given at creation,
+ * the highest derivative order needed (0 to the `max_order` declared at creation: 0 point;
+ * 1 also su, sv; 2 also suu, suv, svv; 3 also suuu, suuv, suvv, svvv; 4 also the five fourth
+ * partials) and a jet that strake has set to zero. Fill the entries up to `order` and return
+ * 0; any non-zero code reports a failure (`STRAKE_STATUS_SURFACE_CALLBACK_FAILED`, the code
+ * passed back). Entries must be finite (a NaN or infinity gives `STRAKE_STATUS_NON_FINITE`
+ * naming the entry, e.g. "Suuv"). The same rules on threads and unwinding apply as for
+ * `StrakeSurfaceFn`.
+ */
+typedef int32_t (*StrakeSurfaceHighFn)(void *user_data,
+                                       double u,
+                                       double v,
+                                       int32_t order,
+                                       struct StrakeSurfaceHighJet *out);
+
+/**
  * The description of a NURBS surface, as the host's arrays.
  *
  * Control point (i, j), i = 0..count_u − 1 along u and j = 0..count_v − 1 along v, is
@@ -2004,6 +2092,36 @@ StrakeStatus strake_surface_evaluate(const struct StrakeSurface *surface,
                                      size_t count,
                                      uint32_t order,
                                      struct StrakeSurfaceJet *out);
+
+/**
+ * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max]
+ * that gives partial derivatives up to `max_order` (3 or 4): as `strake_surface_from_callback`
+ * (same domain, `flip_normal` and `user_data` rules; the frames and every second-order call
+ * are the same), and in addition the calls that need higher derivatives work:
+ * `strake_invariant_rates_at` and `strake_invariant_rates_path` (order 3),
+ * `strake_centre_point_at` and `strake_centre_path_at` (order 3, or 4 for the curvature's rate
+ * of change, torsion and jerk figure). Asked for more than `max_order`, they return
+ * `STRAKE_STATUS_ORDER_UNAVAILABLE` naming the call and both orders; `f` is never called with
+ * `order` above `max_order`.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+ * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (`max_order` not 3 or 4, an empty or
+ * reversed range, `flip_normal` not 0 or 1).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeSurfaceHighFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_from_high_callback(StrakeSurfaceHighFn f,
+                                               void *user_data,
+                                               uint32_t max_order,
+                                               double u_min,
+                                               double u_max,
+                                               double v_min,
+                                               double v_max,
+                                               int32_t flip_normal,
+                                               struct StrakeSurface **out);
 
 /* ==== Curves ==============================================================================
  * The path as a curve (u(t), v(t)) in the surface's parameter plane: NURBS data, the

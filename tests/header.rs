@@ -43,6 +43,7 @@ const GROUPS: &[(&str, &str, &[&str])] = &[
             "nurbs_surface.rs",
             "batch_callback.rs",
             "surface_evaluate.rs",
+            "high_callback.rs",
         ],
     ),
     (
@@ -366,6 +367,7 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_centre_path_at",
         "strake_centre_feed",
         "strake_centre_feed_path",
+        "strake_surface_from_high_callback",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

@@ -13,12 +13,12 @@
 use super::checks::{angles, cutter, tool_side};
 use super::curve::StrakeCurve;
 use super::guard::{Failure, check_count, guard, input, input_slice, output};
+use super::status::StrakeStatus;
 use super::surface::StrakeSurface;
 use super::types::{
     StrakeCentreFeed, StrakeCentreFeedLimits, StrakeCentrePoint, StrakeCutter, StrakeFrame,
     StrakeInvariantRates, StrakeToolAngles,
 };
-use super::status::StrakeStatus;
 use crate::error::StrakeError;
 use crate::geometry::frame::DarbouxFrame;
 use crate::geometry::rates::InvariantRates;
@@ -104,9 +104,10 @@ fn centre_limits(l: &StrakeCentreFeedLimits) -> Result<CentreFeedLimits, Failure
         max_jerk: optional("max_jerk", l.max_jerk)?,
         max_angular_speed: optional("max_angular_speed", l.max_angular_speed)?,
     };
-    limits
-        .validate()
-        .map_err(|e| Failure::invalid(format!("limits->{e}")))?;
+    limits.validate().map_err(|e| match e {
+        StrakeError::InvalidArgument(m) => Failure::invalid(format!("limits->{m}")),
+        e => Failure::from(e),
+    })?;
     Ok(limits)
 }
 
@@ -335,7 +336,8 @@ pub unsafe extern "C" fn strake_centre_feed(
         let slot = output(out, "out")?;
         let rp = p.to_rust()?;
         let mut f = [CentreFeed::default()];
-        centre_feed_path(&[rp], &[p.curve_param], &l, &mut f).map_err(|e| Failure::from(e.error))?;
+        centre_feed_path(&[rp], &[p.curve_param], &l, &mut f)
+            .map_err(|e| Failure::from(e.error))?;
         publish(slot, &[StrakeCentreFeed::from(&f[0])]);
         Ok(())
     })

@@ -1373,3 +1373,89 @@ impl From<&crate::toolpath::CentreFeed> for StrakeCentreFeed {
         }
     }
 }
+
+/// A surface point with its partial derivatives to fourth order, filled by a host callback of
+/// `strake_surface_from_high_callback`. The first six entries are those of
+/// `StrakeSurfaceJet`, in the same order; each entry is an (x, y, z) triple in the host's
+/// length unit per power of the surface parameters. strake sets every entry to zero before it
+/// calls the host, so entries above the requested order may be left alone.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeSurfaceHighJet {
+    /// The point S(u, v).
+    pub p: [f64; 3],
+    /// dS/du (order >= 1).
+    pub su: [f64; 3],
+    /// dS/dv (order >= 1).
+    pub sv: [f64; 3],
+    /// d2S/du2 (order >= 2).
+    pub suu: [f64; 3],
+    /// d2S/dudv (order >= 2).
+    pub suv: [f64; 3],
+    /// d2S/dv2 (order >= 2).
+    pub svv: [f64; 3],
+    /// d3S/du3 (order >= 3).
+    pub suuu: [f64; 3],
+    /// d3S/du2dv (order >= 3).
+    pub suuv: [f64; 3],
+    /// d3S/dudv2 (order >= 3).
+    pub suvv: [f64; 3],
+    /// d3S/dv3 (order >= 3).
+    pub svvv: [f64; 3],
+    /// d4S/du4 (order 4).
+    pub suuuu: [f64; 3],
+    /// d4S/du3dv (order 4).
+    pub suuuv: [f64; 3],
+    /// d4S/du2dv2 (order 4).
+    pub suuvv: [f64; 3],
+    /// d4S/dudv3 (order 4).
+    pub suvvv: [f64; 3],
+    /// d4S/dv4 (order 4).
+    pub svvvv: [f64; 3],
+}
+
+impl StrakeSurfaceHighJet {
+    /// The second-order part, as the Rust jet.
+    pub fn jet(&self) -> SurfaceJet {
+        SurfaceJet {
+            p: vec3(self.p),
+            su: vec3(self.su),
+            sv: vec3(self.sv),
+            suu: vec3(self.suu),
+            suv: vec3(self.suv),
+            svv: vec3(self.svv),
+        }
+    }
+
+    /// The partials of the Rust API to `order` (entries above it zero).
+    pub fn partials(&self, order: usize) -> crate::geometry::jet::SurfacePartials {
+        let mut p = crate::geometry::jet::SurfacePartials {
+            order,
+            ..Default::default()
+        };
+        // (i, j, entry): d[i][j] = d^(i+j) S / du^i dv^j.
+        let entries: [(usize, usize, [f64; 3]); 15] = [
+            (0, 0, self.p),
+            (1, 0, self.su),
+            (0, 1, self.sv),
+            (2, 0, self.suu),
+            (1, 1, self.suv),
+            (0, 2, self.svv),
+            (3, 0, self.suuu),
+            (2, 1, self.suuv),
+            (1, 2, self.suvv),
+            (0, 3, self.svvv),
+            (4, 0, self.suuuu),
+            (3, 1, self.suuuv),
+            (2, 2, self.suuvv),
+            (1, 3, self.suvvv),
+            (0, 4, self.svvvv),
+        ];
+        for (i, j, e) in entries {
+            if i + j <= order {
+                p.d[i][j] = vec3(e);
+            }
+        }
+        p
+    }
+}
