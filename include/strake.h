@@ -2503,6 +2503,41 @@ StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
                                    size_t *count);
 
 /**
+ * `strake_sample_chordal` with the chord error judged on the tool-centre path: the chord
+ * between the cutter-location points of consecutive samples stays within `chord_tolerance`
+ * of the path the centre of `cutter` runs (on `tool_side`, axis at `angles`; see
+ * `strake_centre_point_at`), since that is the path a controller interpolates. Steps follow
+ * the centre path's curvature kc (exact, from third-order derivatives) with the same chord
+ * rule, converted to t by the centre path's speed, and are verified on the centre points at
+ * the step's quarters. The samples are those of the contact path (frame, contact-path arc
+ * length), as from `strake_sample_chordal`; `max_step` is in contact-path arc length. Their
+ * centre points follow from `strake_centre_path_at` at the samples' `frame.curve_param`.
+ * For a ball of radius r inside a cylinder of radius rho the centre path is a circle of
+ * radius rho - r: fewer samples than on the contact path; outside, radius rho + r: more.
+ *
+ * Buffer: as for `strake_sample_chordal`. Errors: those of `strake_sample_chordal`;
+ * NULL_POINTER (`cutter`, `angles`); INVALID_ARGUMENT (`tool_side`, the cutter or an angle,
+ * named); ORDER_UNAVAILABLE (a surface or curve without third derivatives, e.g. a callback of
+ * `strake_surface_from_callback`); CENTRE_PATH_FOLDS (the centre path folds back at a sample,
+ * named). Checked only at samples and the step's quarters: a fold between them is not seen.
+ * Thread-safe.
+ *
+ * # Safety
+ * As for `strake_sample_chordal`; `cutter` and `angles` NULL or valid.
+ */
+StrakeStatus strake_sample_chordal_centre(const struct StrakeSurface *surface,
+                                          const struct StrakeCurve *curve,
+                                          double chord_tolerance,
+                                          double max_step,
+                                          double arc_tolerance,
+                                          uint32_t tool_side,
+                                          const struct StrakeCutter *cutter,
+                                          const struct StrakeToolAngles *angles,
+                                          struct StrakeSample *buf,
+                                          size_t capacity,
+                                          size_t *count);
+
+/**
  * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
  * (signed: negative when t1 < t0), in the host's length unit, to the relative tolerance
  * `rel_tol` (e.g. 1e-10): s = integral of |c'(t)| dt by adaptive Gauss-Legendre quadrature.

@@ -77,8 +77,8 @@ pub use planning::scallop_left::{
     ScallopLeft, check_target_scallop, scallop_between, step_over_at,
 };
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
-pub use toolpath::centre_feed_path;
 pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
     centre_point,
 };
+pub use toolpath::{centre_feed_path, centre_of_frame, sample_chordal_centre};

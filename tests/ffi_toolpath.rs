@@ -1141,3 +1141,291 @@ fn null_pointers_and_bad_arguments_are_named() {
     }
     free(s, c);
 }
+
+/// Chord-tolerance samples through the C ABI (contact rule, or judged on the centre path of a
+/// cutter when `centre` is given).
+fn chordal(
+    s: *const StrakeSurface,
+    c: *const StrakeCurve,
+    tol: f64,
+    centre: Option<(u32, StrakeCutter, StrakeToolAngles)>,
+) -> Vec<StrakeSample> {
+    let mut count = 0usize;
+    let mut buf = vec![StrakeSample::default(); 4000];
+    // SAFETY: live handles, a buffer of 4000 samples.
+    let st = unsafe {
+        match centre {
+            None => {
+                strake_sample_chordal(s, c, tol, 0.0, 1e-12, buf.as_mut_ptr(), 4000, &mut count)
+            }
+            Some((side, cut, ang)) => strake_sample_chordal_centre(
+                s,
+                c,
+                tol,
+                0.0,
+                1e-12,
+                side,
+                &cut,
+                &ang,
+                buf.as_mut_ptr(),
+                4000,
+                &mut count,
+            ),
+        }
+    };
+    assert_eq!(st, OK, "{}", message());
+    buf.truncate(count);
+    buf
+}
+
+/// Largest deviation of the centre path from the chords between the centre points of
+/// consecutive samples, brute force: 64 centre points per interval (strake_centre_path_at).
+fn centre_chord_error(
+    s: *const StrakeSurface,
+    c: *const StrakeCurve,
+    samples: &[StrakeSample],
+    side: u32,
+    cut: &StrakeCutter,
+    ang: &StrakeToolAngles,
+) -> f64 {
+    let ts: Vec<f64> = samples.iter().map(|x| x.frame.curve_param).collect();
+    let at = |ts: &[f64]| -> Vec<StrakeCentrePoint> {
+        let mut out = vec![sentinel_point(); ts.len()];
+        // SAFETY: live handles, arrays of ts.len().
+        let st = unsafe {
+            strake_centre_path_at(
+                s,
+                c,
+                ts.as_ptr(),
+                ts.len(),
+                side,
+                cut,
+                ang,
+                3,
+                out.as_mut_ptr(),
+            )
+        };
+        assert_eq!(st, OK, "{}", message());
+        out
+    };
+    let ends = at(&ts);
+    let mut worst: f64 = 0.0;
+    for k in 0..ts.len() - 1 {
+        let inner: Vec<f64> = (1..64)
+            .map(|j| ts[k] + (ts[k + 1] - ts[k]) * j as f64 / 64.0)
+            .collect();
+        let (a, b) = (ends[k].centre, ends[k + 1].centre);
+        let ab = [b[0] - a[0], b[1] - a[1], b[2] - a[2]];
+        let len2 = ab.iter().map(|x| x * x).sum::<f64>();
+        for p in at(&inner) {
+            let ax = [p.centre[0] - a[0], p.centre[1] - a[1], p.centre[2] - a[2]];
+            let f = (ax.iter().zip(&ab).map(|(x, y)| x * y).sum::<f64>() / len2).clamp(0.0, 1.0);
+            let d = (0..3)
+                .map(|i| (ax[i] - ab[i] * f).powi(2))
+                .sum::<f64>()
+                .sqrt();
+            worst = worst.max(d);
+        }
+    }
+    worst
+}
+
+// Closed form (circle geometry): on a circle of radius R a chord spanning the angle dphi
+// deviates by R (1 - cos(dphi/2)). A ball of radius 10 around a circle of a cylinder of
+// radius 12 runs its centre on radius 2 inside and 22 outside. Judged on the centre path, the
+// centre chords stay within the tolerance; judged on the contact path they exceed it outside
+// (by about 22/12) and are finer than needed inside. The sample counts are compared with the
+// least count the exact chord rule allows.
+#[test]
+fn chordal_sampling_judged_on_the_centre_path_of_a_ball_in_and_on_a_cylinder() {
+    let s = own_surface(analytic_cylinder(12.0, -1.0, 30.0));
+    let c = uv_line([0.0, 1.0], [3.0, 1.0]); // u = 3t: the angle around the axis
+    let tol = 0.01;
+    let contact = chordal(s, c, tol, None);
+    let deviation = |samples: &[StrakeSample], radius: f64| -> f64 {
+        samples
+            .windows(2)
+            .map(|w| {
+                let dphi = 3.0 * (w[1].frame.curve_param - w[0].frame.curve_param);
+                radius * (1.0 - (0.5 * dphi).cos())
+            })
+            .fold(0.0, f64::max)
+    };
+    // The least count: steps of at most 2 acos(1 - tol/R) over the angle 3.
+    let least = |radius: f64| (3.0 / (2.0 * (1.0 - tol / radius).acos())).ceil() as usize + 1;
+    assert!(deviation(&contact, 12.0) <= tol * (1.0 + 1e-9));
+    for (side, radius) in [(AGAINST, 2.0), (ALONG, 22.0)] {
+        let judged = chordal(s, c, tol, Some((side, ball(10.0), UPRIGHT)));
+        let dev = deviation(&judged, radius);
+        assert!(
+            dev <= tol * (1.0 + 1e-9),
+            "centre chord error {dev} above {tol}"
+        );
+        let n = judged.len();
+        assert!(n >= least(radius) && n <= least(radius) + least(radius) / 5 + 1);
+        let brute = centre_chord_error(s, c, &judged, side, &ball(10.0), &UPRIGHT);
+        assert!(
+            brute <= tol * (1.0 + 1e-6),
+            "brute-force chord error {brute}"
+        );
+        close("closed form vs brute force", brute, dev, 2e-3, 1e-6);
+        let on_contact = deviation(&contact, radius);
+        eprintln!(
+            "ball 10 {} a cylinder of radius 12, tolerance {tol}: {n} samples judged on the \
+             centre path (least {}), {} on the contact path (centre chord error {on_contact:.5})",
+            if side == AGAINST { "inside" } else { "outside" },
+            least(radius),
+            contact.len()
+        );
+        if side == AGAINST {
+            assert!(n < contact.len());
+            assert!(on_contact < tol);
+        } else {
+            assert!(n > contact.len());
+            assert!(on_contact > 1.5 * tol, "{on_contact}");
+        }
+        // The samples are contact-path samples: the same frames strake_frame_at gives.
+        for x in &judged {
+            assert_eq!(x.frame, frame_at(s, c, x.frame.curve_param));
+        }
+    }
+    free(s, c);
+}
+
+// A toroidal cutter at lead and tilt on a torus: the centre chords, measured by brute force
+// between the samples, stay within the tolerance.
+#[test]
+fn chordal_sampling_on_the_centre_path_of_a_tilted_toroidal_cutter_meets_the_tolerance() {
+    let s = own_surface(analytic_torus(40.0, 15.0));
+    let c = torus_line();
+    let tol = 0.02;
+    let judged = chordal(s, c, tol, Some((ALONG, toroidal(), ANG)));
+    let brute = centre_chord_error(s, c, &judged, ALONG, &toroidal(), &ANG);
+    assert!(brute <= tol * (1.0 + 1e-6), "{brute}");
+    assert!(brute > 0.5 * tol, "steps far finer than needed: {brute}");
+    let contact = chordal(s, c, tol, None);
+    eprintln!(
+        "toroidal 3/1 at lead 0.1, tilt 0.05 on a torus 40/15, tolerance {tol}: {} samples on \
+         the centre path (chord error {brute:.5}), {} on the contact path",
+        judged.len(),
+        contact.len()
+    );
+    free(s, c);
+}
+
+// The centre rule's own failures: NULL and bad setup arguments, a second-order host, a
+// folding centre path; nothing written but `*count` on BUFFER_TOO_SMALL.
+#[test]
+fn chordal_centre_sampling_statuses() {
+    let s = own_surface(analytic_cylinder(12.0, -1.0, 30.0));
+    let c = uv_line([0.0, 1.0], [3.0, 1.0]);
+    let mut buf = vec![StrakeSample::default(); 4];
+    let mut count = 12345usize;
+    let b = ball(10.0);
+    // SAFETY (each call): NULL where the case says, valid pointers otherwise.
+    unsafe {
+        let bp = buf.as_mut_ptr();
+        let call = |s,
+                    c,
+                    side,
+                    cut: *const StrakeCutter,
+                    ang: *const StrakeToolAngles,
+                    cap,
+                    count: *mut usize| {
+            strake_sample_chordal_centre(s, c, 0.01, 0.0, 1e-12, side, cut, ang, bp, cap, count)
+        };
+        expect(
+            call(ptr::null(), c, AGAINST, &b, &UPRIGHT, 4, &mut count),
+            NP,
+            &["`surface`"],
+        );
+        expect(
+            call(s, ptr::null(), AGAINST, &b, &UPRIGHT, 4, &mut count),
+            NP,
+            &["`curve`"],
+        );
+        expect(
+            call(s, c, AGAINST, ptr::null(), &UPRIGHT, 4, &mut count),
+            NP,
+            &["`cutter`"],
+        );
+        expect(
+            call(s, c, AGAINST, &b, ptr::null(), 4, &mut count),
+            NP,
+            &["`angles`"],
+        );
+        expect(
+            call(s, c, AGAINST, &b, &UPRIGHT, 4, ptr::null_mut()),
+            NP,
+            &["`count`"],
+        );
+        expect(
+            call(s, c, 3, &b, &UPRIGHT, 4, &mut count),
+            IA,
+            &["`tool_side` = 3"],
+        );
+        expect(
+            call(s, c, AGAINST, &ball(-1.0), &UPRIGHT, 4, &mut count),
+            IA,
+            &["radius"],
+        );
+        assert_eq!(count, 12345);
+        let st = strake_sample_chordal_centre(
+            s,
+            c,
+            f64::NAN,
+            0.0,
+            1e-12,
+            AGAINST,
+            &b,
+            &UPRIGHT,
+            bp,
+            4,
+            &mut count,
+        );
+        expect(st, IA, &["chord tolerance"]);
+        // Too small a buffer: the count needed, nothing else.
+        expect(
+            call(s, c, AGAINST, &b, &UPRIGHT, 4, &mut count),
+            StrakeStatus::BufferTooSmall,
+            &["samples needed"],
+        );
+        assert!(count > 4);
+        assert!(buf.iter().all(|x| *x == StrakeSample::default()));
+        // A fold at the first sample.
+        expect(
+            call(s, c, AGAINST, &ball(13.0), &UPRIGHT, 4, &mut count),
+            FOLDS,
+            &["strake_sample_chordal_centre", "folds back at sample 0"],
+        );
+    }
+    free(s, c);
+    let mut rho = 12.0f64;
+    let old = surface(
+        Some(cylinder),
+        (&mut rho as *mut f64).cast(),
+        (0.0, 6.3),
+        (-1.0, 30.0),
+        0,
+    );
+    let c = uv_line([0.0, 1.0], [3.0, 1.0]);
+    let mut count = 0usize;
+    // SAFETY: live handles, a buffer of 4.
+    let st = unsafe {
+        strake_sample_chordal_centre(
+            old,
+            c,
+            0.01,
+            0.0,
+            1e-12,
+            AGAINST,
+            &b,
+            &UPRIGHT,
+            buf.as_mut_ptr(),
+            4,
+            &mut count,
+        )
+    };
+    expect(st, OU, &["strake_sample_chordal_centre", "order 3"]);
+    free(old, c);
+}

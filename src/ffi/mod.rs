@@ -117,6 +117,7 @@ pub use checks::{
 pub use types::{StrakeCutterRadii, StrakeCutterStepOver, StrakeRearGouge, StrakeTowEdges};
 // The path the machine runs: rates of the invariants, the tool-centre path, its feed.
 pub use high_callback::{StrakeSurfaceHighFn, strake_surface_from_high_callback};
+pub use sampling::strake_sample_chordal_centre;
 pub use toolpath::{
     strake_centre_feed, strake_centre_feed_path, strake_centre_path_at, strake_centre_point_at,
     strake_invariant_rates_at, strake_invariant_rates_path,

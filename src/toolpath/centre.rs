@@ -98,6 +98,34 @@ pub struct CentrePoint {
     pub axis_rate: f64,
 }
 
+/// The axis in space, and the axis and the offset d = CL − c in frame components (T, B, N),
+/// at the frame `f` (see the module docs).
+fn centre_offset(f: &DarbouxFrame, setup: &ToolSetup) -> Result<(Vec3, Vec3, Vec3)> {
+    let axis = tool_axis(f, setup.side, &setup.angles)?.space;
+    // Frame components of the axis and of the tool-side normal.
+    let a = Vec3::new(axis.dot(&f.t), axis.dot(&f.b), axis.dot(&f.n));
+    let nt = Vec3::new(0.0, 0.0, setup.side.sign());
+    let (big_r, r) = setup.cutter.torus_radii();
+    let perp = nt - a * nt.dot(&a);
+    let perp_len = perp.norm();
+    let mut d = nt * r;
+    if big_r > 0.0 && perp_len > 0.0 {
+        d += perp * (big_r / perp_len);
+    }
+    Ok((axis, a, d))
+}
+
+/// The cutter-location point CL = c + r n_t + R e at the frame `f` (see the module docs):
+/// the same point as [`CentrePoint::centre`], from the frame alone (second-order jets), for
+/// hosts and samplers that need the position only.
+///
+/// Errors: those of [`ToolSetup::validate`] and of the tool axis.
+pub fn centre_of_frame(f: &DarbouxFrame, setup: &ToolSetup) -> Result<Vec3> {
+    setup.validate()?;
+    let (_, _, d) = centre_offset(f, setup)?;
+    Ok(f.point + (f.t * d.x + f.b * d.y + f.n * d.z))
+}
+
 /// The tool-centre path at a sample with frame `f` (from the second-order path) and the
 /// surface's and curve's partials there, of order 3 (position, axis, tangent, speed ratio,
 /// curvature) or 4 (also the curvature's rate of change and the torsion).
@@ -128,17 +156,8 @@ pub fn centre_point(
         });
     }
     let order = order.min(4);
-    let axis = tool_axis(f, setup.side, &setup.angles)?.space;
-    // Frame components of the axis and of the tool-side normal.
-    let a = Vec3::new(axis.dot(&f.t), axis.dot(&f.b), axis.dot(&f.n));
-    let nt = Vec3::new(0.0, 0.0, setup.side.sign());
-    let (big_r, r) = setup.cutter.torus_radii();
-    let perp = nt - a * nt.dot(&a);
-    let perp_len = perp.norm();
-    let mut d = nt * r;
-    if big_r > 0.0 && perp_len > 0.0 {
-        d += perp * (big_r / perp_len);
-    }
+    let (axis, a, d) = centre_offset(f, setup)?;
+    let (_, r) = setup.cutter.torus_radii();
     // dCL/ds = T + ω × d in frame components.
     let omega = Vec3::new(
         f.geodesic_torsion,
