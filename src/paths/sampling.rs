@@ -490,7 +490,7 @@ fn fixed_count_fits<K: SampleSink + ?Sized>(
         )));
     }
     check_arc_tolerance(arc_tolerance).map_err(whole_error)?;
-    Ok(!sink.capacity().is_some_and(|c| c < n))
+    Ok(sink.capacity().is_none_or(|c| c >= n))
 }
 
 /// Solves s(t) − s(t_from) = `ds` for t in [t_from, t_hi] by safeguarded Newton's method (see
