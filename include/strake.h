@@ -1368,6 +1368,94 @@ typedef struct StrakePathInterval {
 } StrakePathInterval;
 
 /**
+ * A surface point with its partial derivatives to fourth order, filled by a host callback of
+ * `strake_surface_from_high_callback`. The first six entries are those of
+ * `StrakeSurfaceJet`, in the same order; each entry is an (x, y, z) triple in the host's
+ * length unit per power of the surface parameters. strake sets every entry to zero before it
+ * calls the host, so entries above the requested order may be left alone.
+ */
+typedef struct StrakeSurfaceHighJet {
+  /**
+   * The point S(u, v).
+   */
+  double p[3];
+  /**
+   * dS/du (order >= 1).
+   */
+  double su[3];
+  /**
+   * dS/dv (order >= 1).
+   */
+  double sv[3];
+  /**
+   * d2S/du2 (order >= 2).
+   */
+  double suu[3];
+  /**
+   * d2S/dudv (order >= 2).
+   */
+  double suv[3];
+  /**
+   * d2S/dv2 (order >= 2).
+   */
+  double svv[3];
+  /**
+   * d3S/du3 (order >= 3).
+   */
+  double suuu[3];
+  /**
+   * d3S/du2dv (order >= 3).
+   */
+  double suuv[3];
+  /**
+   * d3S/dudv2 (order >= 3).
+   */
+  double suvv[3];
+  /**
+   * d3S/dv3 (order >= 3).
+   */
+  double svvv[3];
+  /**
+   * d4S/du4 (order 4).
+   */
+  double suuuu[3];
+  /**
+   * d4S/du3dv (order 4).
+   */
+  double suuuv[3];
+  /**
+   * d4S/du2dv2 (order 4).
+   */
+  double suuvv[3];
+  /**
+   * d4S/dudv3 (order 4).
+   */
+  double suvvv[3];
+  /**
+   * d4S/dv4 (order 4).
+   */
+  double svvvv[3];
+} StrakeSurfaceHighJet;
+
+/**
+ * A host surface evaluator with derivatives to third or fourth order.
+ *
+ * Called with the host's `user_data`, a point (u, v) inside the domain given at creation,
+ * the highest derivative order needed (0 to the `max_order` declared at creation: 0 point;
+ * 1 also su, sv; 2 also suu, suv, svv; 3 also suuu, suuv, suvv, svvv; 4 also the five fourth
+ * partials) and a jet that strake has set to zero. Fill the entries up to `order` and return
+ * 0; any non-zero code reports a failure (`STRAKE_STATUS_SURFACE_CALLBACK_FAILED`, the code
+ * passed back). Entries must be finite (a NaN or infinity gives `STRAKE_STATUS_NON_FINITE`
+ * naming the entry, e.g. "Suuv"). The same rules on threads and unwinding apply as for
+ * `StrakeSurfaceFn`.
+ */
+typedef int32_t (*StrakeSurfaceHighFn)(void *user_data,
+                                       double u,
+                                       double v,
+                                       int32_t order,
+                                       struct StrakeSurfaceHighJet *out);
+
+/**
  * The description of a NURBS surface, as the host's arrays.
  *
  * Control point (i, j), i = 0..count_u − 1 along u and j = 0..count_v − 1 along v, is
@@ -1704,6 +1792,149 @@ typedef int32_t (*StrakeSurfaceFn)(void *user_data,
                                    int32_t order,
                                    struct StrakeSurfaceJet *out);
 
+/**
+ * The rates of change along arc length s of the invariants at one sample (1/length^2 each;
+ * positive when the invariant grows in the direction of travel T), exact from third-order
+ * derivatives (see `strake_invariant_rates_at`).
+ */
+typedef struct StrakeInvariantRates {
+  /**
+   * d kn / ds.
+   */
+  double normal_curvature_rate;
+  /**
+   * d kg / ds.
+   */
+  double geodesic_curvature_rate;
+  /**
+   * d tg / ds.
+   */
+  double geodesic_torsion_rate;
+  /**
+   * d kappa / ds of the space curvature kappa = sqrt(kn^2 + kg^2); where kappa = 0 the
+   * one-sided rate sqrt((d kn/ds)^2 + (d kg/ds)^2).
+   */
+  double curvature_rate;
+} StrakeInvariantRates;
+
+/**
+ * The tool-centre path at one sample of a contact path (host length unit; see
+ * `strake_centre_point_at` for the geometry). Fields of fourth order (`curvature_rate`,
+ * `torsion`, `jerk_figure`) are 0 when `order` is 3.
+ */
+typedef struct StrakeCentrePoint {
+  /**
+   * The curve parameter t of the contact-path sample.
+   */
+  double curve_param;
+  /**
+   * Cutter-location point CL: on the axis, in the plane of the corner-circle centres (a
+   * ball's centre).
+   */
+  double centre[3];
+  /**
+   * Tool tip: the lowest point of the axis, CL - r a (r the corner radius).
+   */
+  double tip[3];
+  /**
+   * Unit tool axis a, from the tip toward the spindle.
+   */
+  double axis[3];
+  /**
+   * Unit tangent of the centre path, in the direction of travel.
+   */
+  double tangent[3];
+  /**
+   * d s_c / d s: the centre path's speed relative to the contact path's (> 0).
+   */
+  double speed_ratio;
+  /**
+   * Curvature kc of the centre path (1/length, >= 0).
+   */
+  double curvature;
+  /**
+   * d kc / d s_c along the centre path's own arc length (1/length^2); 0 when `order` is 3.
+   */
+  double curvature_rate;
+  /**
+   * Torsion of the centre path (1/length; 0 where kc = 0); 0 when `order` is 3.
+   */
+  double torsion;
+  /**
+   * |d^3 CL / d s_c^3| = sqrt(kc'^2 + kc^4 + kc^2 tc^2) (1/length^2): the jerk at unit
+   * speed along the centre path; 0 when `order` is 3.
+   */
+  double jerk_figure;
+  /**
+   * Angular rate of the tool axis per unit length of the centre path (radians/length).
+   */
+  double axis_rate;
+  /**
+   * The derivative order the point was computed from: 3 (no curvature rate, torsion or jerk
+   * figure) or 4 (all fields).
+   */
+  uint32_t order;
+} StrakeCentrePoint;
+
+/**
+ * Machine limits of the feed on the tool-centre path, in one consistent set of units (e.g.
+ * mm and s: feed in mm/s, acceleration in mm/s^2, jerk in mm/s^3, angular speed in rad/s).
+ */
+typedef struct StrakeCentreFeedLimits {
+  /**
+   * Programmed (largest) feed of the cutter-location point; positive and finite.
+   */
+  double feed;
+  /**
+   * Largest path acceleration; positive and finite.
+   */
+  double max_acceleration;
+  /**
+   * Largest jerk; positive and finite, or 0 for none (the jerk rule needs points of order 4).
+   */
+  double max_jerk;
+  /**
+   * Largest angular speed of the tool axis (rad per time unit); positive and finite, or 0
+   * for none.
+   */
+  double max_angular_speed;
+} StrakeCentreFeedLimits;
+
+/**
+ * The feed allowed at a sample of the centre path and what limits it (feeds in length per
+ * time unit of the limits). A bound that does not apply (no curvature, no jerk limit, an axis
+ * that does not turn) is +infinity (`HUGE_VAL`); `feed` is always finite.
+ */
+typedef struct StrakeCentreFeed {
+  /**
+   * The highest feed of the cutter-location point: the least of the programmed feed and
+   * the three bounds below.
+   */
+  double feed;
+  /**
+   * sqrt(a_max / kc).
+   */
+  double acceleration_feed;
+  /**
+   * (j_max / jerk_figure)^(1/3).
+   */
+  double jerk_feed;
+  /**
+   * w_max / axis_rate.
+   */
+  double angular_feed;
+  /**
+   * The same feed as the contact point moves: feed / speed_ratio (for hosts that program
+   * the contact path).
+   */
+  double contact_feed;
+  /**
+   * Which bound gives `feed`: a `STRAKE_FEED_BOUND_...` value (the first of programmed,
+   * acceleration, jerk, angular speed on a tie).
+   */
+  uint32_t bound;
+} StrakeCentreFeed;
+
 #ifdef __cplusplus
 extern "C" {
 #endif // __cplusplus
@@ -1912,6 +2143,36 @@ StrakeStatus strake_surface_evaluate(const struct StrakeSurface *surface,
                                      size_t count,
                                      uint32_t order,
                                      struct StrakeSurfaceJet *out);
+
+/**
+ * Creates a surface evaluated by the host's callback `f` over [u_min, u_max] x [v_min, v_max]
+ * that gives partial derivatives up to `max_order` (3 or 4): as `strake_surface_from_callback`
+ * (same domain, `flip_normal` and `user_data` rules; the frames and every second-order call
+ * are the same), and in addition the calls that need higher derivatives work:
+ * `strake_invariant_rates_at` and `strake_invariant_rates_path` (order 3),
+ * `strake_centre_point_at` and `strake_centre_path_at` (order 3, or 4 for the curvature's rate
+ * of change, torsion and jerk figure). Asked for more than `max_order`, they return
+ * `STRAKE_STATUS_ORDER_UNAVAILABLE` naming the call and both orders; `f` is never called with
+ * `order` above `max_order`.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_surface_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+ * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (`max_order` not 3 or 4, an empty or
+ * reversed range, `flip_normal` not 0 or 1).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeSurfaceHighFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeSurface *`.
+ */
+StrakeStatus strake_surface_from_high_callback(StrakeSurfaceHighFn f,
+                                               void *user_data,
+                                               uint32_t max_order,
+                                               double u_min,
+                                               double u_max,
+                                               double v_min,
+                                               double v_max,
+                                               int32_t flip_normal,
+                                               struct StrakeSurface **out);
 
 /* ==== Curves ==============================================================================
  * The path as a curve (u(t), v(t)) in the surface's parameter plane: NURBS data, the
@@ -2317,6 +2578,41 @@ StrakeStatus strake_sample_chordal(const struct StrakeSurface *surface,
                                    struct StrakeSample *buf,
                                    size_t capacity,
                                    size_t *count);
+
+/**
+ * `strake_sample_chordal` with the chord error judged on the tool-centre path: the chord
+ * between the cutter-location points of consecutive samples stays within `chord_tolerance`
+ * of the path the centre of `cutter` runs (on `tool_side`, axis at `angles`; see
+ * `strake_centre_point_at`), since that is the path a controller interpolates. Steps follow
+ * the centre path's curvature kc (exact, from third-order derivatives) with the same chord
+ * rule, converted to t by the centre path's speed, and are verified on the centre points at
+ * the step's quarters. The samples are those of the contact path (frame, contact-path arc
+ * length), as from `strake_sample_chordal`; `max_step` is in contact-path arc length. Their
+ * centre points follow from `strake_centre_path_at` at the samples' `frame.curve_param`.
+ * For a ball of radius r inside a cylinder of radius rho the centre path is a circle of
+ * radius rho - r: fewer samples than on the contact path; outside, radius rho + r: more.
+ *
+ * Buffer: as for `strake_sample_chordal`. Errors: those of `strake_sample_chordal`;
+ * NULL_POINTER (`cutter`, `angles`); INVALID_ARGUMENT (`tool_side`, the cutter or an angle,
+ * named); ORDER_UNAVAILABLE (a surface or curve without third derivatives, e.g. a callback of
+ * `strake_surface_from_callback`); CENTRE_PATH_FOLDS (the centre path folds back at a sample,
+ * named). Checked only at samples and the step's quarters: a fold between them is not seen.
+ * Thread-safe.
+ *
+ * # Safety
+ * As for `strake_sample_chordal`; `cutter` and `angles` NULL or valid.
+ */
+StrakeStatus strake_sample_chordal_centre(const struct StrakeSurface *surface,
+                                          const struct StrakeCurve *curve,
+                                          double chord_tolerance,
+                                          double max_step,
+                                          double arc_tolerance,
+                                          uint32_t tool_side,
+                                          const struct StrakeCutter *cutter,
+                                          const struct StrakeToolAngles *angles,
+                                          struct StrakeSample *buf,
+                                          size_t capacity,
+                                          size_t *count);
 
 /**
  * Computes the arc length of `curve` on `surface` between curve parameters `t0` and `t1`
@@ -2760,6 +3056,162 @@ StrakeStatus strake_tool_axis_path(const struct StrakeSample *samples,
                                    uint32_t tool_side,
                                    const struct StrakeToolAngles *angles,
                                    struct StrakeToolAxis *out);
+
+/* ==== Tool-centre path ====================================================================
+ * The path the machine runs: rates of change of the invariants along a path (third
+ * order), the tool-centre path of a cutter at lead and tilt, and the feed judged on it
+ * (acceleration, jerk with the curvature's rate of change, the axis's angular speed).
+ */
+
+/**
+ * The rates of change along arc length of the invariants at curve parameter `t` of `curve`
+ * on `surface`: d kn/ds, d kg/ds, d tg/ds and d kappa/ds (1/length^2; s the arc length of
+ * the contact path, increasing with t), with the frame there.
+ *
+ * Exact from third-order derivatives of the surface and the curve (the frame carried as a
+ * Taylor series in t, differentiated; checked against a symbolic differentiation and closed
+ * forms). `*frame_out` is the frame of `strake_frame_at` at `t`, bit for bit.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*frame_out` and `*rates_out`; otherwise both are
+ * untouched. Errors: those of `strake_frame_at`; NULL_POINTER (`frame_out`, `rates_out`);
+ * ORDER_UNAVAILABLE (a surface or curve without third derivatives: a callback from
+ * `strake_surface_from_callback`, `strake_surface_from_batch_callback` or
+ * `strake_curve_from_callback`; the message names the source and the orders); NON_FINITE (a
+ * third derivative, named, or a rate that overflows). Thread-safe.
+ *
+ * # Safety
+ * `surface` and `curve` NULL or live handles; `frame_out` and `rates_out` NULL or writable.
+ */
+StrakeStatus strake_invariant_rates_at(const struct StrakeSurface *surface,
+                                       const struct StrakeCurve *curve,
+                                       double t,
+                                       struct StrakeFrame *frame_out,
+                                       struct StrakeInvariantRates *rates_out);
+
+/**
+ * `strake_invariant_rates_at` at each of the `count` curve parameters `ts` (a whole path in
+ * one call): `frames_out[i]` (the frame of `strake_frames_at`, bit for bit) and
+ * `rates_out[i]` at `ts[i]`.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes both arrays; otherwise both are untouched and the
+ * message names the failing sample's index and t. Errors: those of
+ * `strake_invariant_rates_at`, plus NULL_POINTER (`ts`) and INVALID_ARGUMENT (`count` of 0
+ * or too large).
+ *
+ * # Safety
+ * `ts` NULL or `count` doubles; `frames_out` and `rates_out` NULL or room for `count`
+ * elements each, not overlapping `ts` or each other; handles as in
+ * `strake_invariant_rates_at`.
+ */
+StrakeStatus strake_invariant_rates_path(const struct StrakeSurface *surface,
+                                         const struct StrakeCurve *curve,
+                                         const double *ts,
+                                         size_t count,
+                                         struct StrakeFrame *frames_out,
+                                         struct StrakeInvariantRates *rates_out);
+
+/**
+ * The tool-centre path at curve parameter `t` of the contact path `curve` on `surface`, for
+ * `cutter` on `tool_side` with its axis at `angles` (lead and tilt in the tool-side frame,
+ * see `StrakeToolAngles`), from derivatives of `order` 3 or 4.
+ *
+ * Geometry: every cutter is a corner circle of radius r whose centre lies at R from the axis
+ * (see `StrakeCutter`). At the contact point c with tool-side normal n_t and axis a, the
+ * cutter-location point is CL = c + r n_t + R e, e the unit component of n_t across a (with
+ * the axis along n_t a flat or toroidal cutter stands on its flat bottom and CL = c + r n_t);
+ * the tip is CL - r a. With lead and tilt fixed in the frame, dCL/ds = T + w x d (d = CL - c,
+ * w = tg T - kn B + kg N the Darboux vector), so `speed_ratio` = |dCL/ds|; the curvature
+ * (order 3), its rate of change along the centre path and the torsion (order 4) are exact
+ * derivatives of CL as a Taylor series in t (do Carmo 1-5: kc = |CL' x CL''| / |CL'|^3). For a
+ * ball of radius r inside a cylinder of radius rho the centre path is a circle or helix on
+ * radius rho - r.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors: those
+ * of `strake_frame_at`; NULL_POINTER (`cutter`, `angles`, `out`); INVALID_ARGUMENT
+ * (`tool_side`, the cutter or an angle, named; `order` not 3 or 4); ORDER_UNAVAILABLE (a
+ * source without derivatives of `order`, named); CENTRE_PATH_FOLDS (the centre path folds
+ * back: the component of dCL/ds along T is at or below 1e-6, a cutter larger than a concave
+ * radius along the path); NON_FINITE (a result that overflows). Thread-safe.
+ *
+ * # Safety
+ * Handles NULL or live; `cutter` and `angles` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_centre_point_at(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *curve,
+                                    double t,
+                                    uint32_t tool_side,
+                                    const struct StrakeCutter *cutter,
+                                    const struct StrakeToolAngles *angles,
+                                    uint32_t order,
+                                    struct StrakeCentrePoint *out);
+
+/**
+ * `strake_centre_point_at` at each of the `count` curve parameters `ts`: `out[i]` at
+ * `ts[i]`. Where the centre path folds back, the call goes on through the path and fails
+ * with CENTRE_PATH_FOLDS naming the first folding sample and how many samples fold.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index and t. Errors: those of `strake_centre_point_at`,
+ * plus NULL_POINTER (`ts`) and INVALID_ARGUMENT (`count` of 0 or too large).
+ *
+ * # Safety
+ * `ts` NULL or `count` doubles; `out` NULL or room for `count` points, not overlapping `ts`;
+ * otherwise as for `strake_centre_point_at`.
+ */
+StrakeStatus strake_centre_path_at(const struct StrakeSurface *surface,
+                                   const struct StrakeCurve *curve,
+                                   const double *ts,
+                                   size_t count,
+                                   uint32_t tool_side,
+                                   const struct StrakeCutter *cutter,
+                                   const struct StrakeToolAngles *angles,
+                                   uint32_t order,
+                                   struct StrakeCentrePoint *out);
+
+/**
+ * The feed allowed at the centre-path sample `point` (from `strake_centre_point_at`) under
+ * `limits`: the feed of the cutter-location point at constant speed v with
+ *
+ * - acceleration v^2 kc <= a_max: v <= sqrt(a_max / kc);
+ * - jerk v^3 |d^3 CL / d s_c^3| <= j_max with |d^3 CL / d s_c^3| = sqrt(kc'^2 + kc^4 +
+ *   kc^2 tc^2) (Frenet, do Carmo 1-5: the jerk rule including the curvature's rate of change);
+ *   needs a point of order 4;
+ * - the axis turning at `axis_rate` radians per unit length: v axis_rate <= w_max.
+ *
+ * Local rules at a sample: the look-ahead of the host or controller must still plan speed
+ * changes between samples, and the rotary axes of a machine may turn faster than the tool
+ * axis near a kinematic singularity. One time unit throughout (feed per second with
+ * acceleration per second squared, or all per minute).
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `*out`; otherwise `*out` is untouched. Errors:
+ * NULL_POINTER (`point`, `limits`, `out`); NON_FINITE (a field of `point`, named);
+ * INVALID_ARGUMENT (a field of `point` out of range, named; a limit that is not positive and
+ * finite, or for `max_jerk` and `max_angular_speed` not 0 either, named); ORDER_UNAVAILABLE
+ * (a jerk limit with a point of order 3). Thread-safe.
+ *
+ * # Safety
+ * `point` and `limits` NULL or valid; `out` NULL or writable.
+ */
+StrakeStatus strake_centre_feed(const struct StrakeCentrePoint *point,
+                                const struct StrakeCentreFeedLimits *limits,
+                                struct StrakeCentreFeed *out);
+
+/**
+ * `strake_centre_feed` at each of the `count` centre-path samples `points` (from
+ * `strake_centre_path_at`): `out[i]` for `points[i]`.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `out[0..count]`; otherwise `out` is untouched and the
+ * message names the failing sample's index (and its `curve_param`). Errors: those of
+ * `strake_centre_feed`, plus INVALID_ARGUMENT (`count` of 0 or too large).
+ *
+ * # Safety
+ * `points` NULL or `count` valid points; `limits` NULL or valid; `out` NULL or room for
+ * `count` results, not overlapping `points`.
+ */
+StrakeStatus strake_centre_feed_path(const struct StrakeCentrePoint *points,
+                                     size_t count,
+                                     const struct StrakeCentreFeedLimits *limits,
+                                     struct StrakeCentreFeed *out);
 
 /* ==== Planning ============================================================================
  * Making the next path: geodesics traced from a point or between two points, offsets of a

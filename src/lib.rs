@@ -82,3 +82,4 @@ pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,
     centre_point,
 };
+pub use toolpath::{centre_feed_path, centre_of_frame, sample_chordal_centre};

@@ -43,6 +43,7 @@ const GROUPS: &[(&str, &str, &[&str])] = &[
             "nurbs_surface.rs",
             "batch_callback.rs",
             "surface_evaluate.rs",
+            "high_callback.rs",
         ],
     ),
     (
@@ -70,6 +71,13 @@ const GROUPS: &[(&str, &str, &[&str])] = &[
          * gouging, scallop height and step-over, curvature-limited feed, fibre steering and\n \
          * twist, the tool axis; and path summaries (extremes, intervals over a limit).",
         &["checks.rs"],
+    ),
+    (
+        "Tool-centre path",
+        "The path the machine runs: rates of change of the invariants along a path (third\n \
+         * order), the tool-centre path of a cutter at lead and tilt, and the feed judged on it\n \
+         * (acceleration, jerk with the curvature's rate of change, the axis's angular speed).",
+        &["toolpath.rs"],
     ),
     (
         "Planning",
@@ -354,6 +362,14 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_course_gaps",
         "strake_course_check",
         "strake_knot_line_flags",
+        "strake_invariant_rates_at",
+        "strake_invariant_rates_path",
+        "strake_centre_point_at",
+        "strake_centre_path_at",
+        "strake_centre_feed",
+        "strake_centre_feed_path",
+        "strake_surface_from_high_callback",
+        "strake_sample_chordal_centre",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

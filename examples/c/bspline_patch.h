@@ -1,7 +1,8 @@
 /*
  * A small evaluator for a non-rational tensor-product B-spline surface: the point and its
- * partial derivatives up to second order. This is the host's own code (a CAM host has its own
- * surface kernel); strake only sees it through the StrakeSurfaceFn callback.
+ * partial derivatives up to second order (patch_derivs) or fourth (patch_derivs_high). This
+ * is the host's own code (a CAM host has its own surface kernel); strake only sees it through
+ * the StrakeSurfaceFn and StrakeSurfaceHighFn callbacks.
  *
  * Algorithms from L. Piegl, W. Tiller, The NURBS Book, 2nd ed. (1997):
  *   A2.1 FindSpan (p. 68), A2.3 DersBasisFuns (p. 72), A3.6 SurfaceDerivsAlg1 (p. 111).
@@ -13,6 +14,7 @@
 
 #define PATCH_MAX_DEGREE 5
 #define PATCH_MAX_ORDER (PATCH_MAX_DEGREE + 1)
+#define PATCH_MAX_DERIV 4 /* highest partial derivative order of patch_derivs_high */
 
 /* A B-spline patch: count_u x count_v control points, row-major by u index:
  * point (i, j) is net[3 * (i * count_v + j) + 0..2]. Knot vectors have count + degree + 1
@@ -51,7 +53,7 @@ static int patch_find_span(int count, int degree, double x, const double *knots)
 
 /* A2.3: ders[k][r] = k-th derivative of N_{span-degree+r, degree} at x, k = 0..n_ders. */
 static void patch_basis_derivs(int span, double x, int degree, int n_ders, const double *knots,
-                               double ders[3][PATCH_MAX_ORDER])
+                               double ders[PATCH_MAX_DERIV + 1][PATCH_MAX_ORDER])
 {
     double ndu[PATCH_MAX_ORDER][PATCH_MAX_ORDER];
     double a[2][PATCH_MAX_ORDER];
@@ -118,19 +120,20 @@ static void patch_basis_derivs(int span, double x, int degree, int n_ders, const
     }
 }
 
-/* A3.6: skl[k][l] = d^(k+l) S / du^k dv^l at (u, v) for k + l <= order (order 0..2).
+/* A3.6: skl[k][l] = d^(k+l) S / du^k dv^l at (u, v) for k + l <= order (order 0..4).
  * Returns 0, or -1 when the patch or order is out of range. (u, v) must lie in the domain. */
-static int patch_derivs(const BsplinePatch *s, double u, double v, int order, double skl[3][3][3])
+static int patch_derivs_high(const BsplinePatch *s, double u, double v, int order,
+                             double skl[PATCH_MAX_DERIV + 1][PATCH_MAX_DERIV + 1][3])
 {
-    double nu[3][PATCH_MAX_ORDER], nv[3][PATCH_MAX_ORDER];
+    double nu[PATCH_MAX_DERIV + 1][PATCH_MAX_ORDER], nv[PATCH_MAX_DERIV + 1][PATCH_MAX_ORDER];
     int p = s->degree_u, q = s->degree_v;
     int uspan, vspan, k, l, r, c, du, dv;
 
-    if (order < 0 || order > 2 || p < 1 || q < 1 || p > PATCH_MAX_DEGREE || q > PATCH_MAX_DEGREE) {
+    if (order < 0 || order > PATCH_MAX_DERIV || p < 1 || q < 1 || p > PATCH_MAX_DEGREE || q > PATCH_MAX_DEGREE) {
         return -1;
     }
-    for (k = 0; k < 3; k++) {
-        for (l = 0; l < 3; l++) {
+    for (k = 0; k <= PATCH_MAX_DERIV; k++) {
+        for (l = 0; l <= PATCH_MAX_DERIV; l++) {
             for (c = 0; c < 3; c++) {
                 skl[k][l][c] = 0.0;
             }
@@ -161,6 +164,25 @@ static int patch_derivs(const BsplinePatch *s, double u, double v, int order, do
                 for (c = 0; c < 3; c++) {
                     skl[k][l][c] += nv[l][r] * temp[r][c];
                 }
+            }
+        }
+    }
+    return 0;
+}
+
+/* The same to second order: skl[k][l] for k + l <= order (order 0..2). Returns 0, or -1 when
+ * the patch or order is out of range. */
+static int patch_derivs(const BsplinePatch *s, double u, double v, int order, double skl[3][3][3])
+{
+    double high[PATCH_MAX_DERIV + 1][PATCH_MAX_DERIV + 1][3];
+    int k, l, c;
+    if (order > 2 || patch_derivs_high(s, u, v, order, high) != 0) {
+        return -1;
+    }
+    for (k = 0; k < 3; k++) {
+        for (l = 0; l < 3; l++) {
+            for (c = 0; c < 3; c++) {
+                skl[k][l][c] = high[k][l][c];
             }
         }
     }

@@ -103,6 +103,36 @@ static int32_t cavity_surface(void *user_data, double u, double v, int32_t order
     return 0;
 }
 
+/* The same surface to fourth order, as a StrakeSurfaceHighFn: what the tool-centre path needs
+ * (its curvature from third derivatives, the curvature's rate of change from fourth). */
+static int32_t cavity_surface_high(void *user_data, double u, double v, int32_t order, StrakeSurfaceHighJet *out)
+{
+    const BsplinePatch *patch = (const BsplinePatch *)user_data;
+    double d[PATCH_MAX_DERIV + 1][PATCH_MAX_DERIV + 1][3];
+    int c;
+    if (patch_derivs_high(patch, u, v, (int)order, d) != 0) {
+        return 7;
+    }
+    for (c = 0; c < 3; c++) {
+        out->p[c] = d[0][0][c];
+        out->su[c] = d[1][0][c];
+        out->sv[c] = d[0][1][c];
+        out->suu[c] = d[2][0][c];
+        out->suv[c] = d[1][1][c];
+        out->svv[c] = d[0][2][c];
+        out->suuu[c] = d[3][0][c];
+        out->suuv[c] = d[2][1][c];
+        out->suvv[c] = d[1][2][c];
+        out->svvv[c] = d[0][3][c];
+        out->suuuu[c] = d[4][0][c];
+        out->suuuv[c] = d[3][1][c];
+        out->suuvv[c] = d[2][2][c];
+        out->suvvv[c] = d[1][3][c];
+        out->svvvv[c] = d[0][4][c];
+    }
+    return 0;
+}
+
 /* The pass: contact points under the drive curve y = 50 + 22 sin(2 pi (x - 4)/152), x from 4 to
  * 156 mm. The host finds each point on its own surface (x = 160 u, y = 100 v). */
 #define PASS_POINTS 41
@@ -134,6 +164,7 @@ static void make_pass(const BsplinePatch *patch, double *points)
 #define MAX_STEP 5.0          /* mm */
 #define ARC_TOLERANCE 1e-10   /* relative */
 #define FRAME_SAMPLES 13
+#define CENTRE_FEED_EVERY 8 /* rows of the centre-feed table: every 8th milling sample */
 
 /* ----------------------------------------------------------------------------------------- */
 /* The wing skin and the fibre course (invented).                                             */
@@ -434,15 +465,19 @@ static int report_frames(int raw, const StrakeSample *s, size_t n)
 /* ----------------------------------------------------------------------------------------- */
 /* The milling checks along the pass.                                                        */
 
-static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurve *pass)
+static int check_milling(int raw, const StrakeSurface *surface, const StrakeSurface *high, const StrakeCurve *pass)
 {
     const StrakeCutter ball = {STRAKE_CUTTER_KIND_BALL, BALL_RADIUS, 0.0};
     const StrakeToolAngles upright = {0.0, 0.0};
     const StrakeFeedLimits machine = {FEED_MM_MIN / 60.0, MAX_ACCELERATION, MAX_JERK};
+    const StrakeCentreFeedLimits centre_machine = {FEED_MM_MIN / 60.0, MAX_ACCELERATION, MAX_JERK, 0.0};
     StrakeSample *s = NULL;
     double *concave = NULL, *scallop = NULL, *feed = NULL, *feed_cut = NULL;
+    double *ts = NULL, *centre_feed = NULL, *centre_curvature = NULL;
+    StrakeCentrePoint *centre = NULL;
+    StrakeCentreFeed *centre_limit = NULL;
     size_t n = 0, first_guess = 0, i;
-    StrakeExtremes e_concave, e_scallop, e_feed;
+    StrakeExtremes e_concave, e_scallop, e_feed, e_centre_feed, e_centre_curvature;
     StrakeStatus status;
     char gouge_label[64], scallop_label[64], feed_label[64];
     int bad = 0;
@@ -454,7 +489,13 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
     scallop = malloc(n * sizeof *scallop);
     feed = malloc(n * sizeof *feed);
     feed_cut = malloc(n * sizeof *feed_cut);
-    if (concave == NULL || scallop == NULL || feed == NULL || feed_cut == NULL) {
+    ts = malloc(n * sizeof *ts);
+    centre_feed = malloc(n * sizeof *centre_feed);
+    centre_curvature = malloc(n * sizeof *centre_curvature);
+    centre = malloc(n * sizeof *centre);
+    centre_limit = malloc(n * sizeof *centre_limit);
+    if (concave == NULL || scallop == NULL || feed == NULL || feed_cut == NULL || ts == NULL ||
+        centre_feed == NULL || centre_curvature == NULL || centre == NULL || centre_limit == NULL) {
         bad = out_of_memory();
         goto done;
     }
@@ -485,8 +526,30 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
         }
         feed_cut[i] = machine.feed - feed[i]; /* mm/s below the programmed feed */
     }
+    /* The path the machine runs: the ball's centre, r above the contact point along N. Its feed
+     * limit comes from its own curvature (and the curvature's rate of change for jerk). */
+    for (i = 0; i < n && !bad; i++) {
+        ts[i] = s[i].frame.curve_param;
+    }
+    if (!bad) {
+        status = strake_centre_path_at(high, pass, ts, n, STRAKE_TOOL_SIDE_ALONG_NORMAL, &ball, &upright, 4, centre);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_centre_path_at", status);
+        }
+    }
+    if (!bad) {
+        status = strake_centre_feed_path(centre, n, &centre_machine, centre_limit);
+        if (status != STRAKE_STATUS_OK) {
+            bad = fail("strake_centre_feed_path", status);
+        }
+    }
+    for (i = 0; i < n && !bad; i++) {
+        centre_feed[i] = centre_limit[i].feed;
+        centre_curvature[i] = centre[i].curvature;
+    }
     if (bad || extremes(s, concave, n, &e_concave) || extremes(s, scallop, n, &e_scallop) ||
-        extremes(s, feed, n, &e_feed)) {
+        extremes(s, feed, n, &e_feed) || extremes(s, centre_feed, n, &e_centre_feed) ||
+        extremes(s, centre_curvature, n, &e_centre_curvature)) {
         bad = 1;
         goto done;
     }
@@ -500,6 +563,9 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
         }
         for (i = 0; i < n; i++) {
             print_sample_geometry("mill_frame", i, &s[i].frame);
+        }
+        for (i = 0; i < n; i++) {
+            printf("centre_feed %zu %.17g\n", i, centre_feed[i]);
         }
     } else {
         printf("\nMilling pass: %.0f mm ball-end mill (r = %.0f mm), step-over %.2f mm, feed %.0f mm/min,\n"
@@ -519,8 +585,20 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
                e_scallop.max, e_scallop.max_arc_length);
         printf("  %-28s %10.0f  %9.2f   %10.0f  %9.2f\n", "feed limit (mm/min)", 60.0 * e_feed.min,
                e_feed.min_arc_length, 60.0 * e_feed.max, e_feed.max_arc_length);
+        printf("  %-28s %10.0f  %9.2f   %10.0f  %9.2f\n", "feed on the centre path", 60.0 * e_centre_feed.min,
+               e_centre_feed.min_arc_length, 60.0 * e_centre_feed.max, e_centre_feed.max_arc_length);
         printf("\n  largest ball-end radius free of local gouging along the pass: %.2f mm (at s = %.2f mm)\n",
                1.0 / e_concave.max, e_concave.max_arc_length);
+        printf("\n  The machine runs the ball's centre, not the contact point: its path's tightest radius is\n"
+               "  %.2f mm (at s = %.2f mm). Judged on that path, the acceleration and jerk limits allow\n"
+               "  %.0f mm/min at s = %.2f mm, where the contact path's curvature alone allowed %.0f mm/min;\n"
+               "  the centre-path feed is the one to program (mm/min, every %zuth sample):\n",
+               1.0 / e_centre_curvature.max, e_centre_curvature.max_arc_length, 60.0 * e_centre_feed.min,
+               e_centre_feed.min_arc_length, 60.0 * feed[e_centre_feed.min_index], (size_t)CENTRE_FEED_EVERY);
+        printf("  %9s %14s %14s\n", "s (mm)", "centre path", "contact path");
+        for (i = 0; i < n; i += CENTRE_FEED_EVERY) {
+            printf("  %9.2f %14.0f %14.0f\n", s[i].arc_length, 60.0 * centre_feed[i], 60.0 * feed[i]);
+        }
         printf("\n  Where the plan fails (arc length along the pass, mm):\n");
     }
     snprintf(gouge_label, sizeof gouge_label, "r = %.0f mm ball gouges", BALL_RADIUS);
@@ -533,6 +611,11 @@ static int check_milling(int raw, const StrakeSurface *surface, const StrakeCurv
         bad = 1;
     }
 done:
+    free(centre_limit);
+    free(centre);
+    free(centre_curvature);
+    free(centre_feed);
+    free(ts);
     free(feed_cut);
     free(feed);
     free(scallop);
@@ -1016,7 +1099,7 @@ int main(int argc, char **argv)
     StrakeProjectionOptions options = {PASS_TOLERANCE, 0, 0, 0, 0};
     StrakeSample frames[FRAME_SAMPLES];
     BsplinePatch patch;
-    StrakeSurface *surface = NULL;
+    StrakeSurface *surface = NULL, *high = NULL;
     StrakeCurve *pass = NULL;
     StrakeStatus status;
     size_t count = 0, i;
@@ -1042,11 +1125,17 @@ int main(int argc, char **argv)
     if (status != STRAKE_STATUS_OK) {
         return fail("strake_surface_from_callback", status);
     }
+    status = strake_surface_from_high_callback(cavity_surface_high, &patch, 4, 0.0, 1.0, 0.0, 1.0, 0, &high);
+    if (status != STRAKE_STATUS_OK) {
+        strake_surface_free(surface);
+        return fail("strake_surface_from_high_callback", status);
+    }
     /* The pass as strake sees it: the contact points projected onto the surface and joined by a
      * C2 cubic in the surface's parameter plane. */
     status = strake_curve_through_space_points(surface, points, PASS_POINTS, &options, 3,
                                                STRAKE_PARAMETRIZATION_CHORD_LENGTH, feet, &pass);
     if (status != STRAKE_STATUS_OK) {
+        strake_surface_free(high);
         strake_surface_free(surface);
         return fail("strake_curve_through_space_points", status);
     }
@@ -1078,13 +1167,14 @@ int main(int argc, char **argv)
         printf("  (projected, the farthest %.1e mm from the surface, and interpolated in (u, v)): %.2f mm long\n",
                farthest, frames[FRAME_SAMPLES - 1].arc_length);
     }
-    bad = bad || report_frames(raw, frames, FRAME_SAMPLES) || check_milling(raw, surface, pass) || check_course(raw) ||
+    bad = bad || report_frames(raw, frames, FRAME_SAMPLES) || check_milling(raw, surface, high, pass) || check_course(raw) ||
           check_rear_gouge(raw, surface, pass) || plan_cavity_passes(raw, surface, pass) ||
           plan_courses(raw);
     if (!bad && !raw) {
         show_refusals(surface, pass, points);
     }
     strake_curve_free(pass);
+    strake_surface_free(high);
     strake_surface_free(surface);
     return bad;
 }

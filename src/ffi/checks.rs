@@ -54,7 +54,7 @@ pub(crate) fn tool_side(code: u32) -> Result<ToolSide, Failure> {
 }
 
 /// The cutter for a `StrakeCutter` (its dimensions are checked by the checks themselves).
-fn cutter(c: &StrakeCutter) -> Result<Cutter, Failure> {
+pub(crate) fn cutter(c: &StrakeCutter) -> Result<Cutter, Failure> {
     match c.kind {
         k if k == StrakeCutterKind::Ball as u32 => Ok(Cutter::Ball { radius: c.radius }),
         k if k == StrakeCutterKind::Flat as u32 => Ok(Cutter::Flat { radius: c.radius }),
@@ -171,7 +171,7 @@ fn deliver<T>(out: NonNull<T>, items: Vec<T>) {
     unsafe { std::ptr::copy_nonoverlapping(items.as_ptr(), out.as_ptr(), items.len()) };
 }
 
-fn angles(a: &StrakeToolAngles) -> ToolAngles {
+pub(crate) fn angles(a: &StrakeToolAngles) -> ToolAngles {
     ToolAngles {
         lead: a.lead,
         tilt: a.tilt,

@@ -36,6 +36,7 @@ pub mod courses;
 pub mod curve;
 pub mod evaluate;
 pub mod geodesics;
+pub mod high_callback;
 pub mod message;
 pub mod nurbs_surface;
 pub mod parallel;
@@ -45,6 +46,7 @@ pub mod sampling;
 pub mod status;
 pub mod surface;
 pub mod surface_evaluate;
+pub mod toolpath;
 pub mod types;
 pub mod version;
 
@@ -116,3 +118,15 @@ pub use types::{StrakeCutterRadii, StrakeCutterStepOver, StrakeRearGouge, Strake
 // Crease flags of knot lines of reduced continuity.
 pub use evaluate::strake_knot_line_flags;
 pub use types::StrakeKnotLineFlag;
+// The path the machine runs: rates of the invariants, the tool-centre path, its feed.
+pub use high_callback::{StrakeSurfaceHighFn, strake_surface_from_high_callback};
+pub use sampling::strake_sample_chordal_centre;
+pub use toolpath::{
+    strake_centre_feed, strake_centre_feed_path, strake_centre_path_at, strake_centre_point_at,
+    strake_invariant_rates_at, strake_invariant_rates_path,
+};
+pub use types::StrakeSurfaceHighJet;
+pub use types::{
+    StrakeCentreFeed, StrakeCentreFeedLimits, StrakeCentrePoint, StrakeFeedBound,
+    StrakeInvariantRates,
+};

@@ -16,11 +16,12 @@ use super::curve::StrakeCurve;
 use super::guard::{Failure, OutBuffer, guard, input, out_buffer, output};
 use super::status::StrakeStatus;
 use super::surface::{StrakeSurface, finite};
-use super::types::StrakeSample;
+use super::types::{StrakeCutter, StrakeSample, StrakeToolAngles};
 use crate::paths::curve_on_surface::{CurveOnSurface, PathSample};
 use crate::paths::sampling::{
     ChordalOptions, SinkFn, arc_length, sample_chordal, sample_even_arc, sample_even_t,
 };
+use crate::toolpath::{ToolSetup, sample_chordal_centre};
 use std::mem::MaybeUninit;
 
 /// Which sampling rule to run.
@@ -28,6 +29,8 @@ enum Rule {
     EvenT(usize),
     EvenArc(usize),
     Chordal(ChordalOptions),
+    /// Chords judged on the tool-centre path of the setup.
+    ChordalCentre(ChordalOptions, ToolSetup),
 }
 
 /// Runs `rule` on the pair and delivers the samples to the host's buffer.
@@ -74,6 +77,7 @@ fn sample(
         Rule::EvenT(n) => sample_even_t(&pair, n, arc_tolerance, &mut sink)?,
         Rule::EvenArc(n) => sample_even_arc(&pair, n, arc_tolerance, &mut sink)?,
         Rule::Chordal(opts) => sample_chordal(&pair, &opts, &mut sink)?,
+        Rule::ChordalCentre(opts, setup) => sample_chordal_centre(&pair, &opts, &setup, &mut sink)?,
     };
     if alloc_failed {
         return Err(Failure::invalid(format!(
@@ -203,6 +207,64 @@ pub unsafe extern "C" fn strake_sample_chordal(
         );
         opts.arc_tolerance = arc_tolerance;
         sample(s, c, Rule::Chordal(opts), arc_tolerance, out)
+    })
+}
+
+/// `strake_sample_chordal` with the chord error judged on the tool-centre path: the chord
+/// between the cutter-location points of consecutive samples stays within `chord_tolerance`
+/// of the path the centre of `cutter` runs (on `tool_side`, axis at `angles`; see
+/// `strake_centre_point_at`), since that is the path a controller interpolates. Steps follow
+/// the centre path's curvature kc (exact, from third-order derivatives) with the same chord
+/// rule, converted to t by the centre path's speed, and are verified on the centre points at
+/// the step's quarters. The samples are those of the contact path (frame, contact-path arc
+/// length), as from `strake_sample_chordal`; `max_step` is in contact-path arc length. Their
+/// centre points follow from `strake_centre_path_at` at the samples' `frame.curve_param`.
+/// For a ball of radius r inside a cylinder of radius rho the centre path is a circle of
+/// radius rho - r: fewer samples than on the contact path; outside, radius rho + r: more.
+///
+/// Buffer: as for `strake_sample_chordal`. Errors: those of `strake_sample_chordal`;
+/// NULL_POINTER (`cutter`, `angles`); INVALID_ARGUMENT (`tool_side`, the cutter or an angle,
+/// named); ORDER_UNAVAILABLE (a surface or curve without third derivatives, e.g. a callback of
+/// `strake_surface_from_callback`); CENTRE_PATH_FOLDS (the centre path folds back at a sample,
+/// named). Checked only at samples and the step's quarters: a fold between them is not seen.
+/// Thread-safe.
+///
+/// # Safety
+/// As for `strake_sample_chordal`; `cutter` and `angles` NULL or valid.
+#[unsafe(no_mangle)]
+#[allow(clippy::too_many_arguments)]
+pub unsafe extern "C" fn strake_sample_chordal_centre(
+    surface: *const StrakeSurface,
+    curve: *const StrakeCurve,
+    chord_tolerance: f64,
+    max_step: f64,
+    arc_tolerance: f64,
+    tool_side: u32,
+    cutter: *const StrakeCutter,
+    angles: *const StrakeToolAngles,
+    buf: *mut StrakeSample,
+    capacity: usize,
+    count: *mut usize,
+) -> StrakeStatus {
+    guard("strake_sample_chordal_centre", || {
+        // SAFETY: the caller passes live handles and valid values, or NULL.
+        let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
+        let setup = ToolSetup {
+            cutter: super::checks::cutter(unsafe { input(cutter, "cutter")? })?,
+            side: super::checks::tool_side(tool_side)?,
+            angles: super::checks::angles(unsafe { input(angles, "angles")? }),
+        };
+        let out = out_buffer(buf, capacity, count)?;
+        let mut opts = ChordalOptions::new(
+            chord_tolerance,
+            if max_step == 0.0 {
+                f64::INFINITY
+            } else {
+                max_step
+            },
+        );
+        opts.arc_tolerance = arc_tolerance;
+        sample(s, c, Rule::ChordalCentre(opts, setup), arc_tolerance, out)
     })
 }
 

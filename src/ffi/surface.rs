@@ -10,7 +10,7 @@ use super::guard::{Failure, guard, input_slice, non_null, output};
 use super::status::StrakeStatus;
 use super::types::StrakeSurfaceJet;
 use crate::error::{NonFiniteSource, Result, StrakeError};
-use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
+use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::Orientation;
 use crate::surface::{SurfaceHint, SurfaceSource};
 use std::ffi::c_void;
@@ -139,6 +139,18 @@ impl SurfaceSource for StrakeSurface {
         out: &mut [SurfaceJet],
     ) -> Result<()> {
         self.source.jets_in_domain_block(u, v, order, hint, out)
+    }
+    fn max_order(&self) -> usize {
+        self.source.max_order()
+    }
+    fn partials_in_domain(
+        &self,
+        u: f64,
+        v: f64,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        self.source.partials_in_domain(u, v, order, hint)
     }
 }
 

@@ -1170,3 +1170,320 @@ pub enum StrakeKnotLineFlag {
     /// 32: the same for the v line.
     AlongV = 32,
 }
+
+/// The rates of change along arc length s of the invariants at one sample (1/length^2 each;
+/// positive when the invariant grows in the direction of travel T), exact from third-order
+/// derivatives (see `strake_invariant_rates_at`).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeInvariantRates {
+    /// d kn / ds.
+    pub normal_curvature_rate: f64,
+    /// d kg / ds.
+    pub geodesic_curvature_rate: f64,
+    /// d tg / ds.
+    pub geodesic_torsion_rate: f64,
+    /// d kappa / ds of the space curvature kappa = sqrt(kn^2 + kg^2); where kappa = 0 the
+    /// one-sided rate sqrt((d kn/ds)^2 + (d kg/ds)^2).
+    pub curvature_rate: f64,
+}
+
+impl From<&crate::geometry::rates::InvariantRates> for StrakeInvariantRates {
+    fn from(r: &crate::geometry::rates::InvariantRates) -> Self {
+        StrakeInvariantRates {
+            normal_curvature_rate: r.normal_curvature,
+            geodesic_curvature_rate: r.geodesic_curvature,
+            geodesic_torsion_rate: r.geodesic_torsion,
+            curvature_rate: r.space_curvature,
+        }
+    }
+}
+
+/// The tool-centre path at one sample of a contact path (host length unit; see
+/// `strake_centre_point_at` for the geometry). Fields of fourth order (`curvature_rate`,
+/// `torsion`, `jerk_figure`) are 0 when `order` is 3.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCentrePoint {
+    /// The curve parameter t of the contact-path sample.
+    pub curve_param: f64,
+    /// Cutter-location point CL: on the axis, in the plane of the corner-circle centres (a
+    /// ball's centre).
+    pub centre: [f64; 3],
+    /// Tool tip: the lowest point of the axis, CL - r a (r the corner radius).
+    pub tip: [f64; 3],
+    /// Unit tool axis a, from the tip toward the spindle.
+    pub axis: [f64; 3],
+    /// Unit tangent of the centre path, in the direction of travel.
+    pub tangent: [f64; 3],
+    /// d s_c / d s: the centre path's speed relative to the contact path's (> 0).
+    pub speed_ratio: f64,
+    /// Curvature kc of the centre path (1/length, >= 0).
+    pub curvature: f64,
+    /// d kc / d s_c along the centre path's own arc length (1/length^2); 0 when `order` is 3.
+    pub curvature_rate: f64,
+    /// Torsion of the centre path (1/length; 0 where kc = 0); 0 when `order` is 3.
+    pub torsion: f64,
+    /// |d^3 CL / d s_c^3| = sqrt(kc'^2 + kc^4 + kc^2 tc^2) (1/length^2): the jerk at unit
+    /// speed along the centre path; 0 when `order` is 3.
+    pub jerk_figure: f64,
+    /// Angular rate of the tool axis per unit length of the centre path (radians/length).
+    pub axis_rate: f64,
+    /// The derivative order the point was computed from: 3 (no curvature rate, torsion or jerk
+    /// figure) or 4 (all fields).
+    pub order: u32,
+}
+
+impl StrakeCentrePoint {
+    /// The C point for a point of the Rust API computed at `t` from partials of `order`.
+    pub fn new(t: f64, p: &crate::toolpath::CentrePoint, order: usize) -> Self {
+        StrakeCentrePoint {
+            curve_param: t,
+            centre: arr3(&p.centre),
+            tip: arr3(&p.tip),
+            axis: arr3(&p.axis),
+            tangent: arr3(&p.tangent),
+            speed_ratio: p.speed_ratio,
+            curvature: p.curvature,
+            curvature_rate: p.curvature_rate.unwrap_or(0.0),
+            torsion: p.torsion.unwrap_or(0.0),
+            jerk_figure: p.jerk_figure.unwrap_or(0.0),
+            axis_rate: p.axis_rate,
+            order: order as u32,
+        }
+    }
+
+    /// The point of the Rust API for a point passed in by the host (to the feed functions),
+    /// checked: every number finite (`NonFinite` naming the field, e.g. "point.curvature"),
+    /// `order` 3 or 4, `speed_ratio` > 0, `curvature`, `jerk_figure` and `axis_rate` >= 0, the
+    /// axis and tangent of unit length to [`UNIT_VECTOR_SLACK`] (`InvalidArgument` naming the
+    /// field).
+    pub fn to_rust(&self) -> Result<crate::toolpath::CentrePoint, StrakeError> {
+        let scalars: [(&'static str, f64); 19] = [
+            ("point.curve_param", self.curve_param),
+            ("point.centre[0]", self.centre[0]),
+            ("point.centre[1]", self.centre[1]),
+            ("point.centre[2]", self.centre[2]),
+            ("point.tip[0]", self.tip[0]),
+            ("point.tip[1]", self.tip[1]),
+            ("point.tip[2]", self.tip[2]),
+            ("point.axis[0]", self.axis[0]),
+            ("point.axis[1]", self.axis[1]),
+            ("point.axis[2]", self.axis[2]),
+            ("point.tangent[0]", self.tangent[0]),
+            ("point.tangent[1]", self.tangent[1]),
+            ("point.tangent[2]", self.tangent[2]),
+            ("point.speed_ratio", self.speed_ratio),
+            ("point.curvature", self.curvature),
+            ("point.curvature_rate", self.curvature_rate),
+            ("point.torsion", self.torsion),
+            ("point.jerk_figure", self.jerk_figure),
+            ("point.axis_rate", self.axis_rate),
+        ];
+        for (what, value) in scalars {
+            if !value.is_finite() {
+                return Err(StrakeError::NonFinite {
+                    source: NonFiniteSource::Parameter,
+                    what,
+                    value,
+                });
+            }
+        }
+        let invalid = |m: String| Err(StrakeError::InvalidArgument(m));
+        if !(self.order == 3 || self.order == 4) {
+            return invalid(format!("point.order = {} must be 3 or 4", self.order));
+        }
+        if self.speed_ratio <= 0.0 {
+            return invalid(format!(
+                "point.speed_ratio = {} must be positive",
+                self.speed_ratio
+            ));
+        }
+        for (name, x) in [
+            ("point.curvature", self.curvature),
+            ("point.jerk_figure", self.jerk_figure),
+            ("point.axis_rate", self.axis_rate),
+        ] {
+            if x < 0.0 {
+                return invalid(format!("{name} = {x} must not be negative"));
+            }
+        }
+        for (name, v) in [("point.axis", self.axis), ("point.tangent", self.tangent)] {
+            let len = vec3(v).norm();
+            if (len - 1.0).abs() > UNIT_VECTOR_SLACK {
+                return invalid(format!("{name} has length {len}, not 1"));
+            }
+        }
+        let four = self.order == 4;
+        Ok(crate::toolpath::CentrePoint {
+            centre: vec3(self.centre),
+            tip: vec3(self.tip),
+            axis: vec3(self.axis),
+            tangent: vec3(self.tangent),
+            speed_ratio: self.speed_ratio,
+            curvature: self.curvature,
+            curvature_rate: four.then_some(self.curvature_rate),
+            torsion: four.then_some(self.torsion),
+            jerk_figure: four.then_some(self.jerk_figure),
+            axis_rate: self.axis_rate,
+        })
+    }
+}
+
+/// Machine limits of the feed on the tool-centre path, in one consistent set of units (e.g.
+/// mm and s: feed in mm/s, acceleration in mm/s^2, jerk in mm/s^3, angular speed in rad/s).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCentreFeedLimits {
+    /// Programmed (largest) feed of the cutter-location point; positive and finite.
+    pub feed: f64,
+    /// Largest path acceleration; positive and finite.
+    pub max_acceleration: f64,
+    /// Largest jerk; positive and finite, or 0 for none (the jerk rule needs points of order 4).
+    pub max_jerk: f64,
+    /// Largest angular speed of the tool axis (rad per time unit); positive and finite, or 0
+    /// for none.
+    pub max_angular_speed: f64,
+}
+
+/// Which limit decides the feed on the centre path: the values of `StrakeCentreFeed.bound`.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeFeedBound {
+    /// 0: the programmed feed.
+    Programmed = 0,
+    /// 1: the acceleration limit.
+    Acceleration = 1,
+    /// 2: the jerk limit.
+    Jerk = 2,
+    /// 3: the tool axis's angular speed limit.
+    AngularSpeed = 3,
+}
+
+/// The feed allowed at a sample of the centre path and what limits it (feeds in length per
+/// time unit of the limits). A bound that does not apply (no curvature, no jerk limit, an axis
+/// that does not turn) is +infinity (`HUGE_VAL`); `feed` is always finite.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCentreFeed {
+    /// The highest feed of the cutter-location point: the least of the programmed feed and
+    /// the three bounds below.
+    pub feed: f64,
+    /// sqrt(a_max / kc).
+    pub acceleration_feed: f64,
+    /// (j_max / jerk_figure)^(1/3).
+    pub jerk_feed: f64,
+    /// w_max / axis_rate.
+    pub angular_feed: f64,
+    /// The same feed as the contact point moves: feed / speed_ratio (for hosts that program
+    /// the contact path).
+    pub contact_feed: f64,
+    /// Which bound gives `feed`: a `STRAKE_FEED_BOUND_...` value (the first of programmed,
+    /// acceleration, jerk, angular speed on a tie).
+    pub bound: u32,
+}
+
+impl From<&crate::toolpath::CentreFeed> for StrakeCentreFeed {
+    fn from(f: &crate::toolpath::CentreFeed) -> Self {
+        use crate::toolpath::FeedBound;
+        StrakeCentreFeed {
+            feed: f.feed,
+            acceleration_feed: f.acceleration_feed,
+            jerk_feed: f.jerk_feed,
+            angular_feed: f.angular_feed,
+            contact_feed: f.contact_feed,
+            bound: match f.bound {
+                FeedBound::Programmed => StrakeFeedBound::Programmed,
+                FeedBound::Acceleration => StrakeFeedBound::Acceleration,
+                FeedBound::Jerk => StrakeFeedBound::Jerk,
+                FeedBound::AngularSpeed => StrakeFeedBound::AngularSpeed,
+            } as u32,
+        }
+    }
+}
+
+/// A surface point with its partial derivatives to fourth order, filled by a host callback of
+/// `strake_surface_from_high_callback`. The first six entries are those of
+/// `StrakeSurfaceJet`, in the same order; each entry is an (x, y, z) triple in the host's
+/// length unit per power of the surface parameters. strake sets every entry to zero before it
+/// calls the host, so entries above the requested order may be left alone.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeSurfaceHighJet {
+    /// The point S(u, v).
+    pub p: [f64; 3],
+    /// dS/du (order >= 1).
+    pub su: [f64; 3],
+    /// dS/dv (order >= 1).
+    pub sv: [f64; 3],
+    /// d2S/du2 (order >= 2).
+    pub suu: [f64; 3],
+    /// d2S/dudv (order >= 2).
+    pub suv: [f64; 3],
+    /// d2S/dv2 (order >= 2).
+    pub svv: [f64; 3],
+    /// d3S/du3 (order >= 3).
+    pub suuu: [f64; 3],
+    /// d3S/du2dv (order >= 3).
+    pub suuv: [f64; 3],
+    /// d3S/dudv2 (order >= 3).
+    pub suvv: [f64; 3],
+    /// d3S/dv3 (order >= 3).
+    pub svvv: [f64; 3],
+    /// d4S/du4 (order 4).
+    pub suuuu: [f64; 3],
+    /// d4S/du3dv (order 4).
+    pub suuuv: [f64; 3],
+    /// d4S/du2dv2 (order 4).
+    pub suuvv: [f64; 3],
+    /// d4S/dudv3 (order 4).
+    pub suvvv: [f64; 3],
+    /// d4S/dv4 (order 4).
+    pub svvvv: [f64; 3],
+}
+
+impl StrakeSurfaceHighJet {
+    /// The second-order part, as the Rust jet.
+    pub fn jet(&self) -> SurfaceJet {
+        SurfaceJet {
+            p: vec3(self.p),
+            su: vec3(self.su),
+            sv: vec3(self.sv),
+            suu: vec3(self.suu),
+            suv: vec3(self.suv),
+            svv: vec3(self.svv),
+        }
+    }
+
+    /// The partials of the Rust API to `order` (entries above it zero).
+    pub fn partials(&self, order: usize) -> crate::geometry::jet::SurfacePartials {
+        let mut p = crate::geometry::jet::SurfacePartials {
+            order,
+            ..Default::default()
+        };
+        // (i, j, entry): d[i][j] = d^(i+j) S / du^i dv^j.
+        let entries: [(usize, usize, [f64; 3]); 15] = [
+            (0, 0, self.p),
+            (1, 0, self.su),
+            (0, 1, self.sv),
+            (2, 0, self.suu),
+            (1, 1, self.suv),
+            (0, 2, self.svv),
+            (3, 0, self.suuu),
+            (2, 1, self.suuv),
+            (1, 2, self.suvv),
+            (0, 3, self.svvv),
+            (4, 0, self.suuuu),
+            (3, 1, self.suuuv),
+            (2, 2, self.suuvv),
+            (1, 3, self.suvvv),
+            (0, 4, self.svvvv),
+        ];
+        for (i, j, e) in entries {
+            if i + j <= order {
+                p.d[i][j] = vec3(e);
+            }
+        }
+        p
+    }
+}

@@ -565,6 +565,22 @@ impl UvCurve for SeamCurve {
         }
         r
     }
+    fn max_order(&self) -> usize {
+        self.curve.max_order()
+    }
+    /// The unwrapped curve's derivatives (wrapping shifts u and v only), u and v wrapped.
+    fn partials_in_domain(
+        &self,
+        t: f64,
+        order: usize,
+        hint: &mut SpanHint,
+    ) -> Result<crate::geometry::jet::CurvePartials> {
+        let mut p = self.curve.partials_in_domain(t, order, hint)?;
+        let mut j = p.jet();
+        self.wrap(&mut j);
+        (p.u[0], p.v[0]) = (j.u, j.v);
+        Ok(p)
+    }
 }
 
 impl SeamCurve {

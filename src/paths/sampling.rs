@@ -454,9 +454,7 @@ where
     C: UvCurve + ?Sized,
     K: SampleSink + ?Sized,
 {
-    check_count(n)?;
-    check_arc_tolerance(arc_tolerance).map_err(whole_error)?;
-    if sink.capacity().is_some_and(|c| c < n) {
+    if !fixed_count_fits(n, arc_tolerance, sink)? {
         return Ok(n);
     }
     let dom = path.curve().domain();
@@ -479,13 +477,21 @@ where
     Ok(n)
 }
 
-fn check_count(n: usize) -> std::result::Result<(), SampleError> {
+/// The common start of the rules with a count known beforehand: `n` and the tolerance
+/// checked (`InvalidArgument`, index 0); `false` when `sink` holds fewer than `n` samples
+/// (nothing is then computed or written).
+fn fixed_count_fits<K: SampleSink + ?Sized>(
+    n: usize,
+    arc_tolerance: f64,
+    sink: &K,
+) -> std::result::Result<bool, SampleError> {
     if n == 0 {
         return Err(whole_error(StrakeError::InvalidArgument(
             "a sample count of 0 was asked for; at least 1 is needed".into(),
         )));
     }
-    Ok(())
+    check_arc_tolerance(arc_tolerance).map_err(whole_error)?;
+    Ok(sink.capacity().is_none_or(|c| c >= n))
 }
 
 /// Solves s(t) − s(t_from) = `ds` for t in [t_from, t_hi] by safeguarded Newton's method (see
@@ -570,9 +576,7 @@ where
     C: UvCurve + ?Sized,
     K: SampleSink + ?Sized,
 {
-    check_count(n)?;
-    check_arc_tolerance(arc_tolerance).map_err(whole_error)?;
-    if sink.capacity().is_some_and(|c| c < n) {
+    if !fixed_count_fits(n, arc_tolerance, sink)? {
         return Ok(n);
     }
     let dom = path.curve().domain();
@@ -794,6 +798,107 @@ where
     C: UvCurve + ?Sized,
     K: SampleSink + ?Sized,
 {
+    sample_chordal_on(path, opts, &ContactPath, sink)
+}
+
+/// The space curve whose chords chord-tolerance sampling judges, given by its points along the
+/// contact path: the contact path itself ([`ContactPath`]) or a path the tool runs beside it
+/// (the tool-centre path, `crate::toolpath::sample_chordal_centre`). The samples are always
+/// those of the contact path (t, arc length, frame).
+pub(crate) trait ChordTarget {
+    /// The judged point at a sample already evaluated.
+    fn sample_point<S, C>(
+        &self,
+        path: &CurveOnSurface<'_, S, C>,
+        sample: &PathSample,
+        hints: &mut Hints,
+    ) -> Result<Vec3>
+    where
+        S: SurfaceSource + ?Sized,
+        C: UvCurve + ?Sized;
+    /// The judged point at curve parameter `t`.
+    fn point<S, C>(
+        &self,
+        path: &CurveOnSurface<'_, S, C>,
+        t: f64,
+        hints: &mut Hints,
+    ) -> Result<Vec3>
+    where
+        S: SurfaceSource + ?Sized,
+        C: UvCurve + ?Sized;
+    /// At a sample: the judged curve's curvature and its speed along t (d s_judged / dt), from
+    /// which the next step is proposed.
+    fn bend<S, C>(
+        &self,
+        path: &CurveOnSurface<'_, S, C>,
+        sample: &PathSample,
+        hints: &mut Hints,
+    ) -> Result<(f64, f64)>
+    where
+        S: SurfaceSource + ?Sized,
+        C: UvCurve + ?Sized;
+}
+
+/// Chords judged on the contact path: its points and space curvature κ = √(κn² + κg²).
+pub(crate) struct ContactPath;
+
+impl ChordTarget for ContactPath {
+    #[inline]
+    fn sample_point<S, C>(
+        &self,
+        _: &CurveOnSurface<'_, S, C>,
+        sample: &PathSample,
+        _: &mut Hints,
+    ) -> Result<Vec3>
+    where
+        S: SurfaceSource + ?Sized,
+        C: UvCurve + ?Sized,
+    {
+        Ok(sample.frame.point)
+    }
+    #[inline]
+    fn point<S, C>(
+        &self,
+        path: &CurveOnSurface<'_, S, C>,
+        t: f64,
+        hints: &mut Hints,
+    ) -> Result<Vec3>
+    where
+        S: SurfaceSource + ?Sized,
+        C: UvCurve + ?Sized,
+    {
+        position(path, t, hints)
+    }
+    #[inline]
+    fn bend<S, C>(
+        &self,
+        _: &CurveOnSurface<'_, S, C>,
+        sample: &PathSample,
+        _: &mut Hints,
+    ) -> Result<(f64, f64)>
+    where
+        S: SurfaceSource + ?Sized,
+        C: UvCurve + ?Sized,
+    {
+        Ok((space_curvature(&sample.frame), sample.frame.speed))
+    }
+}
+
+/// [`sample_chordal`] with the chord error judged on `target` (the step rule and its
+/// verification of the module docs, on the judged curve's points and curvature); the maximum
+/// step stays one of contact-path arc length.
+pub(crate) fn sample_chordal_on<S, C, K, J>(
+    path: &CurveOnSurface<'_, S, C>,
+    opts: &ChordalOptions,
+    target: &J,
+    sink: &mut K,
+) -> std::result::Result<usize, SampleError>
+where
+    S: SurfaceSource + ?Sized,
+    C: UvCurve + ?Sized,
+    K: SampleSink + ?Sized,
+    J: ChordTarget + ?Sized,
+{
     opts.check().map_err(whole_error)?;
     let delta = opts.chord_tolerance;
     let dom = path.curve().domain();
@@ -802,9 +907,24 @@ where
     let mut qh = Hints::default();
     check_reachable(path, opts, &mut qh)?;
     let mut cur = sample_at(path, 0, dom.lo, 0.0, &mut hints)?;
+    let (mut kappa, mut speed) =
+        target
+            .bend(path, &cur, &mut hints)
+            .map_err(|error| SampleError {
+                index: 0,
+                t: dom.lo,
+                error,
+            })?;
+    let mut a = target
+        .sample_point(path, &cur, &mut hints)
+        .map_err(|error| SampleError {
+            index: 0,
+            t: dom.lo,
+            error,
+        })?;
     sink.put(0, &cur);
     let mut count = 1;
-    let mut kappa_prev = space_curvature(&cur.frame);
+    let mut kappa_prev = kappa;
     while cur.t < dom.hi {
         let index = count;
         let err = |t: f64, error| SampleError { index, t, error };
@@ -817,14 +937,13 @@ where
                 )),
             ));
         }
-        let kappa = space_curvature(&cur.frame);
         // Curvature extrapolated to the middle of the next step, never below half the
         // present one.
         let kappa_mid = (kappa + 0.5 * (kappa - kappa_prev)).max(0.5 * kappa);
         let len = chord_length_for(kappa_mid, STEP_AIM * delta).min(opts.max_step);
         let remaining = dom.hi - cur.t;
         let mut dt = if len.is_finite() {
-            (len / cur.frame.speed).min(remaining)
+            (len / speed).min(remaining)
         } else {
             remaining
         };
@@ -833,11 +952,15 @@ where
             let ds =
                 integrate(path, cur.t, t1, opts.arc_tolerance, &mut qh).map_err(|e| err(t1, e))?;
             let smp = sample_at(path, index, t1, cur.arc_length + ds, &mut hints)?;
-            let (a, b) = (cur.frame.point, smp.frame.point);
+            let b = target
+                .sample_point(path, &smp, &mut hints)
+                .map_err(|e| err(t1, e))?;
             let mut e = [0.0; 3];
             for (k, ek) in e.iter_mut().enumerate() {
                 let tk = cur.t + (t1 - cur.t) * (k as f64 + 1.0) * 0.25;
-                let x = position(path, tk, &mut hints).map_err(|er| err(tk, er))?;
+                let x = target
+                    .point(path, tk, &mut hints)
+                    .map_err(|er| err(tk, er))?;
                 *ek = distance_to_segment(&x, &a, &b);
             }
             let peak = peak_deviation(e[0], e[1], e[2]);
@@ -849,7 +972,7 @@ where
                 factor = factor.min(0.98 * opts.max_step / ds);
             }
             if factor >= 1.0 {
-                break smp;
+                break (smp, b);
             }
             dt = (t1 - cur.t) * factor.clamp(0.1, 0.95);
             if dt < min_dt {
@@ -865,7 +988,13 @@ where
                 ));
             }
         };
+        let (next, b) = next;
         kappa_prev = kappa;
+        // Also at the last sample: a judge may refuse a sample (a folding centre path).
+        (kappa, speed) = target
+            .bend(path, &next, &mut hints)
+            .map_err(|e| err(next.t, e))?;
+        a = b;
         sink.put(index, &next);
         count += 1;
         cur = next;

@@ -68,8 +68,9 @@ impl ToolSetup {
     }
 }
 
-/// The tool-centre path at one sample.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// The tool-centre path at one sample. (`Default`: every field zero or `None`, a placeholder
+/// for output arrays, not a valid point.)
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct CentrePoint {
     /// Cutter-location point: on the axis, in the plane of the corner-circle centres (a
     /// ball's centre) (host length unit).
@@ -95,6 +96,17 @@ pub struct CentrePoint {
     /// Angular rate of the axis per unit length of the centre path, |ω × a| / (ds_c/ds)
     /// (radians/length).
     pub axis_rate: f64,
+}
+
+/// The cutter-location point CL = c + r n_t + R e at the frame `f` (see the module docs):
+/// the same point as [`CentrePoint::centre`], from the frame alone (second-order jets), for
+/// hosts and samplers that need the position only.
+///
+/// Errors: those of [`ToolSetup::validate`] and of the tool axis.
+pub fn centre_of_frame(f: &DarbouxFrame, setup: &ToolSetup) -> Result<Vec3> {
+    setup.validate()?;
+    let (d, _, _) = offset_and_axis(f, setup)?;
+    Ok(f.point + (f.t * d.x + f.b * d.y + f.n * d.z))
 }
 
 /// The tool-centre path at a sample with frame `f` (from the second-order path) and the

@@ -20,6 +20,7 @@
 
 use super::centre::CentrePoint;
 use crate::error::{Result, StrakeError};
+use crate::paths::curve_on_surface::SampleError;
 
 /// Machine limits for the feed on the tool-centre path.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -59,9 +60,10 @@ impl CentreFeedLimits {
 }
 
 /// Which limit decides the feed.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum FeedBound {
     /// The programmed feed.
+    #[default]
     Programmed = 0,
     /// The acceleration limit.
     Acceleration = 1,
@@ -71,8 +73,9 @@ pub enum FeedBound {
     AngularSpeed = 3,
 }
 
-/// The feed allowed at a sample of the centre path, and what limits it.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// The feed allowed at a sample of the centre path, and what limits it. (`Default`: zeros, a
+/// placeholder for output arrays.)
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct CentreFeed {
     /// The highest feed of the cutter-location point: the least of the bounds below.
     pub feed: f64,
@@ -138,4 +141,36 @@ pub fn centre_feed(p: &CentrePoint, limits: &CentreFeedLimits) -> Result<CentreF
         angular_feed: ang,
         contact_feed: feed / p.speed_ratio,
     })
+}
+
+/// [`centre_feed`] at every point of a centre path (`points`, e.g. from
+/// [`super::centre::centre_path_at`] at the parameters `ts`) into `out` (same length).
+///
+/// Errors, naming the sample (index and its t from `ts`): those of [`centre_feed`]; lengths
+/// that differ are refused (`InvalidArgument`, no sample). Stops at the first failing sample
+/// (`out` is then partly written); the limits are checked before any sample.
+pub fn centre_feed_path(
+    points: &[CentrePoint],
+    ts: &[f64],
+    limits: &CentreFeedLimits,
+    out: &mut [CentreFeed],
+) -> std::result::Result<(), SampleError> {
+    let whole = |error| SampleError {
+        index: 0,
+        t: f64::NAN,
+        error,
+    };
+    if points.len() != out.len() || ts.len() != out.len() {
+        return Err(whole(StrakeError::InvalidArgument(format!(
+            "{} centre points, {} parameters, room for {} feeds: need equal counts",
+            points.len(),
+            ts.len(),
+            out.len()
+        ))));
+    }
+    limits.validate().map_err(whole)?;
+    for (index, ((p, &t), o)) in points.iter().zip(ts).zip(out.iter_mut()).enumerate() {
+        *o = centre_feed(p, limits).map_err(|error| SampleError { index, t, error })?;
+    }
+    Ok(())
 }

@@ -16,7 +16,10 @@
 //! direction itself).
 
 pub mod centre;
+pub mod chordal;
 pub mod feed;
 
+pub use centre::centre_of_frame;
 pub use centre::{CentrePoint, FOLD_LIMIT, ToolSetup, centre_path_at, centre_point};
-pub use feed::{CentreFeed, CentreFeedLimits, FeedBound, centre_feed};
+pub use chordal::sample_chordal_centre;
+pub use feed::{CentreFeed, CentreFeedLimits, FeedBound, centre_feed, centre_feed_path};
