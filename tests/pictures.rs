@@ -205,10 +205,20 @@ fn hex(c: plotters::style::RGBColor) -> String {
 
 /// The shaded intervals of a panel, as arc lengths read back from the picture.
 fn shaded(svg: &Svg, p: &Axes) -> Vec<(f64, f64)> {
-    let fill = hex(plots::VIOLATION_FILL);
+    shaded_with(svg, p, plots::VIOLATION_FILL, plots::VIOLATION_OPACITY)
+}
+
+/// The same, for a shading of another fill and opacity.
+fn shaded_with(
+    svg: &Svg,
+    p: &Axes,
+    fill: plotters::style::RGBColor,
+    opacity: f64,
+) -> Vec<(f64, f64)> {
+    let fill = hex(fill);
     svg.rects
         .iter()
-        .filter(|r| r.0 == fill && (r.1 - plots::VIOLATION_OPACITY).abs() < 1e-9)
+        .filter(|r| r.0 == fill && (r.1 - opacity).abs() < 1e-9)
         // Legend swatches are 16 px high; the shading spans the plotting area.
         .filter(|r| r.5 > 40.0 && r.3 >= p.top && r.3 + r.5 <= p.bottom)
         .map(|r| ((r.2 - p.x.0) / p.x.1, (r.2 + r.4 - p.x.0) / p.x.1))
@@ -491,7 +501,8 @@ fn checks_along_the_pass_shade_every_violation_at_its_arc_lengths() {
         "programmed feed 15000 mm/min",
         "the ball gouges",
         "scallop above the limit",
-        "feed held below the programmed feed",
+        "programmed feed above the contact-path limit",
+        "feed limit on the contact path",
         "k1 (largest, concave > 0)",
         "k2 (smallest)",
     ] {
@@ -538,18 +549,208 @@ fn checks_along_the_pass_shade_every_violation_at_its_arc_lengths() {
         &along(&pass.feed, 60.0),
         &p[2],
     );
-    // With the tool centre's feed, a second series and its legend appear.
-    let centre: Vec<f64> = pass.feed.iter().map(|f| 0.9 * f).collect();
-    pass.centre_feed = Some(centre);
-    let svg = read(&plots::pass_checks(&pass).unwrap());
-    svg.has_text("feed of the tool centre");
+    // Without the tool-centre feed lines, neither its series nor its shading appear.
     assert!(
+        !svg.texts
+            .iter()
+            .any(|t| t.content.contains("tool-centre path"))
+    );
+    assert!(
+        shaded_with(
+            &svg,
+            &p[2],
+            plots::CENTRE_VIOLATION_FILL,
+            plots::CENTRE_VIOLATION_OPACITY
+        )
+        .is_empty()
+    );
+    // With them: the centre-path limit as a dashed series and its own shading. The made-up
+    // limit is 250 + 0.5 min(|s - 100| - 20, 185 - s) mm/s against a programmed 250 mm/s, so
+    // the programmed feed exceeds it exactly on (80, 120) and (185, 200] (the last sample);
+    // the excess is linear in s between the samples next to each crossing (s = 80, 120 and
+    // 185 are samples where it is 0), so the linearly interpolated ends are exact.
+    let centre: Vec<f64> = pass
+        .samples
+        .iter()
+        .map(|x| 250.0 + 0.5 * ((x.s - 100.0).abs() - 20.0).min(185.0 - x.s))
+        .collect();
+    pass.centre_feed = Some(centre.clone());
+    let svg = read(&plots::pass_checks(&pass).unwrap());
+    svg.has_text("feed limit on the tool-centre path");
+    svg.has_text("programmed feed above the tool-centre-path limit");
+    let p = panels(&svg);
+    assert_eq!(p.len(), 3);
+    let want = [
+        stretch("centre", 80.0, 120.0),
+        stretch("centre", 185.0, 200.0),
+    ];
+    same_stretches(
+        "centre feed",
+        &shaded_with(
+            &svg,
+            &p[2],
+            plots::CENTRE_VIOLATION_FILL,
+            plots::CENTRE_VIOLATION_OPACITY,
+        ),
+        &want.iter().collect::<Vec<_>>(),
+        &p[2],
+    );
+    // The contact path's intervals are still there, in their own fill.
+    same_stretches(
+        "feed",
+        &shaded(&svg, &p[2]),
+        &kinds(&pass.stretches, "feed"),
+        &p[2],
+    );
+    // Each centre interval has dashed ends at its arc lengths.
+    for s in [80.0, 120.0, 185.0, 200.0] {
+        let x = p[2].x.0 + p[2].x.1 * s;
+        let dashes = svg
+            .lines
+            .iter()
+            .filter(|l| l.0 == hex(plots::CENTRE_VIOLATION_EDGE) && l.1 == 2.0)
+            .filter(|l| {
+                l.2.iter()
+                    .all(|q| (q.0 - x).abs() <= 1.5 && q.1 >= p[2].top && q.1 <= p[2].bottom)
+            })
+            .count();
+        assert!(dashes >= 5, "no dashed end of a centre interval at s = {s}");
+    }
+    // The centre-path limit is drawn dashed at its values (mm/min), over the whole pass.
+    let data = along(&centre, 60.0);
+    let on_data = dashes_on(&svg, plots::OKABE_ITO[1], 3.0, &data, &p[2]);
+    assert!(on_data > 20, "centre series: {on_data} dashes");
+}
+
+/// The dashes of a dashed series (polylines of a colour and width in a panel) lie on the
+/// data's line: each dash point within 1.5 px of the linear interpolation of the data, and the
+/// dashes span the data's arc lengths. Returns the number of dashes.
+#[track_caller]
+fn dashes_on(
+    svg: &Svg,
+    colour: plotters::style::RGBColor,
+    width: f64,
+    data: &[(f64, f64)],
+    p: &Axes,
+) -> usize {
+    let at = |x: f64| -> f64 {
+        let k = data
+            .windows(2)
+            .position(|w| x >= w[0].0 && x <= w[1].0)
+            .unwrap_or_else(|| panic!("dash at s = {x} off the data"));
+        let (a, b) = (data[k], data[k + 1]);
+        a.1 + (x - a.0) / (b.0 - a.0) * (b.1 - a.1)
+    };
+    let c = hex(colour);
+    let boxes = legend_boxes(svg);
+    let in_legend = |q: &(f64, f64)| {
+        boxes
+            .iter()
+            .any(|b| q.0 >= b.0 && q.0 <= b.0 + b.2 && q.1 >= b.1 && q.1 <= b.1 + b.3)
+    };
+    let dashes: Vec<&Line> = svg
+        .lines
+        .iter()
+        .filter(|l| l.0 == c && l.1 == width && !l.2.iter().any(in_legend))
+        .filter(|l| {
+            l.2.iter()
+                .all(|q| q.1 >= p.top && q.1 <= p.bottom && q.0 >= p.x.0 - 1.0)
+        })
+        .collect();
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for l in &dashes {
+        for &(px, py) in &l.2 {
+            let s = ((px - p.x.0) / p.x.1).clamp(data[0].0, data[data.len() - 1].0);
+            let want = p.y.0 + p.y.1 * at(s);
+            // A dash of a steep stretch: its end is within 1.5 px of the line in x or in y.
+            let near = (py - want).abs() <= 1.5
+                || [-1.5, 1.5].iter().any(|d: &f64| {
+                    let s2 = ((px + d - p.x.0) / p.x.1).clamp(data[0].0, data[data.len() - 1].0);
+                    let w2 = p.y.0 + p.y.1 * at(s2);
+                    (py - want) * (py - w2) <= 0.0
+                });
+            assert!(
+                near,
+                "dash point ({px}, {py}) at s = {s:.2} off the data (y = {want:.1})"
+            );
+            lo = lo.min(s);
+            hi = hi.max(s);
+        }
+    }
+    let span = data[data.len() - 1].0 - data[0].0;
+    assert!(
+        lo - data[0].0 < 0.03 * span && data[data.len() - 1].0 - hi < 0.03 * span,
+        "the dashes span s = {lo} .. {hi} only"
+    );
+    dashes.len()
+}
+
+/// Legend boxes: (x, y, width, height) of the white boxes behind legends.
+fn legend_boxes(svg: &Svg) -> Vec<(f64, f64, f64, f64)> {
+    svg.rects
+        .iter()
+        .filter(|r| r.0 == "#FFFFFF" && (r.1 - 0.92).abs() < 1e-9)
+        .map(|r| (r.2, r.3, r.4, r.5))
+        .collect()
+}
+
+/// No point of a drawn series (a polyline of more than 2 points, 3 px or wider) lies inside a
+/// legend box: legends hide no data.
+#[track_caller]
+fn legends_hide_no_data(what: &str, svg: &Svg) {
+    let boxes = legend_boxes(svg);
+    assert!(!boxes.is_empty(), "{what}: no legend");
+    for b in &boxes {
+        for l in svg.lines.iter().filter(|l| l.2.len() > 2 && l.1 >= 3.0) {
+            for q in &l.2 {
+                assert!(
+                    !(q.0 > b.0 && q.0 < b.0 + b.2 && q.1 > b.1 && q.1 < b.1 + b.3),
+                    "{what}: a point {q:?} of a {} line under the legend {b:?}",
+                    l.0
+                );
+            }
+        }
+    }
+}
+
+#[test]
+fn legend_swatches_match_their_series_and_hide_no_data() {
+    let pass = small_pass();
+    let svg = read(&plots::pass_checks(&pass).unwrap());
+    legends_hide_no_data("pass checks", &svg);
+    // The row of a label: its swatch is the polylines left of the text, within 3 px of its y.
+    let swatch = |label: &str, colour: plotters::style::RGBColor| -> Vec<&Line> {
+        let t = svg
+            .texts
+            .iter()
+            .find(|t| t.content == label)
+            .unwrap_or_else(|| panic!("no legend label {label}"));
         svg.lines
             .iter()
-            .filter(|l| l.0 == hex(plots::OKABE_ITO[1]))
-            .count()
-            > 10
-    );
+            .filter(|l| l.0 == hex(colour) && l.2.len() == 2)
+            .filter(|l| {
+                l.2.iter()
+                    .all(|q| (q.1 - t.y).abs() <= 3.0 && q.0 < t.x && q.0 > t.x - 60.0)
+            })
+            .collect()
+    };
+    // k1 is solid: one stroke; k2 is dashed: several, of the series' width.
+    let k1 = swatch("k1 (largest, concave > 0)", plots::OKABE_ITO[5]);
+    assert_eq!(k1.len(), 1);
+    let k2 = swatch("k2 (smallest)", plots::OKABE_ITO[3]);
+    assert!(k2.len() >= 3, "k2's swatch is not dashed: {k2:?}");
+    assert!(k2.iter().all(|l| l.1 == 3.0));
+    // The limit line is dashed, and so is its swatch.
+    assert!(swatch("1/r of the ball, r = 8 mm", plots::LIMIT_COLOUR).len() >= 3);
+    for (name, pic) in [
+        ("curvatures", plots::pass_curvatures(&pass).unwrap()),
+        ("wing", {
+            let (wing, course) = small_wing();
+            plots::wing_course(&wing, &course).unwrap()
+        }),
+    ] {
+        legends_hide_no_data(name, &read(&pic));
+    }
 }
 
 /// The cividis colour of x in [0, 1], interpolated from the published table (written here

@@ -44,6 +44,13 @@ pub const OKABE_ITO: [RGBColor; 8] = [
 pub const VIOLATION_FILL: RGBColor = OKABE_ITO[6];
 /// Its opacity.
 pub const VIOLATION_OPACITY: f64 = 0.2;
+/// The fill of an interval where the programmed feed exceeds the tool-centre path's limit
+/// (sky blue, see-through, with dashed ends in [`CENTRE_VIOLATION_EDGE`]).
+pub const CENTRE_VIOLATION_FILL: RGBColor = OKABE_ITO[2];
+/// Its opacity.
+pub const CENTRE_VIOLATION_OPACITY: f64 = 0.3;
+/// The colour of its dashed ends (blue).
+pub const CENTRE_VIOLATION_EDGE: RGBColor = OKABE_ITO[5];
 /// The colour of a limit line (dashed).
 pub const LIMIT_COLOUR: RGBColor = RGBColor(90, 90, 90);
 /// The colour of a path drawn on a surface.
@@ -224,20 +231,244 @@ fn range(values: impl IntoIterator<Item = f64>) -> (f64, f64) {
 /// is dashed.
 type Series<'a> = (&'a str, Vec<(f64, f64)>, RGBColor, bool);
 
+/// Intervals of a panel shaded in one style: full-height see-through rectangles of `fill`,
+/// with dashed vertical lines of `edge` at their ends when set (so two kinds of interval
+/// differ in more than hue).
+pub struct Shading<'a> {
+    /// The intervals.
+    pub stretches: Vec<Stretch>,
+    /// The fill colour.
+    pub fill: RGBColor,
+    /// Its opacity.
+    pub opacity: f64,
+    /// The colour of the dashed ends, if drawn.
+    pub edge: Option<RGBColor>,
+    /// What a shaded interval means (the legend's label).
+    pub label: &'a str,
+}
+
+impl<'a> Shading<'a> {
+    /// The usual violation shading (vermillion, no edges) of `stretches`.
+    fn violations(stretches: Vec<&Stretch>, label: &'a str) -> Shading<'a> {
+        Shading {
+            stretches: stretches.into_iter().cloned().collect(),
+            fill: VIOLATION_FILL,
+            opacity: VIOLATION_OPACITY,
+            edge: None,
+            label,
+        }
+    }
+}
+
 /// One panel of values against arc length: the series (label, values, colour, dashed?), the
-/// stretches to shade, and a limit line (label, value).
+/// intervals to shade, and limit lines (label, value). The legend goes into an empty corner
+/// of the plotting area chosen from the data, or above the data when no corner is empty.
 struct Panel<'a> {
     y_label: &'a str,
     series: Vec<Series<'a>>,
-    shaded: Vec<&'a Stretch>,
+    shaded: Vec<Shading<'a>>,
     limits: Vec<(String, f64)>,
     y_range: Option<(f64, f64)>,
-    /// What a shaded interval means.
-    shaded_label: &'a str,
-    legend: SeriesLabelPosition,
     /// Arc lengths where the path crosses a knot line of the surface (drawn as thin dotted
     /// vertical lines: derivatives of the surface may jump there).
     knots: Vec<f64>,
+}
+
+/// How a legend entry shows its series: the same colour, width and dashing as the series.
+#[derive(Debug, Clone, Copy)]
+pub enum Swatch {
+    /// A line (dashed or solid) of a colour and width.
+    Line {
+        /// Colour.
+        colour: RGBColor,
+        /// Width (px).
+        width: u32,
+        /// Dashed as the series is.
+        dashed: bool,
+    },
+    /// A shaded interval: a see-through box, with dashed sides when the shading has edges.
+    Fill {
+        /// Colour.
+        colour: RGBColor,
+        /// Opacity.
+        opacity: f64,
+        /// The colour of the dashed ends, if any.
+        edge: Option<RGBColor>,
+    },
+    /// A thin dotted vertical mark (knot crossings).
+    Mark {
+        /// Colour.
+        colour: RGBColor,
+    },
+}
+
+/// One entry of a legend.
+pub type LegendItem = (String, Swatch);
+
+const LEGEND_ROW: i32 = 30;
+const LEGEND_SWATCH: i32 = 40;
+
+/// A legend's size in pixels (the text width estimated from the characters: SVG text has no
+/// metrics until a viewer renders it; 0.56 em per character is generous for sans-serif).
+fn legend_size(items: &[LegendItem]) -> (i32, i32) {
+    let chars = items.iter().map(|i| i.0.chars().count()).max().unwrap_or(0);
+    let text = (chars as f64 * 0.56 * TICK_PX as f64).ceil() as i32;
+    (
+        12 + LEGEND_SWATCH + 10 + text + 12,
+        10 + LEGEND_ROW * items.len() as i32 + 6,
+    )
+}
+
+/// Dashes from `a` to `b` (pixels), `on` drawn and `off` skipped.
+fn dashes(a: (i32, i32), b: (i32, i32), on: f64, off: f64) -> Vec<[(i32, i32); 2]> {
+    let (dx, dy) = ((b.0 - a.0) as f64, (b.1 - a.1) as f64);
+    let len = dx.hypot(dy);
+    let mut out = Vec::new();
+    let mut t = 0.0;
+    while t < len {
+        let e = (t + on).min(len);
+        let at = |d: f64| {
+            (
+                a.0 + (dx * d / len).round() as i32,
+                a.1 + (dy * d / len).round() as i32,
+            )
+        };
+        out.push([at(t), at(e)]);
+        t = e + off;
+    }
+    out
+}
+
+/// Draws a legend with its top-left corner at `(x, y)` (pixels of `area`): a white box, and
+/// one row per item, its swatch drawn like its series.
+fn draw_legend<DB: DrawingBackend>(
+    area: &DrawingArea<DB, Shift>,
+    (x, y): (i32, i32),
+    items: &[LegendItem],
+) -> Result<(), String> {
+    if items.is_empty() {
+        return Ok(());
+    }
+    let e = |e: DrawingAreaErrorKind<DB::ErrorType>| format!("drawing failed: {e:?}");
+    let (w, h) = legend_size(items);
+    area.draw(&Rectangle::new(
+        [(x, y), (x + w, y + h)],
+        WHITE.mix(0.92).filled(),
+    ))
+    .map_err(e)?;
+    area.draw(&Rectangle::new(
+        [(x, y), (x + w, y + h)],
+        RGBColor(150, 150, 150).stroke_width(1),
+    ))
+    .map_err(e)?;
+    for (k, (label, swatch)) in items.iter().enumerate() {
+        let cy = y + 10 + LEGEND_ROW * k as i32 + LEGEND_ROW / 2;
+        let (x0, x1) = (x + 12, x + 12 + LEGEND_SWATCH);
+        match *swatch {
+            Swatch::Line {
+                colour,
+                width,
+                dashed,
+            } => {
+                let style = colour.stroke_width(width);
+                if dashed {
+                    for d in dashes((x0, cy), (x1, cy), 8.0, 5.0) {
+                        area.draw(&PathElement::new(d.to_vec(), style)).map_err(e)?;
+                    }
+                } else {
+                    area.draw(&PathElement::new(vec![(x0, cy), (x1, cy)], style))
+                        .map_err(e)?;
+                }
+            }
+            Swatch::Fill {
+                colour,
+                opacity,
+                edge,
+            } => {
+                area.draw(&Rectangle::new(
+                    [(x0, cy - 9), (x1, cy + 9)],
+                    colour.mix(opacity).filled(),
+                ))
+                .map_err(e)?;
+                if let Some(c) = edge {
+                    for xe in [x0, x1] {
+                        for d in dashes((xe, cy - 9), (xe, cy + 9), 4.0, 3.0) {
+                            area.draw(&PathElement::new(d.to_vec(), c.stroke_width(2)))
+                                .map_err(e)?;
+                        }
+                    }
+                }
+            }
+            Swatch::Mark { colour } => {
+                let xm = (x0 + x1) / 2;
+                for d in dashes((xm, cy - 11), (xm, cy + 11), 3.0, 4.0) {
+                    area.draw(&PathElement::new(d.to_vec(), colour.stroke_width(1)))
+                        .map_err(e)?;
+                }
+            }
+        }
+        area.draw(&Text::new(
+            label.clone(),
+            (x1 + 10, cy),
+            TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                plotters::style::text_anchor::Pos::new(
+                    plotters::style::text_anchor::HPos::Left,
+                    plotters::style::text_anchor::VPos::Center,
+                ),
+            ),
+        ))
+        .map_err(e)?;
+    }
+    Ok(())
+}
+
+/// The corner of a `w` x `h` pixel plotting area for a `box_w` x `box_h` legend that covers
+/// the fewest of the drawn points `busy` (pixels; the first corner of upper right, upper left,
+/// lower right, lower left with the fewest), and how many it covers.
+fn emptiest_corner(
+    (w, h): (i32, i32),
+    (box_w, box_h): (i32, i32),
+    busy: &[(f64, f64)],
+) -> ((i32, i32), usize) {
+    let inset = 8;
+    let corners = [
+        (w - inset - box_w, inset),
+        (inset, inset),
+        (w - inset - box_w, h - inset - box_h),
+        (inset, h - inset - box_h),
+    ];
+    let covered = |(x, y): (i32, i32)| {
+        let pad = 6.0;
+        busy.iter()
+            .filter(|p| {
+                p.0 >= (x as f64 - pad)
+                    && p.0 <= (x + box_w) as f64 + pad
+                    && p.1 >= y as f64 - pad
+                    && p.1 <= (y + box_h) as f64 + pad
+            })
+            .count()
+    };
+    corners
+        .iter()
+        .map(|&c| (c, covered(c)))
+        .min_by_key(|c| c.1)
+        .expect("four corners")
+}
+
+/// Points every few pixels along a polyline given in pixels (so a legend box that a line
+/// crosses between its samples counts as covering it).
+fn densify(line: &[(f64, f64)], step: f64) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    for w in line.windows(2) {
+        let (a, b) = (w[0], w[1]);
+        let n = ((b.0 - a.0).hypot(b.1 - a.1) / step).ceil().max(1.0) as usize;
+        for k in 0..n {
+            let f = k as f64 / n as f64;
+            out.push((a.0 + f * (b.0 - a.0), a.1 + f * (b.1 - a.1)));
+        }
+    }
+    out.extend(line.last().copied());
+    out
 }
 
 /// The colour of the knot-crossing marks.
@@ -298,7 +529,7 @@ fn draw_panel(
     length: f64,
     panel: &Panel<'_>,
 ) -> Result<(), String> {
-    let (lo, mut hi) = panel.y_range.unwrap_or_else(|| {
+    let (lo, hi) = panel.y_range.unwrap_or_else(|| {
         range(
             panel
                 .series
@@ -307,21 +538,78 @@ fn draw_panel(
                 .chain(panel.limits.iter().map(|l| l.1)),
         )
     });
-    // Room above the data for a legend at the top, so it hides nothing.
-    if matches!(
-        panel.legend,
-        SeriesLabelPosition::UpperLeft
-            | SeriesLabelPosition::UpperMiddle
-            | SeriesLabelPosition::UpperRight
-    ) {
-        hi += 0.45 * (hi - lo);
+    let mut items: Vec<LegendItem> = Vec::new();
+    if !panel.knots.is_empty() {
+        items.push((
+            "crosses a knot line".to_string(),
+            Swatch::Mark {
+                colour: KNOT_COLOUR,
+            },
+        ));
     }
-    let mut chart = ChartBuilder::on(area)
-        .caption(caption, (FONT, LABEL_PX + 2))
-        .margin(12)
-        .margin_right(28)
-        .x_label_area_size(56)
-        .y_label_area_size(96)
+    for sh in panel.shaded.iter().filter(|s| !s.stretches.is_empty()) {
+        items.push((
+            sh.label.to_string(),
+            Swatch::Fill {
+                colour: sh.fill,
+                opacity: sh.opacity,
+                edge: sh.edge,
+            },
+        ));
+    }
+    for (label, _) in &panel.limits {
+        items.push((
+            label.clone(),
+            Swatch::Line {
+                colour: LIMIT_COLOUR,
+                width: 2,
+                dashed: true,
+            },
+        ));
+    }
+    for (label, _, c, dashed) in &panel.series {
+        items.push((
+            label.to_string(),
+            Swatch::Line {
+                colour: *c,
+                width: 3,
+                dashed: *dashed,
+            },
+        ));
+    }
+    let area = area.titled(caption, (FONT, LABEL_PX + 2)).map_err(err)?;
+    let (margin, margin_right, x_area, y_area) = (12, 28, 56, 96);
+    let (aw, ah) = area.dim_in_pixel();
+    let plot = (
+        aw as i32 - margin - margin_right - y_area,
+        ah as i32 - 2 * margin - x_area,
+    );
+    // The drawn lines in pixels of the plotting area, for a y range.
+    let busy = |(w, h): (i32, i32), hi: f64| -> Vec<(f64, f64)> {
+        let px = |p: &(f64, f64)| (p.0 / length * w as f64, (hi - p.1) / (hi - lo) * h as f64);
+        let mut out = Vec::new();
+        for (_, v, _, _) in &panel.series {
+            let line: Vec<(f64, f64)> = v.iter().filter(|p| p.1.is_finite()).map(px).collect();
+            out.extend(densify(&line, 4.0));
+        }
+        for (_, value) in &panel.limits {
+            out.extend(densify(&[px(&(0.0, *value)), px(&(length, *value))], 4.0));
+        }
+        out
+    };
+    let size = legend_size(&items);
+    // No empty corner: room above the data for the legend, which then hides nothing.
+    let hi = if emptiest_corner(plot, size, &busy(plot, hi)).1 == 0 {
+        hi
+    } else {
+        let room = (size.1 + 16) as f64;
+        hi + room * (hi - lo) / (plot.1 as f64 - room).max(1.0)
+    };
+    let mut chart = ChartBuilder::on(&area)
+        .margin(margin as u32)
+        .margin_right(margin_right as u32)
+        .x_label_area_size(x_area as u32)
+        .y_label_area_size(y_area as u32)
         .build_cartesian_2d(0.0..length, lo..hi)
         .map_err(err)?;
     chart
@@ -338,8 +626,8 @@ fn draw_panel(
         .y_label_formatter(&tick_format(hi - lo))
         .draw()
         .map_err(err)?;
-    for (k, &s) in panel.knots.iter().enumerate() {
-        let series = chart
+    for &s in &panel.knots {
+        chart
             .draw_series(DashedLineSeries::new(
                 [(s, lo), (s, hi)],
                 3,
@@ -347,30 +635,31 @@ fn draw_panel(
                 KNOT_COLOUR.stroke_width(1),
             ))
             .map_err(err)?;
-        if k == 0 {
-            series.label("crosses a knot line").legend(|(x, y)| {
-                PathElement::new(
-                    vec![(x + 14, y - 9), (x + 14, y + 9)],
-                    KNOT_COLOUR.stroke_width(2),
-                )
-            });
+    }
+    for sh in &panel.shaded {
+        let fill = sh.fill.mix(sh.opacity).filled();
+        for st in &sh.stretches {
+            chart
+                .draw_series(std::iter::once(Rectangle::new(
+                    [(st.start, lo), (st.end, hi)],
+                    fill,
+                )))
+                .map_err(err)?;
+            if let Some(c) = sh.edge {
+                for x in [st.start, st.end] {
+                    chart
+                        .draw_series(DashedLineSeries::new(
+                            [(x, lo), (x, hi)],
+                            6,
+                            4,
+                            c.stroke_width(2),
+                        ))
+                        .map_err(err)?;
+                }
+            }
         }
     }
-    let fill = VIOLATION_FILL.mix(VIOLATION_OPACITY).filled();
-    for (k, st) in panel.shaded.iter().enumerate() {
-        let series = chart
-            .draw_series(std::iter::once(Rectangle::new(
-                [(st.start, lo), (st.end, hi)],
-                fill,
-            )))
-            .map_err(err)?;
-        if k == 0 {
-            series
-                .label(panel.shaded_label)
-                .legend(move |(x, y)| Rectangle::new([(x, y - 8), (x + 28, y + 8)], fill));
-        }
-    }
-    for (label, value) in &panel.limits {
+    for (_, value) in &panel.limits {
         chart
             .draw_series(DashedLineSeries::new(
                 [(0.0, *value), (length, *value)],
@@ -378,35 +667,25 @@ fn draw_panel(
                 6,
                 LIMIT_COLOUR.stroke_width(2),
             ))
-            .map_err(err)?
-            .label(label.clone())
-            .legend(|(x, y)| {
-                PathElement::new(vec![(x, y), (x + 28, y)], LIMIT_COLOUR.stroke_width(2))
-            });
+            .map_err(err)?;
     }
-    for (label, values, c, dashed) in &panel.series {
+    for (_, values, c, dashed) in &panel.series {
         let style = c.stroke_width(3);
         if *dashed {
             chart
                 .draw_series(DashedLineSeries::new(values.iter().copied(), 8, 5, style))
-                .map_err(err)?
+                .map_err(err)?;
         } else {
             chart
                 .draw_series(LineSeries::new(values.iter().copied(), style))
-                .map_err(err)?
+                .map_err(err)?;
         }
-        .label(*label)
-        .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], style));
     }
-    chart
-        .configure_series_labels()
-        .position(panel.legend.clone())
-        .background_style(WHITE.mix(0.85))
-        .border_style(RGBColor(150, 150, 150))
-        .label_font((FONT, TICK_PX))
-        .margin(8)
-        .draw()
-        .map_err(err)?;
+    let plotting = chart.plotting_area().strip_coord_spec();
+    let (pw, ph) = plotting.dim_in_pixel();
+    let dims = (pw as i32, ph as i32);
+    let (corner, _) = emptiest_corner(dims, size, &busy(dims, hi));
+    draw_legend(&plotting, corner, &items)?;
     Ok(())
 }
 
@@ -457,8 +736,6 @@ pub fn pass_curvatures(pass: &raw::MillPass) -> Result<String, String> {
             shaded: vec![],
             limits: vec![],
             y_range: None,
-            shaded_label: "",
-            legend: SeriesLabelPosition::UpperRight,
             knots: knots.clone(),
         };
         draw_panel(
@@ -513,11 +790,9 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                     true,
                 ),
             ],
-            shaded: kinds("gouge"),
+            shaded: vec![Shading::violations(kinds("gouge"), "the ball gouges")],
             limits: vec![(format!("1/r of the ball, r = {r} mm"), 1.0 / r)],
             y_range: None,
-            shaded_label: "the ball gouges",
-            legend: SeriesLabelPosition::UpperMiddle,
             knots: knots.clone(),
         };
         draw_panel(
@@ -536,14 +811,15 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
         let scallop_panel = Panel {
             y_label: "scallop height (mm)",
             series: vec![("scallop height", scallop, OKABE_ITO[5], false)],
-            shaded: kinds("scallop"),
+            shaded: vec![Shading::violations(
+                kinds("scallop"),
+                "scallop above the limit",
+            )],
             limits: vec![(
                 format!("limit {} mm", pass.scallop_limit),
                 pass.scallop_limit,
             )],
             y_range: Some((lo.max(0.0), hi)),
-            shaded_label: "scallop above the limit",
-            legend: SeriesLabelPosition::LowerMiddle,
             knots: knots.clone(),
         };
         draw_panel(
@@ -560,30 +836,39 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                 .collect()
         };
         let mut series = vec![(
-            "feed the machine allows at the contact point",
+            "feed limit on the contact path",
             per_min(&pass.feed),
             OKABE_ITO[5],
             false,
         )];
+        let mut shaded = vec![Shading::violations(
+            kinds("feed"),
+            "programmed feed above the contact-path limit",
+        )];
         if let Some(centre) = &pass.centre_feed {
             series.push((
-                "feed of the tool centre",
+                "feed limit on the tool-centre path",
                 per_min(centre),
                 OKABE_ITO[1],
                 true,
             ));
+            shaded.push(Shading {
+                stretches: centre_feed_violations(pass)?,
+                fill: CENTRE_VIOLATION_FILL,
+                opacity: CENTRE_VIOLATION_OPACITY,
+                edge: Some(CENTRE_VIOLATION_EDGE),
+                label: "programmed feed above the tool-centre-path limit",
+            });
         }
         let feed = Panel {
             y_label: "feed (mm/min)",
             series,
-            shaded: kinds("feed"),
+            shaded,
             limits: vec![(
                 format!("programmed feed {:.0} mm/min", 60.0 * pass.programmed_feed),
                 60.0 * pass.programmed_feed,
             )],
             y_range: None,
-            shaded_label: "feed held below the programmed feed",
-            legend: SeriesLabelPosition::LowerMiddle,
             knots: knots.clone(),
         };
         draw_panel(
@@ -595,6 +880,42 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
         root.present().map_err(err)?;
     }
     Ok(svg)
+}
+
+/// A sample seen by strake's interval finder: its arc length (the raw samples carry no curve
+/// parameter here, so t is the arc length too).
+struct AtArcLength(f64);
+
+impl strake::checks::PathPosition for AtArcLength {
+    fn t(&self) -> f64 {
+        self.0
+    }
+    fn arc_length(&self) -> f64 {
+        self.0
+    }
+}
+
+/// Where the programmed feed exceeds the feed limit on the tool-centre path (empty without
+/// those raw lines): the maximal runs of samples with `programmed - centre > 0`, their ends
+/// interpolated linearly between samples, by strake's own rule for violation intervals
+/// (`strake::checks::violations`, the rule the demo's other intervals come from).
+pub fn centre_feed_violations(pass: &raw::MillPass) -> Result<Vec<Stretch>, String> {
+    let Some(centre) = &pass.centre_feed else {
+        return Ok(Vec::new());
+    };
+    let at: Vec<AtArcLength> = pass.samples.iter().map(|s| AtArcLength(s.s)).collect();
+    let excess: Vec<f64> = centre.iter().map(|c| pass.programmed_feed - c).collect();
+    let mut found = Vec::new();
+    strake::checks::violations(&at, &excess, 0.0, &mut found)
+        .map_err(|e| format!("centre feed intervals: {e}"))?;
+    Ok(found
+        .iter()
+        .map(|v| Stretch {
+            kind: "centre_feed".to_string(),
+            start: v.start_arc_length,
+            end: v.end_arc_length,
+        })
+        .collect())
 }
 
 /// An orthographic view from azimuth `azimuth` and elevation `elevation` (radians), heights
@@ -1257,14 +1578,15 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 OKABE_ITO[5],
                 false,
             )],
-            shaded: kinds("steering"),
+            shaded: vec![Shading::violations(
+                kinds("steering"),
+                "steering radius too small",
+            )],
             limits: vec![(
                 format!("1/(smallest radius {:.0} mm)", course.min_radius),
                 1000.0 / course.min_radius,
             )],
             y_range: None,
-            shaded_label: "steering radius too small",
-            legend: SeriesLabelPosition::UpperLeft,
             knots: knots.clone(),
         };
         draw_panel(
@@ -1281,14 +1603,12 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 OKABE_ITO[3],
                 false,
             )],
-            shaded: kinds("twist"),
+            shaded: vec![Shading::violations(kinds("twist"), "twist rate too high")],
             limits: vec![(
                 format!("limit {:.3} rad/m", 1000.0 * course.max_twist),
                 1000.0 * course.max_twist,
             )],
             y_range: None,
-            shaded_label: "twist rate too high",
-            legend: SeriesLabelPosition::UpperLeft,
             knots: knots.clone(),
         };
         draw_panel(
