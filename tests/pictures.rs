@@ -10,7 +10,9 @@ mod c_build;
 #[path = "../examples/plots/mod.rs"]
 mod plots;
 
-use plots::raw::{Course, Demo, Grid, GridPoint, MillPass, Sample, Stretch};
+use plots::raw::{
+    Band, Course, Courses, Demo, EdgePoint, Grid, GridPoint, MillPass, Sample, Seam, Stretch,
+};
 use plots::{Shade, View};
 use std::process::Command;
 
@@ -409,6 +411,55 @@ fn small_wing() -> (Grid, Course) {
     (Grid { nu, nv, points }, course)
 }
 
+/// Three bands 50 mm wide along the span of the small wing (centre lines y = 300 + 50 k + s/20,
+/// edge samples every 100 mm), with a gap planted between courses 0 and 1 on s in [300, 650]
+/// and an overlap between courses 1 and 2 on [1000, 1500].
+fn small_courses() -> Courses {
+    let bands = (0..3)
+        .map(|k| {
+            let edge = |off: f64| -> Vec<EdgePoint> {
+                (0..=20)
+                    .map(|i| {
+                        let s = 100.0 * i as f64;
+                        let (u, v) = (100.0 + s, 300.0 + 50.0 * k as f64 + s / 20.0 + off);
+                        EdgePoint {
+                            s,
+                            u,
+                            v,
+                            p: [u, v, 60.0],
+                        }
+                    })
+                    .collect()
+            };
+            Band {
+                right: edge(-25.0),
+                left: edge(25.0),
+            }
+        })
+        .collect();
+    Courses {
+        band_width: 50.0,
+        tolerance: 0.05,
+        bands,
+        seams: vec![
+            Seam {
+                course: 0,
+                start: 300.0,
+                end: 650.0,
+                overlap: false,
+                width: 0.4,
+            },
+            Seam {
+                course: 1,
+                start: 1000.0,
+                end: 1500.0,
+                overlap: true,
+                width: 0.25,
+            },
+        ],
+    }
+}
+
 fn small_demo() -> Demo {
     let (wing, course) = small_wing();
     Demo {
@@ -416,6 +467,7 @@ fn small_demo() -> Demo {
         pass: small_pass(),
         wing,
         course,
+        courses: small_courses(),
     }
 }
 
@@ -975,12 +1027,258 @@ fn wing_course_marks_steering_and_twist_violations() {
 }
 
 #[test]
+fn wing_gaps_mark_gaps_and_overlaps_on_the_band_edges() {
+    let (wing, _) = small_wing();
+    let courses = small_courses();
+    let svg = read(&plots::wing_gaps(&wing, &courses).unwrap());
+    for t in [
+        "Planned courses side by side on the wing skin: gaps and overlaps between them",
+        "u = x along the span (mm)",
+        "v = y from the leading edge (mm)",
+        "band edge (50.0 mm band)",
+        "gap between neighbours (over 0.05 mm)",
+        "overlap of neighbours (over 0.05 mm)",
+        "arc length along the pair's first course s (mm)",
+        "courses 0 | 1",
+        "courses 1 | 2",
+        "gap up to 0.40 mm",
+        "overlap up to 0.25 mm",
+    ] {
+        svg.has_text(t);
+    }
+    // The plan: its axes from the first row of x ticks and the y ticks above it.
+    let rows = svg.x_axes();
+    assert_eq!(
+        rows.len(),
+        2,
+        "the plan and the intervals along the courses"
+    );
+    let plan = Axes {
+        x: fit(&rows[0].1),
+        y: fit(&svg.y_ticks(0.0, rows[0].0)),
+        top: 0.0,
+        bottom: rows[0].0,
+    };
+    // Equal scales: a millimetre is as long across as along (y grows upward).
+    assert!(
+        (plan.x.1 + plan.y.1).abs() <= 0.01 * plan.x.1,
+        "{:?} {:?}",
+        plan.x,
+        plan.y
+    );
+    // Every edge drawn at its (u, v).
+    let edges: Vec<&Line> = svg
+        .lines
+        .iter()
+        .filter(|l| l.0 == hex(plots::EDGE_COLOUR) && l.1 == 2.0 && l.2.len() > 2)
+        .collect();
+    assert_eq!(edges.len(), 2 * courses.bands.len());
+    for (k, band) in courses.bands.iter().enumerate() {
+        for (side, edge) in [("right", &band.right), ("left", &band.left)] {
+            let data: Vec<(f64, f64)> = edge.iter().map(|e| (e.u, e.v)).collect();
+            let drawn = edges
+                .iter()
+                .find(|l| {
+                    let (ex, ey) = (
+                        plan.x.0 + plan.x.1 * data[0].0,
+                        plan.y.0 + plan.y.1 * data[0].1,
+                    );
+                    (l.2[0].0 - ex).abs() <= 1.5 && (l.2[0].1 - ey).abs() <= 1.5
+                })
+                .unwrap_or_else(|| panic!("no {side} edge of course {k}"));
+            drawn_at(
+                &format!("{side} edge of course {k}"),
+                &drawn.2,
+                &data,
+                &plan,
+            );
+        }
+    }
+    // The gap: a solid vermillion mark on course 0's left edge from s = 300 to 650 (the edge
+    // there is v = 325 + s/20 at u = 100 + s; the end s = 650 lies between samples).
+    let gap = series(&svg, plots::GAP_COLOUR, 8.0);
+    let want: Vec<(f64, f64)> = [300.0, 400.0, 500.0, 600.0, 650.0]
+        .iter()
+        .map(|s| (100.0 + s, 325.0 + s / 20.0))
+        .collect();
+    drawn_at("gap mark", gap, &want, &plan);
+    // The overlap: dashes of blue on course 1's left edge (v = 375 + s/20), s = 1000 .. 1500.
+    let dashes: Vec<&Line> = svg
+        .lines
+        .iter()
+        .filter(|l| l.0 == hex(plots::OVERLAP_COLOUR) && l.1 == 8.0)
+        .filter(|l| l.2.iter().all(|q| q.1 < plan.bottom))
+        .filter(|l| {
+            !l.2.iter().any(|q| {
+                legend_boxes(&svg)
+                    .iter()
+                    .any(|b| q.0 >= b.0 && q.0 <= b.0 + b.2 && q.1 >= b.1 && q.1 <= b.1 + b.3)
+            })
+        })
+        .collect();
+    assert!(dashes.len() >= 5, "overlap dashes: {}", dashes.len());
+    for l in &dashes {
+        for q in &l.2 {
+            let u = (q.0 - plan.x.0) / plan.x.1;
+            let v = (q.1 - plan.y.0) / plan.y.1;
+            let s = u - 100.0;
+            assert!((999.0..=1501.0).contains(&s), "overlap dash at s = {s}");
+            assert!(
+                (v - (375.0 + s / 20.0)).abs() * plan.x.1 <= 1.5,
+                "overlap dash off the edge"
+            );
+        }
+    }
+    // The legend sits outside the plan's plotting area: below its x axis.
+    let boxes = legend_boxes(&svg);
+    assert_eq!(boxes.len(), 1);
+    assert!(
+        boxes[0].1 > rows[0].0,
+        "legend {:?} not below the plan",
+        boxes[0]
+    );
+    // Below: the intervals along each pair's first course, at their arc lengths, gaps and
+    // overlaps in their own colours, one row per pair (0 | 1 above 1 | 2).
+    let along = fit(&rows[1].1);
+    let bar = |c: plotters::style::RGBColor| -> Vec<(f64, f64, f64)> {
+        svg.rects
+            .iter()
+            .filter(|r| r.0 == hex(c) && (r.1 - 0.55).abs() < 1e-9 && r.3 > rows[0].0)
+            .map(|r| {
+                (
+                    (r.2 - along.0) / along.1,
+                    (r.2 + r.4 - along.0) / along.1,
+                    r.3 + 0.5 * r.5,
+                )
+            })
+            .collect()
+    };
+    let (g, o) = (bar(plots::GAP_COLOUR), bar(plots::OVERLAP_COLOUR));
+    assert_eq!((g.len(), o.len()), (1, 1));
+    let tol = 1.5 / along.1;
+    assert!(
+        (g[0].0 - 300.0).abs() <= tol && (g[0].1 - 650.0).abs() <= tol,
+        "{g:?}"
+    );
+    assert!(
+        (o[0].0 - 1000.0).abs() <= tol && (o[0].1 - 1500.0).abs() <= tol,
+        "{o:?}"
+    );
+    let row_of = |label: &str| svg.texts.iter().find(|t| t.content == label).unwrap().y;
+    assert!((g[0].2 - row_of("courses 0 | 1")).abs() <= 2.0);
+    assert!((o[0].2 - row_of("courses 1 | 2")).abs() <= 2.0);
+    // Fewer than two bands: refused with a message, not an empty picture.
+    let mut one = courses.clone();
+    one.bands.truncate(1);
+    one.seams.clear();
+    let e = plots::wing_gaps(&wing, &one).unwrap_err();
+    assert!(e.contains("two or more planned courses"), "{e}");
+}
+
+#[test]
+fn raw_course_edges_and_gaps_are_read() {
+    let lines = "course_edge 0 right 0 0 1 2 3 4 5\n\
+                 course_edge 0 left 0 0 1 3 3 5 5\n\
+                 course_edge 0 right 1 10 11 2 13 4 5\n\
+                 course_edge 0 left 1 10 11 3 13 5 5\n\
+                 course_edge 1 right 0 0 1 3 3 5 5\n\
+                 course_edge 1 left 0 0 1 4 3 6 5\n\
+                 course_edge 1 right 1 10 11 3 13 5 5\n\
+                 course_edge 1 left 1 10 11 4 13 6 5\n\
+                 course_gap 0 2.5 7.5 0.125\n\
+                 course_overlap 0 8 9 0.0625\n";
+    let mut demo = String::new();
+    // A minimal rest of the output, so the parse gets to the courses.
+    demo.push_str("cavity_grid_size 2 2\n");
+    for (i, j) in [(0, 0), (0, 1), (1, 0), (1, 1)] {
+        demo.push_str(&format!("cavity_grid {i} {j} 0 0 0 0 0 0 0 0 0\n"));
+    }
+    demo.push_str("wing_grid_size 2 2\n");
+    for (i, j) in [(0, 0), (0, 1), (1, 0), (1, 1)] {
+        demo.push_str(&format!("wing_grid {i} {j} 0 0 0\n"));
+    }
+    demo.push_str("mill_setup 8 0 0.02 250 0 0 0 0 0\n");
+    demo.push_str("course_setup 0 0 0 6.35 1350 0.0001\n");
+    demo.push_str("plan_setup 50.8 0 0 0 0 0.05\n");
+    for (key, n) in [("mill", 2), ("course", 2)] {
+        for i in 0..n {
+            demo.push_str(&format!("{key}_sample {i} 0 {i} 0 0 0\n"));
+            demo.push_str(&format!("{key}_frame {i} 0 0 0 0 0 0 0 1 0 0 0 0 0\n"));
+        }
+    }
+    let d = plots::raw::parse(&(demo.clone() + lines)).unwrap();
+    let c = &d.courses;
+    assert_eq!((c.band_width, c.tolerance), (50.8, 0.05));
+    assert_eq!(c.bands.len(), 2);
+    assert_eq!(
+        c.bands[1].left[1],
+        EdgePoint {
+            s: 10.0,
+            u: 11.0,
+            v: 4.0,
+            p: [13.0, 6.0, 5.0]
+        }
+    );
+    assert_eq!(
+        c.seams,
+        vec![
+            Seam {
+                course: 0,
+                start: 2.5,
+                end: 7.5,
+                overlap: false,
+                width: 0.125
+            },
+            Seam {
+                course: 0,
+                start: 8.0,
+                end: 9.0,
+                overlap: true,
+                width: 0.0625
+            },
+        ]
+    );
+    // Each wrong line alone (after the rest of the output), or after the edges of two courses.
+    let edges = &lines[..lines.find("course_gap").unwrap()];
+    for (bad, after_edges, says) in [
+        (
+            "course_edge 0 middle 0 0 1 2 3 4 5\n",
+            false,
+            "neither left nor right",
+        ),
+        ("course_edge 1 left 0 0 1 2 3 4 5\n", false, "out of order"),
+        (
+            "course_edge 0 left 1 0 1 2 3 4 5\n",
+            false,
+            "expected index 0",
+        ),
+        (
+            "course_edge 0 left 0 0 1 2 3 4\n",
+            false,
+            "expected 7 numbers",
+        ),
+        (
+            "course_edge 0 left 0 0 1 2 3 4 5\ncourse_edge 0 left 1 0 1 2 3 4 5\n",
+            false,
+            "course band edges",
+        ),
+        ("course_gap 0 5 4 0.1\n", true, "start <= end"),
+        ("course_overlap 0 1 2 -0.1\n", true, "width >= 0"),
+        ("course_gap 1 1 2 0.1\n", true, "after course 1"),
+    ] {
+        let text = demo.clone() + if after_edges { edges } else { "" } + bad;
+        let e = plots::raw::parse(&text).unwrap_err();
+        assert!(e.contains(says), "`{bad}`: {e}");
+    }
+}
+
+#[test]
 fn pictures_are_written_into_one_folder() {
     let dir = c_build::build_dir().unwrap().join("pictures_test");
     let _ = std::fs::remove_dir_all(&dir);
     let pictures = plots::all(&small_demo(), Shade::Mean).unwrap();
     let paths = plots::write_all(&dir, &pictures).unwrap();
-    assert_eq!(paths.len(), 5);
+    assert_eq!(paths.len(), 6);
     for p in &paths {
         assert_eq!(p.parent().unwrap(), dir);
         read(&std::fs::read_to_string(p).unwrap());
@@ -1046,6 +1344,57 @@ fn demo_pictures_show_the_demo_numbers() {
             &p[k],
         );
     }
+    // The planned courses: one band per course, the gaps and overlaps as the plan_gap lines
+    // report them (plan_gap names the second course of the pair), and each band as wide as it
+    // should be: the chord between an edge pair is at most the geodesic across, w (a chord is
+    // never longer than an arc), and on this gently bent skin not much shorter.
+    let plan_courses = text
+        .lines()
+        .filter(|l| l.starts_with("plan_course "))
+        .count();
+    assert_eq!(demo.courses.bands.len(), plan_courses);
+    let plan_gaps: Vec<Vec<f64>> = text
+        .lines()
+        .filter(|l| l.starts_with("plan_gap "))
+        .map(|l| {
+            l.split_whitespace()
+                .skip(1)
+                .map(|x| x.parse().unwrap())
+                .collect()
+        })
+        .collect();
+    assert_eq!(demo.courses.seams.len(), plan_gaps.len());
+    assert!(!plan_gaps.is_empty(), "the demo's courses part somewhere");
+    for (seam, g) in demo.courses.seams.iter().zip(&plan_gaps) {
+        assert_eq!(seam.course as f64, g[0] - 1.0);
+        assert_eq!(
+            (seam.start, seam.end, seam.overlap, seam.width),
+            (g[2], g[3], g[4] == 1.0, g[5])
+        );
+    }
+    let w = demo.courses.band_width;
+    for (k, band) in demo.courses.bands.iter().enumerate() {
+        assert!(
+            band.left.len() >= 30,
+            "course {k}: {} edge samples",
+            band.left.len()
+        );
+        for (r, l) in band.right.iter().zip(&band.left) {
+            assert_eq!(r.s, l.s);
+            let chord = (0..3)
+                .map(|q| (r.p[q] - l.p[q]).powi(2))
+                .sum::<f64>()
+                .sqrt();
+            assert!(
+                chord <= w * (1.0 + 1e-9) && chord > w - 0.05,
+                "course {k} at s = {}: chord {chord}",
+                r.s
+            );
+        }
+        assert!(band.left.windows(2).all(|e| e[1].s > e[0].s));
+    }
+    let svg = read(&plots::wing_gaps(&demo.wing, &demo.courses).unwrap());
+    svg.has_text("gap up to");
     for pic in plots::all(&demo, Shade::Concave).unwrap() {
         read(&pic.svg);
     }

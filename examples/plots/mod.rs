@@ -192,6 +192,10 @@ pub fn all(demo: &Demo, shade: Shade) -> Result<Vec<Picture>, String> {
             name: "wing_course.svg",
             svg: wing_course(&demo.wing, &demo.course)?,
         },
+        Picture {
+            name: "wing_gaps.svg",
+            svg: wing_gaps(&demo.wing, &demo.courses)?,
+        },
     ])
 }
 
@@ -1617,6 +1621,325 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
             length,
             &twist,
         )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
+
+/// The colour of a band edge in the courses picture.
+pub const EDGE_COLOUR: RGBColor = RGBColor(0, 0, 0);
+/// The colour of a gap between neighbouring bands (vermillion, solid marks).
+pub const GAP_COLOUR: RGBColor = OKABE_ITO[6];
+/// The colour of an overlap of neighbouring bands (blue, dashed marks).
+pub const OVERLAP_COLOUR: RGBColor = OKABE_ITO[5];
+/// The fill of a band in the courses picture.
+pub const BAND_FILL: RGBColor = RGBColor(232, 228, 214);
+
+/// The edge points of `edge` with arc length in [a, b], the ends interpolated linearly
+/// between the edge samples on either side, as (u, v).
+pub fn edge_between(edge: &[raw::EdgePoint], a: f64, b: f64) -> Vec<(f64, f64)> {
+    let at = |s: f64| -> (f64, f64) {
+        let k = edge
+            .windows(2)
+            .position(|w| s >= w[0].s && s <= w[1].s)
+            .unwrap_or(if s < edge[0].s { 0 } else { edge.len() - 2 });
+        let (p, q) = (&edge[k], &edge[k + 1]);
+        let f = ((s - p.s) / (q.s - p.s)).clamp(0.0, 1.0);
+        (p.u + f * (q.u - p.u), p.v + f * (q.v - p.v))
+    };
+    let mut out = vec![at(a)];
+    out.extend(
+        edge.iter()
+            .filter(|e| e.s > a && e.s < b)
+            .map(|e| (e.u, e.v)),
+    );
+    out.push(at(b));
+    out
+}
+
+/// The planned courses on the wing skin seen in its parameter plane (x, y in mm): each band
+/// between its two edges, the gaps and overlaps between neighbours marked on the first
+/// course's left edge (gaps solid vermillion, overlaps dashed blue), and below, the same
+/// intervals along each pair's first course with their widest width.
+pub fn wing_gaps(wing: &Grid, courses: &raw::Courses) -> Result<String, String> {
+    if courses.bands.len() < 2 {
+        return Err("the raw output has no band edges of two or more planned courses".into());
+    }
+    let (x0, x1) = (
+        wing.points
+            .iter()
+            .map(|g| g.u)
+            .fold(f64::INFINITY, f64::min),
+        wing.points
+            .iter()
+            .map(|g| g.u)
+            .fold(f64::NEG_INFINITY, f64::max),
+    );
+    let (y0, y1) = (
+        wing.points
+            .iter()
+            .map(|g| g.v)
+            .fold(f64::INFINITY, f64::min),
+        wing.points
+            .iter()
+            .map(|g| g.v)
+            .fold(f64::NEG_INFINITY, f64::max),
+    );
+    let pairs = courses.bands.len().saturating_sub(1);
+    let gap_items: Vec<LegendItem> = vec![
+        (
+            format!("band edge ({:.1} mm band)", courses.band_width),
+            Swatch::Line {
+                colour: EDGE_COLOUR,
+                width: 2,
+                dashed: false,
+            },
+        ),
+        (
+            format!("gap between neighbours (over {} mm)", courses.tolerance),
+            Swatch::Line {
+                colour: GAP_COLOUR,
+                width: 8,
+                dashed: false,
+            },
+        ),
+        (
+            format!("overlap of neighbours (over {} mm)", courses.tolerance),
+            Swatch::Line {
+                colour: OVERLAP_COLOUR,
+                width: 8,
+                dashed: true,
+            },
+        ),
+    ];
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 1080)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                "Planned courses side by side on the wing skin: gaps and overlaps between them",
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let (top, bottom) = area.split_vertically(600);
+        let (plan, legend_strip) = top.split_vertically(600 - 150);
+        let (margin, x_area, y_area) = (16, 60, 90);
+        let (pw, ph) = plan.dim_in_pixel();
+        let (w, h) = (
+            (pw as i32 - 2 * margin - y_area) as f64,
+            (ph as i32 - 2 * margin - x_area) as f64,
+        );
+        // Equal scales: widen whichever range is short for its side.
+        let scale = ((x1 - x0) / w).max((y1 - y0) / h);
+        let (xr, yr) = ((x0, x0 + scale * w), (y0, y0 + scale * h));
+        let mut chart = ChartBuilder::on(&plan)
+            .margin(margin as u32)
+            .x_label_area_size(x_area as u32)
+            .y_label_area_size(y_area as u32)
+            .build_cartesian_2d(xr.0..xr.1, yr.0..yr.1)
+            .map_err(err)?;
+        chart
+            .configure_mesh()
+            .disable_mesh()
+            .x_desc("u = x along the span (mm)")
+            .y_desc("v = y from the leading edge (mm)")
+            .axis_desc_style((FONT, LABEL_PX))
+            .label_style((FONT, TICK_PX))
+            .x_label_formatter(&tick_format(xr.1 - xr.0))
+            .y_label_formatter(&tick_format(yr.1 - yr.0))
+            .draw()
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Rectangle::new(
+                [(x0, y0), (x1, y1)],
+                RGBColor(120, 120, 120).stroke_width(1),
+            )))
+            .map_err(err)?;
+        let uv = |e: &[raw::EdgePoint]| e.iter().map(|p| (p.u, p.v)).collect::<Vec<_>>();
+        for (k, band) in courses.bands.iter().enumerate() {
+            let mut outline = uv(&band.right);
+            outline.extend(uv(&band.left).into_iter().rev());
+            chart
+                .draw_series(std::iter::once(Polygon::new(outline, BAND_FILL.filled())))
+                .map_err(err)?;
+            for edge in [&band.right, &band.left] {
+                chart
+                    .draw_series(std::iter::once(PathElement::new(
+                        uv(edge),
+                        EDGE_COLOUR.stroke_width(2),
+                    )))
+                    .map_err(err)?;
+            }
+            let start = (
+                0.5 * (band.right[0].u + band.left[0].u),
+                0.5 * (band.right[0].v + band.left[0].v),
+            );
+            chart
+                .draw_series(std::iter::once(Text::new(
+                    format!("{k}"),
+                    (start.0 - 0.012 * (xr.1 - xr.0), start.1),
+                    TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                        plotters::style::text_anchor::Pos::new(
+                            plotters::style::text_anchor::HPos::Right,
+                            plotters::style::text_anchor::VPos::Center,
+                        ),
+                    ),
+                )))
+                .map_err(err)?;
+        }
+        for seam in &courses.seams {
+            let pts = edge_between(&courses.bands[seam.course].left, seam.start, seam.end);
+            if seam.overlap {
+                chart
+                    .draw_series(DashedLineSeries::new(
+                        pts,
+                        14,
+                        8,
+                        OVERLAP_COLOUR.stroke_width(8),
+                    ))
+                    .map_err(err)?;
+            } else {
+                chart
+                    .draw_series(std::iter::once(PathElement::new(
+                        pts,
+                        GAP_COLOUR.stroke_width(8),
+                    )))
+                    .map_err(err)?;
+            }
+        }
+        // The legend and a note below the plan, outside its plotting area.
+        draw_legend(&legend_strip, (margin + y_area, 4), &gap_items)?;
+        let note = format!(
+            "courses numbered at their start; the widths (below) are far under the scale of this \
+             plan: {:.2} mm per pixel",
+            scale
+        );
+        legend_strip
+            .draw(&Text::new(
+                note,
+                (margin + y_area, 142),
+                TextStyle::from((FONT, TICK_PX - 3).into_font()).pos(
+                    plotters::style::text_anchor::Pos::new(
+                        plotters::style::text_anchor::HPos::Left,
+                        plotters::style::text_anchor::VPos::Bottom,
+                    ),
+                ),
+            ))
+            .map_err(err)?;
+        // Along each pair's first course: the intervals as bars, one row per pair.
+        let length = courses
+            .bands
+            .iter()
+            .filter_map(|b| b.left.last().map(|e| e.s))
+            .chain(courses.seams.iter().map(|s| s.end))
+            .fold(1.0, f64::max);
+        let rows = pairs.max(1) as f64;
+        let bottom = bottom
+            .titled(
+                "Along each pair of neighbours: where the bands part (gap) or cover each other",
+                (FONT, LABEL_PX + 2),
+            )
+            .map_err(err)?;
+        let mut chart = ChartBuilder::on(&bottom)
+            .margin(16)
+            .margin_right(28)
+            .x_label_area_size(56)
+            .y_label_area_size(150)
+            .build_cartesian_2d(0.0..length, -0.5..rows - 0.5)
+            .map_err(err)?;
+        chart
+            .configure_mesh()
+            .disable_y_mesh()
+            .bold_line_style(RGBColor(225, 225, 225))
+            .light_line_style(TRANSPARENT)
+            .x_desc("arc length along the pair's first course s (mm)")
+            .axis_desc_style((FONT, LABEL_PX))
+            .label_style((FONT, TICK_PX))
+            .x_labels(10)
+            .x_label_formatter(&tick_format(length))
+            .y_labels(0)
+            .draw()
+            .map_err(err)?;
+        for k in 0..pairs {
+            let y = (pairs - 1 - k) as f64;
+            chart
+                .draw_series(std::iter::once(Text::new(
+                    format!("courses {k} | {}", k + 1),
+                    (-0.01 * length, y),
+                    TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                        plotters::style::text_anchor::Pos::new(
+                            plotters::style::text_anchor::HPos::Right,
+                            plotters::style::text_anchor::VPos::Center,
+                        ),
+                    ),
+                )))
+                .map_err(err)?;
+            let here: Vec<&raw::Seam> = courses.seams.iter().filter(|s| s.course == k).collect();
+            if here.is_empty() {
+                chart
+                    .draw_series(std::iter::once(Text::new(
+                        format!("no gap or overlap over {} mm", courses.tolerance),
+                        (0.02 * length, y),
+                        TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                            plotters::style::text_anchor::Pos::new(
+                                plotters::style::text_anchor::HPos::Left,
+                                plotters::style::text_anchor::VPos::Center,
+                            ),
+                        ),
+                    )))
+                    .map_err(err)?;
+            }
+            for seam in here {
+                let (c, what) = if seam.overlap {
+                    (OVERLAP_COLOUR, "overlap")
+                } else {
+                    (GAP_COLOUR, "gap")
+                };
+                chart
+                    .draw_series(std::iter::once(Rectangle::new(
+                        [(seam.start, y - 0.28), (seam.end, y + 0.28)],
+                        c.mix(0.55).filled(),
+                    )))
+                    .map_err(err)?;
+                if seam.overlap {
+                    for yy in [y - 0.28, y + 0.28] {
+                        chart
+                            .draw_series(DashedLineSeries::new(
+                                [(seam.start, yy), (seam.end, yy)],
+                                10,
+                                6,
+                                c.stroke_width(3),
+                            ))
+                            .map_err(err)?;
+                    }
+                }
+                let right = seam.end > 0.6 * length;
+                let (x, anchor) = if right {
+                    (
+                        seam.start - 0.01 * length,
+                        plotters::style::text_anchor::HPos::Right,
+                    )
+                } else {
+                    (
+                        seam.end + 0.01 * length,
+                        plotters::style::text_anchor::HPos::Left,
+                    )
+                };
+                chart
+                    .draw_series(std::iter::once(Text::new(
+                        format!("{what} up to {:.2} mm", seam.width),
+                        (x, y),
+                        TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                            plotters::style::text_anchor::Pos::new(
+                                anchor,
+                                plotters::style::text_anchor::VPos::Center,
+                            ),
+                        ),
+                    )))
+                    .map_err(err)?;
+            }
+        }
         root.present().map_err(err)?;
     }
     Ok(svg)
