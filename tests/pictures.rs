@@ -800,6 +800,18 @@ fn legend_swatches_match_their_series_and_hide_no_data() {
             let (wing, course) = small_wing();
             plots::wing_course(&wing, &course).unwrap()
         }),
+        (
+            "cavity 3d",
+            plots::cavity_3d(&small_cavity(), &pass, Shade::Concave).unwrap(),
+        ),
+        (
+            "cavity uv",
+            plots::cavity_uv(&small_cavity(), &pass, Shade::Concave).unwrap(),
+        ),
+        (
+            "courses",
+            plots::wing_gaps(&small_wing().0, &small_courses()).unwrap(),
+        ),
     ] {
         legends_hide_no_data(name, &read(&pic));
     }

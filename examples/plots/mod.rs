@@ -299,6 +299,17 @@ pub enum Swatch {
         /// The colour of the dashed ends, if any.
         edge: Option<RGBColor>,
     },
+    /// A line drawn over a wider line of another colour (a path on a surface).
+    Cased {
+        /// The inner line's colour.
+        inner: RGBColor,
+        /// Its width (px).
+        inner_width: u32,
+        /// The casing's colour.
+        outer: RGBColor,
+        /// Its width (px).
+        outer_width: u32,
+    },
     /// A thin dotted vertical mark (knot crossings).
     Mark {
         /// Colour.
@@ -403,6 +414,20 @@ fn draw_legend<DB: DrawingBackend>(
                     }
                 }
             }
+            Swatch::Cased {
+                inner,
+                inner_width,
+                outer,
+                outer_width,
+            } => {
+                for (c, w) in [(outer, outer_width), (inner, inner_width)] {
+                    area.draw(&PathElement::new(
+                        vec![(x0, cy), (x1, cy)],
+                        c.stroke_width(w),
+                    ))
+                    .map_err(e)?;
+                }
+            }
             Swatch::Mark { colour } => {
                 let xm = (x0 + x1) / 2;
                 for d in dashes((xm, cy - 11), (xm, cy + 11), 3.0, 4.0) {
@@ -434,6 +459,18 @@ fn emptiest_corner(
     (box_w, box_h): (i32, i32),
     busy: &[(f64, f64)],
 ) -> ((i32, i32), usize) {
+    emptiest_corner_of(w, h, (box_w, box_h), busy, &[])
+}
+
+/// The same, breaking ties between corners by the fewest `soft` points covered (shaded
+/// intervals: better not hidden, but less than a line).
+fn emptiest_corner_of(
+    w: i32,
+    h: i32,
+    (box_w, box_h): (i32, i32),
+    busy: &[(f64, f64)],
+    soft: &[(f64, f64)],
+) -> ((i32, i32), usize) {
     let inset = 8;
     let corners = [
         (w - inset - box_w, inset),
@@ -441,7 +478,7 @@ fn emptiest_corner(
         (w - inset - box_w, h - inset - box_h),
         (inset, h - inset - box_h),
     ];
-    let covered = |(x, y): (i32, i32)| {
+    let covered = |(x, y): (i32, i32), busy: &[(f64, f64)]| {
         let pad = 6.0;
         busy.iter()
             .filter(|p| {
@@ -454,9 +491,64 @@ fn emptiest_corner(
     };
     corners
         .iter()
-        .map(|&c| (c, covered(c)))
-        .min_by_key(|c| c.1)
+        .map(|&c| (c, covered(c, busy), covered(c, soft)))
+        .min_by_key(|c| (c.1, c.2))
+        .map(|c| (c.0, c.1))
         .expect("four corners")
+}
+
+type Chart2d<'a, DB> = ChartContext<
+    'a,
+    DB,
+    Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
+>;
+
+/// Draws a legend in the corner of a chart's plotting area that covers the fewest of the
+/// `busy` points (chart coordinates).
+fn legend_in_corner<DB: DrawingBackend>(
+    chart: &Chart2d<'_, DB>,
+    items: &[LegendItem],
+    busy: &[(f64, f64)],
+) -> Result<(), String> {
+    let plotting = chart.plotting_area().strip_coord_spec();
+    let (bx, by) = chart.plotting_area().get_base_pixel();
+    let px: Vec<(f64, f64)> = busy
+        .iter()
+        .map(|p| {
+            let q = chart.as_coord_spec().translate(p);
+            ((q.0 - bx) as f64, (q.1 - by) as f64)
+        })
+        .collect();
+    let (w, h) = plotting.dim_in_pixel();
+    let (corner, _) = emptiest_corner((w as i32, h as i32), legend_size(items), &px);
+    draw_legend(&plotting, corner, items)
+}
+
+/// Screen points covering a grid seen from `view`: each cell's projected quadrilateral
+/// sampled at 5 x 5 bilinear points.
+fn surface_points(grid: &Grid, view: &View) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    for i in 0..grid.nu - 1 {
+        for j in 0..grid.nv - 1 {
+            let c = [
+                view.project(grid.at(i, j).p),
+                view.project(grid.at(i + 1, j).p),
+                view.project(grid.at(i + 1, j + 1).p),
+                view.project(grid.at(i, j + 1).p),
+            ];
+            for a in 0..5 {
+                for b in 0..5 {
+                    let (f, g) = (a as f64 / 4.0, b as f64 / 4.0);
+                    let w = [(1.0 - f) * (1.0 - g), f * (1.0 - g), f * g, (1.0 - f) * g];
+                    out.push((
+                        (0..4).map(|k| w[k] * c[k].0).sum(),
+                        (0..4).map(|k| w[k] * c[k].1).sum(),
+                    ));
+                }
+            }
+        }
+    }
+    out
 }
 
 /// Points every few pixels along a polyline given in pixels (so a legend box that a line
@@ -688,7 +780,19 @@ fn draw_panel(
     let plotting = chart.plotting_area().strip_coord_spec();
     let (pw, ph) = plotting.dim_in_pixel();
     let dims = (pw as i32, ph as i32);
-    let (corner, _) = emptiest_corner(dims, size, &busy(dims, hi));
+    // The shaded intervals, sampled every 8 px, as points better left uncovered.
+    let mut soft = Vec::new();
+    for sh in &panel.shaded {
+        for st in &sh.stretches {
+            let (a, b) = (st.start / length * pw as f64, st.end / length * pw as f64);
+            let mut x = a;
+            while x <= b {
+                soft.extend((0..=ph / 8).map(|k| (x, 8.0 * k as f64)));
+                x += 8.0;
+            }
+        }
+    }
+    let (corner, _) = emptiest_corner_of(dims.0, dims.1, size, &busy(dims, hi), &soft);
     draw_legend(&plotting, corner, &items)?;
     Ok(())
 }
@@ -1201,15 +1305,13 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 line(&all),
                 PATH_COLOUR.stroke_width(4),
             )))
-            .map_err(err)?
-            .label("the pass")
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
+            .map_err(err)?;
         let gouges: Vec<&Stretch> = pass
             .stretches
             .iter()
             .filter(|s| s.kind == "gouge")
             .collect();
-        for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
+        for run in runs(&pass.samples, &gouges).iter() {
             let mut pts = line(run);
             if pts.len() == 1 {
                 pts.push((pts[0].0 + 0.5, pts[0].1));
@@ -1223,19 +1325,14 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                     FAIL_COLOUR.stroke_width(3),
                 )))
                 .map_err(err)?;
-            let series = chart
+            chart
                 .draw_series(std::iter::once(PathElement::new(
                     pts,
                     FAIL_COLOUR.stroke_width(9),
                 )))
                 .map_err(err)?;
-            if k == 0 {
-                series.label("the ball gouges (ringed)").legend(|(x, y)| {
-                    PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
-                });
-            }
         }
-        for (k, s) in stations.iter().enumerate() {
+        for s in stations.iter() {
             let a = view.project(s.p);
             let b = view.project(add(s.p, s.n, axis_length));
             chart
@@ -1245,29 +1342,28 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                     AXIS_COLOUR.filled(),
                 )))
                 .map_err(err)?;
-            let series = chart
+            chart
                 .draw_series([PathElement::new(
                     vec![(a.0, a.1), (b.0, b.1)],
                     AXIS_COLOUR.stroke_width(4),
                 )])
                 .map_err(err)?;
-            if k == 0 {
-                series
-                    .label(format!("tool axis (upright: along N), {axis_length:.0} mm"))
-                    .legend(|(x, y)| {
-                        PathElement::new(vec![(x, y), (x + 28, y)], AXIS_COLOUR.stroke_width(4))
-                    });
-            }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::LowerLeft)
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .label_font((FONT, TICK_PX))
-            .margin(8)
-            .draw()
-            .map_err(err)?;
+        let mut busy = surface_points(grid, &view);
+        busy.extend(screen.iter().copied());
+        let items: Vec<LegendItem> = vec![
+            ("the pass".to_string(), PASS_SWATCH),
+            ("the ball gouges (ringed)".to_string(), GOUGE_SWATCH),
+            (
+                format!("tool axis (upright: along N), {axis_length:.0} mm"),
+                Swatch::Line {
+                    colour: AXIS_COLOUR,
+                    width: 4,
+                    dashed: false,
+                },
+            ),
+        ];
+        legend_in_corner(&chart, &items, &busy)?;
         let (gx0, gx1) = extent(grid, 0);
         let (gy0, gy1) = extent(grid, 1);
         chart
@@ -1320,7 +1416,7 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
     let (lo, hi) = colour_range(&values, limit);
     let mut svg = String::new();
     {
-        let root = SVGBackend::with_string(&mut svg, (WIDTH, 720)).into_drawing_area();
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 840)).into_drawing_area();
         root.fill(&WHITE).map_err(err)?;
         let area = root
             .titled(
@@ -1329,6 +1425,9 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             )
             .map_err(err)?;
         let (left, right) = area.split_horizontally(WIDTH - 230);
+        // The legend below the map, outside it: the whole plane is data.
+        let h_left = left.dim_in_pixel().1;
+        let (left, legend_strip) = left.split_vertically(h_left - 120);
         let mut chart = ChartBuilder::on(&left)
             .margin(16)
             .x_label_area_size(60)
@@ -1363,7 +1462,6 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             }
         }
         let knot_style = RGBColor(255, 255, 255).mix(0.7).stroke_width(1);
-        let mut first = true;
         let distinct = |k: &[f64]| {
             let mut v: Vec<f64> = k.to_vec();
             v.dedup();
@@ -1377,15 +1475,9 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 } else {
                     vec![(0.0, k), (1.0, k)]
                 };
-                let s = chart
+                chart
                     .draw_series(DashedLineSeries::new(pts, 6, 6, knot_style))
                     .map_err(err)?;
-                if first {
-                    s.label("knot lines").legend(|(x, y)| {
-                        PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(1))
-                    });
-                    first = false;
-                }
             }
         }
         let uv: Vec<(f64, f64)> = pass.samples.iter().map(|s| (s.u, s.v)).collect();
@@ -1400,15 +1492,13 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 uv,
                 PATH_COLOUR.stroke_width(4),
             )))
-            .map_err(err)?
-            .label("the pass")
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
+            .map_err(err)?;
         let gouges: Vec<&Stretch> = pass
             .stretches
             .iter()
             .filter(|s| s.kind == "gouge")
             .collect();
-        for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
+        for run in runs(&pass.samples, &gouges).iter() {
             let mut pts: Vec<(f64, f64)> = run.iter().map(|s| (s.u, s.v)).collect();
             if pts.len() == 1 {
                 pts.push((pts[0].0 + 0.002, pts[0].1));
@@ -1421,27 +1511,29 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                     FAIL_COLOUR.stroke_width(3),
                 )))
                 .map_err(err)?;
-            let s = chart
+            chart
                 .draw_series(std::iter::once(PathElement::new(
                     pts,
                     FAIL_COLOUR.stroke_width(9),
                 )))
                 .map_err(err)?;
-            if k == 0 {
-                s.label("the ball gouges (ringed)").legend(|(x, y)| {
-                    PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
-                });
-            }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperLeft)
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .label_font((FONT, TICK_PX))
-            .margin(8)
-            .draw()
-            .map_err(err)?;
+        draw_legend(
+            &legend_strip,
+            (96, 8),
+            &[
+                (
+                    "knot lines".to_string(),
+                    Swatch::Line {
+                        colour: BLACK,
+                        width: 1,
+                        dashed: true,
+                    },
+                ),
+                ("the pass".to_string(), PASS_SWATCH),
+                ("the ball gouges (ringed)".to_string(), GOUGE_SWATCH),
+            ],
+        )?;
         colour_bar(
             &right,
             shade.label(),
@@ -1524,38 +1616,46 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 line(&all),
                 COURSE_COLOUR.stroke_width(4),
             )))
-            .map_err(err)?
-            .label(format!("the course ({} mm tow)", course.tow_width))
-            .legend(|(x, y)| {
-                PathElement::new(vec![(x, y), (x + 28, y)], COURSE_COLOUR.stroke_width(4))
-            });
-        for (kind, c, width, text) in [
-            ("steering", FAIL_COLOUR, 12, "steering radius too small"),
-            ("twist", FAIL_COLOUR_2, 6, "twist rate too high"),
-        ] {
-            for (k, run) in runs(samples, &kinds(kind)).iter().enumerate() {
-                let s = chart
+            .map_err(err)?;
+        for (kind, c, width) in [("steering", FAIL_COLOUR, 12), ("twist", FAIL_COLOUR_2, 6)] {
+            for run in runs(samples, &kinds(kind)).iter() {
+                chart
                     .draw_series(std::iter::once(PathElement::new(
                         line(run),
                         c.stroke_width(width),
                     )))
                     .map_err(err)?;
-                if k == 0 {
-                    s.label(text).legend(move |(x, y)| {
-                        PathElement::new(vec![(x, y), (x + 28, y)], c.stroke_width(width))
-                    });
-                }
             }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperLeft)
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .label_font((FONT, TICK_PX))
-            .margin(8)
-            .draw()
-            .map_err(err)?;
+        let mut busy = surface_points(wing, &view);
+        busy.extend(line(&all));
+        let items: Vec<LegendItem> = vec![
+            (
+                format!("the course ({} mm tow)", course.tow_width),
+                Swatch::Line {
+                    colour: COURSE_COLOUR,
+                    width: 4,
+                    dashed: false,
+                },
+            ),
+            (
+                "steering radius too small".to_string(),
+                Swatch::Line {
+                    colour: FAIL_COLOUR,
+                    width: 12,
+                    dashed: false,
+                },
+            ),
+            (
+                "twist rate too high".to_string(),
+                Swatch::Line {
+                    colour: FAIL_COLOUR_2,
+                    width: 6,
+                    dashed: false,
+                },
+            ),
+        ];
+        legend_in_corner(&chart, &items, &busy)?;
         let (bx, by) = (xr.1 - 0.01 * (xr.1 - xr.0), yr.0 + 0.04 * (yr.1 - yr.0));
         chart
             .draw_series(std::iter::once(Text::new(
@@ -1625,6 +1725,20 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
     }
     Ok(svg)
 }
+
+/// The legend swatch of a path drawn on a surface (white over black).
+const PASS_SWATCH: Swatch = Swatch::Cased {
+    inner: PATH_COLOUR,
+    inner_width: 4,
+    outer: RGBColor(0, 0, 0),
+    outer_width: 7,
+};
+/// The legend swatch of a gouging stretch.
+const GOUGE_SWATCH: Swatch = Swatch::Line {
+    colour: FAIL_COLOUR,
+    width: 9,
+    dashed: false,
+};
 
 /// The colour of a band edge in the courses picture.
 pub const EDGE_COLOUR: RGBColor = RGBColor(0, 0, 0);

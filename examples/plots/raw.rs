@@ -387,7 +387,8 @@ pub fn parse(text: &str) -> Result<Demo, String> {
             // course_gap K s0 s1 width, course_overlap K s0 s1 width
             "course_gap" | "course_overlap" => {
                 let v = fields(line, rest, 4, None)?;
-                if v[0] < 0.0 || v[0].fract() != 0.0 || !(v[1] <= v[2]) || !(v[3] >= 0.0) {
+                let ordered = v[1] <= v[2] && v[3] >= 0.0;
+                if v[0] < 0.0 || v[0].fract() != 0.0 || !ordered {
                     return Err(format!(
                         "expected a course index, start <= end and a width >= 0: {line}"
                     ));
