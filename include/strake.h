@@ -397,6 +397,57 @@ typedef uint32_t StrakeOffsetSide;
 #endif // __cplusplus
 
 /**
+ * Bits of the crease flags `strake_knot_line_flags` writes (a `uint32_t` per sample; 0: a
+ * smooth point). A native NURBS surface of degree p is only C^(p - m) across an interior knot
+ * of multiplicity m; for m >= p - 1 it is not C2 there ("crease"). A curve point within a few
+ * units of round-off of such a knot line is snapped onto it, and the frame there is that of
+ * the side the curve moves into (u' > 0: the span starting at the knot; u' < 0: the span
+ * ending at it). When the curve runs along the line (u' zero to round-off) the side is the
+ * one u'' points to, or the side above the knot when u'' = 0 too. The continuity is that of
+ * the parametrisation (an exact NURBS circle with double knots is only C0 in its parameter,
+ * yet geometrically smooth). Host callback surfaces report no creases.
+ */
+enum StrakeKnotLineFlag
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 1: u lies on an interior u knot of multiplicity >= p - 1 (the surface is not C2 across
+   * it); the frame is that of the side the curve moves into.
+   */
+  STRAKE_KNOT_LINE_FLAG_U_LINE = 1,
+  /**
+   * 2: the same for a v knot line.
+   */
+  STRAKE_KNOT_LINE_FLAG_V_LINE = 2,
+  /**
+   * 4: that u line is at most C0 (multiplicity >= p): the normal may differ between sides.
+   */
+  STRAKE_KNOT_LINE_FLAG_U_ONLY_C0 = 4,
+  /**
+   * 8: the same for the v line.
+   */
+  STRAKE_KNOT_LINE_FLAG_V_ONLY_C0 = 8,
+  /**
+   * 16: the curve runs along the u line (u' is zero to round-off): the side was chosen by
+   * the rule above, not by the direction of travel.
+   */
+  STRAKE_KNOT_LINE_FLAG_ALONG_U = 16,
+  /**
+   * 32: the same for the v line.
+   */
+  STRAKE_KNOT_LINE_FLAG_ALONG_V = 32,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeKnotLineFlag StrakeKnotLineFlag;
+#else
+typedef uint32_t StrakeKnotLineFlag;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
  * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
  * `strake_curve_from_callback`, `strake_curve_through_uv_points`,
  * `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
@@ -2121,6 +2172,32 @@ StrakeStatus strake_frame_from_jets(const struct StrakeSurfaceJet *surface_jet,
                                     int32_t flip_normal,
                                     const struct StrakeParamScales *scales,
                                     struct StrakeFrame *out);
+
+/**
+ * Writes the crease flags of the frames at the `count` curve parameters `ts`: `flags[i]` is 0
+ * where the frame at `ts[i]` (from `strake_frame_at`, `strake_frames_at`,
+ * `strake_frames_even` or the sampling calls at the same t) lies at a smooth point of the
+ * surface, otherwise an OR of `StrakeKnotLineFlag` bits saying which knot lines of reduced
+ * continuity it lies on and how the side was chosen. Only the curve is evaluated. A separate
+ * call, so that `StrakeFrame` keeps its layout.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes `flags[0..count]`; otherwise `flags` is untouched and
+ * the message names the failing sample's index and t. Errors: NULL_POINTER (`surface`,
+ * `curve`, `ts`, `flags`); INVALID_ARGUMENT (`count` of 0 or too large); NON_FINITE (a t, or
+ * a callback's jet entry); OUT_OF_DOMAIN (a t outside the curve's domain, or a (u, v)
+ * outside the surface's); CURVE_CALLBACK_FAILED.
+ *
+ * Thread-safe: any number of threads may use the same handles at once.
+ *
+ * # Safety
+ * `surface` and `curve` NULL or live handles; `ts` NULL or `count` readable doubles; `flags`
+ * NULL or room for `count` uint32_t, not overlapping `ts`.
+ */
+StrakeStatus strake_knot_line_flags(const struct StrakeSurface *surface,
+                                    const struct StrakeCurve *curve,
+                                    const double *ts,
+                                    size_t count,
+                                    uint32_t *flags);
 
 /**
  * As `strake_frames_at`, evaluated at once on `threads` threads: the calling thread and

@@ -51,8 +51,8 @@ pub use geometry::principal::{Orientation, PrincipalCurvatures, SurfacePoint};
 pub use geometry::rates::{InvariantRates, invariant_rates};
 pub use isa::{VectorKernels, limit_vector_kernels, supported_vector_kernels, vector_kernels};
 pub use nurbs::{
-    EndDerivatives, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData, Parametrization,
-    SpanHint, interpolate,
+    EndDerivatives, KnotLine, KnotVector, NurbsCurve, NurbsSurface, NurbsSurfaceData,
+    Parametrization, SpanHint, interpolate,
 };
 pub use paths::curve_on_surface::{CurveOnSurface, Hints, PathSample, SampleError};
 pub use paths::projection::{
@@ -76,6 +76,7 @@ pub use planning::planar_pattern::{ArchimedeanSpiral, parallel_lines};
 pub use planning::scallop_left::{
     ScallopLeft, check_target_scallop, scallop_between, step_over_at,
 };
+pub use surface::{CreaseFlags, KnotSide, KnotSides};
 pub use surface::{FnSurface, SurfaceHint, SurfaceSource};
 pub use toolpath::{
     CentreFeed, CentreFeedLimits, CentrePoint, FeedBound, ToolSetup, centre_feed, centre_path_at,

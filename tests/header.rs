@@ -353,6 +353,7 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_course_adjacent",
         "strake_course_gaps",
         "strake_course_check",
+        "strake_knot_line_flags",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

@@ -43,7 +43,7 @@ use strake::geometry::math::Vec3;
 use strake::nurbs::conics::{self, CircleForm};
 use strake::nurbs::{NurbsCurve, NurbsSurface, SpanHint};
 use strake::paths::curve_on_surface::{CurveOnSurface, Hints};
-use strake::surface::SurfaceHint;
+use strake::surface::{CreaseFlags, KnotSide, KnotSides, SurfaceHint};
 
 /// Angle map of a circle or arc made of equal rational quadratic arcs.
 struct ArcMap {
@@ -83,8 +83,17 @@ impl ArcMap {
     /// (angle, d angle/du, d² angle/du²), from the arc that the span search picks: the last
     /// arc whose start is ≤ u (right-sided at a break), the last arc at the upper end.
     fn angle(&self, u: f64) -> (f64, f64, f64) {
+        self.angle_sided(u, false)
+    }
+
+    /// As [`Self::angle`]; with `below`, at a break the arc that ends there (the side a curve
+    /// moving toward decreasing u enters, which the library evaluates on: `surface::crease`).
+    fn angle_sided(&self, u: f64, below: bool) -> (f64, f64, f64) {
         let n = self.breaks.len() - 1;
-        let k = (0..n).rev().find(|&k| self.breaks[k] <= u).unwrap();
+        let mut k = (0..n).rev().find(|&k| self.breaks[k] <= u).unwrap();
+        if below && k > 0 && self.breaks[k] == u {
+            k -= 1;
+        }
         let len = self.breaks[k + 1] - self.breaks[k];
         let s = (u - self.breaks[k]) / len;
         let alpha = 0.5 * self.arc;
@@ -129,10 +138,10 @@ struct ModelPoint {
 
 impl Model {
     /// (ρ, z, ρ', z', ρ'', z'', ψ, k_mer) at v.
-    fn profile(&self, v: f64) -> [f64; 8] {
+    fn profile(&self, v: f64, below: bool) -> [f64; 8] {
         match &self.profile {
             Profile::Sphere { r, lat } => {
-                let (b, b1, b2) = lat.angle(v);
+                let (b, b1, b2) = lat.angle_sided(v, below);
                 let (s, c) = b.sin_cos();
                 [
                     r * c,
@@ -146,7 +155,7 @@ impl Model {
                 ]
             }
             Profile::Torus { big, r, psi } => {
-                let (p, p1, p2) = psi.angle(v);
+                let (p, p1, p2) = psi.angle_sided(v, below);
                 let (s, c) = p.sin_cos();
                 [
                     big + r * c,
@@ -165,9 +174,10 @@ impl Model {
         }
     }
 
-    fn at(&self, u: f64, v: f64) -> ModelPoint {
-        let (th, t1, t2) = self.theta.angle(u);
-        let [rho, z, r1, z1, r2, z2, psi, k_mer] = self.profile(v);
+    /// The model at (u, v), on the arcs below the breaks where `below` says so.
+    fn at(&self, u: f64, v: f64, below: (bool, bool)) -> ModelPoint {
+        let (th, t1, t2) = self.theta.angle_sided(u, below.0);
+        let [rho, z, r1, z1, r2, z2, psi, k_mer] = self.profile(v, below.1);
         let (s, c) = th.sin_cos();
         let e_par = Vec3::new(-s, c, 0.0);
         let radial = Vec3::new(c, s, 0.0);
@@ -280,15 +290,30 @@ fn check_line(
             "{} line {kind:?} ({u0}, {v0})->({u1}, {v1}) t={t}",
             model.name
         );
-        let f = cos
-            .frame(t, &mut hints)
+        let (f, flags) = cos
+            .frame_flagged(t, &mut hints)
             .unwrap_or_else(|e| panic!("{ctx}: {e}"));
-        let m = model.at(f.u, f.v);
+        // On a knot line (the arcs of a circle meet at double knots, C0 in the parameter) the
+        // frame is that of the side the line moves into (`surface::crease`).
+        let below = (
+            flags.has(CreaseFlags::U_LINE) && du < 0.0,
+            flags.has(CreaseFlags::V_LINE) && dv < 0.0,
+        );
+        let m = model.at(f.u, f.v, below);
         let size = m.jet.p.norm().max(1.0);
         // The NURBS point and partials are those of the exact parametrisation.
-        let j = surf
-            .jet(f.u, f.v, DerivOrder::Second, &mut SurfaceHint::default())
-            .unwrap();
+        let side = |b: bool| if b { KnotSide::Below } else { KnotSide::Above };
+        let sides = KnotSides {
+            u: side(below.0),
+            v: side(below.1),
+        };
+        let j = surf.jet_sided_unchecked(
+            f.u,
+            f.v,
+            sides,
+            DerivOrder::Second,
+            &mut SurfaceHint::default(),
+        );
         assert_vec_close("S", &j.p, &m.jet.p, size, TOL, &ctx);
         for (name, a, b) in [
             ("Su", j.su, m.jet.su),

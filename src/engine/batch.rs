@@ -27,8 +27,9 @@ use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
 use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::geometry::principal::SurfacePoint;
 use crate::nurbs::SpanHint;
-use crate::surface::SurfaceHint;
 use crate::surface::SurfaceSource;
+use crate::surface::crease::snap_onto_surface_creases;
+use crate::surface::{KnotSides, SurfaceHint};
 use std::mem::MaybeUninit;
 
 /// Per-caller evaluation state: span hints for the surface and the curve.
@@ -152,6 +153,9 @@ where
     let mut vs = [0.0; CHUNK];
     let mut cj = [CurveJet::default(); CHUNK];
     let mut sj = [SurfaceJet::default(); CHUNK];
+    // Lanes on a crease of the surface and the sides to evaluate them on.
+    let mut creased = [false; CHUNK];
+    let mut sides = [KnotSides::default(); CHUNK];
     let mut kernel = FrameKernel::new();
     let mut base = 0;
     while base < count {
@@ -202,6 +206,10 @@ where
                 Ok((u, v)) => {
                     c.u = u;
                     c.v = v;
+                    // Onto a crease it lies on, as in `CurveOnSurface::frame`.
+                    let (flags, s) = snap_onto_surface_creases(surface, c, &scales);
+                    creased[i] = !flags.is_smooth();
+                    sides[i] = s;
                 }
                 Err(e) => {
                     good = i;
@@ -225,6 +233,28 @@ where
                 t: ts[0],
                 error,
             })?;
+            // A lane on a crease: the jet of the side the curve moves into, from the one-point
+            // evaluation `CurveOnSurface::frame` makes (the same bits).
+            let evaluated = good;
+            for i in 0..evaluated {
+                if creased[i] {
+                    let jet = surface.jet_in_domain_sided(
+                        us[i],
+                        vs[i],
+                        sides[i],
+                        DerivOrder::Second,
+                        &mut hints.surface,
+                    );
+                    match jet {
+                        Ok(j) => sj[i] = j,
+                        Err(e) => {
+                            good = i;
+                            pending = Some(e);
+                            break;
+                        }
+                    }
+                }
+            }
         }
         if good > 0 {
             let (sg, cg) = (&sj[..good], &cj[..good]);

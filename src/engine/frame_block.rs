@@ -520,8 +520,10 @@ pub(crate) struct SurfaceMid<T: Lane> {
     /// |c'| and 1 / |c'| (`darboux_frame_at`).
     speed: T,
     inv_speed: T,
-    /// c'' (`darboux_frame_at`).
-    c2: [T; 3],
+    /// W = Suu u'² + 2 Suv u'v' + Svv v'², u'v'' − v'u'' and σ |Su × Sv| (`darboux_frame_at`).
+    w: [T; 3],
+    turn: T,
+    signed_area: T,
     /// The flags of the surface's checks.
     ok: T::Mask,
 }
@@ -610,13 +612,16 @@ where
     let l = dot(suu, n);
     let m = dot(suv, n);
     let nn = dot(svv, n);
-    // c'' of darboux_frame_at, here: the second derivatives are not needed after it.
+    // W and u'v'' − v'u'' of darboux_frame_at, here: the second derivatives are not needed
+    // after them.
     let (duu, duv, dvv) = (du * du, 2.0 * du * dv, dv * dv);
-    let c2 = [
-        suu[0] * duu + suv[0] * duv + svv[0] * dvv + su[0] * ddu + sv[0] * ddv,
-        suu[1] * duu + suv[1] * duv + svv[1] * dvv + su[1] * ddu + sv[1] * ddv,
-        suu[2] * duu + suv[2] * duv + svv[2] * dvv + su[2] * ddu + sv[2] * ddv,
+    let w = [
+        suu[0] * duu + suv[0] * duv + svv[0] * dvv,
+        suu[1] * duu + suv[1] * duv + svv[1] * dvv,
+        suu[2] * duu + suv[2] * duv + svv[2] * dvv,
     ];
+    let turn = du * ddv - dv * ddu;
+    let signed_area = sigma * area;
 
     let beta = sigma * su_len * inv_area;
     let alpha = -sigma * f * inv_su * inv_area;
@@ -673,7 +678,9 @@ where
         inv_area,
         speed,
         inv_speed,
-        c2,
+        w,
+        turn,
+        signed_area,
         ok,
     }
 }
@@ -697,7 +704,9 @@ where
         inv_area,
         speed,
         inv_speed,
-        c2,
+        w,
+        turn,
+        signed_area,
         mut ok,
     } = *mid;
     // SAFETY (splats): passed on from the caller.
@@ -724,7 +733,8 @@ where
     let inv_det = inv_area * inv_area;
     let (bc0, bc1) = ((g * xs - f * xv) * inv_det, (e * xv - f * xs) * inv_det);
     let tg = form(tc0, tc1, bc0, bc1);
-    let kg = dot(c2, b) * inv_speed2;
+    // κg = (W·B + σ|Su × Sv| (u'v'' − v'u'')/|c'|)/|c'|² (darboux_frame_at).
+    let kg = (dot(w, b) + signed_area * turn * inv_speed) * inv_speed2;
     // κn, κg, τg, |c'|, T and B finite (a sum, as above), and |c'| ≠ 0.
     let results =
         ((kn + kg) + (tg + speed)) + (((tan[0] + tan[1]) + (tan[2] + b[0])) + (b[1] + b[2]));

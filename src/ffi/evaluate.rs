@@ -15,7 +15,7 @@ use super::types::{StrakeCurveJet, StrakeFrame, StrakeParamScales, StrakeSurface
 use crate::error::StrakeError;
 use crate::geometry::frame::{ParamScales, darboux_frame};
 use crate::geometry::jet::{CurveJet, SurfaceJet};
-use crate::paths::curve_on_surface::{CurveOnSurface, Hints};
+use crate::paths::curve_on_surface::{CurveOnSurface, Hints, SampleError};
 use std::mem::MaybeUninit;
 
 /// Computes the frame at curve parameter `t` of `curve` lying on `surface`.
@@ -296,6 +296,59 @@ pub unsafe extern "C" fn strake_frame_from_jets(
         unsafe {
             slot.as_ptr()
                 .write(MaybeUninit::new(StrakeFrame::new(0.0, &frame)))
+        };
+        Ok(())
+    })
+}
+
+/// Writes the crease flags of the frames at the `count` curve parameters `ts`: `flags[i]` is 0
+/// where the frame at `ts[i]` (from `strake_frame_at`, `strake_frames_at`,
+/// `strake_frames_even` or the sampling calls at the same t) lies at a smooth point of the
+/// surface, otherwise an OR of `StrakeKnotLineFlag` bits saying which knot lines of reduced
+/// continuity it lies on and how the side was chosen. Only the curve is evaluated. A separate
+/// call, so that `StrakeFrame` keeps its layout.
+///
+/// Returns `STRAKE_STATUS_OK` and writes `flags[0..count]`; otherwise `flags` is untouched and
+/// the message names the failing sample's index and t. Errors: NULL_POINTER (`surface`,
+/// `curve`, `ts`, `flags`); INVALID_ARGUMENT (`count` of 0 or too large); NON_FINITE (a t, or
+/// a callback's jet entry); OUT_OF_DOMAIN (a t outside the curve's domain, or a (u, v)
+/// outside the surface's); CURVE_CALLBACK_FAILED.
+///
+/// Thread-safe: any number of threads may use the same handles at once.
+///
+/// # Safety
+/// `surface` and `curve` NULL or live handles; `ts` NULL or `count` readable doubles; `flags`
+/// NULL or room for `count` uint32_t, not overlapping `ts`.
+#[unsafe(no_mangle)]
+pub unsafe extern "C" fn strake_knot_line_flags(
+    surface: *const StrakeSurface,
+    curve: *const StrakeCurve,
+    ts: *const f64,
+    count: usize,
+    flags: *mut u32,
+) -> StrakeStatus {
+    guard("strake_knot_line_flags", || {
+        // SAFETY: the caller passes live handles or NULL, and `count` readable doubles at `ts`.
+        let (s, c) = unsafe { (input(surface, "surface")?, input(curve, "curve")?) };
+        let ts = unsafe { input_slice(ts, count, "ts", "count")? };
+        let slot = output(flags, "flags")?;
+        check_count::<u32>(count, "count")?;
+        let pair = CurveOnSurface::new(s.source(), c.curve());
+        let mut scratch: Vec<u32> = Vec::new();
+        scratch.try_reserve_exact(count).map_err(|_| {
+            Failure::invalid(format!("cannot allocate scratch space for {count} flags"))
+        })?;
+        let mut hints = Hints::default();
+        for (index, &t) in ts.iter().enumerate() {
+            let f = pair
+                .crease_flags(t, &mut hints)
+                .map_err(|error| SampleError { index, t, error })?;
+            scratch.push(f.0);
+        }
+        // SAFETY: `flags` checked non-null and aligned with room for `count` values (the
+        // caller's contract, size checked by `check_count`); `scratch` holds `count` values.
+        unsafe {
+            std::ptr::copy_nonoverlapping(scratch.as_ptr(), slot.as_ptr().cast::<u32>(), count)
         };
         Ok(())
     })

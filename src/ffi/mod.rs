@@ -113,3 +113,6 @@ pub use checks::{
     strake_check_tow_edges_path, strake_cutter_radii, strake_tool_axis_path,
 };
 pub use types::{StrakeCutterRadii, StrakeCutterStepOver, StrakeRearGouge, StrakeTowEdges};
+// Crease flags of knot lines of reduced continuity.
+pub use evaluate::strake_knot_line_flags;
+pub use types::StrakeKnotLineFlag;

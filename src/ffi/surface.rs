@@ -103,6 +103,22 @@ impl SurfaceSource for StrakeSurface {
     ) -> Result<SurfaceJet> {
         self.source.jet_in_domain(u, v, order, hint)
     }
+    fn u_creases(&self) -> &[crate::surface::crease::KnotLine] {
+        self.source.u_creases()
+    }
+    fn v_creases(&self) -> &[crate::surface::crease::KnotLine] {
+        self.source.v_creases()
+    }
+    fn jet_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: crate::surface::KnotSides,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        self.source.jet_in_domain_sided(u, v, sides, order, hint)
+    }
     fn jets_in_domain_block(
         &self,
         u: &[f64],

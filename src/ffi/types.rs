@@ -1142,3 +1142,31 @@ pub struct StrakeCourseCheck {
     /// Course length (host length unit).
     pub length: f64,
 }
+
+/// Bits of the crease flags `strake_knot_line_flags` writes (a `uint32_t` per sample; 0: a
+/// smooth point). A native NURBS surface of degree p is only C^(p - m) across an interior knot
+/// of multiplicity m; for m >= p - 1 it is not C2 there ("crease"). A curve point within a few
+/// units of round-off of such a knot line is snapped onto it, and the frame there is that of
+/// the side the curve moves into (u' > 0: the span starting at the knot; u' < 0: the span
+/// ending at it). When the curve runs along the line (u' zero to round-off) the side is the
+/// one u'' points to, or the side above the knot when u'' = 0 too. The continuity is that of
+/// the parametrisation (an exact NURBS circle with double knots is only C0 in its parameter,
+/// yet geometrically smooth). Host callback surfaces report no creases.
+#[repr(u32)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrakeKnotLineFlag {
+    /// 1: u lies on an interior u knot of multiplicity >= p - 1 (the surface is not C2 across
+    /// it); the frame is that of the side the curve moves into.
+    ULine = 1,
+    /// 2: the same for a v knot line.
+    VLine = 2,
+    /// 4: that u line is at most C0 (multiplicity >= p): the normal may differ between sides.
+    UOnlyC0 = 4,
+    /// 8: the same for the v line.
+    VOnlyC0 = 8,
+    /// 16: the curve runs along the u line (u' is zero to round-off): the side was chosen by
+    /// the rule above, not by the direction of travel.
+    AlongU = 16,
+    /// 32: the same for the v line.
+    AlongV = 32,
+}

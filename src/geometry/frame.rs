@@ -31,9 +31,11 @@ pub use crate::geometry::principal::{Orientation, PrincipalCurvatures, SurfacePo
 /// Measured (`examples/conditioning_sweep.rs`, tables in `docs/accuracy.md`): κn, τg, k1 and k2
 /// do not depend on the speed and keep round-off accuracy at any f. The geodesic curvature of a
 /// curve that starts from rest along a straight (u, v) line (u' ~ t, u'' constant, as at a doubled
-/// end control point) loses accuracy like 0.07 ε/f² (fitted exponent 2.0) and reaches 1e-6
-/// relative at f ≈ 4e-6; a curve that stops while turning, or comes to rest more smoothly, loses
-/// less. At this limit the worst measured error of κg is about 1.5e-7.
+/// end control point) loses accuracy like ε/f² (fitted exponent 2.0), because its inputs do:
+/// computed in the parameter plane it stays within 0.2 of the change that rounding the inputs
+/// alone causes, and with jets carrying one unit of round-off it reaches 1e-6 relative between
+/// f = 3.2e-6 and 1e-6; a curve that stops while turning, or comes to rest more smoothly, loses
+/// less. At this limit the worst measured error of κg is about 6e-8.
 pub const STALLED_CURVE_LIMIT: f64 = 1e-5;
 
 /// The widths of the parameter domains, which set the scale against which degeneracy is
@@ -213,11 +215,10 @@ pub fn darboux_frame_at(
     }
     let (du, dv) = (curve.du, curve.dv);
     let c1 = surface.su * du + surface.sv * dv;
-    let c2 = surface.suu * (du * du)
-        + surface.suv * (2.0 * du * dv)
-        + surface.svv * (dv * dv)
-        + surface.su * curve.ddu
-        + surface.sv * curve.ddv;
+    // W = Suu u'² + 2 Suv u'v' + Svv v'²: c'' without its part Su u'' + Sv v'' (see κg below).
+    let w = surface.suu * (du * du) + surface.suv * (2.0 * du * dv) + surface.svv * (dv * dv);
+    // u'v'' − v'u'': the turning of the curve in the parameter plane.
+    let turn = du * curve.ddv - dv * curve.ddu;
     let speed2 = c1.norm_squared();
     let speed = speed2.sqrt();
     let inv_speed = 1.0 / speed;
@@ -229,7 +230,15 @@ pub fn darboux_frame_at(
     // Taking c''·N instead subtracts the tangential part Su u'' + Sv v'' of c'' numerically,
     // which costs ε|c''|/(κn|c'|²) near a stalled curve (docs/accuracy.md).
     let kn = sp.second_form((du, dv), (du, dv)) * inv_speed2;
-    let kg = c2.dot(&b) * inv_speed2;
+    // κg = c''·B/|c'|² with c'' = W + Su u'' + Sv v'': since (Su u'' + Sv v'')·(N × T) =
+    // N·(Su × Sv) (u'v'' − v'u'')/|c'|,
+    //   κg = (W·B + σ|Su × Sv| (u'v'' − v'u'')/|c'|) / |c'|²,
+    // the parameter-plane (Christoffel) form: W's tangential part is Su Γ¹(u', v') +
+    // Sv Γ²(u', v') (`geodesics::christoffel`), and only its B part enters. The tangential
+    // part of the acceleration along T, which c''·B cancels numerically (costing
+    // ε|c''|/|c'|² as the curve stalls), cancels exactly in u'v'' − v'u'' when (u'', v'') is
+    // parallel to (u', v') (docs/accuracy.md has the measurement).
+    let kg = (w.dot(&b) + sp.signed_area * turn * inv_speed) * inv_speed2;
     // τg = II(T, B): T has (u, v) components (u', v')/|c'|; those of B come from B·Su, B·Sv.
     let tc = (du * inv_speed, dv * inv_speed);
     let bc = sp.components(b.dot(&surface.su), b.dot(&surface.sv));

@@ -130,6 +130,9 @@ pub struct SurfacePoint {
     pub g: f64,
     /// |Su × Sv| = √(EG − F²).
     pub area: f64,
+    /// N·(Su × Sv) = σ |Su × Sv| (σ = ±1 from [`Orientation`]): the factor of u'v'' − v'u''
+    /// in the geodesic curvature (`frame::darboux_frame_at`).
+    pub signed_area: f64,
     /// Second fundamental form L = Suu·N.
     pub l: f64,
     /// Second fundamental form M = Suv·N.
@@ -269,6 +272,7 @@ impl SurfacePoint {
             f,
             g,
             area,
+            signed_area: sigma * area,
             l,
             m,
             nn,

@@ -23,6 +23,26 @@ pub struct KnotVector {
     count: usize,
     /// The distinct knot values strictly inside the domain, ascending.
     breaks: Vec<f64>,
+    /// The interior knots of multiplicity m ≥ p − 1 (a B-spline is at most C1 across them),
+    /// ascending, with their continuity p − m.
+    creases: Vec<KnotLine>,
+}
+
+/// An interior knot across which a B-spline of its knot vector is not C2: multiplicity
+/// m ≥ p − 1 for degree p, so the spline is only C^(p − m) there (The NURBS Book, 2nd ed.,
+/// ch. 2, the continuity of the basis functions at a knot). The second derivatives, hence the
+/// curvatures of a surface, may jump across it; with `continuity` ≤ 0 the first derivatives,
+/// hence its normal, may jump too.
+///
+/// The continuity is that of the parametrisation: a rational conic with double knots (the
+/// nine-point circle) is geometrically smooth across a line that is only C0 in its parameter.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct KnotLine {
+    /// The knot value.
+    pub at: f64,
+    /// p − m: 1 (C1: curvatures may jump), 0 (C0: the normal may jump too), −1 (m = p + 1:
+    /// the spline itself may be discontinuous there).
+    pub continuity: i32,
 }
 
 impl KnotVector {
@@ -99,11 +119,22 @@ impl KnotVector {
             .filter(|&k| k > lo && k < hi)
             .collect();
         breaks.dedup();
+        let creases = breaks
+            .iter()
+            .filter_map(|&at| {
+                let m = knots.iter().filter(|&&k| k == at).count();
+                (m + 1 >= degree).then_some(KnotLine {
+                    at,
+                    continuity: degree as i32 - m as i32,
+                })
+            })
+            .collect();
         Ok(KnotVector {
             knots: knots.to_vec(),
             degree,
             count,
             breaks,
+            creases,
         })
     }
 
@@ -118,6 +149,33 @@ impl KnotVector {
     #[inline]
     pub fn interior_breaks(&self) -> &[f64] {
         &self.breaks
+    }
+
+    /// The interior knots across which a B-spline of this knot vector is not C2 (multiplicity
+    /// m ≥ p − 1; see [`KnotLine`]), ascending. For degrees 1 and 2 every interior knot.
+    #[inline]
+    pub fn creases(&self) -> &[KnotLine] {
+        &self.creases
+    }
+
+    /// The knot span below the knot `u` = u_i (i ≥ p + 1, u_i inside the domain): the span index
+    /// j with u_j < u_j+1 = u, whose polynomial evaluated at u gives the limit from below (the
+    /// left-continuous basis). `span` is the span [`Self::find_span`] returned for u (the last
+    /// index with u_span ≤ u). When u is not a knot of `span` (u > u_span) or there is no span
+    /// below inside the domain, `span` itself.
+    #[inline]
+    pub fn span_below(&self, u: f64, span: usize) -> usize {
+        let k = &self.knots;
+        if span > self.degree && k[span] == u {
+            let mut j = span;
+            while j > self.degree && k[j] == u {
+                j -= 1;
+            }
+            // k[j] < u = k[j + 1] unless j reached the first span (u = the domain's start).
+            if k[j] < u { j } else { span }
+        } else {
+            span
+        }
     }
 
     /// The degree p.

@@ -16,5 +16,5 @@ pub use basis::{BasisRows, basis_rows};
 pub use conics::CircleForm;
 pub use curve::{CurvePointDerivs, NurbsCurve};
 pub use interpolate::{EndDerivatives, Parametrization, interpolate};
-pub use knots::{KnotVector, MAX_DEGREE, SpanHint};
+pub use knots::{KnotLine, KnotVector, MAX_DEGREE, SpanHint};
 pub use surface::{NurbsSurface, NurbsSurfaceData};

@@ -34,7 +34,8 @@ use crate::error::{Result, StrakeError};
 use crate::geometry::jet::{DerivOrder, Interval, SurfaceJet};
 use crate::geometry::math::Vec3;
 use crate::geometry::principal::Orientation;
-use crate::surface::{SurfaceHint, SurfaceSource};
+use crate::surface::crease::KnotLine;
+use crate::surface::{KnotSide, KnotSides, SurfaceHint, SurfaceSource};
 
 mod block;
 mod high;
@@ -265,12 +266,28 @@ impl NurbsSurface {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
+        self.jet_sided_unchecked(u, v, KnotSides::default(), order, hint)
+    }
+
+    /// As [`Self::jet_unchecked`], on the given sides of the knot lines through (u, v): with
+    /// [`KnotSide::Below`] in u and u equal to an interior knot, the basis of the span that
+    /// ends at the knot (the limit from below; [`KnotVector::span_below`]); otherwise the span
+    /// a search finds (the limit from above). Off the knots both sides are the same jet.
+    #[inline]
+    pub fn jet_sided_unchecked(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
         #[cfg(target_arch = "x86_64")]
         if std::arch::is_x86_feature_detected!("avx2") {
             // SAFETY: the processor supports AVX2 (checked just above).
-            return unsafe { self.jet_avx2(u, v, order, hint) };
+            return unsafe { self.jet_avx2(u, v, sides, order, hint) };
         }
-        self.jet_portable(u, v, order, hint)
+        self.jet_portable(u, v, sides, order, hint)
     }
 
     /// [`Self::jet_with`] compiled for AVX2, with the tensor sums on one 256-bit vector per
@@ -284,10 +301,11 @@ impl NurbsSurface {
         &self,
         u: f64,
         v: f64,
+        sides: KnotSides,
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
-        self.jet_with::<Avx>(u, v, order, hint)
+        self.jet_sided_with::<Avx>(u, v, sides, order, hint)
     }
 
     /// The evaluation in the baseline instruction set (SSE2 on x86-64).
@@ -296,10 +314,11 @@ impl NurbsSurface {
         &self,
         u: f64,
         v: f64,
+        sides: KnotSides,
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
-        self.jet_with::<Sse2>(u, v, order, hint)
+        self.jet_sided_with::<Sse2>(u, v, sides, order, hint)
     }
 
     /// The evaluation with the vector arithmetic `M` (see `quad`), dispatched on the order.
@@ -312,13 +331,27 @@ impl NurbsSurface {
         order: DerivOrder,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
+        self.jet_sided_with::<M>(u, v, KnotSides::default(), order, hint)
+    }
+
+    /// [`Self::jet_with`] on the given sides of the knot lines (see
+    /// [`Self::jet_sided_unchecked`]).
+    #[inline(always)]
+    fn jet_sided_with<M: QuadOps>(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> SurfaceJet {
         // Stack rows sized for the degree; the common degrees (bicubic, cubic by lower,
         // biquadratic, quadratic by linear, bilinear) known at compile time, so that the basis
         // recursion is unrolled and stays in registers.
         match order {
-            DerivOrder::Position => self.eval_order::<0, M>(u, v, hint),
-            DerivOrder::First => self.eval_order::<1, M>(u, v, hint),
-            DerivOrder::Second => self.eval_order::<2, M>(u, v, hint),
+            DerivOrder::Position => self.eval_order::<0, M>(u, v, sides, hint),
+            DerivOrder::First => self.eval_order::<1, M>(u, v, sides, hint),
+            DerivOrder::Second => self.eval_order::<2, M>(u, v, sides, hint),
         }
     }
 
@@ -328,18 +361,19 @@ impl NurbsSurface {
         &self,
         u: f64,
         v: f64,
+        sides: KnotSides,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
         match (self.u_knots.degree(), self.v_knots.degree()) {
-            (3, 3) => self.eval::<K, 4, 3, 3, true, M>(u, v, hint),
-            (3, q) if q < 3 => self.eval::<K, 4, 3, 0, true, M>(u, v, hint),
-            (p, 3) if p < 3 => self.eval::<K, 4, 0, 3, true, M>(u, v, hint),
-            (2, 2) => self.eval::<K, 3, 2, 2, true, M>(u, v, hint),
-            (2, 1) => self.eval::<K, 3, 2, 1, true, M>(u, v, hint),
-            (1, 2) => self.eval::<K, 3, 1, 2, true, M>(u, v, hint),
-            (1, 1) => self.eval::<K, 2, 1, 1, true, M>(u, v, hint),
-            (p, q) if p.max(q) < 8 => self.eval::<K, 8, 0, 0, true, M>(u, v, hint),
-            _ => self.eval::<K, MAX_ORDER, 0, 0, true, M>(u, v, hint),
+            (3, 3) => self.eval::<K, 4, 3, 3, true, M>(u, v, sides, hint),
+            (3, q) if q < 3 => self.eval::<K, 4, 3, 0, true, M>(u, v, sides, hint),
+            (p, 3) if p < 3 => self.eval::<K, 4, 0, 3, true, M>(u, v, sides, hint),
+            (2, 2) => self.eval::<K, 3, 2, 2, true, M>(u, v, sides, hint),
+            (2, 1) => self.eval::<K, 3, 2, 1, true, M>(u, v, sides, hint),
+            (1, 2) => self.eval::<K, 3, 1, 2, true, M>(u, v, sides, hint),
+            (1, 1) => self.eval::<K, 2, 1, 1, true, M>(u, v, sides, hint),
+            (p, q) if p.max(q) < 8 => self.eval::<K, 8, 0, 0, true, M>(u, v, sides, hint),
+            _ => self.eval::<K, MAX_ORDER, 0, 0, true, M>(u, v, sides, hint),
         }
     }
 
@@ -362,14 +396,21 @@ impl NurbsSurface {
         &self,
         u: f64,
         v: f64,
+        sides: KnotSides,
         hint: &mut SurfaceHint,
     ) -> SurfaceJet {
         debug_assert!(P == 0 || P == self.u_knots.degree());
         debug_assert!(Q == 0 || Q == self.v_knots.degree());
         let p = if P > 0 { P } else { self.u_knots.degree() };
         let q = if Q > 0 { Q } else { self.v_knots.degree() };
-        let span_u = self.u_knots.find_span(u, &mut hint.u);
-        let span_v = self.v_knots.find_span(v, &mut hint.v);
+        let mut span_u = self.u_knots.find_span(u, &mut hint.u);
+        let mut span_v = self.v_knots.find_span(v, &mut hint.v);
+        if sides.u == KnotSide::Below {
+            span_u = self.u_knots.span_below(u, span_u);
+        }
+        if sides.v == KnotSide::Below {
+            span_v = self.v_knots.span_below(v, span_v);
+        }
         let (nu, nv) = if TABLE {
             let (tu, tv) = (reciprocals_per_span(p), reciprocals_per_span(q));
             let ru = Reciprocals(&self.u_recip[(span_u - p) * tu..][..tu]);
@@ -558,6 +599,22 @@ impl SurfaceSource for NurbsSurface {
     fn v_breaks(&self) -> &[f64] {
         self.v_knots.interior_breaks()
     }
+    fn u_creases(&self) -> &[KnotLine] {
+        self.u_knots.creases()
+    }
+    fn v_creases(&self) -> &[KnotLine] {
+        self.v_knots.creases()
+    }
+    fn jet_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        Ok(self.jet_sided_unchecked(u, v, sides, order, hint))
+    }
     #[inline]
     fn max_order(&self) -> usize {
         crate::geometry::jet::MAX_PARTIAL_ORDER
@@ -662,8 +719,10 @@ mod tests {
                 let u = du.lo + du.width() * if i % 10 == 0 { 0.0 } else { lcg(&mut st) };
                 let v = dv.lo + dv.width() * if i % 7 == 0 { 1.0 } else { lcg(&mut st) };
                 let a = s.jet_unchecked(u, v, DerivOrder::Second, &mut h);
-                let b = s.eval::<2, MAX_ORDER, 0, 0, false, Scalar>(u, v, &mut h);
-                let full = s.eval::<2, MAX_ORDER, 0, 0, true, Scalar>(u, v, &mut h);
+                let b =
+                    s.eval::<2, MAX_ORDER, 0, 0, false, Scalar>(u, v, KnotSides::default(), &mut h);
+                let full =
+                    s.eval::<2, MAX_ORDER, 0, 0, true, Scalar>(u, v, KnotSides::default(), &mut h);
                 assert_eq!(a, full, "degrees ({p}, {q}): sized rows vs MAX_ORDER rows");
                 // Every vector arithmetic gives the same bits (see `quad`).
                 for order in [DerivOrder::Position, DerivOrder::First, DerivOrder::Second] {

@@ -6,10 +6,12 @@ use crate::curve::UvCurve;
 pub use crate::engine::batch::{Hints, SampleError};
 use crate::error::{Result, StrakeError};
 use crate::geometry::frame::{DarbouxFrame, ParamScales, darboux_frame_at};
+use crate::geometry::jet::CurveJet;
 use crate::geometry::jet::{CurvePartials, DerivOrder, SurfacePartials};
 use crate::geometry::principal::SurfacePoint;
 use crate::geometry::rates::{InvariantRates, invariant_rates};
-use crate::surface::SurfaceSource;
+use crate::surface::crease::snap_onto_surface_creases;
+use crate::surface::{CreaseFlags, KnotSides, SurfaceSource};
 
 /// One sample of a path: where it is along the curve and its frame there.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -62,19 +64,39 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
 
     /// The frame at curve parameter `t`.
     ///
+    /// A point on a knot line of the surface where it is not C2 is snapped onto the line and
+    /// evaluated on the side the curve moves into ([`crate::surface::crease`]); use
+    /// [`Self::frame_flagged`] to learn whether that happened.
+    ///
     /// Errors: every error of [`UvCurve::checked_jet`], [`SurfaceSource::checked_jet`] (the
     /// curve leaving the surface's domain gives `OutOfDomain` for u or v) and
     /// [`crate::geometry::frame::darboux_frame`].
     #[inline]
     pub fn frame(&self, t: f64, hints: &mut Hints) -> Result<DarbouxFrame> {
-        let mut cj = self.curve.checked_jet(t, &mut hints.curve)?;
-        // A (u, v) within round-off of the surface's edge is on the edge: snapped onto it
-        // exactly, so the frame and the batch see the same point.
-        cj.u = self.surface.u_domain().snap("u", cj.u)?;
-        cj.v = self.surface.v_domain().snap("v", cj.v)?;
-        let sj = self
-            .surface
-            .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?;
+        self.frame_flagged(t, hints).map(|(frame, _)| frame)
+    }
+
+    /// The frame at curve parameter `t` (as [`Self::frame`]) with the crease flags of the point:
+    /// [`CreaseFlags::is_smooth`] at a point on no knot line of reduced continuity; otherwise
+    /// which lines it lies on, whether they are only C0, and whether the curve runs along one
+    /// (the side then chosen by the rule of [`crate::surface::crease`]).
+    #[inline]
+    pub fn frame_flagged(&self, t: f64, hints: &mut Hints) -> Result<(DarbouxFrame, CreaseFlags)> {
+        let (cj, flags, sides) = self.curve_point(t, hints)?;
+        let sj = if flags.is_smooth() {
+            self.surface
+                .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?
+        } else {
+            let sj = self.surface.jet_in_domain_sided(
+                cj.u,
+                cj.v,
+                sides,
+                DerivOrder::Second,
+                &mut hints.surface,
+            )?;
+            sj.check_finite()?;
+            sj
+        };
         let sp = SurfacePoint::new(
             &sj,
             self.surface.orientation(),
@@ -83,7 +105,27 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
             self.scales.u_extent,
             self.scales.v_extent,
         )?;
-        darboux_frame_at(&sj, &sp, &cj, &self.scales, t)
+        Ok((darboux_frame_at(&sj, &sp, &cj, &self.scales, t)?, flags))
+    }
+
+    /// The crease flags of the frame at `t` (those of [`Self::frame_flagged`]) without the
+    /// frame: the curve is evaluated, the surface is not. Errors: those of
+    /// [`UvCurve::checked_jet`] and `OutOfDomain` for a (u, v) off the surface's domain.
+    pub fn crease_flags(&self, t: f64, hints: &mut Hints) -> Result<CreaseFlags> {
+        self.curve_point(t, hints).map(|(_, flags, _)| flags)
+    }
+
+    /// The curve jet at `t` with (u, v) snapped onto the surface's edge and onto its creases,
+    /// the crease flags and the sides to evaluate on.
+    #[inline]
+    fn curve_point(&self, t: f64, hints: &mut Hints) -> Result<(CurveJet, CreaseFlags, KnotSides)> {
+        let mut cj = self.curve.checked_jet(t, &mut hints.curve)?;
+        // A (u, v) within round-off of the surface's edge is on the edge: snapped onto it
+        // exactly, so the frame and the batch see the same point.
+        cj.u = self.surface.u_domain().snap("u", cj.u)?;
+        cj.v = self.surface.v_domain().snap("v", cj.v)?;
+        let (flags, sides) = snap_onto_surface_creases(self.surface, &mut cj, &self.scales);
+        Ok((cj, flags, sides))
     }
 
     /// Frames at each of `ts`, written to `out` (same length). Stops at the first failure and

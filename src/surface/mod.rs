@@ -2,8 +2,10 @@
 //! by analytic closures ([`FnSurface`]), by host callbacks (in the C ABI) and by native NURBS.
 
 mod closure;
+pub mod crease;
 
 pub use closure::FnSurface;
+pub use crease::{CreaseFlags, KnotSide, KnotSides};
 
 use crate::error::{Result, StrakeError};
 use crate::geometry::jet::{DerivOrder, Interval, MAX_PARTIAL_ORDER, SurfaceJet, SurfacePartials};
@@ -40,6 +42,32 @@ pub trait SurfaceSource: Send + Sync {
     /// As [`SurfaceSource::u_breaks`], in v.
     fn v_breaks(&self) -> &[f64] {
         &[]
+    }
+    /// The u knot lines across which the surface is not C2 (a NURBS surface's interior u
+    /// knots of multiplicity ≥ p − 1), ascending: a curve point on one is snapped onto it and
+    /// evaluated on the side it moves into ([`crease`]). None by default (a source that does
+    /// not know its knots, such as a host callback).
+    fn u_creases(&self) -> &[crease::KnotLine] {
+        &[]
+    }
+    /// As [`SurfaceSource::u_creases`], in v.
+    fn v_creases(&self) -> &[crease::KnotLine] {
+        &[]
+    }
+    /// The jet at (u, v) evaluated on the given sides of the knot lines through the point: on
+    /// a line of [`SurfaceSource::u_creases`] the limit from above or below. Called only with
+    /// (u, v) inside the domain, like [`SurfaceSource::jet_in_domain`], which the default
+    /// calls (a source without knot lines has one jet per point).
+    fn jet_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        let _ = sides;
+        self.jet_in_domain(u, v, order, hint)
     }
     /// The jet at (u, v) up to `order`; entries above `order` may be left zero. Called only
     /// with (u, v) inside the domain; the result is checked for finiteness by the caller
@@ -173,6 +201,22 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
     }
     fn v_breaks(&self) -> &[f64] {
         (**self).v_breaks()
+    }
+    fn u_creases(&self) -> &[crease::KnotLine] {
+        (**self).u_creases()
+    }
+    fn v_creases(&self) -> &[crease::KnotLine] {
+        (**self).v_creases()
+    }
+    fn jet_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: DerivOrder,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfaceJet> {
+        (**self).jet_in_domain_sided(u, v, sides, order, hint)
     }
     fn jet_in_domain(
         &self,
