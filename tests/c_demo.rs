@@ -168,7 +168,8 @@ fn parse_raw(text: &str) -> Raw {
             // What the pictures need (examples/plots/raw.rs reads them; tests/pictures.rs
             // checks them against the lines above).
             "mill_frame" | "course_frame" | "cavity_grid_size" | "cavity_grid"
-            | "wing_grid_size" | "wing_grid" | "centre_feed" => {}
+            | "wing_grid_size" | "wing_grid" | "centre_feed" | "course_edge" | "course_gap"
+            | "course_overlap" => {}
             other => panic!("unexpected line `{other}` in the raw output"),
         }
     }

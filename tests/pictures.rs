@@ -10,7 +10,9 @@ mod c_build;
 #[path = "../examples/plots/mod.rs"]
 mod plots;
 
-use plots::raw::{Course, Demo, Grid, GridPoint, MillPass, Sample, Stretch};
+use plots::raw::{
+    Band, Course, Courses, Demo, EdgePoint, Grid, GridPoint, MillPass, Sample, Seam, Stretch,
+};
 use plots::{Shade, View};
 use std::process::Command;
 
@@ -205,10 +207,20 @@ fn hex(c: plotters::style::RGBColor) -> String {
 
 /// The shaded intervals of a panel, as arc lengths read back from the picture.
 fn shaded(svg: &Svg, p: &Axes) -> Vec<(f64, f64)> {
-    let fill = hex(plots::VIOLATION_FILL);
+    shaded_with(svg, p, plots::VIOLATION_FILL, plots::VIOLATION_OPACITY)
+}
+
+/// The same, for a shading of another fill and opacity.
+fn shaded_with(
+    svg: &Svg,
+    p: &Axes,
+    fill: plotters::style::RGBColor,
+    opacity: f64,
+) -> Vec<(f64, f64)> {
+    let fill = hex(fill);
     svg.rects
         .iter()
-        .filter(|r| r.0 == fill && (r.1 - plots::VIOLATION_OPACITY).abs() < 1e-9)
+        .filter(|r| r.0 == fill && (r.1 - opacity).abs() < 1e-9)
         // Legend swatches are 16 px high; the shading spans the plotting area.
         .filter(|r| r.5 > 40.0 && r.3 >= p.top && r.3 + r.5 <= p.bottom)
         .map(|r| ((r.2 - p.x.0) / p.x.1, (r.2 + r.4 - p.x.0) / p.x.1))
@@ -399,6 +411,55 @@ fn small_wing() -> (Grid, Course) {
     (Grid { nu, nv, points }, course)
 }
 
+/// Three bands 50 mm wide along the span of the small wing (centre lines y = 300 + 50 k + s/20,
+/// edge samples every 100 mm), with a gap planted between courses 0 and 1 on s in [300, 650]
+/// and an overlap between courses 1 and 2 on [1000, 1500].
+fn small_courses() -> Courses {
+    let bands = (0..3)
+        .map(|k| {
+            let edge = |off: f64| -> Vec<EdgePoint> {
+                (0..=20)
+                    .map(|i| {
+                        let s = 100.0 * i as f64;
+                        let (u, v) = (100.0 + s, 300.0 + 50.0 * k as f64 + s / 20.0 + off);
+                        EdgePoint {
+                            s,
+                            u,
+                            v,
+                            p: [u, v, 60.0],
+                        }
+                    })
+                    .collect()
+            };
+            Band {
+                right: edge(-25.0),
+                left: edge(25.0),
+            }
+        })
+        .collect();
+    Courses {
+        band_width: 50.0,
+        tolerance: 0.05,
+        bands,
+        seams: vec![
+            Seam {
+                course: 0,
+                start: 300.0,
+                end: 650.0,
+                overlap: false,
+                width: 0.4,
+            },
+            Seam {
+                course: 1,
+                start: 1000.0,
+                end: 1500.0,
+                overlap: true,
+                width: 0.25,
+            },
+        ],
+    }
+}
+
 fn small_demo() -> Demo {
     let (wing, course) = small_wing();
     Demo {
@@ -406,6 +467,7 @@ fn small_demo() -> Demo {
         pass: small_pass(),
         wing,
         course,
+        courses: small_courses(),
     }
 }
 
@@ -491,7 +553,8 @@ fn checks_along_the_pass_shade_every_violation_at_its_arc_lengths() {
         "programmed feed 15000 mm/min",
         "the ball gouges",
         "scallop above the limit",
-        "feed held below the programmed feed",
+        "programmed feed above the contact-path limit",
+        "feed limit on the contact path",
         "k1 (largest, concave > 0)",
         "k2 (smallest)",
     ] {
@@ -538,18 +601,220 @@ fn checks_along_the_pass_shade_every_violation_at_its_arc_lengths() {
         &along(&pass.feed, 60.0),
         &p[2],
     );
-    // With the tool centre's feed, a second series and its legend appear.
-    let centre: Vec<f64> = pass.feed.iter().map(|f| 0.9 * f).collect();
-    pass.centre_feed = Some(centre);
-    let svg = read(&plots::pass_checks(&pass).unwrap());
-    svg.has_text("feed of the tool centre");
+    // Without the tool-centre feed lines, neither its series nor its shading appear.
     assert!(
+        !svg.texts
+            .iter()
+            .any(|t| t.content.contains("tool-centre path"))
+    );
+    assert!(
+        shaded_with(
+            &svg,
+            &p[2],
+            plots::CENTRE_VIOLATION_FILL,
+            plots::CENTRE_VIOLATION_OPACITY
+        )
+        .is_empty()
+    );
+    // With them: the centre-path limit as a dashed series and its own shading. The made-up
+    // limit is 250 + 0.5 min(|s - 100| - 20, 185 - s) mm/s against a programmed 250 mm/s, so
+    // the programmed feed exceeds it exactly on (80, 120) and (185, 200] (the last sample);
+    // the excess is linear in s between the samples next to each crossing (s = 80, 120 and
+    // 185 are samples where it is 0), so the linearly interpolated ends are exact.
+    let centre: Vec<f64> = pass
+        .samples
+        .iter()
+        .map(|x| 250.0 + 0.5 * ((x.s - 100.0).abs() - 20.0).min(185.0 - x.s))
+        .collect();
+    pass.centre_feed = Some(centre.clone());
+    let svg = read(&plots::pass_checks(&pass).unwrap());
+    svg.has_text("feed limit on the tool-centre path");
+    svg.has_text("programmed feed above the tool-centre-path limit");
+    let p = panels(&svg);
+    assert_eq!(p.len(), 3);
+    let want = [
+        stretch("centre", 80.0, 120.0),
+        stretch("centre", 185.0, 200.0),
+    ];
+    same_stretches(
+        "centre feed",
+        &shaded_with(
+            &svg,
+            &p[2],
+            plots::CENTRE_VIOLATION_FILL,
+            plots::CENTRE_VIOLATION_OPACITY,
+        ),
+        &want.iter().collect::<Vec<_>>(),
+        &p[2],
+    );
+    // The contact path's intervals are still there, in their own fill.
+    same_stretches(
+        "feed",
+        &shaded(&svg, &p[2]),
+        &kinds(&pass.stretches, "feed"),
+        &p[2],
+    );
+    // Each centre interval has dashed ends at its arc lengths.
+    for s in [80.0, 120.0, 185.0, 200.0] {
+        let x = p[2].x.0 + p[2].x.1 * s;
+        let dashes = svg
+            .lines
+            .iter()
+            .filter(|l| l.0 == hex(plots::CENTRE_VIOLATION_EDGE) && l.1 == 2.0)
+            .filter(|l| {
+                l.2.iter()
+                    .all(|q| (q.0 - x).abs() <= 1.5 && q.1 >= p[2].top && q.1 <= p[2].bottom)
+            })
+            .count();
+        assert!(dashes >= 5, "no dashed end of a centre interval at s = {s}");
+    }
+    // The centre-path limit is drawn dashed at its values (mm/min), over the whole pass.
+    let data = along(&centre, 60.0);
+    let on_data = dashes_on(&svg, plots::OKABE_ITO[1], 3.0, &data, &p[2]);
+    assert!(on_data > 20, "centre series: {on_data} dashes");
+}
+
+/// The dashes of a dashed series (polylines of a colour and width in a panel) lie on the
+/// data's line: each dash point within 1.5 px of the linear interpolation of the data, and the
+/// dashes span the data's arc lengths. Returns the number of dashes.
+#[track_caller]
+fn dashes_on(
+    svg: &Svg,
+    colour: plotters::style::RGBColor,
+    width: f64,
+    data: &[(f64, f64)],
+    p: &Axes,
+) -> usize {
+    let at = |x: f64| -> f64 {
+        let k = data
+            .windows(2)
+            .position(|w| x >= w[0].0 && x <= w[1].0)
+            .unwrap_or_else(|| panic!("dash at s = {x} off the data"));
+        let (a, b) = (data[k], data[k + 1]);
+        a.1 + (x - a.0) / (b.0 - a.0) * (b.1 - a.1)
+    };
+    let c = hex(colour);
+    let boxes = legend_boxes(svg);
+    let in_legend = |q: &(f64, f64)| {
+        boxes
+            .iter()
+            .any(|b| q.0 >= b.0 && q.0 <= b.0 + b.2 && q.1 >= b.1 && q.1 <= b.1 + b.3)
+    };
+    let dashes: Vec<&Line> = svg
+        .lines
+        .iter()
+        .filter(|l| l.0 == c && l.1 == width && !l.2.iter().any(in_legend))
+        .filter(|l| {
+            l.2.iter()
+                .all(|q| q.1 >= p.top && q.1 <= p.bottom && q.0 >= p.x.0 - 1.0)
+        })
+        .collect();
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for l in &dashes {
+        for &(px, py) in &l.2 {
+            let s = ((px - p.x.0) / p.x.1).clamp(data[0].0, data[data.len() - 1].0);
+            let want = p.y.0 + p.y.1 * at(s);
+            // A dash of a steep stretch: its end is within 1.5 px of the line in x or in y.
+            let near = (py - want).abs() <= 1.5
+                || [-1.5, 1.5].iter().any(|d: &f64| {
+                    let s2 = ((px + d - p.x.0) / p.x.1).clamp(data[0].0, data[data.len() - 1].0);
+                    let w2 = p.y.0 + p.y.1 * at(s2);
+                    (py - want) * (py - w2) <= 0.0
+                });
+            assert!(
+                near,
+                "dash point ({px}, {py}) at s = {s:.2} off the data (y = {want:.1})"
+            );
+            lo = lo.min(s);
+            hi = hi.max(s);
+        }
+    }
+    let span = data[data.len() - 1].0 - data[0].0;
+    assert!(
+        lo - data[0].0 < 0.03 * span && data[data.len() - 1].0 - hi < 0.03 * span,
+        "the dashes span s = {lo} .. {hi} only"
+    );
+    dashes.len()
+}
+
+/// Legend boxes: (x, y, width, height) of the white boxes behind legends.
+fn legend_boxes(svg: &Svg) -> Vec<(f64, f64, f64, f64)> {
+    svg.rects
+        .iter()
+        .filter(|r| r.0 == "#FFFFFF" && (r.1 - 0.92).abs() < 1e-9)
+        .map(|r| (r.2, r.3, r.4, r.5))
+        .collect()
+}
+
+/// No point of a drawn series (a polyline of more than 2 points, 3 px or wider) lies inside a
+/// legend box: legends hide no data.
+#[track_caller]
+fn legends_hide_no_data(what: &str, svg: &Svg) {
+    let boxes = legend_boxes(svg);
+    assert!(!boxes.is_empty(), "{what}: no legend");
+    for b in &boxes {
+        for l in svg.lines.iter().filter(|l| l.2.len() > 2 && l.1 >= 3.0) {
+            for q in &l.2 {
+                assert!(
+                    !(q.0 > b.0 && q.0 < b.0 + b.2 && q.1 > b.1 && q.1 < b.1 + b.3),
+                    "{what}: a point {q:?} of a {} line under the legend {b:?}",
+                    l.0
+                );
+            }
+        }
+    }
+}
+
+#[test]
+fn legend_swatches_match_their_series_and_hide_no_data() {
+    let pass = small_pass();
+    let svg = read(&plots::pass_checks(&pass).unwrap());
+    legends_hide_no_data("pass checks", &svg);
+    // The row of a label: its swatch is the polylines left of the text, within 3 px of its y.
+    let swatch = |label: &str, colour: plotters::style::RGBColor| -> Vec<&Line> {
+        let t = svg
+            .texts
+            .iter()
+            .find(|t| t.content == label)
+            .unwrap_or_else(|| panic!("no legend label {label}"));
         svg.lines
             .iter()
-            .filter(|l| l.0 == hex(plots::OKABE_ITO[1]))
-            .count()
-            > 10
-    );
+            .filter(|l| l.0 == hex(colour) && l.2.len() == 2)
+            .filter(|l| {
+                l.2.iter()
+                    .all(|q| (q.1 - t.y).abs() <= 3.0 && q.0 < t.x && q.0 > t.x - 60.0)
+            })
+            .collect()
+    };
+    // k1 is solid: one stroke; k2 is dashed: several, of the series' width.
+    let k1 = swatch("k1 (largest, concave > 0)", plots::OKABE_ITO[5]);
+    assert_eq!(k1.len(), 1);
+    let k2 = swatch("k2 (smallest)", plots::OKABE_ITO[3]);
+    assert!(k2.len() >= 3, "k2's swatch is not dashed: {k2:?}");
+    assert!(k2.iter().all(|l| l.1 == 3.0));
+    // The limit line is dashed, and so is its swatch.
+    assert!(swatch("1/r of the ball, r = 8 mm", plots::LIMIT_COLOUR).len() >= 3);
+    for (name, pic) in [
+        ("curvatures", plots::pass_curvatures(&pass).unwrap()),
+        ("wing", {
+            let (wing, course) = small_wing();
+            plots::wing_course(&wing, &course).unwrap()
+        }),
+        (
+            "cavity 3d",
+            plots::cavity_3d(&small_cavity(), &pass, Shade::Concave).unwrap(),
+        ),
+        (
+            "cavity uv",
+            plots::cavity_uv(&small_cavity(), &pass, Shade::Concave).unwrap(),
+        ),
+        (
+            "courses",
+            plots::wing_gaps(&small_wing().0, &small_courses()).unwrap(),
+        ),
+    ] {
+        legends_hide_no_data(name, &read(&pic));
+    }
 }
 
 /// The cividis colour of x in [0, 1], interpolated from the published table (written here
@@ -774,12 +1039,258 @@ fn wing_course_marks_steering_and_twist_violations() {
 }
 
 #[test]
+fn wing_gaps_mark_gaps_and_overlaps_on_the_band_edges() {
+    let (wing, _) = small_wing();
+    let courses = small_courses();
+    let svg = read(&plots::wing_gaps(&wing, &courses).unwrap());
+    for t in [
+        "Planned courses side by side on the wing skin: gaps and overlaps between them",
+        "u = x along the span (mm)",
+        "v = y from the leading edge (mm)",
+        "band edge (50.0 mm band)",
+        "gap between neighbours (over 0.05 mm)",
+        "overlap of neighbours (over 0.05 mm)",
+        "arc length along the pair's first course s (mm)",
+        "courses 0 | 1",
+        "courses 1 | 2",
+        "gap up to 0.40 mm",
+        "overlap up to 0.25 mm",
+    ] {
+        svg.has_text(t);
+    }
+    // The plan: its axes from the first row of x ticks and the y ticks above it.
+    let rows = svg.x_axes();
+    assert_eq!(
+        rows.len(),
+        2,
+        "the plan and the intervals along the courses"
+    );
+    let plan = Axes {
+        x: fit(&rows[0].1),
+        y: fit(&svg.y_ticks(0.0, rows[0].0)),
+        top: 0.0,
+        bottom: rows[0].0,
+    };
+    // Equal scales: a millimetre is as long across as along (y grows upward).
+    assert!(
+        (plan.x.1 + plan.y.1).abs() <= 0.01 * plan.x.1,
+        "{:?} {:?}",
+        plan.x,
+        plan.y
+    );
+    // Every edge drawn at its (u, v).
+    let edges: Vec<&Line> = svg
+        .lines
+        .iter()
+        .filter(|l| l.0 == hex(plots::EDGE_COLOUR) && l.1 == 2.0 && l.2.len() > 2)
+        .collect();
+    assert_eq!(edges.len(), 2 * courses.bands.len());
+    for (k, band) in courses.bands.iter().enumerate() {
+        for (side, edge) in [("right", &band.right), ("left", &band.left)] {
+            let data: Vec<(f64, f64)> = edge.iter().map(|e| (e.u, e.v)).collect();
+            let drawn = edges
+                .iter()
+                .find(|l| {
+                    let (ex, ey) = (
+                        plan.x.0 + plan.x.1 * data[0].0,
+                        plan.y.0 + plan.y.1 * data[0].1,
+                    );
+                    (l.2[0].0 - ex).abs() <= 1.5 && (l.2[0].1 - ey).abs() <= 1.5
+                })
+                .unwrap_or_else(|| panic!("no {side} edge of course {k}"));
+            drawn_at(
+                &format!("{side} edge of course {k}"),
+                &drawn.2,
+                &data,
+                &plan,
+            );
+        }
+    }
+    // The gap: a solid vermillion mark on course 0's left edge from s = 300 to 650 (the edge
+    // there is v = 325 + s/20 at u = 100 + s; the end s = 650 lies between samples).
+    let gap = series(&svg, plots::GAP_COLOUR, 8.0);
+    let want: Vec<(f64, f64)> = [300.0, 400.0, 500.0, 600.0, 650.0]
+        .iter()
+        .map(|s| (100.0 + s, 325.0 + s / 20.0))
+        .collect();
+    drawn_at("gap mark", gap, &want, &plan);
+    // The overlap: dashes of blue on course 1's left edge (v = 375 + s/20), s = 1000 .. 1500.
+    let dashes: Vec<&Line> = svg
+        .lines
+        .iter()
+        .filter(|l| l.0 == hex(plots::OVERLAP_COLOUR) && l.1 == 8.0)
+        .filter(|l| l.2.iter().all(|q| q.1 < plan.bottom))
+        .filter(|l| {
+            !l.2.iter().any(|q| {
+                legend_boxes(&svg)
+                    .iter()
+                    .any(|b| q.0 >= b.0 && q.0 <= b.0 + b.2 && q.1 >= b.1 && q.1 <= b.1 + b.3)
+            })
+        })
+        .collect();
+    assert!(dashes.len() >= 5, "overlap dashes: {}", dashes.len());
+    for l in &dashes {
+        for q in &l.2 {
+            let u = (q.0 - plan.x.0) / plan.x.1;
+            let v = (q.1 - plan.y.0) / plan.y.1;
+            let s = u - 100.0;
+            assert!((999.0..=1501.0).contains(&s), "overlap dash at s = {s}");
+            assert!(
+                (v - (375.0 + s / 20.0)).abs() * plan.x.1 <= 1.5,
+                "overlap dash off the edge"
+            );
+        }
+    }
+    // The legend sits outside the plan's plotting area: below its x axis.
+    let boxes = legend_boxes(&svg);
+    assert_eq!(boxes.len(), 1);
+    assert!(
+        boxes[0].1 > rows[0].0,
+        "legend {:?} not below the plan",
+        boxes[0]
+    );
+    // Below: the intervals along each pair's first course, at their arc lengths, gaps and
+    // overlaps in their own colours, one row per pair (0 | 1 above 1 | 2).
+    let along = fit(&rows[1].1);
+    let bar = |c: plotters::style::RGBColor| -> Vec<(f64, f64, f64)> {
+        svg.rects
+            .iter()
+            .filter(|r| r.0 == hex(c) && (r.1 - 0.55).abs() < 1e-9 && r.3 > rows[0].0)
+            .map(|r| {
+                (
+                    (r.2 - along.0) / along.1,
+                    (r.2 + r.4 - along.0) / along.1,
+                    r.3 + 0.5 * r.5,
+                )
+            })
+            .collect()
+    };
+    let (g, o) = (bar(plots::GAP_COLOUR), bar(plots::OVERLAP_COLOUR));
+    assert_eq!((g.len(), o.len()), (1, 1));
+    let tol = 1.5 / along.1;
+    assert!(
+        (g[0].0 - 300.0).abs() <= tol && (g[0].1 - 650.0).abs() <= tol,
+        "{g:?}"
+    );
+    assert!(
+        (o[0].0 - 1000.0).abs() <= tol && (o[0].1 - 1500.0).abs() <= tol,
+        "{o:?}"
+    );
+    let row_of = |label: &str| svg.texts.iter().find(|t| t.content == label).unwrap().y;
+    assert!((g[0].2 - row_of("courses 0 | 1")).abs() <= 2.0);
+    assert!((o[0].2 - row_of("courses 1 | 2")).abs() <= 2.0);
+    // Fewer than two bands: refused with a message, not an empty picture.
+    let mut one = courses.clone();
+    one.bands.truncate(1);
+    one.seams.clear();
+    let e = plots::wing_gaps(&wing, &one).unwrap_err();
+    assert!(e.contains("two or more planned courses"), "{e}");
+}
+
+#[test]
+fn raw_course_edges_and_gaps_are_read() {
+    let lines = "course_edge 0 right 0 0 1 2 3 4 5\n\
+                 course_edge 0 left 0 0 1 3 3 5 5\n\
+                 course_edge 0 right 1 10 11 2 13 4 5\n\
+                 course_edge 0 left 1 10 11 3 13 5 5\n\
+                 course_edge 1 right 0 0 1 3 3 5 5\n\
+                 course_edge 1 left 0 0 1 4 3 6 5\n\
+                 course_edge 1 right 1 10 11 3 13 5 5\n\
+                 course_edge 1 left 1 10 11 4 13 6 5\n\
+                 course_gap 0 2.5 7.5 0.125\n\
+                 course_overlap 0 8 9 0.0625\n";
+    let mut demo = String::new();
+    // A minimal rest of the output, so the parse gets to the courses.
+    demo.push_str("cavity_grid_size 2 2\n");
+    for (i, j) in [(0, 0), (0, 1), (1, 0), (1, 1)] {
+        demo.push_str(&format!("cavity_grid {i} {j} 0 0 0 0 0 0 0 0 0\n"));
+    }
+    demo.push_str("wing_grid_size 2 2\n");
+    for (i, j) in [(0, 0), (0, 1), (1, 0), (1, 1)] {
+        demo.push_str(&format!("wing_grid {i} {j} 0 0 0\n"));
+    }
+    demo.push_str("mill_setup 8 0 0.02 250 0 0 0 0 0\n");
+    demo.push_str("course_setup 0 0 0 6.35 1350 0.0001\n");
+    demo.push_str("plan_setup 50.8 0 0 0 0 0.05\n");
+    for (key, n) in [("mill", 2), ("course", 2)] {
+        for i in 0..n {
+            demo.push_str(&format!("{key}_sample {i} 0 {i} 0 0 0\n"));
+            demo.push_str(&format!("{key}_frame {i} 0 0 0 0 0 0 0 1 0 0 0 0 0\n"));
+        }
+    }
+    let d = plots::raw::parse(&(demo.clone() + lines)).unwrap();
+    let c = &d.courses;
+    assert_eq!((c.band_width, c.tolerance), (50.8, 0.05));
+    assert_eq!(c.bands.len(), 2);
+    assert_eq!(
+        c.bands[1].left[1],
+        EdgePoint {
+            s: 10.0,
+            u: 11.0,
+            v: 4.0,
+            p: [13.0, 6.0, 5.0]
+        }
+    );
+    assert_eq!(
+        c.seams,
+        vec![
+            Seam {
+                course: 0,
+                start: 2.5,
+                end: 7.5,
+                overlap: false,
+                width: 0.125
+            },
+            Seam {
+                course: 0,
+                start: 8.0,
+                end: 9.0,
+                overlap: true,
+                width: 0.0625
+            },
+        ]
+    );
+    // Each wrong line alone (after the rest of the output), or after the edges of two courses.
+    let edges = &lines[..lines.find("course_gap").unwrap()];
+    for (bad, after_edges, says) in [
+        (
+            "course_edge 0 middle 0 0 1 2 3 4 5\n",
+            false,
+            "neither left nor right",
+        ),
+        ("course_edge 1 left 0 0 1 2 3 4 5\n", false, "out of order"),
+        (
+            "course_edge 0 left 1 0 1 2 3 4 5\n",
+            false,
+            "expected index 0",
+        ),
+        (
+            "course_edge 0 left 0 0 1 2 3 4\n",
+            false,
+            "expected 7 numbers",
+        ),
+        (
+            "course_edge 0 left 0 0 1 2 3 4 5\ncourse_edge 0 left 1 0 1 2 3 4 5\n",
+            false,
+            "course band edges",
+        ),
+        ("course_gap 0 5 4 0.1\n", true, "start <= end"),
+        ("course_overlap 0 1 2 -0.1\n", true, "width >= 0"),
+        ("course_gap 1 1 2 0.1\n", true, "after course 1"),
+    ] {
+        let text = demo.clone() + if after_edges { edges } else { "" } + bad;
+        let e = plots::raw::parse(&text).unwrap_err();
+        assert!(e.contains(says), "`{bad}`: {e}");
+    }
+}
+
+#[test]
 fn pictures_are_written_into_one_folder() {
     let dir = c_build::build_dir().unwrap().join("pictures_test");
     let _ = std::fs::remove_dir_all(&dir);
     let pictures = plots::all(&small_demo(), Shade::Mean).unwrap();
     let paths = plots::write_all(&dir, &pictures).unwrap();
-    assert_eq!(paths.len(), 5);
+    assert_eq!(paths.len(), 6);
     for p in &paths {
         assert_eq!(p.parent().unwrap(), dir);
         read(&std::fs::read_to_string(p).unwrap());
@@ -845,6 +1356,57 @@ fn demo_pictures_show_the_demo_numbers() {
             &p[k],
         );
     }
+    // The planned courses: one band per course, the gaps and overlaps as the plan_gap lines
+    // report them (plan_gap names the second course of the pair), and each band as wide as it
+    // should be: the chord between an edge pair is at most the geodesic across, w (a chord is
+    // never longer than an arc), and on this gently bent skin not much shorter.
+    let plan_courses = text
+        .lines()
+        .filter(|l| l.starts_with("plan_course "))
+        .count();
+    assert_eq!(demo.courses.bands.len(), plan_courses);
+    let plan_gaps: Vec<Vec<f64>> = text
+        .lines()
+        .filter(|l| l.starts_with("plan_gap "))
+        .map(|l| {
+            l.split_whitespace()
+                .skip(1)
+                .map(|x| x.parse().unwrap())
+                .collect()
+        })
+        .collect();
+    assert_eq!(demo.courses.seams.len(), plan_gaps.len());
+    assert!(!plan_gaps.is_empty(), "the demo's courses part somewhere");
+    for (seam, g) in demo.courses.seams.iter().zip(&plan_gaps) {
+        assert_eq!(seam.course as f64, g[0] - 1.0);
+        assert_eq!(
+            (seam.start, seam.end, seam.overlap, seam.width),
+            (g[2], g[3], g[4] == 1.0, g[5])
+        );
+    }
+    let w = demo.courses.band_width;
+    for (k, band) in demo.courses.bands.iter().enumerate() {
+        assert!(
+            band.left.len() >= 30,
+            "course {k}: {} edge samples",
+            band.left.len()
+        );
+        for (r, l) in band.right.iter().zip(&band.left) {
+            assert_eq!(r.s, l.s);
+            let chord = (0..3)
+                .map(|q| (r.p[q] - l.p[q]).powi(2))
+                .sum::<f64>()
+                .sqrt();
+            assert!(
+                chord <= w * (1.0 + 1e-9) && chord > w - 0.05,
+                "course {k} at s = {}: chord {chord}",
+                r.s
+            );
+        }
+        assert!(band.left.windows(2).all(|e| e[1].s > e[0].s));
+    }
+    let svg = read(&plots::wing_gaps(&demo.wing, &demo.courses).unwrap());
+    svg.has_text("gap up to");
     for pic in plots::all(&demo, Shade::Concave).unwrap() {
         read(&pic.svg);
     }

@@ -834,6 +834,7 @@ static int plan_cavity_passes(int raw, const StrakeSurface *surface, const Strak
 #define PLAN_TOLERANCE 1e-6 /* mm per step */
 #define PLAN_GAP_SAMPLES 41
 #define PLAN_GAP_TOLERANCE 0.05 /* mm: narrower gaps and overlaps are not reported */
+#define PLAN_EDGE_SAMPLES 41    /* band edge points per course, for the pictures */
 
 static int plan_courses(int raw)
 {
@@ -920,6 +921,46 @@ static int plan_courses(int raw)
                    check.max_steering_curvature, 1000.0 * check.max_twist_rate, check.twist_violations);
         }
     }
+    /* The band edges (--raw only, for the pictures): at PLAN_EDGE_SAMPLES even arc lengths of
+     * each course, the ends of the geodesics of length w/2 along -B (right) and +B (left), the
+     * edges' own construction in strake_course_gaps. A sample whose band reaches past the
+     * panel's edge on either side is left out. */
+    for (k = 0; k < PLAN_COURSES && !bad && raw; k++) {
+        int i, side, printed = 0;
+        for (i = 0; i < PLAN_EDGE_SAMPLES && !bad; i++) {
+            double s = info[k].length * i / (PLAN_EDGE_SAMPLES - 1), across_dir[3];
+            StrakeFrame c, e[2];
+            StrakeGeodesicInfo reach;
+            int inside = 1;
+            status = strake_frame_at(skin, course[k], s, &c);
+            for (side = 0; side < 2 && status == STRAKE_STATUS_OK && inside; side++) {
+                for (j = 0; j < 3; j++) {
+                    across_dir[j] = side == 0 ? -c.side[j] : c.side[j];
+                }
+                status = strake_geodesic_trace(skin, c.u, c.v, STRAKE_DIRECTION_KIND_SPACE, across_dir,
+                                               0.5 * BAND_WIDTH, &options, &across, &reach);
+                if (status == STRAKE_STATUS_LEAVES_SURFACE ||
+                    (status == STRAKE_STATUS_OK && reach.end == STRAKE_GEODESIC_END_BOUNDARY)) {
+                    inside = 0;
+                    status = STRAKE_STATUS_OK;
+                } else if (status == STRAKE_STATUS_OK) {
+                    status = strake_frame_at(skin, across, 0.5 * BAND_WIDTH, &e[side]);
+                }
+                strake_curve_free(across);
+                across = NULL;
+            }
+            if (status != STRAKE_STATUS_OK) {
+                bad = fail("strake_geodesic_trace (course edge)", status);
+            } else if (inside) {
+                for (side = 0; side < 2; side++) {
+                    printf("course_edge %d %s %d %.17g %.17g %.17g %.17g %.17g %.17g\n", k,
+                           side == 0 ? "right" : "left", printed, s, e[side].u, e[side].v, e[side].point[0],
+                           e[side].point[1], e[side].point[2]);
+                }
+                printed++;
+            }
+        }
+    }
     for (k = 1; k < PLAN_COURSES && !bad; k++) {
         status = strake_course_gaps(skin, course[k - 1], course[k], STRAKE_OFFSET_SIDE_LEFT, BAND_WIDTH,
                                     PLAN_GAP_SAMPLES, PLAN_GAP_TOLERANCE, &options, gaps, 16, &count, &unmatched);
@@ -938,6 +979,8 @@ static int plan_courses(int raw)
             if (raw) {
                 printf("plan_gap %d %zu %.17g %.17g %d %.17g\n", k, j, gaps[j].t0, gaps[j].t1, gaps[j].overlap,
                        gaps[j].worst);
+                printf("%s %d %.17g %.17g %.17g\n", gaps[j].overlap ? "course_overlap" : "course_gap", k - 1,
+                       gaps[j].t0, gaps[j].t1, gaps[j].worst);
             } else {
                 printf("    %-7s from s = %7.1f to %7.1f mm along course %d, up to %.2f mm\n",
                        gaps[j].overlap ? "overlap" : "gap", gaps[j].t0, gaps[j].t1, k - 1, gaps[j].worst);

@@ -44,6 +44,13 @@ pub const OKABE_ITO: [RGBColor; 8] = [
 pub const VIOLATION_FILL: RGBColor = OKABE_ITO[6];
 /// Its opacity.
 pub const VIOLATION_OPACITY: f64 = 0.2;
+/// The fill of an interval where the programmed feed exceeds the tool-centre path's limit
+/// (sky blue, see-through, with dashed ends in [`CENTRE_VIOLATION_EDGE`]).
+pub const CENTRE_VIOLATION_FILL: RGBColor = OKABE_ITO[2];
+/// Its opacity.
+pub const CENTRE_VIOLATION_OPACITY: f64 = 0.3;
+/// The colour of its dashed ends (blue).
+pub const CENTRE_VIOLATION_EDGE: RGBColor = OKABE_ITO[5];
 /// The colour of a limit line (dashed).
 pub const LIMIT_COLOUR: RGBColor = RGBColor(90, 90, 90);
 /// The colour of a path drawn on a surface.
@@ -185,6 +192,10 @@ pub fn all(demo: &Demo, shade: Shade) -> Result<Vec<Picture>, String> {
             name: "wing_course.svg",
             svg: wing_course(&demo.wing, &demo.course)?,
         },
+        Picture {
+            name: "wing_gaps.svg",
+            svg: wing_gaps(&demo.wing, &demo.courses)?,
+        },
     ])
 }
 
@@ -224,20 +235,336 @@ fn range(values: impl IntoIterator<Item = f64>) -> (f64, f64) {
 /// is dashed.
 type Series<'a> = (&'a str, Vec<(f64, f64)>, RGBColor, bool);
 
+/// Intervals of a panel shaded in one style: full-height see-through rectangles of `fill`,
+/// with dashed vertical lines of `edge` at their ends when set (so two kinds of interval
+/// differ in more than hue).
+pub struct Shading<'a> {
+    /// The intervals.
+    pub stretches: Vec<Stretch>,
+    /// The fill colour.
+    pub fill: RGBColor,
+    /// Its opacity.
+    pub opacity: f64,
+    /// The colour of the dashed ends, if drawn.
+    pub edge: Option<RGBColor>,
+    /// What a shaded interval means (the legend's label).
+    pub label: &'a str,
+}
+
+impl<'a> Shading<'a> {
+    /// The usual violation shading (vermillion, no edges) of `stretches`.
+    fn violations(stretches: Vec<&Stretch>, label: &'a str) -> Shading<'a> {
+        Shading {
+            stretches: stretches.into_iter().cloned().collect(),
+            fill: VIOLATION_FILL,
+            opacity: VIOLATION_OPACITY,
+            edge: None,
+            label,
+        }
+    }
+}
+
 /// One panel of values against arc length: the series (label, values, colour, dashed?), the
-/// stretches to shade, and a limit line (label, value).
+/// intervals to shade, and limit lines (label, value). The legend goes into an empty corner
+/// of the plotting area chosen from the data, or above the data when no corner is empty.
 struct Panel<'a> {
     y_label: &'a str,
     series: Vec<Series<'a>>,
-    shaded: Vec<&'a Stretch>,
+    shaded: Vec<Shading<'a>>,
     limits: Vec<(String, f64)>,
     y_range: Option<(f64, f64)>,
-    /// What a shaded interval means.
-    shaded_label: &'a str,
-    legend: SeriesLabelPosition,
     /// Arc lengths where the path crosses a knot line of the surface (drawn as thin dotted
     /// vertical lines: derivatives of the surface may jump there).
     knots: Vec<f64>,
+}
+
+/// How a legend entry shows its series: the same colour, width and dashing as the series.
+#[derive(Debug, Clone, Copy)]
+pub enum Swatch {
+    /// A line (dashed or solid) of a colour and width.
+    Line {
+        /// Colour.
+        colour: RGBColor,
+        /// Width (px).
+        width: u32,
+        /// Dashed as the series is.
+        dashed: bool,
+    },
+    /// A shaded interval: a see-through box, with dashed sides when the shading has edges.
+    Fill {
+        /// Colour.
+        colour: RGBColor,
+        /// Opacity.
+        opacity: f64,
+        /// The colour of the dashed ends, if any.
+        edge: Option<RGBColor>,
+    },
+    /// A line drawn over a wider line of another colour (a path on a surface).
+    Cased {
+        /// The inner line's colour.
+        inner: RGBColor,
+        /// Its width (px).
+        inner_width: u32,
+        /// The casing's colour.
+        outer: RGBColor,
+        /// Its width (px).
+        outer_width: u32,
+    },
+    /// A thin dotted vertical mark (knot crossings).
+    Mark {
+        /// Colour.
+        colour: RGBColor,
+    },
+}
+
+/// One entry of a legend.
+pub type LegendItem = (String, Swatch);
+
+const LEGEND_ROW: i32 = 30;
+const LEGEND_SWATCH: i32 = 40;
+
+/// A legend's size in pixels (the text width estimated from the characters: SVG text has no
+/// metrics until a viewer renders it; 0.56 em per character is generous for sans-serif).
+fn legend_size(items: &[LegendItem]) -> (i32, i32) {
+    let chars = items.iter().map(|i| i.0.chars().count()).max().unwrap_or(0);
+    let text = (chars as f64 * 0.56 * TICK_PX as f64).ceil() as i32;
+    (
+        12 + LEGEND_SWATCH + 10 + text + 12,
+        10 + LEGEND_ROW * items.len() as i32 + 6,
+    )
+}
+
+/// Dashes from `a` to `b` (pixels), `on` drawn and `off` skipped.
+fn dashes(a: (i32, i32), b: (i32, i32), on: f64, off: f64) -> Vec<[(i32, i32); 2]> {
+    let (dx, dy) = ((b.0 - a.0) as f64, (b.1 - a.1) as f64);
+    let len = dx.hypot(dy);
+    let mut out = Vec::new();
+    let mut t = 0.0;
+    while t < len {
+        let e = (t + on).min(len);
+        let at = |d: f64| {
+            (
+                a.0 + (dx * d / len).round() as i32,
+                a.1 + (dy * d / len).round() as i32,
+            )
+        };
+        out.push([at(t), at(e)]);
+        t = e + off;
+    }
+    out
+}
+
+/// Draws a legend with its top-left corner at `(x, y)` (pixels of `area`): a white box, and
+/// one row per item, its swatch drawn like its series.
+fn draw_legend<DB: DrawingBackend>(
+    area: &DrawingArea<DB, Shift>,
+    (x, y): (i32, i32),
+    items: &[LegendItem],
+) -> Result<(), String> {
+    if items.is_empty() {
+        return Ok(());
+    }
+    let e = |e: DrawingAreaErrorKind<DB::ErrorType>| format!("drawing failed: {e:?}");
+    let (w, h) = legend_size(items);
+    area.draw(&Rectangle::new(
+        [(x, y), (x + w, y + h)],
+        WHITE.mix(0.92).filled(),
+    ))
+    .map_err(e)?;
+    area.draw(&Rectangle::new(
+        [(x, y), (x + w, y + h)],
+        RGBColor(150, 150, 150).stroke_width(1),
+    ))
+    .map_err(e)?;
+    for (k, (label, swatch)) in items.iter().enumerate() {
+        let cy = y + 10 + LEGEND_ROW * k as i32 + LEGEND_ROW / 2;
+        let (x0, x1) = (x + 12, x + 12 + LEGEND_SWATCH);
+        match *swatch {
+            Swatch::Line {
+                colour,
+                width,
+                dashed,
+            } => {
+                let style = colour.stroke_width(width);
+                if dashed {
+                    for d in dashes((x0, cy), (x1, cy), 8.0, 5.0) {
+                        area.draw(&PathElement::new(d.to_vec(), style)).map_err(e)?;
+                    }
+                } else {
+                    area.draw(&PathElement::new(vec![(x0, cy), (x1, cy)], style))
+                        .map_err(e)?;
+                }
+            }
+            Swatch::Fill {
+                colour,
+                opacity,
+                edge,
+            } => {
+                area.draw(&Rectangle::new(
+                    [(x0, cy - 9), (x1, cy + 9)],
+                    colour.mix(opacity).filled(),
+                ))
+                .map_err(e)?;
+                if let Some(c) = edge {
+                    for xe in [x0, x1] {
+                        for d in dashes((xe, cy - 9), (xe, cy + 9), 4.0, 3.0) {
+                            area.draw(&PathElement::new(d.to_vec(), c.stroke_width(2)))
+                                .map_err(e)?;
+                        }
+                    }
+                }
+            }
+            Swatch::Cased {
+                inner,
+                inner_width,
+                outer,
+                outer_width,
+            } => {
+                for (c, w) in [(outer, outer_width), (inner, inner_width)] {
+                    area.draw(&PathElement::new(
+                        vec![(x0, cy), (x1, cy)],
+                        c.stroke_width(w),
+                    ))
+                    .map_err(e)?;
+                }
+            }
+            Swatch::Mark { colour } => {
+                let xm = (x0 + x1) / 2;
+                for d in dashes((xm, cy - 11), (xm, cy + 11), 3.0, 4.0) {
+                    area.draw(&PathElement::new(d.to_vec(), colour.stroke_width(1)))
+                        .map_err(e)?;
+                }
+            }
+        }
+        area.draw(&Text::new(
+            label.clone(),
+            (x1 + 10, cy),
+            TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                plotters::style::text_anchor::Pos::new(
+                    plotters::style::text_anchor::HPos::Left,
+                    plotters::style::text_anchor::VPos::Center,
+                ),
+            ),
+        ))
+        .map_err(e)?;
+    }
+    Ok(())
+}
+
+/// The corner of a `w` x `h` pixel plotting area for a `box_w` x `box_h` legend that covers
+/// the fewest of the drawn points `busy` (pixels; the first corner of upper right, upper left,
+/// lower right, lower left with the fewest), and how many it covers.
+fn emptiest_corner(
+    (w, h): (i32, i32),
+    (box_w, box_h): (i32, i32),
+    busy: &[(f64, f64)],
+) -> ((i32, i32), usize) {
+    emptiest_corner_of(w, h, (box_w, box_h), busy, &[])
+}
+
+/// The same, breaking ties between corners by the fewest `soft` points covered (shaded
+/// intervals: better not hidden, but less than a line).
+fn emptiest_corner_of(
+    w: i32,
+    h: i32,
+    (box_w, box_h): (i32, i32),
+    busy: &[(f64, f64)],
+    soft: &[(f64, f64)],
+) -> ((i32, i32), usize) {
+    let inset = 8;
+    let corners = [
+        (w - inset - box_w, inset),
+        (inset, inset),
+        (w - inset - box_w, h - inset - box_h),
+        (inset, h - inset - box_h),
+    ];
+    let covered = |(x, y): (i32, i32), busy: &[(f64, f64)]| {
+        let pad = 6.0;
+        busy.iter()
+            .filter(|p| {
+                p.0 >= (x as f64 - pad)
+                    && p.0 <= (x + box_w) as f64 + pad
+                    && p.1 >= y as f64 - pad
+                    && p.1 <= (y + box_h) as f64 + pad
+            })
+            .count()
+    };
+    corners
+        .iter()
+        .map(|&c| (c, covered(c, busy), covered(c, soft)))
+        .min_by_key(|c| (c.1, c.2))
+        .map(|c| (c.0, c.1))
+        .expect("four corners")
+}
+
+type Chart2d<'a, DB> = ChartContext<
+    'a,
+    DB,
+    Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
+>;
+
+/// Draws a legend in the corner of a chart's plotting area that covers the fewest of the
+/// `busy` points (chart coordinates).
+fn legend_in_corner<DB: DrawingBackend>(
+    chart: &Chart2d<'_, DB>,
+    items: &[LegendItem],
+    busy: &[(f64, f64)],
+) -> Result<(), String> {
+    let plotting = chart.plotting_area().strip_coord_spec();
+    let (bx, by) = chart.plotting_area().get_base_pixel();
+    let px: Vec<(f64, f64)> = busy
+        .iter()
+        .map(|p| {
+            let q = chart.as_coord_spec().translate(p);
+            ((q.0 - bx) as f64, (q.1 - by) as f64)
+        })
+        .collect();
+    let (w, h) = plotting.dim_in_pixel();
+    let (corner, _) = emptiest_corner((w as i32, h as i32), legend_size(items), &px);
+    draw_legend(&plotting, corner, items)
+}
+
+/// Screen points covering a grid seen from `view`: each cell's projected quadrilateral
+/// sampled at 5 x 5 bilinear points.
+fn surface_points(grid: &Grid, view: &View) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    for i in 0..grid.nu - 1 {
+        for j in 0..grid.nv - 1 {
+            let c = [
+                view.project(grid.at(i, j).p),
+                view.project(grid.at(i + 1, j).p),
+                view.project(grid.at(i + 1, j + 1).p),
+                view.project(grid.at(i, j + 1).p),
+            ];
+            for a in 0..5 {
+                for b in 0..5 {
+                    let (f, g) = (a as f64 / 4.0, b as f64 / 4.0);
+                    let w = [(1.0 - f) * (1.0 - g), f * (1.0 - g), f * g, (1.0 - f) * g];
+                    out.push((
+                        (0..4).map(|k| w[k] * c[k].0).sum(),
+                        (0..4).map(|k| w[k] * c[k].1).sum(),
+                    ));
+                }
+            }
+        }
+    }
+    out
+}
+
+/// Points every few pixels along a polyline given in pixels (so a legend box that a line
+/// crosses between its samples counts as covering it).
+fn densify(line: &[(f64, f64)], step: f64) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    for w in line.windows(2) {
+        let (a, b) = (w[0], w[1]);
+        let n = ((b.0 - a.0).hypot(b.1 - a.1) / step).ceil().max(1.0) as usize;
+        for k in 0..n {
+            let f = k as f64 / n as f64;
+            out.push((a.0 + f * (b.0 - a.0), a.1 + f * (b.1 - a.1)));
+        }
+    }
+    out.extend(line.last().copied());
+    out
 }
 
 /// The colour of the knot-crossing marks.
@@ -298,7 +625,7 @@ fn draw_panel(
     length: f64,
     panel: &Panel<'_>,
 ) -> Result<(), String> {
-    let (lo, mut hi) = panel.y_range.unwrap_or_else(|| {
+    let (lo, hi) = panel.y_range.unwrap_or_else(|| {
         range(
             panel
                 .series
@@ -307,21 +634,78 @@ fn draw_panel(
                 .chain(panel.limits.iter().map(|l| l.1)),
         )
     });
-    // Room above the data for a legend at the top, so it hides nothing.
-    if matches!(
-        panel.legend,
-        SeriesLabelPosition::UpperLeft
-            | SeriesLabelPosition::UpperMiddle
-            | SeriesLabelPosition::UpperRight
-    ) {
-        hi += 0.45 * (hi - lo);
+    let mut items: Vec<LegendItem> = Vec::new();
+    if !panel.knots.is_empty() {
+        items.push((
+            "crosses a knot line".to_string(),
+            Swatch::Mark {
+                colour: KNOT_COLOUR,
+            },
+        ));
     }
-    let mut chart = ChartBuilder::on(area)
-        .caption(caption, (FONT, LABEL_PX + 2))
-        .margin(12)
-        .margin_right(28)
-        .x_label_area_size(56)
-        .y_label_area_size(96)
+    for sh in panel.shaded.iter().filter(|s| !s.stretches.is_empty()) {
+        items.push((
+            sh.label.to_string(),
+            Swatch::Fill {
+                colour: sh.fill,
+                opacity: sh.opacity,
+                edge: sh.edge,
+            },
+        ));
+    }
+    for (label, _) in &panel.limits {
+        items.push((
+            label.clone(),
+            Swatch::Line {
+                colour: LIMIT_COLOUR,
+                width: 2,
+                dashed: true,
+            },
+        ));
+    }
+    for (label, _, c, dashed) in &panel.series {
+        items.push((
+            label.to_string(),
+            Swatch::Line {
+                colour: *c,
+                width: 3,
+                dashed: *dashed,
+            },
+        ));
+    }
+    let area = area.titled(caption, (FONT, LABEL_PX + 2)).map_err(err)?;
+    let (margin, margin_right, x_area, y_area) = (12, 28, 56, 96);
+    let (aw, ah) = area.dim_in_pixel();
+    let plot = (
+        aw as i32 - margin - margin_right - y_area,
+        ah as i32 - 2 * margin - x_area,
+    );
+    // The drawn lines in pixels of the plotting area, for a y range.
+    let busy = |(w, h): (i32, i32), hi: f64| -> Vec<(f64, f64)> {
+        let px = |p: &(f64, f64)| (p.0 / length * w as f64, (hi - p.1) / (hi - lo) * h as f64);
+        let mut out = Vec::new();
+        for (_, v, _, _) in &panel.series {
+            let line: Vec<(f64, f64)> = v.iter().filter(|p| p.1.is_finite()).map(px).collect();
+            out.extend(densify(&line, 4.0));
+        }
+        for (_, value) in &panel.limits {
+            out.extend(densify(&[px(&(0.0, *value)), px(&(length, *value))], 4.0));
+        }
+        out
+    };
+    let size = legend_size(&items);
+    // No empty corner: room above the data for the legend, which then hides nothing.
+    let hi = if emptiest_corner(plot, size, &busy(plot, hi)).1 == 0 {
+        hi
+    } else {
+        let room = (size.1 + 16) as f64;
+        hi + room * (hi - lo) / (plot.1 as f64 - room).max(1.0)
+    };
+    let mut chart = ChartBuilder::on(&area)
+        .margin(margin as u32)
+        .margin_right(margin_right as u32)
+        .x_label_area_size(x_area as u32)
+        .y_label_area_size(y_area as u32)
         .build_cartesian_2d(0.0..length, lo..hi)
         .map_err(err)?;
     chart
@@ -338,8 +722,8 @@ fn draw_panel(
         .y_label_formatter(&tick_format(hi - lo))
         .draw()
         .map_err(err)?;
-    for (k, &s) in panel.knots.iter().enumerate() {
-        let series = chart
+    for &s in &panel.knots {
+        chart
             .draw_series(DashedLineSeries::new(
                 [(s, lo), (s, hi)],
                 3,
@@ -347,30 +731,31 @@ fn draw_panel(
                 KNOT_COLOUR.stroke_width(1),
             ))
             .map_err(err)?;
-        if k == 0 {
-            series.label("crosses a knot line").legend(|(x, y)| {
-                PathElement::new(
-                    vec![(x + 14, y - 9), (x + 14, y + 9)],
-                    KNOT_COLOUR.stroke_width(2),
-                )
-            });
+    }
+    for sh in &panel.shaded {
+        let fill = sh.fill.mix(sh.opacity).filled();
+        for st in &sh.stretches {
+            chart
+                .draw_series(std::iter::once(Rectangle::new(
+                    [(st.start, lo), (st.end, hi)],
+                    fill,
+                )))
+                .map_err(err)?;
+            if let Some(c) = sh.edge {
+                for x in [st.start, st.end] {
+                    chart
+                        .draw_series(DashedLineSeries::new(
+                            [(x, lo), (x, hi)],
+                            6,
+                            4,
+                            c.stroke_width(2),
+                        ))
+                        .map_err(err)?;
+                }
+            }
         }
     }
-    let fill = VIOLATION_FILL.mix(VIOLATION_OPACITY).filled();
-    for (k, st) in panel.shaded.iter().enumerate() {
-        let series = chart
-            .draw_series(std::iter::once(Rectangle::new(
-                [(st.start, lo), (st.end, hi)],
-                fill,
-            )))
-            .map_err(err)?;
-        if k == 0 {
-            series
-                .label(panel.shaded_label)
-                .legend(move |(x, y)| Rectangle::new([(x, y - 8), (x + 28, y + 8)], fill));
-        }
-    }
-    for (label, value) in &panel.limits {
+    for (_, value) in &panel.limits {
         chart
             .draw_series(DashedLineSeries::new(
                 [(0.0, *value), (length, *value)],
@@ -378,35 +763,37 @@ fn draw_panel(
                 6,
                 LIMIT_COLOUR.stroke_width(2),
             ))
-            .map_err(err)?
-            .label(label.clone())
-            .legend(|(x, y)| {
-                PathElement::new(vec![(x, y), (x + 28, y)], LIMIT_COLOUR.stroke_width(2))
-            });
+            .map_err(err)?;
     }
-    for (label, values, c, dashed) in &panel.series {
+    for (_, values, c, dashed) in &panel.series {
         let style = c.stroke_width(3);
         if *dashed {
             chart
                 .draw_series(DashedLineSeries::new(values.iter().copied(), 8, 5, style))
-                .map_err(err)?
+                .map_err(err)?;
         } else {
             chart
                 .draw_series(LineSeries::new(values.iter().copied(), style))
-                .map_err(err)?
+                .map_err(err)?;
         }
-        .label(*label)
-        .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], style));
     }
-    chart
-        .configure_series_labels()
-        .position(panel.legend.clone())
-        .background_style(WHITE.mix(0.85))
-        .border_style(RGBColor(150, 150, 150))
-        .label_font((FONT, TICK_PX))
-        .margin(8)
-        .draw()
-        .map_err(err)?;
+    let plotting = chart.plotting_area().strip_coord_spec();
+    let (pw, ph) = plotting.dim_in_pixel();
+    let dims = (pw as i32, ph as i32);
+    // The shaded intervals, sampled every 8 px, as points better left uncovered.
+    let mut soft = Vec::new();
+    for sh in &panel.shaded {
+        for st in &sh.stretches {
+            let (a, b) = (st.start / length * pw as f64, st.end / length * pw as f64);
+            let mut x = a;
+            while x <= b {
+                soft.extend((0..=ph / 8).map(|k| (x, 8.0 * k as f64)));
+                x += 8.0;
+            }
+        }
+    }
+    let (corner, _) = emptiest_corner_of(dims.0, dims.1, size, &busy(dims, hi), &soft);
+    draw_legend(&plotting, corner, &items)?;
     Ok(())
 }
 
@@ -457,8 +844,6 @@ pub fn pass_curvatures(pass: &raw::MillPass) -> Result<String, String> {
             shaded: vec![],
             limits: vec![],
             y_range: None,
-            shaded_label: "",
-            legend: SeriesLabelPosition::UpperRight,
             knots: knots.clone(),
         };
         draw_panel(
@@ -513,11 +898,9 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                     true,
                 ),
             ],
-            shaded: kinds("gouge"),
+            shaded: vec![Shading::violations(kinds("gouge"), "the ball gouges")],
             limits: vec![(format!("1/r of the ball, r = {r} mm"), 1.0 / r)],
             y_range: None,
-            shaded_label: "the ball gouges",
-            legend: SeriesLabelPosition::UpperMiddle,
             knots: knots.clone(),
         };
         draw_panel(
@@ -536,14 +919,15 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
         let scallop_panel = Panel {
             y_label: "scallop height (mm)",
             series: vec![("scallop height", scallop, OKABE_ITO[5], false)],
-            shaded: kinds("scallop"),
+            shaded: vec![Shading::violations(
+                kinds("scallop"),
+                "scallop above the limit",
+            )],
             limits: vec![(
                 format!("limit {} mm", pass.scallop_limit),
                 pass.scallop_limit,
             )],
             y_range: Some((lo.max(0.0), hi)),
-            shaded_label: "scallop above the limit",
-            legend: SeriesLabelPosition::LowerMiddle,
             knots: knots.clone(),
         };
         draw_panel(
@@ -560,30 +944,39 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                 .collect()
         };
         let mut series = vec![(
-            "feed the machine allows at the contact point",
+            "feed limit on the contact path",
             per_min(&pass.feed),
             OKABE_ITO[5],
             false,
         )];
+        let mut shaded = vec![Shading::violations(
+            kinds("feed"),
+            "programmed feed above the contact-path limit",
+        )];
         if let Some(centre) = &pass.centre_feed {
             series.push((
-                "feed of the tool centre",
+                "feed limit on the tool-centre path",
                 per_min(centre),
                 OKABE_ITO[1],
                 true,
             ));
+            shaded.push(Shading {
+                stretches: centre_feed_violations(pass)?,
+                fill: CENTRE_VIOLATION_FILL,
+                opacity: CENTRE_VIOLATION_OPACITY,
+                edge: Some(CENTRE_VIOLATION_EDGE),
+                label: "programmed feed above the tool-centre-path limit",
+            });
         }
         let feed = Panel {
             y_label: "feed (mm/min)",
             series,
-            shaded: kinds("feed"),
+            shaded,
             limits: vec![(
                 format!("programmed feed {:.0} mm/min", 60.0 * pass.programmed_feed),
                 60.0 * pass.programmed_feed,
             )],
             y_range: None,
-            shaded_label: "feed held below the programmed feed",
-            legend: SeriesLabelPosition::LowerMiddle,
             knots: knots.clone(),
         };
         draw_panel(
@@ -595,6 +988,42 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
         root.present().map_err(err)?;
     }
     Ok(svg)
+}
+
+/// A sample seen by strake's interval finder: its arc length (the raw samples carry no curve
+/// parameter here, so t is the arc length too).
+struct AtArcLength(f64);
+
+impl strake::checks::PathPosition for AtArcLength {
+    fn t(&self) -> f64 {
+        self.0
+    }
+    fn arc_length(&self) -> f64 {
+        self.0
+    }
+}
+
+/// Where the programmed feed exceeds the feed limit on the tool-centre path (empty without
+/// those raw lines): the maximal runs of samples with `programmed - centre > 0`, their ends
+/// interpolated linearly between samples, by strake's own rule for violation intervals
+/// (`strake::checks::violations`, the rule the demo's other intervals come from).
+pub fn centre_feed_violations(pass: &raw::MillPass) -> Result<Vec<Stretch>, String> {
+    let Some(centre) = &pass.centre_feed else {
+        return Ok(Vec::new());
+    };
+    let at: Vec<AtArcLength> = pass.samples.iter().map(|s| AtArcLength(s.s)).collect();
+    let excess: Vec<f64> = centre.iter().map(|c| pass.programmed_feed - c).collect();
+    let mut found = Vec::new();
+    strake::checks::violations(&at, &excess, 0.0, &mut found)
+        .map_err(|e| format!("centre feed intervals: {e}"))?;
+    Ok(found
+        .iter()
+        .map(|v| Stretch {
+            kind: "centre_feed".to_string(),
+            start: v.start_arc_length,
+            end: v.end_arc_length,
+        })
+        .collect())
 }
 
 /// An orthographic view from azimuth `azimuth` and elevation `elevation` (radians), heights
@@ -876,15 +1305,13 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 line(&all),
                 PATH_COLOUR.stroke_width(4),
             )))
-            .map_err(err)?
-            .label("the pass")
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
+            .map_err(err)?;
         let gouges: Vec<&Stretch> = pass
             .stretches
             .iter()
             .filter(|s| s.kind == "gouge")
             .collect();
-        for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
+        for run in runs(&pass.samples, &gouges).iter() {
             let mut pts = line(run);
             if pts.len() == 1 {
                 pts.push((pts[0].0 + 0.5, pts[0].1));
@@ -898,19 +1325,14 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                     FAIL_COLOUR.stroke_width(3),
                 )))
                 .map_err(err)?;
-            let series = chart
+            chart
                 .draw_series(std::iter::once(PathElement::new(
                     pts,
                     FAIL_COLOUR.stroke_width(9),
                 )))
                 .map_err(err)?;
-            if k == 0 {
-                series.label("the ball gouges (ringed)").legend(|(x, y)| {
-                    PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
-                });
-            }
         }
-        for (k, s) in stations.iter().enumerate() {
+        for s in stations.iter() {
             let a = view.project(s.p);
             let b = view.project(add(s.p, s.n, axis_length));
             chart
@@ -920,29 +1342,28 @@ pub fn cavity_3d(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                     AXIS_COLOUR.filled(),
                 )))
                 .map_err(err)?;
-            let series = chart
+            chart
                 .draw_series([PathElement::new(
                     vec![(a.0, a.1), (b.0, b.1)],
                     AXIS_COLOUR.stroke_width(4),
                 )])
                 .map_err(err)?;
-            if k == 0 {
-                series
-                    .label(format!("tool axis (upright: along N), {axis_length:.0} mm"))
-                    .legend(|(x, y)| {
-                        PathElement::new(vec![(x, y), (x + 28, y)], AXIS_COLOUR.stroke_width(4))
-                    });
-            }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::LowerLeft)
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .label_font((FONT, TICK_PX))
-            .margin(8)
-            .draw()
-            .map_err(err)?;
+        let mut busy = surface_points(grid, &view);
+        busy.extend(screen.iter().copied());
+        let items: Vec<LegendItem> = vec![
+            ("the pass".to_string(), PASS_SWATCH),
+            ("the ball gouges (ringed)".to_string(), GOUGE_SWATCH),
+            (
+                format!("tool axis (upright: along N), {axis_length:.0} mm"),
+                Swatch::Line {
+                    colour: AXIS_COLOUR,
+                    width: 4,
+                    dashed: false,
+                },
+            ),
+        ];
+        legend_in_corner(&chart, &items, &busy)?;
         let (gx0, gx1) = extent(grid, 0);
         let (gy0, gy1) = extent(grid, 1);
         chart
@@ -995,7 +1416,7 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
     let (lo, hi) = colour_range(&values, limit);
     let mut svg = String::new();
     {
-        let root = SVGBackend::with_string(&mut svg, (WIDTH, 720)).into_drawing_area();
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 840)).into_drawing_area();
         root.fill(&WHITE).map_err(err)?;
         let area = root
             .titled(
@@ -1004,6 +1425,9 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             )
             .map_err(err)?;
         let (left, right) = area.split_horizontally(WIDTH - 230);
+        // The legend below the map, outside it: the whole plane is data.
+        let h_left = left.dim_in_pixel().1;
+        let (left, legend_strip) = left.split_vertically(h_left - 120);
         let mut chart = ChartBuilder::on(&left)
             .margin(16)
             .x_label_area_size(60)
@@ -1038,7 +1462,6 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
             }
         }
         let knot_style = RGBColor(255, 255, 255).mix(0.7).stroke_width(1);
-        let mut first = true;
         let distinct = |k: &[f64]| {
             let mut v: Vec<f64> = k.to_vec();
             v.dedup();
@@ -1052,15 +1475,9 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 } else {
                     vec![(0.0, k), (1.0, k)]
                 };
-                let s = chart
+                chart
                     .draw_series(DashedLineSeries::new(pts, 6, 6, knot_style))
                     .map_err(err)?;
-                if first {
-                    s.label("knot lines").legend(|(x, y)| {
-                        PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(1))
-                    });
-                    first = false;
-                }
             }
         }
         let uv: Vec<(f64, f64)> = pass.samples.iter().map(|s| (s.u, s.v)).collect();
@@ -1075,15 +1492,13 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                 uv,
                 PATH_COLOUR.stroke_width(4),
             )))
-            .map_err(err)?
-            .label("the pass")
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 28, y)], BLACK.stroke_width(3)));
+            .map_err(err)?;
         let gouges: Vec<&Stretch> = pass
             .stretches
             .iter()
             .filter(|s| s.kind == "gouge")
             .collect();
-        for (k, run) in runs(&pass.samples, &gouges).iter().enumerate() {
+        for run in runs(&pass.samples, &gouges).iter() {
             let mut pts: Vec<(f64, f64)> = run.iter().map(|s| (s.u, s.v)).collect();
             if pts.len() == 1 {
                 pts.push((pts[0].0 + 0.002, pts[0].1));
@@ -1096,27 +1511,29 @@ pub fn cavity_uv(grid: &Grid, pass: &raw::MillPass, shade: Shade) -> Result<Stri
                     FAIL_COLOUR.stroke_width(3),
                 )))
                 .map_err(err)?;
-            let s = chart
+            chart
                 .draw_series(std::iter::once(PathElement::new(
                     pts,
                     FAIL_COLOUR.stroke_width(9),
                 )))
                 .map_err(err)?;
-            if k == 0 {
-                s.label("the ball gouges (ringed)").legend(|(x, y)| {
-                    PathElement::new(vec![(x, y), (x + 28, y)], FAIL_COLOUR.stroke_width(9))
-                });
-            }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperLeft)
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .label_font((FONT, TICK_PX))
-            .margin(8)
-            .draw()
-            .map_err(err)?;
+        draw_legend(
+            &legend_strip,
+            (96, 8),
+            &[
+                (
+                    "knot lines".to_string(),
+                    Swatch::Line {
+                        colour: BLACK,
+                        width: 1,
+                        dashed: true,
+                    },
+                ),
+                ("the pass".to_string(), PASS_SWATCH),
+                ("the ball gouges (ringed)".to_string(), GOUGE_SWATCH),
+            ],
+        )?;
         colour_bar(
             &right,
             shade.label(),
@@ -1199,38 +1616,46 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 line(&all),
                 COURSE_COLOUR.stroke_width(4),
             )))
-            .map_err(err)?
-            .label(format!("the course ({} mm tow)", course.tow_width))
-            .legend(|(x, y)| {
-                PathElement::new(vec![(x, y), (x + 28, y)], COURSE_COLOUR.stroke_width(4))
-            });
-        for (kind, c, width, text) in [
-            ("steering", FAIL_COLOUR, 12, "steering radius too small"),
-            ("twist", FAIL_COLOUR_2, 6, "twist rate too high"),
-        ] {
-            for (k, run) in runs(samples, &kinds(kind)).iter().enumerate() {
-                let s = chart
+            .map_err(err)?;
+        for (kind, c, width) in [("steering", FAIL_COLOUR, 12), ("twist", FAIL_COLOUR_2, 6)] {
+            for run in runs(samples, &kinds(kind)).iter() {
+                chart
                     .draw_series(std::iter::once(PathElement::new(
                         line(run),
                         c.stroke_width(width),
                     )))
                     .map_err(err)?;
-                if k == 0 {
-                    s.label(text).legend(move |(x, y)| {
-                        PathElement::new(vec![(x, y), (x + 28, y)], c.stroke_width(width))
-                    });
-                }
             }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperLeft)
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .label_font((FONT, TICK_PX))
-            .margin(8)
-            .draw()
-            .map_err(err)?;
+        let mut busy = surface_points(wing, &view);
+        busy.extend(line(&all));
+        let items: Vec<LegendItem> = vec![
+            (
+                format!("the course ({} mm tow)", course.tow_width),
+                Swatch::Line {
+                    colour: COURSE_COLOUR,
+                    width: 4,
+                    dashed: false,
+                },
+            ),
+            (
+                "steering radius too small".to_string(),
+                Swatch::Line {
+                    colour: FAIL_COLOUR,
+                    width: 12,
+                    dashed: false,
+                },
+            ),
+            (
+                "twist rate too high".to_string(),
+                Swatch::Line {
+                    colour: FAIL_COLOUR_2,
+                    width: 6,
+                    dashed: false,
+                },
+            ),
+        ];
+        legend_in_corner(&chart, &items, &busy)?;
         let (bx, by) = (xr.1 - 0.01 * (xr.1 - xr.0), yr.0 + 0.04 * (yr.1 - yr.0));
         chart
             .draw_series(std::iter::once(Text::new(
@@ -1257,14 +1682,15 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 OKABE_ITO[5],
                 false,
             )],
-            shaded: kinds("steering"),
+            shaded: vec![Shading::violations(
+                kinds("steering"),
+                "steering radius too small",
+            )],
             limits: vec![(
                 format!("1/(smallest radius {:.0} mm)", course.min_radius),
                 1000.0 / course.min_radius,
             )],
             y_range: None,
-            shaded_label: "steering radius too small",
-            legend: SeriesLabelPosition::UpperLeft,
             knots: knots.clone(),
         };
         draw_panel(
@@ -1281,14 +1707,12 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
                 OKABE_ITO[3],
                 false,
             )],
-            shaded: kinds("twist"),
+            shaded: vec![Shading::violations(kinds("twist"), "twist rate too high")],
             limits: vec![(
                 format!("limit {:.3} rad/m", 1000.0 * course.max_twist),
                 1000.0 * course.max_twist,
             )],
             y_range: None,
-            shaded_label: "twist rate too high",
-            legend: SeriesLabelPosition::UpperLeft,
             knots: knots.clone(),
         };
         draw_panel(
@@ -1297,6 +1721,339 @@ pub fn wing_course(wing: &Grid, course: &raw::Course) -> Result<String, String> 
             length,
             &twist,
         )?;
+        root.present().map_err(err)?;
+    }
+    Ok(svg)
+}
+
+/// The legend swatch of a path drawn on a surface (white over black).
+const PASS_SWATCH: Swatch = Swatch::Cased {
+    inner: PATH_COLOUR,
+    inner_width: 4,
+    outer: RGBColor(0, 0, 0),
+    outer_width: 7,
+};
+/// The legend swatch of a gouging stretch.
+const GOUGE_SWATCH: Swatch = Swatch::Line {
+    colour: FAIL_COLOUR,
+    width: 9,
+    dashed: false,
+};
+
+/// The colour of a band edge in the courses picture.
+pub const EDGE_COLOUR: RGBColor = RGBColor(0, 0, 0);
+/// The colour of a gap between neighbouring bands (vermillion, solid marks).
+pub const GAP_COLOUR: RGBColor = OKABE_ITO[6];
+/// The colour of an overlap of neighbouring bands (blue, dashed marks).
+pub const OVERLAP_COLOUR: RGBColor = OKABE_ITO[5];
+/// The fill of a band in the courses picture.
+pub const BAND_FILL: RGBColor = RGBColor(232, 228, 214);
+
+/// The edge points of `edge` with arc length in [a, b], the ends interpolated linearly
+/// between the edge samples on either side, as (u, v).
+pub fn edge_between(edge: &[raw::EdgePoint], a: f64, b: f64) -> Vec<(f64, f64)> {
+    let at = |s: f64| -> (f64, f64) {
+        let k = edge
+            .windows(2)
+            .position(|w| s >= w[0].s && s <= w[1].s)
+            .unwrap_or(if s < edge[0].s { 0 } else { edge.len() - 2 });
+        let (p, q) = (&edge[k], &edge[k + 1]);
+        let f = ((s - p.s) / (q.s - p.s)).clamp(0.0, 1.0);
+        (p.u + f * (q.u - p.u), p.v + f * (q.v - p.v))
+    };
+    let mut out = vec![at(a)];
+    out.extend(
+        edge.iter()
+            .filter(|e| e.s > a && e.s < b)
+            .map(|e| (e.u, e.v)),
+    );
+    out.push(at(b));
+    out
+}
+
+/// The planned courses on the wing skin seen in its parameter plane (x, y in mm): each band
+/// between its two edges, the gaps and overlaps between neighbours marked on the first
+/// course's left edge (gaps solid vermillion, overlaps dashed blue), and below, the same
+/// intervals along each pair's first course with their widest width.
+pub fn wing_gaps(wing: &Grid, courses: &raw::Courses) -> Result<String, String> {
+    if courses.bands.len() < 2 {
+        return Err("the raw output has no band edges of two or more planned courses".into());
+    }
+    let (x0, x1) = (
+        wing.points
+            .iter()
+            .map(|g| g.u)
+            .fold(f64::INFINITY, f64::min),
+        wing.points
+            .iter()
+            .map(|g| g.u)
+            .fold(f64::NEG_INFINITY, f64::max),
+    );
+    let (y0, y1) = (
+        wing.points
+            .iter()
+            .map(|g| g.v)
+            .fold(f64::INFINITY, f64::min),
+        wing.points
+            .iter()
+            .map(|g| g.v)
+            .fold(f64::NEG_INFINITY, f64::max),
+    );
+    let pairs = courses.bands.len().saturating_sub(1);
+    let gap_items: Vec<LegendItem> = vec![
+        (
+            format!("band edge ({:.1} mm band)", courses.band_width),
+            Swatch::Line {
+                colour: EDGE_COLOUR,
+                width: 2,
+                dashed: false,
+            },
+        ),
+        (
+            format!("gap between neighbours (over {} mm)", courses.tolerance),
+            Swatch::Line {
+                colour: GAP_COLOUR,
+                width: 8,
+                dashed: false,
+            },
+        ),
+        (
+            format!("overlap of neighbours (over {} mm)", courses.tolerance),
+            Swatch::Line {
+                colour: OVERLAP_COLOUR,
+                width: 8,
+                dashed: true,
+            },
+        ),
+    ];
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (WIDTH, 1080)).into_drawing_area();
+        root.fill(&WHITE).map_err(err)?;
+        let area = root
+            .titled(
+                "Planned courses side by side on the wing skin: gaps and overlaps between them",
+                (FONT, TITLE_PX),
+            )
+            .map_err(err)?;
+        let (top, bottom) = area.split_vertically(600);
+        let (plan, legend_strip) = top.split_vertically(600 - 150);
+        let (margin, x_area, y_area) = (16, 60, 90);
+        let (pw, ph) = plan.dim_in_pixel();
+        let (w, h) = (
+            (pw as i32 - 2 * margin - y_area) as f64,
+            (ph as i32 - 2 * margin - x_area) as f64,
+        );
+        // Equal scales: widen whichever range is short for its side.
+        let scale = ((x1 - x0) / w).max((y1 - y0) / h);
+        let (xr, yr) = ((x0, x0 + scale * w), (y0, y0 + scale * h));
+        let mut chart = ChartBuilder::on(&plan)
+            .margin(margin as u32)
+            .x_label_area_size(x_area as u32)
+            .y_label_area_size(y_area as u32)
+            .build_cartesian_2d(xr.0..xr.1, yr.0..yr.1)
+            .map_err(err)?;
+        chart
+            .configure_mesh()
+            .disable_mesh()
+            .x_desc("u = x along the span (mm)")
+            .y_desc("v = y from the leading edge (mm)")
+            .axis_desc_style((FONT, LABEL_PX))
+            .label_style((FONT, TICK_PX))
+            .x_label_formatter(&tick_format(xr.1 - xr.0))
+            .y_label_formatter(&tick_format(yr.1 - yr.0))
+            .draw()
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Rectangle::new(
+                [(x0, y0), (x1, y1)],
+                RGBColor(120, 120, 120).stroke_width(1),
+            )))
+            .map_err(err)?;
+        let uv = |e: &[raw::EdgePoint]| e.iter().map(|p| (p.u, p.v)).collect::<Vec<_>>();
+        for (k, band) in courses.bands.iter().enumerate() {
+            let mut outline = uv(&band.right);
+            outline.extend(uv(&band.left).into_iter().rev());
+            chart
+                .draw_series(std::iter::once(Polygon::new(outline, BAND_FILL.filled())))
+                .map_err(err)?;
+            for edge in [&band.right, &band.left] {
+                chart
+                    .draw_series(std::iter::once(PathElement::new(
+                        uv(edge),
+                        EDGE_COLOUR.stroke_width(2),
+                    )))
+                    .map_err(err)?;
+            }
+            let start = (
+                0.5 * (band.right[0].u + band.left[0].u),
+                0.5 * (band.right[0].v + band.left[0].v),
+            );
+            chart
+                .draw_series(std::iter::once(Text::new(
+                    format!("{k}"),
+                    (start.0 - 0.012 * (xr.1 - xr.0), start.1),
+                    TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                        plotters::style::text_anchor::Pos::new(
+                            plotters::style::text_anchor::HPos::Right,
+                            plotters::style::text_anchor::VPos::Center,
+                        ),
+                    ),
+                )))
+                .map_err(err)?;
+        }
+        for seam in &courses.seams {
+            let pts = edge_between(&courses.bands[seam.course].left, seam.start, seam.end);
+            if seam.overlap {
+                chart
+                    .draw_series(DashedLineSeries::new(
+                        pts,
+                        14,
+                        8,
+                        OVERLAP_COLOUR.stroke_width(8),
+                    ))
+                    .map_err(err)?;
+            } else {
+                chart
+                    .draw_series(std::iter::once(PathElement::new(
+                        pts,
+                        GAP_COLOUR.stroke_width(8),
+                    )))
+                    .map_err(err)?;
+            }
+        }
+        // The legend and a note below the plan, outside its plotting area.
+        draw_legend(&legend_strip, (margin + y_area, 4), &gap_items)?;
+        let note = format!(
+            "courses numbered at their start; the widths (below) are far under the scale of this \
+             plan: {:.2} mm per pixel",
+            scale
+        );
+        legend_strip
+            .draw(&Text::new(
+                note,
+                (margin + y_area, 142),
+                TextStyle::from((FONT, TICK_PX - 3).into_font()).pos(
+                    plotters::style::text_anchor::Pos::new(
+                        plotters::style::text_anchor::HPos::Left,
+                        plotters::style::text_anchor::VPos::Bottom,
+                    ),
+                ),
+            ))
+            .map_err(err)?;
+        // Along each pair's first course: the intervals as bars, one row per pair.
+        let length = courses
+            .bands
+            .iter()
+            .filter_map(|b| b.left.last().map(|e| e.s))
+            .chain(courses.seams.iter().map(|s| s.end))
+            .fold(1.0, f64::max);
+        let rows = pairs.max(1) as f64;
+        let bottom = bottom
+            .titled(
+                "Along each pair of neighbours: where the bands part (gap) or cover each other",
+                (FONT, LABEL_PX + 2),
+            )
+            .map_err(err)?;
+        let mut chart = ChartBuilder::on(&bottom)
+            .margin(16)
+            .margin_right(28)
+            .x_label_area_size(56)
+            .y_label_area_size(150)
+            .build_cartesian_2d(0.0..length, -0.5..rows - 0.5)
+            .map_err(err)?;
+        chart
+            .configure_mesh()
+            .disable_y_mesh()
+            .bold_line_style(RGBColor(225, 225, 225))
+            .light_line_style(TRANSPARENT)
+            .x_desc("arc length along the pair's first course s (mm)")
+            .axis_desc_style((FONT, LABEL_PX))
+            .label_style((FONT, TICK_PX))
+            .x_labels(10)
+            .x_label_formatter(&tick_format(length))
+            .y_labels(0)
+            .draw()
+            .map_err(err)?;
+        for k in 0..pairs {
+            let y = (pairs - 1 - k) as f64;
+            chart
+                .draw_series(std::iter::once(Text::new(
+                    format!("courses {k} | {}", k + 1),
+                    (-0.01 * length, y),
+                    TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                        plotters::style::text_anchor::Pos::new(
+                            plotters::style::text_anchor::HPos::Right,
+                            plotters::style::text_anchor::VPos::Center,
+                        ),
+                    ),
+                )))
+                .map_err(err)?;
+            let here: Vec<&raw::Seam> = courses.seams.iter().filter(|s| s.course == k).collect();
+            if here.is_empty() {
+                chart
+                    .draw_series(std::iter::once(Text::new(
+                        format!("no gap or overlap over {} mm", courses.tolerance),
+                        (0.02 * length, y),
+                        TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                            plotters::style::text_anchor::Pos::new(
+                                plotters::style::text_anchor::HPos::Left,
+                                plotters::style::text_anchor::VPos::Center,
+                            ),
+                        ),
+                    )))
+                    .map_err(err)?;
+            }
+            for seam in here {
+                let (c, what) = if seam.overlap {
+                    (OVERLAP_COLOUR, "overlap")
+                } else {
+                    (GAP_COLOUR, "gap")
+                };
+                chart
+                    .draw_series(std::iter::once(Rectangle::new(
+                        [(seam.start, y - 0.28), (seam.end, y + 0.28)],
+                        c.mix(0.55).filled(),
+                    )))
+                    .map_err(err)?;
+                if seam.overlap {
+                    for yy in [y - 0.28, y + 0.28] {
+                        chart
+                            .draw_series(DashedLineSeries::new(
+                                [(seam.start, yy), (seam.end, yy)],
+                                10,
+                                6,
+                                c.stroke_width(3),
+                            ))
+                            .map_err(err)?;
+                    }
+                }
+                let right = seam.end > 0.6 * length;
+                let (x, anchor) = if right {
+                    (
+                        seam.start - 0.01 * length,
+                        plotters::style::text_anchor::HPos::Right,
+                    )
+                } else {
+                    (
+                        seam.end + 0.01 * length,
+                        plotters::style::text_anchor::HPos::Left,
+                    )
+                };
+                chart
+                    .draw_series(std::iter::once(Text::new(
+                        format!("{what} up to {:.2} mm", seam.width),
+                        (x, y),
+                        TextStyle::from((FONT, TICK_PX).into_font()).pos(
+                            plotters::style::text_anchor::Pos::new(
+                                anchor,
+                                plotters::style::text_anchor::VPos::Center,
+                            ),
+                        ),
+                    )))
+                    .map_err(err)?;
+            }
+        }
         root.present().map_err(err)?;
     }
     Ok(svg)

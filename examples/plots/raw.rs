@@ -117,6 +117,58 @@ pub struct Course {
     pub stretches: Vec<Stretch>,
 }
 
+/// A point on a band edge of a planned course.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub struct EdgePoint {
+    /// Arc length along the course of the centre sample this edge point belongs to (mm).
+    pub s: f64,
+    /// Surface parameters of the edge point (for the wing skin: x and y in mm).
+    pub u: f64,
+    /// See `u`.
+    pub v: f64,
+    /// The edge point (mm).
+    pub p: [f64; 3],
+}
+
+/// The band of tows a planned course lays: its two edges, each at the end of the geodesic of
+/// half the band width across the course (right: along -B, left: along +B).
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Band {
+    /// The right edge, in the course's order.
+    pub right: Vec<EdgePoint>,
+    /// The left edge (the side the next course lies on).
+    pub left: Vec<EdgePoint>,
+}
+
+/// A gap or an overlap between course `course`'s left edge and course `course + 1`'s right
+/// edge, as strake reported it.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Seam {
+    /// The first course of the pair.
+    pub course: usize,
+    /// Where it starts, arc length along `course` (mm).
+    pub start: f64,
+    /// Where it ends (mm).
+    pub end: f64,
+    /// An overlap (the bands cover each other), or a gap.
+    pub overlap: bool,
+    /// The largest edge-to-edge width inside (mm, >= 0).
+    pub width: f64,
+}
+
+/// The planned courses side by side on the wing skin.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Courses {
+    /// Band width w (mm).
+    pub band_width: f64,
+    /// Gaps and overlaps narrower than this are not reported (mm).
+    pub tolerance: f64,
+    /// The bands, course 0 first; each next course lies to the left of the one before.
+    pub bands: Vec<Band>,
+    /// The gaps and overlaps between neighbours.
+    pub seams: Vec<Seam>,
+}
+
 /// Everything the pictures show.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct Demo {
@@ -128,6 +180,9 @@ pub struct Demo {
     pub wing: Grid,
     /// The course.
     pub course: Course,
+    /// The planned courses with their band edges, gaps and overlaps (empty when the raw
+    /// output has no `course_edge` lines).
+    pub courses: Courses,
 }
 
 fn numbers(line: &str, rest: &[&str]) -> Result<Vec<f64>, String> {
@@ -283,6 +338,69 @@ pub fn parse(text: &str) -> Result<Demo, String> {
                 let v = fields(line, rest, 13, Some(d.course.samples.len()))?;
                 d.course.samples.push(sample(&v));
             }
+            "plan_setup" => {
+                let v = fields(line, rest, 6, None)?;
+                d.courses.band_width = v[0];
+                d.courses.tolerance = v[5];
+            }
+            // course_edge K left|right I s u v x y z
+            "course_edge" => {
+                let (Some(k), Some(side), Some(i)) = (rest.first(), rest.get(1), rest.get(2))
+                else {
+                    return Err(format!(
+                        "a course edge line without course, side, index: {line}"
+                    ));
+                };
+                let k: usize = k
+                    .parse()
+                    .map_err(|_| format!("`{k}` is not a course index in: {line}"))?;
+                if k > d.courses.bands.len() || k + 1 < d.courses.bands.len() {
+                    return Err(format!("a course edge line out of order: {line}"));
+                }
+                if k == d.courses.bands.len() {
+                    d.courses.bands.push(Band::default());
+                }
+                let band = &mut d.courses.bands[k];
+                let edge = match *side {
+                    "left" => &mut band.left,
+                    "right" => &mut band.right,
+                    _ => {
+                        return Err(format!(
+                            "side `{side}` is neither left nor right in: {line}"
+                        ));
+                    }
+                };
+                let i: f64 = i
+                    .parse()
+                    .map_err(|_| format!("`{i}` is not a sample index in: {line}"))?;
+                let mut idx = vec![i.to_string()];
+                idx.extend(rest[3..].iter().map(|x| x.to_string()));
+                let refs: Vec<&str> = idx.iter().map(String::as_str).collect();
+                let v = fields(line, &refs, 6, Some(edge.len()))?;
+                edge.push(EdgePoint {
+                    s: v[0],
+                    u: v[1],
+                    v: v[2],
+                    p: [v[3], v[4], v[5]],
+                });
+            }
+            // course_gap K s0 s1 width, course_overlap K s0 s1 width
+            "course_gap" | "course_overlap" => {
+                let v = fields(line, rest, 4, None)?;
+                let ordered = v[1] <= v[2] && v[3] >= 0.0;
+                if v[0] < 0.0 || v[0].fract() != 0.0 || !ordered {
+                    return Err(format!(
+                        "expected a course index, start <= end and a width >= 0: {line}"
+                    ));
+                }
+                d.courses.seams.push(Seam {
+                    course: v[0] as usize,
+                    start: v[1],
+                    end: v[2],
+                    overlap: *key == "course_overlap",
+                    width: v[3],
+                });
+            }
             _ => {}
         }
     }
@@ -316,6 +434,23 @@ pub fn parse(text: &str) -> Result<Demo, String> {
     }
     for (x, s) in d.course.samples.iter_mut().zip(course_s) {
         x.s = s;
+    }
+    let bands = &d.courses.bands;
+    if !bands.is_empty() {
+        complete(
+            "course band edges",
+            bands
+                .iter()
+                .all(|b| b.left.len() >= 2 && b.left.len() == b.right.len()),
+        )?;
+    }
+    if let Some(s) = d.courses.seams.iter().find(|s| s.course + 1 >= bands.len()) {
+        return Err(format!(
+            "a gap or overlap after course {} without the band edges of courses {} and {}",
+            s.course,
+            s.course,
+            s.course + 1
+        ));
     }
     if !centre.is_empty() {
         complete("centre feed", centre.len() == d.pass.samples.len())?;
