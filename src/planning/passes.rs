@@ -249,9 +249,10 @@ pub struct PassPlan {
     /// Offsets computed, the corrections included (a plan without corrections makes one
     /// per pass that has a neighbour).
     pub offset_attempts: usize,
-    /// Probes of the scallop left at which the construction found no cusp (the two balls'
-    /// circles in the section of the new pass's tube do not meet: passes too far apart, or
-    /// not side by side there). Their scallop is not in [`PassPlan::scallop_max`]: a plan
+    /// Probes of the scallop left at which the construction found no cusp although the
+    /// balls overlap (the two balls' circles in the section of the new pass's tube do not
+    /// meet: the passes are not side by side there; balls that do not overlap at all are an
+    /// error instead). Their scallop is not in [`PassPlan::scallop_max`]: a plan
     /// with unmeasured probes has scallops it does not report.
     pub unmeasured: usize,
     /// True when the plan ran until no parallel lay on the surface; false when it stopped at
@@ -452,6 +453,7 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
                                 ds[k] *= factor;
                             }
                         }
+                        Err(StrakeError::NotConverged { .. }) => {}
                         Err(StrakeError::InvalidArgument(_)) => {
                             // The balls do not meet there: the step-over is too wide.
                             settled = false;
@@ -500,7 +502,7 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
                         }
                         // No cusp found in the section of this pass's tube (the balls'
                         // circles there do not meet): counted, not hidden.
-                        Err(StrakeError::InvalidArgument(_)) => plan.unmeasured += 1,
+                        Err(StrakeError::NotConverged { .. }) => plan.unmeasured += 1,
                         Err(e) => return Err(at_pass(pass_index, t_parent, e)),
                     }
                 }
