@@ -670,10 +670,7 @@ done:
 #define PLAN_BALL_RADIUS 4.0 /* mm */
 #define PLAN_SCALLOP 0.05     /* mm, the target */
 #define PLAN_CHORD 0.01       /* mm, sampling and fit of each pass */
-#define PLAN_ROWS 8           /* iso-scallop rows to each side: a band around the host's pass */
-/* The constant step-over plans cover the whole cavity (no row limit). The iso-scallop plans
- * keep to a band: toward the corners of the pocket the fillets' radius falls below the ball's
- * (strake refuses those passes with STRAKE_STATUS_CUTTER_TOO_LARGE, naming where). */
+#define PLAN_ROWS 8           /* rows to each side: a band across the floor around the host's pass */
 
 static int plan_cavity_passes(int raw, const StrakeSurface *surface, const StrakeCurve *pass)
 {
@@ -683,8 +680,7 @@ static int plan_cavity_passes(int raw, const StrakeSurface *surface, const Strak
     static const char *const rule_name[2] = {"iso-scallop", "constant step-over"};
     uint32_t rule, side;
     if (!raw) {
-        printf("\nPasses across the cavity: iso-scallop %d rows to each side of the host's pass, constant step-over\n"
-               "  over the whole cavity: %.0f mm ball-end mill,\n"
+        printf("\nPasses across the cavity floor, %d rows to each side of the host's pass: %.0f mm ball-end mill,\n"
                "  target scallop %.3f mm (a flat floor would take a step-over of %.3f mm)\n\n",
                PLAN_ROWS, 2.0 * PLAN_BALL_RADIUS, PLAN_SCALLOP, flat_step);
         printf("  %-19s %-10s %6s %5s %12s %10s %10s %9s\n", "rule", "side", "passes", "rows", "length (mm)",
@@ -693,7 +689,7 @@ static int plan_cavity_passes(int raw, const StrakeSurface *surface, const Strak
     for (rule = 0; rule < 2; rule++) {
         for (side = 0; side < 2; side++) {
             StrakePassOptions options = {PLAN_BALL_RADIUS, STRAKE_TOOL_SIDE_ALONG_NORMAL, rule, PLAN_SCALLOP,
-                                         flat_step, side, PLAN_CHORD, 0, 0, 0, rule == 0 ? PLAN_ROWS : 0};
+                                         flat_step, side, PLAN_CHORD, 0, 0, 0, PLAN_ROWS};
             StrakePassPlan *plan = NULL;
             StrakePassSummary sum;
             StrakePassInfo *info = NULL;
