@@ -1663,7 +1663,7 @@ typedef struct StrakePassOptions {
    */
   double chord_tolerance;
   /**
-   * Parameters of each pass at which the step-over is computed (0: 33; else 2..=10000).
+   * Parameters of each pass at which the step-over is computed (0: 129; else 2..=10000).
    */
   uint32_t distance_samples;
   /**

@@ -762,7 +762,7 @@ pub struct StrakePassOptions {
     pub advance: u32,
     /// Chord tolerance of the offsets (host length unit; positive): their sampling and fit.
     pub chord_tolerance: f64,
-    /// Parameters of each pass at which the step-over is computed (0: 33; else 2..=10000).
+    /// Parameters of each pass at which the step-over is computed (0: 129; else 2..=10000).
     pub distance_samples: u32,
     /// Points of each new pass at which the scallop left is measured (0: 9; else 1..=10000).
     pub scallop_samples: u32,

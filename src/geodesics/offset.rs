@@ -154,7 +154,15 @@ pub struct OffsetOptions {
     pub chord_tolerance: f64,
     /// Most offset points computed in all, including midpoints and bisection (default 20000).
     pub max_samples: usize,
+    /// Most surface jets the traces of one offset may evaluate, all told (≥ 1; default
+    /// [`DEFAULT_OFFSET_JETS`]): the work cap that ends an offset whatever its inputs, with
+    /// `NotConverged` naming the path parameter it was at and how many points it had.
+    pub max_jets: usize,
 }
+
+/// Default [`OffsetOptions::max_jets`]: two million surface jets (about a second of a
+/// bicubic surface's evaluations).
+pub const DEFAULT_OFFSET_JETS: usize = 2_000_000;
 
 impl OffsetOptions {
     /// Options with the given chord tolerance, traces at a thousandth of it.
@@ -164,6 +172,7 @@ impl OffsetOptions {
             samples: 17,
             chord_tolerance,
             max_samples: 20000,
+            max_jets: DEFAULT_OFFSET_JETS,
         }
     }
 
@@ -176,6 +185,11 @@ impl OffsetOptions {
             )));
         }
         self.trace.check()?;
+        if self.max_jets == 0 {
+            return Err(StrakeError::InvalidArgument(
+                "max_jets = 0: the offset needs at least one surface jet".into(),
+            ));
+        }
         if self.samples < 2 || self.max_samples < self.samples {
             return Err(StrakeError::InvalidArgument(format!(
                 "samples = {} must be at least 2 and max_samples = {} at least samples",
@@ -248,6 +262,8 @@ struct Eval<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> {
     hints: Hints,
     traces: usize,
     jets: usize,
+    /// The work cap on `jets` ([`OffsetOptions::max_jets`]).
+    max_jets: usize,
 }
 
 /// The offset point of path parameter t: `Ok(Ok(sample))`, or `Ok(Err(end))` when the
@@ -274,17 +290,33 @@ impl<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> Eval<'_, S, C> {
                 carried_tangent: f.t,
             }));
         }
+        // Each trace gets what is left of the offset's budget (a Dormand–Prince step attempt
+        // evaluates at most six jets, the start one more).
+        let left = self.max_jets.saturating_sub(self.jets);
+        if left <= 7 {
+            return Err(self.budget_spent(t));
+        }
+        let trace = TraceOptions {
+            max_steps: self.trace.max_steps.min((left - 1) / 6),
+            ..self.trace
+        };
         let g = trace_geodesic(
             self.path.surface(),
             f.u,
             f.v,
             StartDirection::Space(f.b * sign),
             d,
-            &self.trace,
+            &trace,
         );
         self.traces += 1;
         let g = match g {
             Ok(g) => g,
+            Err(StrakeError::GeodesicIncomplete { .. })
+                if trace.max_steps < self.trace.max_steps =>
+            {
+                self.jets = self.max_jets;
+                return Err(self.budget_spent(t));
+            }
             Err(StrakeError::LeavesSurface { .. }) => {
                 return Ok(Err(OffsetSample {
                     t,
@@ -315,12 +347,26 @@ impl<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> Eval<'_, S, C> {
     }
 }
 
+impl<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> Eval<'_, S, C> {
+    /// The error that ends an offset whose work cap is used up at path parameter `t`.
+    fn budget_spent(&self, t: f64) -> StrakeError {
+        StrakeError::NotConverged {
+            what: format!(
+                "offset: the work cap max_jets = {} surface jets was used up at path parameter \
+                 t = {t}, after {} geodesic traces",
+                self.max_jets, self.traces
+            ),
+            iterations: self.traces,
+        }
+    }
+}
+
 /// The offset of `path` on `surface` at `distance` to `side` (see the module docs).
 ///
 /// Errors: `InvalidArgument` for bad options or distances (naming the parameter and value);
 /// `LeavesSurface` when no offset point lies on the surface (naming the first path parameter
 /// and the distance); `NotConverged` when `max_samples` is used up before the chord
-/// tolerance is met; every error of the path's frames and of the traces
+/// tolerance is met, or the work cap `max_jets` (naming the path parameter reached); every error of the path's frames and of the traces
 /// (`GeodesicIncomplete`, `DegenerateSurface` for a path point at a degenerate point, ...).
 pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     surface: &S,
@@ -339,6 +385,7 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         hints: Hints::default(),
         traces: 0,
         jets: 0,
+        max_jets: opts.max_jets,
     };
     let dom = path.domain();
     let mut pts: Vec<Point> = Vec::with_capacity(opts.samples);
@@ -488,12 +535,18 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     let mut fit_error: f64 = 0.0;
     for (mut samples, rmids) in pieces_pts {
         samples.dedup_by(|b, a| a.u == b.u && a.v == b.v);
+        let mut rmids = rmids;
+        rmids.resize(samples.len().saturating_sub(1), None);
+        prune_crowded_ends(&mut samples, &mut rmids);
         if samples.len() < 2 {
             continue;
         }
         let uv: Vec<[f64; 2]> = samples.iter().map(|s| [s.u, s.v]).collect();
         let degree = (samples.len() - 1).min(3);
-        let curve = interpolate(&uv, degree, Parametrization::ChordLength, None)?;
+        let curve = inside_domain(
+            surface,
+            interpolate(&uv, degree, Parametrization::ChordLength, None)?,
+        )?;
         fit_error = fit_error.max(measure_fit(surface, &curve, &samples, &rmids)?);
         pieces.push(OffsetPiece { curve, samples });
     }
@@ -510,6 +563,57 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         traces: ev.traces,
         jets: ev.jets,
     })
+}
+
+/// The curve with its control points moved into the surface's domain where the interpolant
+/// overshoots it (beside a piece that ends on the boundary): by the convex hull property the
+/// curve then stays inside; the end points (control points of the clamped curve) and every
+/// sample inside the domain are kept where they were to the extent the move allows, and the
+/// move shows in [`SurfaceOffset::fit_error`], measured afterwards.
+fn inside_domain<S: SurfaceSource + ?Sized>(
+    surface: &S,
+    curve: NurbsCurve<2>,
+) -> Result<NurbsCurve<2>> {
+    let (ud, vd) = (surface.u_domain(), surface.v_domain());
+    let pts = curve.control_points();
+    if pts
+        .iter()
+        .all(|p| (ud.lo..=ud.hi).contains(&p[0]) && (vd.lo..=vd.hi).contains(&p[1]))
+    {
+        return Ok(curve);
+    }
+    let moved: Vec<[f64; 2]> = pts
+        .iter()
+        .map(|p| [p[0].clamp(ud.lo, ud.hi), p[1].clamp(vd.lo, vd.hi)])
+        .collect();
+    NurbsCurve::new(curve.degree(), curve.knot_vector().knots(), &moved, None)
+}
+
+/// Drops the sample next to an end of a piece when it lies within a quarter of the spacing
+/// before it from the end sample (an edge found by bisection just beside a regular sample):
+/// chord-length parameters that uneven make the interpolating cubic overshoot, out of the
+/// domain at a boundary end. The merged interval loses its measured midpoint.
+fn prune_crowded_ends(samples: &mut Vec<OffsetSample>, mids: &mut Vec<Option<OffsetSample>>) {
+    let gap = |a: &OffsetSample, b: &OffsetSample| (a.u - b.u).hypot(a.v - b.v);
+    while samples.len() > 3 {
+        let n = samples.len();
+        if gap(&samples[n - 1], &samples[n - 2]) < 0.25 * gap(&samples[n - 2], &samples[n - 3]) {
+            samples.remove(n - 2);
+            mids.truncate(n - 3);
+            mids.push(None);
+        } else {
+            break;
+        }
+    }
+    while samples.len() > 3 {
+        if gap(&samples[0], &samples[1]) < 0.25 * gap(&samples[1], &samples[2]) {
+            samples.remove(1);
+            mids.remove(0);
+            mids[0] = None;
+        } else {
+            break;
+        }
+    }
 }
 
 /// The cubic through four offset points (Lagrange in the path parameter), at `t`.

@@ -138,6 +138,8 @@ pub struct ScallopLeft {
 ///
 /// Errors: `InvalidArgument` for a radius that is not positive and finite, or where the two
 /// balls do not overlap (the centres 2r or more apart: no cusp, the step-over is too wide);
+/// `NotConverged` where the centres are closer than 2r but the circles in the section do not
+/// meet (the neighbour is not beside this point: no cusp to measure there);
 /// every error of the frames, of point inversion, and of the surface.
 pub fn scallop_between<S, A, B>(
     surface: &S,
@@ -199,6 +201,20 @@ where
             Ok(d - r)
         };
         let (mut lo, mut hi) = (0.0, std::f64::consts::FRAC_PI_2);
+        if excess(hi, &mut tq)? >= 0.0 && (cb_near - centre).norm() < 2.0 * r {
+            // The balls overlap, yet their circles in this section do not meet: the
+            // neighbour's nearest centre is not abeam (not side by side here).
+            return Err(StrakeError::NotConverged {
+                what: format!(
+                    "at t = {t} on the pass no cusp was found in the section of its tube: the \
+                     neighbour's nearest centre is {:e} away (less than 2r = {:e}) but not \
+                     beside it",
+                    (cb_near - centre).norm(),
+                    2.0 * r
+                ),
+                iterations: 0,
+            });
+        }
         if excess(hi, &mut tq)? >= 0.0 {
             return Err(StrakeError::InvalidArgument(format!(
                 "at t = {} on the pass the neighbouring ball (radius {}) does not reach the \
