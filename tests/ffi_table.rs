@@ -275,9 +275,37 @@ unsafe extern "C" fn line_curve(_: *mut c_void, t: f64, out: *mut StrakeCurveJet
     0
 }
 
+/// The cylinder of `ffi_util::cylinder` (radius *user_data) with its partials to fourth order.
+unsafe extern "C" fn high_cylinder(
+    user_data: *mut c_void,
+    u: f64,
+    v: f64,
+    _order: i32,
+    out: *mut StrakeSurfaceHighJet,
+) -> i32 {
+    // SAFETY: user_data is the fixture's radius; out is a valid jet.
+    let (r, j) = unsafe { (*(user_data as *const f64), &mut *out) };
+    let (sn, c) = u.sin_cos();
+    *j = StrakeSurfaceHighJet {
+        p: [r * c, r * sn, v],
+        su: [-r * sn, r * c, 0.0],
+        sv: [0.0, 0.0, 1.0],
+        suu: [-r * c, -r * sn, 0.0],
+        suuu: [r * sn, -r * c, 0.0],
+        suuuu: [r * c, r * sn, 0.0],
+        ..Default::default()
+    };
+    0
+}
+
 struct Fix {
     _radius: Box<f64>,
     cyl: *mut StrakeSurface,
+    /// The same cylinder from `strake_surface_from_high_callback` (partials to fourth order).
+    hcyl: *mut StrakeSurface,
+    /// The tool-centre point of `cutter` at `angles` at t = 0.5 of `line` on `hcyl` (order 4).
+    centre_point: StrakeCentrePoint,
+    centre_limits: StrakeCentreFeedLimits,
     /// The ruling u = 0.6 over v in [−2.5, 2.5].
     line: *mut StrakeCurve,
     first: *mut StrakeCurve,
@@ -342,6 +370,44 @@ impl Fix {
         let first = uv_line([0.05, -2.5], [0.05, 2.5]);
         let pattern = uv_line([1.0, 0.0], [5.0, 0.0]);
         let frame = frame_at(cyl, line, 0.5);
+        let mut hcyl = ptr::null_mut();
+        // SAFETY: a valid callback, its user data outlives the handle, a valid output slot.
+        ok(unsafe {
+            strake_surface_from_high_callback(
+                Some(high_cylinder),
+                (&mut *radius as *mut f64).cast(),
+                4,
+                0.0,
+                1.2,
+                -3.0,
+                3.0,
+                0,
+                &mut hcyl,
+            )
+        });
+        let cutter = StrakeCutter {
+            kind: StrakeCutterKind::Ball as u32,
+            radius: 1.0,
+            corner_radius: 0.0,
+        };
+        let angles = StrakeToolAngles {
+            lead: 0.1,
+            tilt: 0.05,
+        };
+        let mut centre_point = StrakeCentrePoint::default();
+        // SAFETY: live handles, valid inputs and output.
+        ok(unsafe {
+            strake_centre_point_at(
+                hcyl,
+                line,
+                0.5,
+                StrakeToolSide::AlongNormal as u32,
+                &cutter,
+                &angles,
+                4,
+                &mut centre_point,
+            )
+        });
         let projection = StrakeProjectionOptions {
             tolerance: 1e-9,
             periodic_u: 0,
@@ -474,6 +540,14 @@ impl Fix {
         Fix {
             _radius: radius,
             cyl,
+            hcyl,
+            centre_point,
+            centre_limits: StrakeCentreFeedLimits {
+                feed: 100.0,
+                max_acceleration: 1000.0,
+                max_jerk: 1e5,
+                max_angular_speed: 1.0,
+            },
             line,
             first,
             course,
@@ -531,15 +605,8 @@ impl Fix {
             drive_plane,
             drive_options,
             pass_options,
-            cutter: StrakeCutter {
-                kind: StrakeCutterKind::Ball as u32,
-                radius: 1.0,
-                corner_radius: 0.0,
-            },
-            angles: StrakeToolAngles {
-                lead: 0.1,
-                tilt: 0.05,
-            },
+            cutter,
+            angles,
             feed: StrakeFeedLimits {
                 feed: 100.0,
                 max_acceleration: 1000.0,
@@ -573,6 +640,7 @@ impl Drop for Fix {
                 strake_curve_free(c);
             }
             strake_surface_free(self.cyl);
+            strake_surface_free(self.hcyl);
         }
     }
 }
@@ -967,6 +1035,177 @@ fn table() -> Vec<Case> {
                 a[2].p(),
                 a[3].z(),
                 a[4].p()
+            ))
+        ),
+        // --- the tool-centre path
+        case!(
+            strake_surface_from_high_callback,
+            ["user_data"],
+            |f, s| vec![
+                P(high_cylinder as *mut c_void),
+                P((&*f._radius as *const f64).cast_mut().cast()),
+                U(4),
+                F(0.0),
+                F(1.0),
+                F(-1.0),
+                F(1.0),
+                I(0),
+                s.handle(free_surface)
+            ],
+            |a| st(strake_surface_from_high_callback(
+                a[0].func(),
+                a[1].p(),
+                a[2].u(),
+                a[3].f(),
+                a[4].f(),
+                a[5].f(),
+                a[6].f(),
+                a[7].i(),
+                a[8].p()
+            ))
+        ),
+        case!(
+            strake_invariant_rates_at,
+            [],
+            |f, s| vec![
+                hp(f.hcyl),
+                hp(f.line),
+                F(0.5),
+                s.out::<StrakeFrame>(1),
+                s.out::<StrakeInvariantRates>(1)
+            ],
+            |a| st(strake_invariant_rates_at(
+                a[0].p(),
+                a[1].p(),
+                a[2].f(),
+                a[3].p(),
+                a[4].p()
+            ))
+        ),
+        case!(
+            strake_invariant_rates_path,
+            [],
+            |f, s| vec![
+                hp(f.hcyl),
+                hp(f.line),
+                sp(&f.ts),
+                Z(3),
+                s.out::<StrakeFrame>(3),
+                s.out::<StrakeInvariantRates>(3)
+            ],
+            |a| st(strake_invariant_rates_path(
+                a[0].p(),
+                a[1].p(),
+                a[2].p(),
+                a[3].z(),
+                a[4].p(),
+                a[5].p()
+            ))
+        ),
+        case!(
+            strake_centre_point_at,
+            [],
+            |f, s| vec![
+                hp(f.hcyl),
+                hp(f.line),
+                F(0.5),
+                U(0),
+                cp(&f.cutter),
+                cp(&f.angles),
+                U(4),
+                s.out::<StrakeCentrePoint>(1)
+            ],
+            |a| st(strake_centre_point_at(
+                a[0].p(),
+                a[1].p(),
+                a[2].f(),
+                a[3].u(),
+                a[4].p(),
+                a[5].p(),
+                a[6].u(),
+                a[7].p()
+            ))
+        ),
+        case!(
+            strake_centre_path_at,
+            [],
+            |f, s| vec![
+                hp(f.hcyl),
+                hp(f.line),
+                sp(&f.ts),
+                Z(3),
+                U(0),
+                cp(&f.cutter),
+                cp(&f.angles),
+                U(3),
+                s.out::<StrakeCentrePoint>(3)
+            ],
+            |a| st(strake_centre_path_at(
+                a[0].p(),
+                a[1].p(),
+                a[2].p(),
+                a[3].z(),
+                a[4].u(),
+                a[5].p(),
+                a[6].p(),
+                a[7].u(),
+                a[8].p()
+            ))
+        ),
+        case!(
+            strake_centre_feed,
+            [],
+            |f, s| vec![
+                cp(&f.centre_point),
+                cp(&f.centre_limits),
+                s.out::<StrakeCentreFeed>(1)
+            ],
+            |a| st(strake_centre_feed(a[0].p(), a[1].p(), a[2].p()))
+        ),
+        case!(
+            strake_centre_feed_path,
+            [],
+            |f, s| vec![
+                cp(&f.centre_point),
+                Z(1),
+                cp(&f.centre_limits),
+                s.out::<StrakeCentreFeed>(1)
+            ],
+            |a| st(strake_centre_feed_path(
+                a[0].p(),
+                a[1].z(),
+                a[2].p(),
+                a[3].p()
+            ))
+        ),
+        case!(
+            strake_sample_chordal_centre,
+            [],
+            |f, s| vec![
+                hp(f.hcyl),
+                hp(f.line),
+                F(1e-3),
+                F(1.0),
+                F(1e-9),
+                U(0),
+                cp(&f.cutter),
+                cp(&f.angles),
+                s.out::<StrakeSample>(64),
+                Z(64),
+                s.count()
+            ],
+            |a| st(strake_sample_chordal_centre(
+                a[0].p(),
+                a[1].p(),
+                a[2].f(),
+                a[3].f(),
+                a[4].f(),
+                a[5].u(),
+                a[6].p(),
+                a[7].p(),
+                a[8].p(),
+                a[9].z(),
+                a[10].p()
             ))
         ),
         // --- sampling
