@@ -228,9 +228,13 @@ inline OffsetOptions offset_options(double chord_tolerance) {
     return o;
 }
 
-/** Options of a drive projection: its fit tolerance; the other fields at their defaults. */
-inline DriveOptions drive_options(double fit_tolerance) {
+/**
+ * Options of a drive projection: the fit tolerance of its pieces and the hit tolerance of its
+ * rays (host length unit); the other fields at their defaults.
+ */
+inline DriveOptions drive_options(double fit_tolerance, double hit_tolerance = 1e-9) {
     DriveOptions o{};
+    o.projection.tolerance = hit_tolerance;
     o.fit_tolerance = fit_tolerance;
     return o;
 }

@@ -204,15 +204,16 @@ static void plane_checks() {
     std::vector<strake::OffsetPoint> rp = ramp.piece_points(0);
     CHECK(!rp.empty() && near(rp.back().distance, 2.0, 1e-9) && near(rp.front().distance, 1.0, 1e-9));
 
-    // Passes a constant step-over of 2 apart from y = 5 to the left (+y): y = 7 and 9, then
-    // the parallel at y = 11 is off the patch. A ball of radius 3 leaves 3 - sqrt(3^2 - 1^2)
-    // between passes 2 apart on a plane (circle geometry).
-    strake::Curve first = strake::Curve::line(0.0, 0.5, 1.0, 0.5);
+    // Passes a constant step-over of 2 apart from y = 5 to the left (+y): y = 7 and 9 (rows 1
+    // and 2), then the parallel at y = 11 is off the patch. A ball of radius 3 leaves
+    // 3 - sqrt(3^2 - 1^2) between passes 2 apart on a plane (circle geometry).
+    strake::Curve first = strake::Curve::line(0.1, 0.5, 0.9, 0.5);
     strake::PassPlan plan =
         strake::plan_passes(s, first, strake::constant_step_over_options(3.0, 2.0, 1e-7));
     strake::PassSummary ps = plan.summary();
-    CHECK(ps.count == 3 && ps.rows == 2 && ps.covered == 1);
-    CHECK(near(ps.scallop_max, 3.0 - std::sqrt(8.0), 1e-6) && near(ps.total_length, 30.0, 1e-6));
+    CHECK(ps.count == 3 && ps.rows == 3 && ps.covered == 1);
+    CHECK(near(ps.scallop_max, 3.0 - std::sqrt(8.0), 1e-9) &&
+          near(ps.scallop_min, 3.0 - std::sqrt(8.0), 1e-9) && near(ps.total_length, 24.0, 1e-9));
     std::vector<strake::PassInfo> info = plan.passes();
     CHECK(info.size() == 2 && near(info[1].step_over_min, 2.0, 1e-7) && info[1].row == 2);
     CHECK(near(strake::frame_at(s, plan.curve(1), 0.3).point[1], 9.0, 1e-6));
@@ -338,8 +339,10 @@ static void surface_and_check_extras() {
         strake::RearGouge r = strake::check_rear_gouge(s[i].frame, STRAKE_TOOL_SIDE_AGAINST_NORMAL, torus, lean);
         strake::CutterStepOver c = strake::check_step_over_cutter(s[i].frame, STRAKE_TOOL_SIDE_AGAINST_NORMAL, torus, lean, 0.001);
         strake::TowEdges e = strake::check_tow_edges(s[i].frame, 0.05);
-        same = same && std::memcmp(&r, &rear[i], sizeof r) == 0 &&
-               std::memcmp(&c, &step[i], sizeof c) == 0 && std::memcmp(&e, &edges[i], sizeof e) == 0;
+        same = same && r.margin == rear[i].margin && r.depth == rear[i].depth &&
+               r.gouges == rear[i].gouges && c.step_over == step[i].step_over &&
+               c.limited_by_width == step[i].limited_by_width && e.left == edges[i].left &&
+               e.right == edges[i].right && e.left_compressed == edges[i].left_compressed;
     }
     CHECK(same);
 }
