@@ -1183,15 +1183,19 @@ class DriveResult(_Handle):
 
 
 def drive_project(surface: Surface, plane: dict, direction: Sequence[float], pattern: Curve,
-                  fit_tolerance: float, **options) -> DriveResult:
+                  fit_tolerance: float, hit_tolerance: float = 1e-9, **options) -> DriveResult:
     """Projects the planar curve ``pattern`` (its u, v read as the plane's x, y) onto
     ``surface`` along ``direction`` (strake_drive_project). ``plane`` = {"origin", "x_axis",
-    "y_axis"} (3 numbers each); ``options``: the other fields of StrakeDriveOptions
-    (``samples``, ``locate_tolerance``, ``projection`` = a dict of StrakeProjectionOptions
-    fields), 0 for their defaults."""
+    "y_axis"} (3 numbers each); ``fit_tolerance`` bounds the distance from the fitted pieces
+    to the hits, ``hit_tolerance`` the distance from a hit to its ray (host length unit);
+    ``options``: the other fields of StrakeDriveOptions (``samples``, ``locate_tolerance``,
+    ``projection`` = a dict of StrakeProjectionOptions fields), 0 for their defaults."""
     pl = _record("StrakeDrivePlane", plane, "plane")
     d = _fixed(direction, "direction", 3)
-    opts = _options("StrakeDriveOptions", dict(options, fit_tolerance=fit_tolerance))
+    projection = dict(options.pop("projection", {}))
+    projection.setdefault("tolerance", hit_tolerance)
+    opts = _options("StrakeDriveOptions", dict(options, fit_tolerance=fit_tolerance,
+                                               projection=projection))
     return DriveResult._made(lambda out: _lib.lib.strake_drive_project(
         surface.handle, pl.ctypes.data, _ptr(d), pattern.handle, opts.ctypes.data, out))
 
