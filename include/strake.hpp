@@ -1050,13 +1050,16 @@ inline void invariant_rates_path(const Surface &surface, const Curve &curve,
     check(strake_invariant_rates_path(surface.get(), curve.get(), ts.data(), ts.size(),
                                       frames.data(), rates.data()));
 }
-inline std::vector<InvariantRates> invariant_rates_path(const Surface &surface,
-                                                        const Curve &curve,
-                                                        View<const double> ts) {
-    std::vector<Frame> frames(ts.size());
-    std::vector<InvariantRates> rates(ts.size());
-    invariant_rates_path(surface, curve, ts, frames, rates);
-    return rates;
+/** Frames and the rates of change of their invariants along a path (one each per t). */
+struct PathRates {
+    std::vector<Frame> frames;
+    std::vector<InvariantRates> rates;
+};
+inline PathRates invariant_rates_path(const Surface &surface, const Curve &curve,
+                                      View<const double> ts) {
+    PathRates r{std::vector<Frame>(ts.size()), std::vector<InvariantRates>(ts.size())};
+    invariant_rates_path(surface, curve, ts, r.frames, r.rates);
+    return r;
 }
 
 /** The tool-centre path at t for the cutter at its axis, from derivatives of `order` 3 or 4. */

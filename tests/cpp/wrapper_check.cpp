@@ -153,8 +153,10 @@ static void sphere_checks() {
           std::fabs(fr.rates.geodesic_curvature_rate) < 1e-12 &&
           std::fabs(fr.rates.geodesic_torsion_rate) < 1e-12);
     const std::array<double, 4> ts{0.0, 0.3, 0.6, 1.0};
-    std::vector<strake::InvariantRates> rates = strake::invariant_rates_path(s, lat, ts);
-    CHECK(rates.size() == 4 && std::fabs(rates[3].curvature_rate) < 1e-12);
+    strake::PathRates rates = strake::invariant_rates_path(s, lat, ts);
+    CHECK(rates.rates.size() == 4 && std::fabs(rates.rates[3].curvature_rate) < 1e-12 &&
+          rates.frames[2].curve_param == 0.6 &&
+          near(rates.frames[2].geodesic_curvature, std::tan(v0) / sphere_r, 1e-13));
 
     // A ball of radius r outside the sphere: its centre runs on the sphere of radius R + r, the
     // latitude circle of radius (R + r) cos v0, so kc = 1/((R + r) cos v0) and

@@ -52,7 +52,7 @@ def _enum_class(c_name: str) -> type:
     prefix = "STRAKE_" + "".join(
         "_" + ch if ch.isupper() and i else ch for i, ch in enumerate(c_name[len("Strake"):])
     ).upper() + "_"
-    members = {k[len(prefix):]: v for k, v in values.items()}
+    members = {(k[len(prefix):] if k.startswith(prefix) else k): v for k, v in values.items()}
     base = enum.IntFlag if c_name == "StrakeKnotLineFlag" else enum.IntEnum
     cls = base(c_name[len("Strake"):], members, module=__name__)
     cls.__doc__ = f"The named constants of `enum {c_name}` in strake.h ({prefix}...)."
