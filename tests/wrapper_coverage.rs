@@ -110,7 +110,10 @@ fn every_family_of_constants_the_header_names_is_defined() {
     // "One of the `STRAKE_CUTTER_KIND_...` values", "a `STRAKE_FEED_BOUND_...` value", ...
     let mut families = BTreeSet::new();
     for (i, _) in header.match_indices("`STRAKE_") {
-        let name: String = header[i + 1..].chars().take_while(|&c| is_ident(c)).collect();
+        let name: String = header[i + 1..]
+            .chars()
+            .take_while(|&c| is_ident(c))
+            .collect();
         if header[i + 1 + name.len()..].starts_with("...`") {
             families.insert(name);
         }
@@ -125,11 +128,20 @@ fn every_family_of_constants_the_header_names_is_defined() {
     }
     // The integer-coded fields of the structs, each with its enum.
     for (field_doc, prefix) in [
-        ("StrakePatternInterval", "STRAKE_PATTERN_INTERVAL_KIND_MISS = 0"),
-        ("StrakePassOptions", "STRAKE_STEP_RULE_CONSTANT_STEP_OVER = 1"),
+        (
+            "StrakePatternInterval",
+            "STRAKE_PATTERN_INTERVAL_KIND_MISS = 0",
+        ),
+        (
+            "StrakePassOptions",
+            "STRAKE_STEP_RULE_CONSTANT_STEP_OVER = 1",
+        ),
         ("StrakeCentreFeed", "STRAKE_FEED_BOUND_ANGULAR_SPEED = 3"),
         ("StrakeGeodesicInfo", "STRAKE_DOMAIN_SIDE_V_MAX = 4"),
     ] {
-        assert!(code.contains(field_doc) && code.contains(prefix), "{prefix}");
+        assert!(
+            code.contains(field_doc) && code.contains(prefix),
+            "{prefix}"
+        );
     }
 }

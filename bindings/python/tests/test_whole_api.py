@@ -323,6 +323,7 @@ def test_every_function_of_the_header_is_wrapped():
     assert len(_lib.FUNCTIONS) >= 81
     for name in _lib.FUNCTIONS:
         assert getattr(_lib.lib, name).argtypes is not None
+    assert all(hasattr(sd, name) for name in sd.__all__)
 
 
 def test_layouts_and_constants_come_from_the_header():
