@@ -1086,6 +1086,10 @@ class Offset(_Handle):
         return _fill(lambda b, c, k: _lib.lib.strake_offset_loops(self.handle, b, c, k),
                      dtype("StrakePathInterval"))
 
+    def piece_curves(self) -> list:
+        """Every piece as a curve, in order."""
+        return [self.piece_curve(i) for i in range(len(self))]
+
 
 def offset(surface: Surface, curve: Curve, distance, side: int = LEFT,
            distance_t: Optional[ArrayLike] = None, **options) -> Offset:
@@ -1181,6 +1185,10 @@ class DriveResult(_Handle):
         return _fill(lambda b, c, k: _lib.lib.strake_drive_result_intervals(self.handle, b, c, k),
                      dtype("StrakePatternInterval"))
 
+    def pieces(self) -> list:
+        """Every piece as (curve, (start, end)), in pattern order."""
+        return [self.piece(i) for i in range(self.piece_count())]
+
 
 def drive_project(surface: Surface, plane: dict, direction: Sequence[float], pattern: Curve,
                   fit_tolerance: float, hit_tolerance: float = 1e-9, **options) -> DriveResult:
@@ -1219,6 +1227,10 @@ class PassPlan(_Handle):
         """Pass ``index`` after the first (0-based, the order of :meth:`passes`) as a curve in
         (u, v), t in [0, 1] (it outlives the plan)."""
         return Curve._made(lambda out: _lib.lib.strake_pass_plan_curve(self.handle, index, out))
+
+    def curves(self) -> list:
+        """Every pass after the first as a curve, in plan order."""
+        return [self.curve(i) for i in range(self.summary()["count"] - 1)]
 
 
 def plan_passes(surface: Surface, first: Curve, **options) -> PassPlan:

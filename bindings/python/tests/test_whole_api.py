@@ -145,6 +145,7 @@ def test_the_offset_of_a_line_on_a_plane_is_the_parallel_line(plane):
         f = sd.frame_at(plane, off.piece_curve(0), 0.5)
         assert f["point"][1] == pytest.approx(6.5, abs=1e-9)
         assert len(off.exits()) == 0 and len(off.loops()) == 0
+        assert len(off.piece_curves()) == 1 and len(off) == 1
     ramp = sd.offset(plane, mid, [1.0, 2.0], distance_t=[0.0, 1.0], chord_tolerance=1e-6)
     p = ramp.piece_points(0)
     np.testing.assert_allclose(p["distance"], 1.0 + p["t"], atol=1e-9)
@@ -170,6 +171,8 @@ def test_passes_a_constant_step_over_apart_on_a_plane(plane):
     assert info.dtype == sd.dtype("StrakePassInfo") and list(info["row"]) == [1, 2]
     np.testing.assert_allclose(info["step_over_min"], 2.0, atol=1e-7)
     assert sd.frame_at(plane, plan.curve(1), 0.3)["point"][1] == pytest.approx(9.0, abs=1e-6)
+    ys = [sd.frame_at(plane, c, 0.5)["point"][1] for c in plan.curves()]
+    np.testing.assert_allclose(ys, [7.0, 9.0], atol=1e-6)
     # Iso-scallop with the height of that step-over gives the same passes (w = 2 sqrt(h(2r - h))).
     iso = sd.plan_passes(plane, first, ball_radius=3.0, rule=sd.StepRule.ISO_SCALLOP,
                          scallop_height=h, chord_tolerance=1e-7)
@@ -188,6 +191,7 @@ def test_a_pattern_projected_onto_a_plane_lands_under_itself(plane):
     assert start == 0.0 and end == pytest.approx(0.5, abs=1e-7)
     f = sd.frame_at(plane, curve, 0.5)
     assert f["point"][0] == pytest.approx(7.5, abs=1e-6) and f["point"][1] == pytest.approx(5.0, abs=1e-8)
+    assert len(drive.pieces()) == 1
     misses = drive.intervals()
     assert len(misses) == 1 and misses["kind"][0] == sd.PatternIntervalKind.MISS
     assert misses["start"][0] == pytest.approx(0.5, abs=1e-7) and misses["end"][0] == 1.0
