@@ -40,6 +40,8 @@ import numpy.typing as npt
 from . import _lib
 from ._lib import FRAME_DTYPE, SAMPLE_DTYPE, VIOLATION_DTYPE
 
+__version__ = _lib.HEADER_VERSION
+
 ArrayLike = npt.ArrayLike
 SurfaceFunction = Callable[[float, float, int], ArrayLike]
 

@@ -184,3 +184,10 @@ for _name, (_ret, _params) in FUNCTIONS.items():
     _f = getattr(lib, _name)
     _f.restype = _ctype(_ret)
     _f.argtypes = [_ctype(t) for t, _ in _params]
+
+#: The version of the shipped header (STRAKE_VERSION_STRING); the library must be the same.
+HEADER_VERSION = re.search(r'#define STRAKE_VERSION_STRING "([^"]*)"', HEADER).group(1)
+if lib.strake_version().decode() != HEADER_VERSION:
+    raise ImportError(
+        f"strake_darboux: libstrake.so is version {lib.strake_version().decode()} but the "
+        f"strake.h beside it is {HEADER_VERSION}: reinstall the package")

@@ -346,3 +346,4 @@ def test_layouts_and_constants_come_from_the_header():
     assert new.names[-1] == "added_later" and new.itemsize == old.itemsize + 8
     assert new.names[:-1] == old.names and all(new.fields[n][1] == old.fields[n][1] for n in old.names)
     assert os.path.dirname(_lib.HEADER_PATH) == os.path.dirname(_lib.LIBRARY_PATH)
+    assert sd.__version__ == sd.version() == _lib.HEADER_VERSION
