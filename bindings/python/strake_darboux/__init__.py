@@ -1103,6 +1103,8 @@ def offset(surface: Surface, curve: Curve, distance, side: int = LEFT,
     t = None if distance_t is None else _doubles(distance_t, "distance_t")
     if t is not None and t.size != d.size:
         raise ArgumentError(2, f"`distance_t` has {t.size} entries for {d.size} distances")
+    if t is None and d.size != 1:
+        raise ArgumentError(2, f"{d.size} distances need `distance_t`, the path parameters they are at")
     opts = _options("StrakeOffsetOptions", options)
     return Offset._made(lambda out: _lib.lib.strake_offset_new(
         surface.handle, curve.handle, int(side), _ptr(t), _ptr(d), d.size, opts.ctypes.data, out))
