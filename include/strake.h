@@ -448,6 +448,95 @@ typedef uint32_t StrakeKnotLineFlag;
 #endif // __cplusplus
 
 /**
+ * The kinds of pattern interval: the values of `StrakePatternInterval.kind`.
+ */
+enum StrakePatternIntervalKind
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: the rays miss the surface (within its domain).
+   */
+  STRAKE_PATTERN_INTERVAL_KIND_MISS = 0,
+  /**
+   * 1: the first hit jumps (the image of the pattern breaks between two parts of the
+   * surface: a silhouette, or a nearer sheet appearing).
+   */
+  STRAKE_PATTERN_INTERVAL_KIND_FOLD = 1,
+  /**
+   * 2: the rays meet the surface more than once; the first hit along the direction is taken.
+   */
+  STRAKE_PATTERN_INTERVAL_KIND_SEVERAL_HITS = 2,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakePatternIntervalKind StrakePatternIntervalKind;
+#else
+typedef uint32_t StrakePatternIntervalKind;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * The rules for the distance between neighbouring passes: the values of
+ * `StrakePassOptions.rule`.
+ */
+enum StrakeStepRule
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: iso-scallop: each next pass where the ball leaves `scallop_height`, point by point.
+   */
+  STRAKE_STEP_RULE_ISO_SCALLOP = 0,
+  /**
+   * 1: each next pass the geodesic distance `step_over` away.
+   */
+  STRAKE_STEP_RULE_CONSTANT_STEP_OVER = 1,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeStepRule StrakeStepRule;
+#else
+typedef uint32_t StrakeStepRule;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
+ * Which limit decides the feed on the centre path: the values of `StrakeCentreFeed.bound`.
+ */
+enum StrakeFeedBound
+#if defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+  : uint32_t
+#endif // defined(__cplusplus) || __STDC_VERSION__ >= 202311L
+ {
+  /**
+   * 0: the programmed feed.
+   */
+  STRAKE_FEED_BOUND_PROGRAMMED = 0,
+  /**
+   * 1: the acceleration limit.
+   */
+  STRAKE_FEED_BOUND_ACCELERATION = 1,
+  /**
+   * 2: the jerk limit.
+   */
+  STRAKE_FEED_BOUND_JERK = 2,
+  /**
+   * 3: the tool axis's angular speed limit.
+   */
+  STRAKE_FEED_BOUND_ANGULAR_SPEED = 3,
+};
+#ifndef __cplusplus
+#if __STDC_VERSION__ >= 202311L
+typedef enum StrakeFeedBound StrakeFeedBound;
+#else
+typedef uint32_t StrakeFeedBound;
+#endif // __STDC_VERSION__ >= 202311L
+#endif // __cplusplus
+
+/**
  * An opaque curve in a surface's parameter plane: created by `strake_curve_new_nurbs`,
  * `strake_curve_from_callback`, `strake_curve_through_uv_points`,
  * `strake_curve_through_space_points` or `strake_curve_project_nurbs`, released by
@@ -1655,7 +1744,8 @@ typedef struct StrakePassOptions {
    */
   double step_over;
   /**
-   * 0: each next pass to the left of the one before (toward B = N x T); 1: to the right.
+   * A `STRAKE_OFFSET_SIDE_...` value: LEFT (0) lays each next pass to the left of the one
+   * before (toward B = N x T), RIGHT (1) to the right.
    */
   uint32_t advance;
   /**

@@ -274,6 +274,14 @@ fn cpp_wrapper_checks_pass_in_cpp17_and_cpp20() {
         run(&mut cmd);
         let out = run(&mut Command::new(&exe));
         assert!(out.contains(" passed, 0 failed"), "{out}");
+        // The checks of every wrapper ran (71 when the whole C ABI was first wrapped).
+        let passed: usize = out
+            .split(" passed")
+            .next()
+            .and_then(|s| s.rsplit(' ').next())
+            .and_then(|n| n.parse().ok())
+            .unwrap_or(0);
+        assert!(passed >= 71, "{out}");
     }
 }
 
@@ -320,6 +328,13 @@ fn python_package_installs_with_pip_and_its_tests_pass() {
         summary.contains(" passed") && !summary.contains("failed") && !summary.contains("skipped"),
         "{out}"
     );
+    // Both test files ran (23 tests when the whole C ABI was first wrapped).
+    let passed: usize = summary
+        .split_whitespace()
+        .next()
+        .and_then(|n| n.parse().ok())
+        .unwrap_or(0);
+    assert!(passed >= 23, "{out}");
     eprintln!("pytest: {summary}");
 }
 

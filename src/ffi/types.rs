@@ -758,7 +758,8 @@ pub struct StrakePassOptions {
     /// Step-over, geodesic distance across the path (rule CONSTANT_STEP_OVER); positive and
     /// finite.
     pub step_over: f64,
-    /// 0: each next pass to the left of the one before (toward B = N x T); 1: to the right.
+    /// A `STRAKE_OFFSET_SIDE_...` value: LEFT (0) lays each next pass to the left of the one
+    /// before (toward B = N x T), RIGHT (1) to the right.
     pub advance: u32,
     /// Chord tolerance of the offsets (host length unit; positive): their sampling and fit.
     pub chord_tolerance: f64,

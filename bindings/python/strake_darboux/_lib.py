@@ -1,118 +1,53 @@
-"""The C ABI of strake through ctypes: the structs of strake.h, the numpy dtypes with the same
-layout, the function signatures, and the loaded library (libstrake.so beside this file)."""
+"""The C ABI of strake through ctypes, read from the header shipped with the package.
+
+Everything here is derived from ``strake.h`` (copied into the wheel beside ``libstrake.so`` by
+the build backend, so the two always come from one build):
+
+- :data:`STRUCTS`: a numpy dtype for every ``typedef struct Strake... { }``, fields, offsets
+  and size as C lays them out (``align=True``). A field added to a struct (at the end or
+  anywhere) is in the dtype without a change here.
+- :data:`ENUMS`: the named constants of every ``enum Strake...``.
+- :data:`FUNCTIONS`: the prototype of every exported function; each one's ``restype`` and
+  ``argtypes`` are set from it (pointers as ``c_void_p``, function pointers as the
+  ``CFUNCTYPE`` of their typedef), so a new function is callable at once and a changed
+  signature cannot be called with a stale one.
+
+The ctypes structures the callbacks fill (:class:`SurfaceJet`, :class:`CurveJet`,
+:class:`SurfaceHighJet`) are built from the same dtypes.
+"""
 
 from __future__ import annotations
 
 import ctypes
 import os
 import re
-from ctypes import POINTER, c_char_p, c_double, c_int32, c_size_t, c_uint32, c_void_p
+from ctypes import c_char_p, c_double, c_int32, c_size_t, c_uint32, c_void_p
 
 import numpy as np
 
 _HERE = os.path.dirname(os.path.abspath(__file__))
 LIBRARY_PATH = os.path.join(_HERE, "libstrake.so")
+HEADER_PATH = os.path.join(_HERE, "strake.h")
 
-V3 = c_double * 3
-
-
-class SurfaceJet(ctypes.Structure):
-    _fields_ = [("p", V3), ("su", V3), ("sv", V3), ("suu", V3), ("suv", V3), ("svv", V3)]
-
-
-class CurveJet(ctypes.Structure):
-    _fields_ = [(n, c_double) for n in ("u", "v", "du", "dv", "ddu", "ddv")]
-
-
-_FRAME_FIELDS = [
-    ("curve_param", "f8", c_double),
-    ("u", "f8", c_double),
-    ("v", "f8", c_double),
-    ("point", ("f8", 3), V3),
-    ("tangent", ("f8", 3), V3),
-    ("side", ("f8", 3), V3),
-    ("normal", ("f8", 3), V3),
-    ("normal_curvature", "f8", c_double),
-    ("geodesic_curvature", "f8", c_double),
-    ("geodesic_torsion", "f8", c_double),
-    ("speed", "f8", c_double),
-    ("k1", "f8", c_double),
-    ("k2", "f8", c_double),
-    ("dir1", ("f8", 3), V3),
-    ("dir2", ("f8", 3), V3),
-    ("mean_curvature", "f8", c_double),
-    ("gaussian_curvature", "f8", c_double),
-    ("surface_conditioning", "f8", c_double),
-    ("curve_speed_figure", "f8", c_double),
-]
+_SCALARS = {"double": np.float64, "int32_t": np.int32, "uint32_t": np.uint32, "size_t": np.uintp}
+_CTYPES = {
+    "double": c_double,
+    "int32_t": c_int32,
+    "uint32_t": c_uint32,
+    "size_t": c_size_t,
+    "StrakeStatus": c_uint32,
+}
 
 
-class Frame(ctypes.Structure):
-    _fields_ = [(n, c) for n, _, c in _FRAME_FIELDS]
-
-
-class Sample(ctypes.Structure):
-    _fields_ = [("frame", Frame), ("arc_length", c_double)]
-
-
-class NurbsSurfaceData(ctypes.Structure):
-    _fields_ = [
-        ("degree_u", c_uint32),
-        ("degree_v", c_uint32),
-        ("count_u", c_size_t),
-        ("count_v", c_size_t),
-        ("knots_u", POINTER(c_double)),
-        ("knot_count_u", c_size_t),
-        ("knots_v", POINTER(c_double)),
-        ("knot_count_v", c_size_t),
-        ("points", POINTER(c_double)),
-        ("weights", POINTER(c_double)),
-    ]
-
-
-class Extremes(ctypes.Structure):
-    _fields_ = [
-        ("min", c_double),
-        ("min_index", c_size_t),
-        ("min_arc_length", c_double),
-        ("min_t", c_double),
-        ("max", c_double),
-        ("max_index", c_size_t),
-        ("max_arc_length", c_double),
-        ("max_t", c_double),
-    ]
-
-
-class Violation(ctypes.Structure):
-    _fields_ = [
-        ("start_arc_length", c_double),
-        ("end_arc_length", c_double),
-        ("start_t", c_double),
-        ("end_t", c_double),
-        ("first_index", c_size_t),
-        ("last_index", c_size_t),
-        ("worst", c_double),
-    ]
-
-
-#: numpy dtype of one frame, field for field the C struct StrakeFrame.
-FRAME_DTYPE = np.dtype([(n, d) for n, d, _ in _FRAME_FIELDS])
-#: numpy dtype of one sample (StrakeSample): the frame and its arc length.
-SAMPLE_DTYPE = np.dtype([("frame", FRAME_DTYPE), ("arc_length", "f8")])
-#: numpy dtype of a violation interval (StrakeViolation).
-VIOLATION_DTYPE = np.dtype([(n, "f8" if c is c_double else np.uintp) for n, c in Violation._fields_])
-
-assert FRAME_DTYPE.itemsize == ctypes.sizeof(Frame)
-assert SAMPLE_DTYPE.itemsize == ctypes.sizeof(Sample)
-assert VIOLATION_DTYPE.itemsize == ctypes.sizeof(Violation)
-
+def _strip_comments(text: str) -> str:
+    text = re.sub(r"/\*.*?\*/", "", text, flags=re.S)
+    return re.sub(r"//[^\n]*", "", text)
 
 
 def parse_structs(header: str) -> dict:
     """numpy dtypes (aligned as C lays them out) of every `typedef struct Strake... { }` of
     strake.h: fields of double, int32_t, uint32_t, size_t, pointers, fixed arrays and nested
     structs."""
-    scalar = {"double": np.float64, "int32_t": np.int32, "uint32_t": np.uint32, "size_t": np.uintp}
     out: dict = {}
     for m in re.finditer(r"typedef struct (Strake\w+) \{(.*?)\} \1;", header, re.S):
         name, body = m.groups()
@@ -128,65 +63,131 @@ def parse_structs(header: str) -> dict:
             elif typ.startswith("struct "):
                 dt = out[typ[len("struct "):]]
             else:
-                dt = np.dtype(scalar[typ])
+                dt = np.dtype(_SCALARS[typ])
             fields.append((field, (dt, int(count))) if count else (field, dt))
         out[name] = np.dtype(fields, align=True)
     return out
 
 
-with open(os.path.join(_HERE, "strake.h"), encoding="utf-8") as _f:
-    STRUCTS = parse_structs(_f.read())
+def parse_enums(header: str) -> dict:
+    """The named constants of every `enum Strake... { NAME = value, ... }` of strake.h:
+    {enum name: {constant name: value}} in the header's order."""
+    text = _strip_comments(header)
+    text = re.sub(r"^\s*#[^\n]*", "", text, flags=re.M)
+    out: dict = {}
+    for m in re.finditer(r"enum (Strake\w+)\s*(?::\s*\w+\s*)?\{(.*?)\};", text, re.S):
+        name, body = m.groups()
+        values = {}
+        for entry in filter(None, (e.strip() for e in body.split(","))):
+            mm = re.fullmatch(r"(STRAKE_\w+)\s*=\s*(\d+)", entry)
+            if mm is None:
+                raise RuntimeError(f"strake.h: cannot read the constant `{entry}` of {name}")
+            values[mm.group(1)] = int(mm.group(2))
+        out[name] = values
+    return out
 
-SURFACE_FN = ctypes.CFUNCTYPE(c_int32, c_void_p, c_double, c_double, c_int32, POINTER(SurfaceJet))
 
-Status = c_uint32
-PD = POINTER(c_double)
+def _parse_params(params: str) -> list:
+    params = " ".join(params.split())
+    if params in ("", "void"):
+        return []
+    out = []
+    for p in params.split(","):
+        mm = re.fullmatch(r"(.*?)\s*(\w+)", p.strip())
+        if mm is None:
+            raise RuntimeError(f"strake.h: cannot read the parameter `{p}`")
+        out.append((" ".join(mm.group(1).replace("*", " * ").split()), mm.group(2)))
+    return out
+
+
+def parse_callbacks(header: str) -> dict:
+    """The function-pointer typedefs of strake.h: {name: (return type, [(type, name)])}."""
+    text = _strip_comments(header)
+    return {
+        m.group(2): (m.group(1).strip(), _parse_params(m.group(3)))
+        for m in re.finditer(r"typedef (\w+) \(\*(Strake\w+)\)\(([^)]*)\);", text)
+    }
+
+
+def parse_functions(header: str) -> dict:
+    """The exported functions of strake.h, in the header's order: {name: (return type,
+    [(parameter type, parameter name)])}, types with single spaces ("const struct
+    StrakeFrame *")."""
+    text = _strip_comments(header)
+    body = text.split('extern "C" {', 1)[1]
+    out = {}
+    for m in re.finditer(r"(?:^|\n)([A-Za-z][\w \*]*?)\s*\b(strake_\w+)\(([^)]*)\);", body):
+        ret = " ".join(m.group(1).replace("*", " * ").split())
+        out[m.group(2)] = (ret, _parse_params(m.group(3)))
+    return out
+
+
+with open(HEADER_PATH, encoding="utf-8") as _f:
+    HEADER = _f.read()
+
+STRUCTS = parse_structs(HEADER)
+ENUMS = parse_enums(HEADER)
+CALLBACKS = parse_callbacks(HEADER)
+FUNCTIONS = parse_functions(HEADER)
+
+
+def _ctype(typ: str):
+    if typ in ("const char *", "char *"):
+        return c_char_p
+    if "*" in typ:
+        return c_void_p
+    if typ == "void":
+        return None
+    if typ in _CTYPES:
+        return _CTYPES[typ]
+    if typ in CALLBACK_TYPES:
+        return CALLBACK_TYPES[typ]
+    raise RuntimeError(f"strake.h: no ctypes type for `{typ}`")
+
+
+CALLBACK_TYPES: dict = {}
+for _name, (_ret, _params) in CALLBACKS.items():
+    CALLBACK_TYPES[_name] = ctypes.CFUNCTYPE(_ctype(_ret), *[_ctype(t) for t, _ in _params])
+
+
+def _structure(name: str, dtype_name: str) -> type:
+    """A ctypes structure of the layout of a header struct of doubles and double arrays."""
+    fields = []
+    for field in STRUCTS[dtype_name].names:
+        sub = STRUCTS[dtype_name].fields[field][0]
+        fields.append((field, c_double * sub.shape[0] if sub.shape else c_double))
+    cls = type(name, (ctypes.Structure,), {"_fields_": fields})
+    assert ctypes.sizeof(cls) == STRUCTS[dtype_name].itemsize, dtype_name
+    return cls
+
+
+SurfaceJet = _structure("SurfaceJet", "StrakeSurfaceJet")
+SurfaceHighJet = _structure("SurfaceHighJet", "StrakeSurfaceHighJet")
+CurveJet = _structure("CurveJet", "StrakeCurveJet")
+
+SURFACE_FN = CALLBACK_TYPES["StrakeSurfaceFn"]
+SURFACE_BATCH_FN = CALLBACK_TYPES["StrakeSurfaceBatchFn"]
+SURFACE_HIGH_FN = CALLBACK_TYPES["StrakeSurfaceHighFn"]
+CURVE_FN = CALLBACK_TYPES["StrakeCurveFn"]
+
+#: numpy dtype of one frame, field for field the C struct StrakeFrame.
+FRAME_DTYPE = STRUCTS["StrakeFrame"]
+#: numpy dtype of one sample (StrakeSample): the frame and its arc length.
+SAMPLE_DTYPE = STRUCTS["StrakeSample"]
+#: numpy dtype of a violation interval (StrakeViolation).
+VIOLATION_DTYPE = STRUCTS["StrakeViolation"]
+
+PD = ctypes.POINTER(c_double)
 lib = ctypes.CDLL(LIBRARY_PATH)
 
+for _name, (_ret, _params) in FUNCTIONS.items():
+    _f = getattr(lib, _name)
+    _f.restype = _ctype(_ret)
+    _f.argtypes = [_ctype(t) for t, _ in _params]
 
-def _sig(name, restype, *argtypes):
-    f = getattr(lib, name)
-    f.restype = restype
-    f.argtypes = list(argtypes)
-
-
-_sig("strake_version", c_char_p)
-_sig("strake_status_name", c_char_p, c_uint32)
-_sig("strake_last_error_message", c_size_t, ctypes.c_char_p, c_size_t)
-_sig("strake_last_callback_code", c_int32)
-_sig("strake_callback_report", None, c_char_p)
-_sig("strake_surface_from_callback", Status, SURFACE_FN, c_void_p, c_double, c_double, c_double,
-     c_double, c_int32, POINTER(c_void_p))
-_sig("strake_surface_new_nurbs", Status, POINTER(NurbsSurfaceData), c_int32, POINTER(c_void_p))
-_sig("strake_surface_free", None, c_void_p)
-_sig("strake_surface_evaluate", Status, c_void_p, PD, c_size_t, c_uint32, c_void_p)
-_sig("strake_curve_new_nurbs", Status, c_uint32, PD, c_size_t, PD, c_size_t, PD, POINTER(c_void_p))
-_sig("strake_curve_through_uv_points", Status, PD, c_size_t, c_uint32, c_uint32, PD, PD,
-     POINTER(c_void_p))
-_sig("strake_curve_free", None, c_void_p)
-_sig("strake_frame_at", Status, c_void_p, c_void_p, c_double, c_void_p)
-_sig("strake_frames_at", Status, c_void_p, c_void_p, PD, c_size_t, c_void_p)
-_sig("strake_frames_at_parallel", Status, c_void_p, c_void_p, PD, c_size_t, c_uint32, c_void_p)
-_sig("strake_frames_even", Status, c_void_p, c_void_p, c_size_t, c_void_p)
-_sig("strake_samples_at", Status, c_void_p, c_void_p, PD, c_size_t, c_double, c_void_p)
-_sig("strake_sample_even_t", Status, c_void_p, c_void_p, c_size_t, c_double, c_void_p, c_size_t,
-     POINTER(c_size_t))
-_sig("strake_sample_even_arc", Status, c_void_p, c_void_p, c_size_t, c_double, c_void_p, c_size_t,
-     POINTER(c_size_t))
-_sig("strake_sample_chordal", Status, c_void_p, c_void_p, c_double, c_double, c_double, c_void_p,
-     c_size_t, POINTER(c_size_t))
-_sig("strake_arc_length", Status, c_void_p, c_void_p, c_double, c_double, c_double, PD)
-_sig("strake_path_extremes", Status, c_void_p, PD, c_size_t, POINTER(Extremes))
-_sig("strake_path_violations", Status, c_void_p, PD, c_size_t, c_double, c_void_p, c_size_t,
-     POINTER(c_size_t))
-
-for _name in ("gouge", "rear_gouge"):
-    _sig(f"strake_check_{_name}_path", Status, c_void_p, c_size_t, c_uint32, c_void_p, c_void_p,
-         c_void_p)
-_sig("strake_check_scallop_path", Status, c_void_p, c_size_t, c_uint32, c_double, c_double, c_void_p)
-_sig("strake_check_step_over_cutter_path", Status, c_void_p, c_size_t, c_uint32, c_void_p, c_void_p,
-     c_double, c_void_p)
-_sig("strake_check_feed_path", Status, c_void_p, c_size_t, c_void_p, c_void_p)
-_sig("strake_check_fibre_path", Status, c_void_p, c_size_t, c_void_p, c_void_p)
-_sig("strake_check_tow_edges_path", Status, c_void_p, c_size_t, c_double, c_void_p)
-_sig("strake_tool_axis_path", Status, c_void_p, c_size_t, c_uint32, c_void_p, c_void_p)
+#: The version of the shipped header (STRAKE_VERSION_STRING); the library must be the same.
+HEADER_VERSION = re.search(r'#define STRAKE_VERSION_STRING "([^"]*)"', HEADER).group(1)
+if lib.strake_version().decode() != HEADER_VERSION:
+    raise ImportError(
+        f"strake_darboux: libstrake.so is version {lib.strake_version().decode()} but the "
+        f"strake.h beside it is {HEADER_VERSION}: reinstall the package")
