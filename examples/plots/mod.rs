@@ -965,7 +965,7 @@ pub fn pass_checks(pass: &raw::MillPass) -> Result<String, String> {
                 fill: CENTRE_VIOLATION_FILL,
                 opacity: CENTRE_VIOLATION_OPACITY,
                 edge: Some(CENTRE_VIOLATION_EDGE),
-                label: "programmed feed above the tool-centre-path limit",
+                label: "programmed feed above the tool-centre-path limit (grey: above both)",
             });
         }
         let feed = Panel {
