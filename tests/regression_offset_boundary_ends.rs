@@ -50,7 +50,11 @@ fn offset_five_times<S: SurfaceSource, C: UvCurve>(
         assert!(off.exits.is_empty(), "offset {k}: exits {:?}", off.exits);
         assert!(off.loops.is_empty(), "offset {k}: loops {:?}", off.loops);
         assert_eq!(off.pieces.len(), 1, "offset {k}");
-        assert!(off.fit_error < 1e-8, "offset {k}: fit error {:e}", off.fit_error);
+        assert!(
+            off.fit_error < 1e-8,
+            "offset {k}: fit error {:e}",
+            off.fit_error
+        );
         let piece = &off.pieces[0];
         let mut worst: f64 = 0.0;
         for smp in &piece.samples {
@@ -164,5 +168,9 @@ fn constant_step_over_rows_from_an_edge_to_edge_pass_are_exact() {
             p.scallop_max
         );
     }
-    assert!((plan.total_length - 80.0).abs() < 1e-8, "{}", plan.total_length);
+    assert!(
+        (plan.total_length - 80.0).abs() < 1e-8,
+        "{}",
+        plan.total_length
+    );
 }

@@ -422,7 +422,13 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
     let mut hint = SurfaceHint::default();
     let jet0 = surface.checked_jet(u, v, DerivOrder::Second, &mut hint)?;
     let sp = SurfacePoint::new(&jet0, surface.orientation(), u, v, ud.width(), vd.width())?;
-    let (p, q) = along_a_side(&jet0, (u, v), start_velocity(&jet0, &sp, dir)?, length, surface);
+    let (p, q) = along_a_side(
+        &jet0,
+        (u, v),
+        start_velocity(&jet0, &sp, dir)?,
+        length,
+        surface,
+    );
     let mut tr = Tracer {
         surface,
         hint,
