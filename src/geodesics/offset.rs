@@ -912,13 +912,16 @@ struct Crossing {
     beta: f64,
 }
 
+/// A segment of the offset polygons: (piece, index of its first sample), its ends in (u, v).
+type Segment = ((usize, usize), [f64; 2], [f64; 2]);
+
 /// Every crossing of two segments of `pieces` (in the parameter plane) that are not
 /// neighbours (sharing an end point), found through a uniform grid of the segments' bounding
 /// boxes: about √n cells a side for n segments, each pair tested once, in the cell that is the
 /// lowest corner of the overlap of their cell ranges. Returns the crossing whose earlier
 /// segment comes first along the path (then the later one), if any.
 fn first_crossing(pieces: &[PiecePoints]) -> Option<Crossing> {
-    let mut segs: Vec<((usize, usize), [f64; 2], [f64; 2])> = Vec::new();
+    let mut segs: Vec<Segment> = Vec::new();
     for (p, (pts, _)) in pieces.iter().enumerate() {
         for j in 0..pts.len().saturating_sub(1) {
             segs.push(((p, j), [pts[j].u, pts[j].v], [pts[j + 1].u, pts[j + 1].v]));
@@ -941,7 +944,7 @@ fn first_crossing(pieces: &[PiecePoints]) -> Option<Crossing> {
         ((hi[1] - lo[1]) / cells as f64).max(f64::MIN_POSITIVE),
     ];
     let cell = |x: f64, c: usize| (((x - lo[c]) / size[c]) as usize).min(cells - 1);
-    let range = |s: &((usize, usize), [f64; 2], [f64; 2])| {
+    let range = |s: &Segment| {
         let (_, a, b) = s;
         [
             (cell(a[0].min(b[0]), 0), cell(a[0].max(b[0]), 0)),

@@ -503,56 +503,25 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
             hs = reach;
         }
         // The stages.
-        let mut k = [[0.0; 4]; rk::STAGES];
-        k[0] = f;
-        let mut last_jet = jet;
-        let mut refusal = None;
-        for i in 1..rk::STAGES {
-            let mut yi = y;
-            for (c, yc) in yi.iter_mut().enumerate() {
-                let mut acc = 0.0;
-                for j in 0..i {
-                    acc += rk::A[i][j] * k[j][c];
-                }
-                *yc += hs * acc;
-            }
-            match tr.eval(&yi)? {
-                Ok((fi, ji)) => {
-                    k[i] = fi;
-                    last_jet = ji;
-                }
-                Err(r) => {
-                    refusal = Some(r);
-                    break;
-                }
-            }
-        }
-        if let Some(r) = refusal {
-            stats.rejected += 1;
-            just_rejected = true;
-            match r {
-                Refusal::Outside => h = 0.7 * hs,
-                Refusal::Degenerate(cond) => {
-                    h = 0.5 * hs;
-                    if h < h_min {
-                        end = GeodesicEnd::Degenerate { conditioning: cond };
-                        break 'steps;
+        let st = match rk::attempt_step(&y, f, hs, jet, |yi| tr.eval(yi))? {
+            Ok(st) => st,
+            Err(r) => {
+                stats.rejected += 1;
+                just_rejected = true;
+                match r {
+                    Refusal::Outside => h = 0.7 * hs,
+                    Refusal::Degenerate(cond) => {
+                        h = 0.5 * hs;
+                        if h < h_min {
+                            end = GeodesicEnd::Degenerate { conditioning: cond };
+                            break 'steps;
+                        }
                     }
                 }
+                continue;
             }
-            continue;
-        }
-        let mut y5 = y;
-        let mut d = [0.0; 4];
-        for c in 0..4 {
-            let (mut a5, mut ae) = (0.0, 0.0);
-            for i in 0..rk::STAGES {
-                a5 += rk::B5[i] * k[i][c];
-                ae += rk::E[i] * k[i][c];
-            }
-            y5[c] += hs * a5;
-            d[c] = hs * ae;
-        }
+        };
+        let (k, y5, d, last_jet) = (st.k, st.y5, st.err, st.last);
         if tr.jumps_a_break(&y, &y5) {
             // A step must not straddle a knot line: aim again (the reach includes them).
             stats.rejected += 1;

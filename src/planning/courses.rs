@@ -259,59 +259,30 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
                 }
             }
         }
-        let mut k = [[0.0f64; 4]; rk::STAGES];
-        k[0] = f;
-        let mut last_jet = None;
-        let mut refused = None;
-        for i in 1..rk::STAGES {
-            let mut yi = y;
-            for (c, yc) in yi.iter_mut().enumerate() {
-                let mut acc = 0.0;
-                for j in 0..i {
-                    acc += rk::A[i][j] * k[j][c];
-                }
-                *yc += hs * acc;
-            }
-            match eval(yi)? {
-                Ok((fi, ji)) => {
-                    k[i] = fi;
-                    last_jet = Some(ji);
-                }
-                Err(r) => {
-                    refused = Some(r);
-                    break;
-                }
-            }
-        }
-        if let Some(r) = refused {
-            stats.rejected += 1;
-            just_rejected = true;
-            match r {
-                None => h = 0.7 * hs,
-                Some(ratio) => {
-                    h = 0.5 * hs;
-                    if h < h_min {
-                        end = GeodesicEnd::Degenerate {
-                            conditioning: ratio,
-                        };
-                        break;
+        let st = match rk::attempt_step(&y, f, hs, None, |yi: &[f64; 2]| {
+            Ok::<_, StrakeError>(eval(*yi)?.map(|(fi, ji)| (fi, Some(ji))))
+        })? {
+            Ok(st) => st,
+            Err(r) => {
+                stats.rejected += 1;
+                just_rejected = true;
+                match r {
+                    None => h = 0.7 * hs,
+                    Some(ratio) => {
+                        h = 0.5 * hs;
+                        if h < h_min {
+                            end = GeodesicEnd::Degenerate {
+                                conditioning: ratio,
+                            };
+                            break;
+                        }
                     }
                 }
+                continue;
             }
-            continue;
-        }
-        let jet = last_jet.expect("six stages evaluated");
-        let mut y5 = y;
-        let mut d = [0.0; 2];
-        for c in 0..2 {
-            let (mut a5, mut ae) = (0.0, 0.0);
-            for i in 0..rk::STAGES {
-                a5 += rk::B5[i] * k[i][c];
-                ae += rk::E[i] * k[i][c];
-            }
-            y5[c] += hs * a5;
-            d[c] = hs * ae;
-        }
+        };
+        let jet = st.last.expect("six stages evaluated");
+        let (k, y5, d) = (st.k, st.y5, st.err);
         let err = (jet.su * d[0] + jet.sv * d[1]).norm();
         if !(err <= tol) {
             stats.rejected += 1;
