@@ -272,7 +272,7 @@ fn course_refusals_name_the_value() {
 }
 
 /// Overlaps deeper than half the band: B is A turned about the cone's axis by so little that
-/// B's edge facing A lies beyond A's centreline near the apex. Brute force in the cone's
+/// B's edge facing A lies beyond A's centreline near the apex (and short of it farther out). Brute force in the cone's
 /// development (the cone is developable: (u, v) ↦ polar (r, φ) = (v, u sin β) is an isometry
 /// onto a plane sector, do Carmo §4-2, so the geodesic distance between nearby points is the
 /// plane distance there and the geodesics A and B are straight lines): both band edges
@@ -288,7 +288,7 @@ fn deep_overlaps_on_a_cone_match_the_development() {
     let s = cone(beta);
     let o = TraceOptions::new(1e-11);
     let w = 0.15;
-    let du = -0.03;
+    let du = -0.06;
     let a = natural_course(&s, 1.0, 1.3, 1.35, 2.2, &o).unwrap();
     assert_eq!(a.end, GeodesicEnd::Length);
     let ac = a.curve.clone();
@@ -325,6 +325,7 @@ fn deep_overlaps_on_a_cone_match_the_development() {
         .collect();
     let mut worst: f64 = 0.0;
     let mut deepest: f64 = 0.0;
+    let mut shallowest = f64::NEG_INFINITY;
     for &(t, width) in &gaps.widths {
         // B ends on the perpendicular of its own end, which A's last perpendicular misses
         // by the turn between them: that sample alone meets no edge.
@@ -354,15 +355,22 @@ fn deep_overlaps_on_a_cone_match_the_development() {
         let cos_phi = (along[0] * na[1] - along[1] * na[0]).abs();
         worst = worst.max((signed / cos_phi - width).abs());
         deepest = deepest.min(width);
+        shallowest = shallowest.max(width);
     }
     println!(
-        "cone deep overlaps: deepest {deepest} (w/2 = {}), intervals {:?}, worst difference \
+        "cone deep overlaps: widths {deepest}..{shallowest} (w/2 = {}), intervals {:?}, worst difference \
          {worst:e}",
         0.5 * w,
         gaps.intervals
     );
     assert!(gaps.unmatched <= 1, "{} unmatched", gaps.unmatched);
+    // Both ways are exercised: overlaps deeper than w/2 near the apex (met the other way),
+    // shallower ones farther out (met toward B).
     assert!(deepest < -0.5 * w, "no overlap deeper than w/2: {deepest}");
+    assert!(
+        shallowest > -0.5 * w,
+        "no overlap shallower than w/2: {shallowest}"
+    );
     // B's edge is fitted to a chord tolerance of 1e-2 × the gaps' tolerance, 1e-7.
     assert!(
         worst < 3e-7,

@@ -68,6 +68,10 @@ fn offset_five_times<S: SurfaceSource, C: UvCurve>(
                 .unwrap();
             worst = worst.max(exact(k, j.u, j.v));
         }
+        println!(
+            "offset {k}: worst error {worst:e}, fit error {:e}",
+            off.fit_error
+        );
         assert!(worst < 1e-12, "offset {k}: worst error {worst:e}");
         // The ends stay on the boundary (to the rounding of the fitted curve's evaluation at
         // its ends, an ulp or two).
