@@ -3387,7 +3387,9 @@ StrakeStatus strake_geodesic_between(const struct StrakeSurface *surface,
  * The offset of `curve` on `surface`: the curve at geodesic distance d to the left (B side)
  * or right of it, computed point by point as the end of the geodesic leaving the path
  * perpendicularly, sampled adaptively, trimmed where it leaves the surface and where it forms
- * loops (d beyond the radius of geodesic curvature on a concave side).
+ * loops (d beyond the radius of geodesic curvature on a concave side, or parts far apart
+ * along the path crossing each other, as the legs of a U: the parts nearer the path than d
+ * are cut).
  *
  * - `side`: a `StrakeOffsetSide` value.
  * - Distance: `distance_t` NULL and `distance_count` = 1: the constant `distances[0]`;
@@ -3538,9 +3540,11 @@ StrakeStatus strake_course_adjacent(const struct StrakeSurface *surface,
  * to `a` meets the edge of `b`'s band (its geodesic parallel at band_width/2); the width
  * across `a` from `a`'s edge to it is a gap (> 0) or an overlap (< 0). Intervals where its
  * size exceeds `tolerance` go to the buffer (`buf`, `capacity`, `count`; BUFFER_TOO_SMALL
- * sets `*count` to the number needed); `*unmatched` (when not NULL) receives the number of
- * samples where no edge of `b` was met within 3 band widths. `options.tolerance` is the error
- * per step of the traces.
+ * sets `*count` to the number needed); an edge of `b` beyond `a`'s centreline (an overlap
+ * deeper than band_width/2) is met by the perpendicular the other way, within 1.5 band
+ * widths; `*unmatched` (when not NULL) receives the number of samples where no edge of `b`
+ * was met (within 3 band widths toward `b`, 1.5 away). `options.tolerance` is the error per
+ * step of the traces.
  *
  * Errors: NULL_POINTER (`surface`, `a`, `b`, `options`, `count`; `buf` when `capacity` > 0);
  * INVALID_ARGUMENT (`side`, `band_width` or `tolerance` not positive, fewer than 2

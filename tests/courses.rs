@@ -270,3 +270,110 @@ fn course_refusals_name_the_value() {
     .unwrap_err();
     assert!(e.to_string().contains("-1"), "{e}");
 }
+
+/// Overlaps deeper than half the band: B is A turned about the cone's axis by so little that
+/// B's edge facing A lies beyond A's centreline near the apex (and short of it farther out). Brute force in the cone's
+/// development (the cone is developable: (u, v) ↦ polar (r, φ) = (v, u sin β) is an isometry
+/// onto a plane sector, do Carmo §4-2, so the geodesic distance between nearby points is the
+/// plane distance there and the geodesics A and B are straight lines): both band edges
+/// sampled densely (A's at w/2 to its left, B's facing edge at w/2 to its right, B = N × T
+/// being T turned clockwise in the development), the nearest point of B's edge polygon to
+/// each of A's edge points, signed by the side of A's edge it lies on, and turned into the
+/// width across A by the cosine of the angle between the two straight edges (exact for
+/// straight lines).
+#[test]
+fn deep_overlaps_on_a_cone_match_the_development() {
+    let beta: f64 = 0.5;
+    let sb = beta.sin();
+    let s = cone(beta);
+    let o = TraceOptions::new(1e-11);
+    let w = 0.15;
+    let du = -0.06;
+    let a = natural_course(&s, 1.0, 1.3, 1.35, 2.2, &o).unwrap();
+    assert_eq!(a.end, GeodesicEnd::Length);
+    let ac = a.curve.clone();
+    let b = strake::FnCurve::new(ac.domain(), move |t| {
+        let mut j = ac.checked_jet(t, &mut Default::default())?;
+        j.u += du;
+        Ok(j)
+    });
+    let n = 41;
+    let gaps = course_gaps(&s, &a.curve, &b, OffsetSide::Left, w, n, 1e-5, &o).unwrap();
+    // The development: point and unit tangent of a curve point.
+    let develop = |j: &strake::CurveJet| {
+        let (sf, cf) = (j.u * sb).sin_cos();
+        let p = [j.v * cf, j.v * sf];
+        let d = [
+            j.dv * cf - j.v * sf * sb * j.du,
+            j.dv * sf + j.v * cf * sb * j.du,
+        ];
+        let l = d[0].hypot(d[1]);
+        (p, [d[0] / l, d[1] / l])
+    };
+    let left = |t: [f64; 2]| [t[1], -t[0]];
+    let m = 20000;
+    let bd = b.domain();
+    let b_edge: Vec<[f64; 2]> = (0..m)
+        .map(|i| {
+            let j = b
+                .checked_jet(bd.even(i, m), &mut Default::default())
+                .unwrap();
+            let (p, t) = develop(&j);
+            let nb = left(t);
+            [p[0] - 0.5 * w * nb[0], p[1] - 0.5 * w * nb[1]]
+        })
+        .collect();
+    let mut worst: f64 = 0.0;
+    let mut deepest: f64 = 0.0;
+    let mut shallowest = f64::NEG_INFINITY;
+    for &(t, width) in &gaps.widths {
+        // B ends on the perpendicular of its own end, which A's last perpendicular misses
+        // by the turn between them: that sample alone meets no edge.
+        let Some(width) = width else {
+            assert_eq!(t, a.curve.domain().hi, "unmatched at t = {t}");
+            continue;
+        };
+        let j = a.curve.checked_jet(t, &mut Default::default()).unwrap();
+        let (p, ta) = develop(&j);
+        let na = left(ta);
+        let e = [p[0] + 0.5 * w * na[0], p[1] + 0.5 * w * na[1]];
+        let mut best = (f64::INFINITY, [0.0; 2], [0.0; 2]);
+        for seg in b_edge.windows(2) {
+            let d = [seg[1][0] - seg[0][0], seg[1][1] - seg[0][1]];
+            let dd = d[0] * d[0] + d[1] * d[1];
+            let x = (((e[0] - seg[0][0]) * d[0] + (e[1] - seg[0][1]) * d[1]) / dd).clamp(0.0, 1.0);
+            let q = [seg[0][0] + d[0] * x, seg[0][1] + d[1] * x];
+            let dist = (q[0] - e[0]).hypot(q[1] - e[1]);
+            if dist < best.0 {
+                best = (dist, q, [d[0] / dd.sqrt(), d[1] / dd.sqrt()]);
+            }
+        }
+        let (dist, q, along) = best;
+        let side = (q[0] - e[0]) * na[0] + (q[1] - e[1]) * na[1];
+        let signed = if side >= 0.0 { dist } else { -dist };
+        // |B's edge direction × A's normal| = cos of the angle between the edges.
+        let cos_phi = (along[0] * na[1] - along[1] * na[0]).abs();
+        worst = worst.max((signed / cos_phi - width).abs());
+        deepest = deepest.min(width);
+        shallowest = shallowest.max(width);
+    }
+    println!(
+        "cone deep overlaps: widths {deepest}..{shallowest} (w/2 = {}), intervals {:?}, worst difference \
+         {worst:e}",
+        0.5 * w,
+        gaps.intervals
+    );
+    assert!(gaps.unmatched <= 1, "{} unmatched", gaps.unmatched);
+    // Both ways are exercised: overlaps deeper than w/2 near the apex (met the other way),
+    // shallower ones farther out (met toward B).
+    assert!(deepest < -0.5 * w, "no overlap deeper than w/2: {deepest}");
+    assert!(
+        shallowest > -0.5 * w,
+        "no overlap shallower than w/2: {shallowest}"
+    );
+    // B's edge is fitted to a chord tolerance of 1e-2 × the gaps' tolerance, 1e-7.
+    assert!(
+        worst < 3e-7,
+        "course_gaps differs from the development by {worst:e}"
+    );
+}

@@ -281,3 +281,119 @@ fn loops_in_concave_regions_are_trimmed() {
         off.pieces.len()
     );
 }
+
+/// A "leaning U" in plane coordinates (x, y): a right leg up along e₁ = (sin α, cos α), an arc
+/// of radius ρ about C counter-clockwise from angle −α to π + α, a left leg down along
+/// e₂ = (sin α, −cos α), arc length t throughout. Returns the point, unit tangent and
+/// curvature vector at t, and the total length.
+fn leaning_u(c: [f64; 2], rho: f64, alpha: f64, leg: f64) -> (impl Fn(f64) -> [[f64; 2]; 3], f64) {
+    let (sa, ca) = alpha.sin_cos();
+    let arc = rho * (PI + 2.0 * alpha);
+    let total = 2.0 * leg + arc;
+    let f = move |t: f64| {
+        if t <= leg {
+            let a = [c[0] + rho * ca, c[1] - rho * sa];
+            let s = t - leg;
+            [[a[0] + s * sa, a[1] + s * ca], [sa, ca], [0.0, 0.0]]
+        } else if t <= leg + arc {
+            let th = -alpha + (t - leg) / rho;
+            let (st, ct) = th.sin_cos();
+            [
+                [c[0] + rho * ct, c[1] + rho * st],
+                [-st, ct],
+                [-ct / rho, -st / rho],
+            ]
+        } else {
+            let b = [c[0] - rho * ca, c[1] - rho * sa];
+            let s = t - leg - arc;
+            [[b[0] + s * sa, b[1] - s * ca], [sa, -ca], [0.0, 0.0]]
+        }
+    };
+    (f, total)
+}
+
+/// Non-local loops: the inner (left) offset of a leaning U at a distance d below the arc's
+/// radius ρ has no backward run anywhere (no swallowtail), but its two legs cross below the
+/// arc, and the ends beyond the crossing lie nearer the other leg than d. Exact planar
+/// construction (the offset legs are tangent to the circle of radius ρ − d about C, so they
+/// cross on the axis at X = C − (0, (ρ − d)/sin α), at arc length t_a = L − (ρ − d) cot α of
+/// the path and symmetrically t_b = total − t_a); the cylinder of radius R is the same figure
+/// unrolled, (u, v) = (x/R, y) (do Carmo §4-2: the cylinder is isometric to the plane).
+#[test]
+fn crossing_legs_of_a_leaning_u_are_cut_on_a_plane_and_a_cylinder() {
+    let (c, rho, alpha, leg, d) = ([5.0, 4.0], 1.5, 0.3, 3.0, 1.0);
+    let (shape, total) = leaning_u(c, rho, alpha, leg);
+    let inner = rho - d;
+    let x_cross = [c[0], c[1] - inner / alpha.sin()];
+    let t_a = leg - inner / alpha.tan();
+    let t_b = total - t_a;
+    let exact = |t: f64| {
+        let [p, tg, _] = shape(t);
+        [p[0] - d * tg[1], p[1] + d * tg[0]]
+    };
+    for scale in [1.0, 2.0] {
+        // scale 1: the plane itself; scale R = 2: the cylinder, u = x/R.
+        let curve = FnCurve::new(Interval { lo: 0.0, hi: total }, {
+            let shape = leaning_u(c, rho, alpha, leg).0;
+            move |t: f64| {
+                let [p, tg, k] = shape(t);
+                Ok(CurveJet {
+                    u: p[0] / scale,
+                    v: p[1],
+                    du: tg[0] / scale,
+                    dv: tg[1],
+                    ddu: k[0] / scale,
+                    ddv: k[1],
+                })
+            }
+        });
+        let opts = OffsetOptions::new(1e-6);
+        let dist = OffsetDistance::Constant(d);
+        let off = if scale == 1.0 {
+            offset_path(
+                &plane((0.0, 10.0), (0.0, 6.0)),
+                &curve,
+                OffsetSide::Left,
+                &dist,
+                &opts,
+            )
+        } else {
+            offset_path(
+                &cylinder(scale, 0.0, 6.0),
+                &curve,
+                OffsetSide::Left,
+                &dist,
+                &opts,
+            )
+        }
+        .unwrap();
+        let what = if scale == 1.0 { "plane" } else { "cylinder" };
+        assert!(off.exits.is_empty(), "{what}: {:?}", off.exits);
+        assert_eq!(off.pieces.len(), 1, "{what}: {} pieces", off.pieces.len());
+        assert_eq!(off.loops.len(), 2, "{what}: {:?}", off.loops);
+        let (l0, l1) = (off.loops[0], off.loops[1]);
+        assert!(
+            l0.t0 == 0.0
+                && (l0.t1 - t_a).abs() < 1e-12
+                && (l1.t0 - t_b).abs() < 1e-12
+                && l1.t1 == total,
+            "{what}: loops {:?} vs (0, {t_a}), ({t_b}, {total})",
+            off.loops
+        );
+        let smp = &off.pieces[0].samples;
+        let mut worst: f64 = 0.0;
+        for s in smp {
+            let e = exact(s.t);
+            worst = worst.max((s.u * scale - e[0]).hypot(s.v - e[1]));
+        }
+        for s in [smp[0], smp[smp.len() - 1]] {
+            worst = worst.max((s.u * scale - x_cross[0]).hypot(s.v - x_cross[1]));
+        }
+        println!(
+            "leaning U on the {what}: loops {:?}, {} samples, worst {worst:e}",
+            off.loops,
+            smp.len()
+        );
+        assert!(worst < 1e-12, "{what}: worst {worst:e}");
+    }
+}

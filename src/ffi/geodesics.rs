@@ -241,7 +241,9 @@ pub(crate) fn offset_options(o: &StrakeOffsetOptions) -> Result<OffsetOptions, F
 /// The offset of `curve` on `surface`: the curve at geodesic distance d to the left (B side)
 /// or right of it, computed point by point as the end of the geodesic leaving the path
 /// perpendicularly, sampled adaptively, trimmed where it leaves the surface and where it forms
-/// loops (d beyond the radius of geodesic curvature on a concave side).
+/// loops (d beyond the radius of geodesic curvature on a concave side, or parts far apart
+/// along the path crossing each other, as the legs of a U: the parts nearer the path than d
+/// are cut).
 ///
 /// - `side`: a `StrakeOffsetSide` value.
 /// - Distance: `distance_t` NULL and `distance_count` = 1: the constant `distances[0]`;

@@ -26,9 +26,13 @@
 //! offset polygon that cross (in the parameter plane) are found, the part between them is cut
 //! off, the piece is split at the crossing (a corner), and the path interval that was cut is
 //! reported in [`SurfaceOffset::loops`]. When no crossing is found (the swallowtail is cut by
-//! the boundary or by the path's end) the backward run alone is cut. Not seen: crossings of
-//! parts of the offset far apart along the path (a U-shaped path offset by more than half its
-//! width); those are not trimmed.
+//! the boundary or by the path's end) the backward run alone is cut. Then crossings of parts
+//! far apart along the path (the legs of a U whose offsets cross without any backward run) are
+//! found among all segments of all pieces through a grid of their bounding boxes, refined the
+//! same way, and the side of each branch that lies nearer the path than d (judged by the
+//! other branch's geodesic direction at the crossing) is cut and reported in
+//! [`SurfaceOffset::loops`] too (`cut_crossings`). What is still not seen is listed in
+//! `docs/geodesics.md`.
 //!
 //! Each piece is a cubic B-spline in (u, v) interpolating its points (The NURBS Book A9.1,
 //! chord-length parameters, t ∈ [0, 1]); [`SurfaceOffset::fit_error`] is the largest space
@@ -530,6 +534,9 @@ pub fn offset_path<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     for (run, rm) in runs.into_iter().zip(run_mids) {
         split_loops(&mut ev, run, rm, &mut pieces_pts, &mut loops)?;
     }
+    // Crossings of parts far apart along the path (the legs of a U).
+    cut_crossings(&mut ev, &mut pieces_pts, &mut loops)?;
+    loops.sort_by(|a, b| a.t0.total_cmp(&b.t0));
     // Fit.
     let mut pieces = Vec::new();
     let mut fit_error: f64 = 0.0;
@@ -893,4 +900,248 @@ fn measure_fit<S: SurfaceSource + ?Sized>(
         worst = worst.max(f1.min(f2));
     }
     Ok(worst)
+}
+
+/// A crossing of two segments of the offset polygons: (piece, segment) of the earlier one,
+/// (piece, segment) of the later one, and the parameters along each segment.
+#[derive(Debug, Clone, Copy)]
+struct Crossing {
+    a: (usize, usize),
+    b: (usize, usize),
+    alpha: f64,
+    beta: f64,
+}
+
+/// A segment of the offset polygons: (piece, index of its first sample), its ends in (u, v).
+type Segment = ((usize, usize), [f64; 2], [f64; 2]);
+
+/// Every crossing of two segments of `pieces` (in the parameter plane) that are not
+/// neighbours (sharing an end point), found through a uniform grid of the segments' bounding
+/// boxes: about √n cells a side for n segments, each pair tested once, in the cell that is the
+/// lowest corner of the overlap of their cell ranges. Returns the crossing whose earlier
+/// segment comes first along the path (then the later one), if any.
+fn first_crossing(pieces: &[PiecePoints]) -> Option<Crossing> {
+    let mut segs: Vec<Segment> = Vec::new();
+    for (p, (pts, _)) in pieces.iter().enumerate() {
+        for j in 0..pts.len().saturating_sub(1) {
+            segs.push(((p, j), [pts[j].u, pts[j].v], [pts[j + 1].u, pts[j + 1].v]));
+        }
+    }
+    let n = segs.len();
+    if n < 3 {
+        return None;
+    }
+    let (mut lo, mut hi) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
+    for (_, a, b) in &segs {
+        for c in 0..2 {
+            lo[c] = lo[c].min(a[c]).min(b[c]);
+            hi[c] = hi[c].max(a[c]).max(b[c]);
+        }
+    }
+    let cells = ((n as f64).sqrt().ceil() as usize).clamp(1, 1024);
+    let size = [
+        ((hi[0] - lo[0]) / cells as f64).max(f64::MIN_POSITIVE),
+        ((hi[1] - lo[1]) / cells as f64).max(f64::MIN_POSITIVE),
+    ];
+    let cell = |x: f64, c: usize| (((x - lo[c]) / size[c]) as usize).min(cells - 1);
+    let range = |s: &Segment| {
+        let (_, a, b) = s;
+        [
+            (cell(a[0].min(b[0]), 0), cell(a[0].max(b[0]), 0)),
+            (cell(a[1].min(b[1]), 1), cell(a[1].max(b[1]), 1)),
+        ]
+    };
+    let ranges: Vec<_> = segs.iter().map(range).collect();
+    let mut grid: Vec<Vec<u32>> = vec![Vec::new(); cells * cells];
+    for (i, r) in ranges.iter().enumerate() {
+        for x in r[0].0..=r[0].1 {
+            for y in r[1].0..=r[1].1 {
+                grid[x * cells + y].push(i as u32);
+            }
+        }
+    }
+    let mut best: Option<(Crossing, f64, f64)> = None;
+    for x in 0..cells {
+        for y in 0..cells {
+            let list = &grid[x * cells + y];
+            for (m, &i) in list.iter().enumerate() {
+                for &k in &list[m + 1..] {
+                    let (i, k) = (i as usize, k as usize);
+                    let (ri, rk) = (ranges[i], ranges[k]);
+                    // Test the pair only in the first cell both ranges cover.
+                    if (ri[0].0.max(rk[0].0), ri[1].0.max(rk[1].0)) != (x, y) {
+                        continue;
+                    }
+                    let (si, sk) = (&segs[i], &segs[k]);
+                    if [si.1, si.2]
+                        .iter()
+                        .any(|p| [sk.1, sk.2].iter().any(|q| p == q))
+                    {
+                        continue;
+                    }
+                    let Some((al, be)) = crossing(si.1, si.2, sk.1, sk.2) else {
+                        continue;
+                    };
+                    let ti = pieces[si.0.0].0[si.0.1].t;
+                    let tk = pieces[sk.0.0].0[sk.0.1].t;
+                    let c = if (si.0, ti) <= (sk.0, tk) {
+                        Crossing {
+                            a: si.0,
+                            b: sk.0,
+                            alpha: al,
+                            beta: be,
+                        }
+                    } else {
+                        Crossing {
+                            a: sk.0,
+                            b: si.0,
+                            alpha: be,
+                            beta: al,
+                        }
+                    };
+                    let (ta, tb) = (ti.min(tk), ti.max(tk));
+                    if best.is_none_or(|(_, ba, bb)| (ta, tb) < (ba, bb)) {
+                        best = Some((c, ta, tb));
+                    }
+                }
+            }
+        }
+    }
+    best.map(|b| b.0)
+}
+
+/// Samples `from..=to` of a piece, with the midpoints of the intervals between them.
+fn slice_piece(p: &PiecePoints, from: usize, to: usize) -> PiecePoints {
+    let samples = p.0[from..=to].to_vec();
+    let mids = (from..to).map(|i| p.1.get(i).copied().flatten()).collect();
+    (samples, mids)
+}
+
+/// Cuts the parts of the offset that lie nearer the path than the distance, at crossings of
+/// parts far apart along the path (the inner offset of a U whose legs lean together), which
+/// the backward runs of [`split_loops`] do not show. At a crossing X of the branch a (path
+/// parameter t_a) with the later branch b (t_b), the geodesic from the path point c(t_b)
+/// arrives at X along g_b (pointing away from the path; g_b = ±N × T̃_b, the sign of the
+/// side), so the distance to the path near c(t_b) grows along g_b: the part of branch a on the
+/// side of X where its direction of travel a′ has a′ · g_b < 0 lies nearer the path than d,
+/// and likewise for branch b with g_a. Cut: a forward and b backward bad, (t_a, t_b) (a loop,
+/// as a swallowtail); a backward and b forward bad, the ends of their pieces beyond X (the
+/// part between them closes on X); both forward, (t_a, end of b's piece]; both backward,
+/// [start of a's piece, t_b). Each cut interval is reported in [`SurfaceOffset::loops`]; the
+/// crossing is refined as in [`refine_crossing`], and the search repeats until no crossing is
+/// left (at most once per segment).
+fn cut_crossings<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
+    ev: &mut Eval<'_, S, C>,
+    pieces: &mut Vec<PiecePoints>,
+    loops: &mut Vec<PathInterval>,
+) -> Result<()> {
+    let sign = match ev.side {
+        OffsetSide::Left => 1.0,
+        OffsetSide::Right => -1.0,
+    };
+    let cap = pieces.iter().map(|p| p.0.len()).sum::<usize>();
+    for _ in 0..cap {
+        let Some(c) = first_crossing(pieces) else {
+            return Ok(());
+        };
+        let ((pa, ja), (pb, jb)) = (c.a, c.b);
+        let (a0, a1) = (pieces[pa].0[ja], pieces[pa].0[ja + 1]);
+        let (b0, b1) = (pieces[pb].0[jb], pieces[pb].0[jb + 1]);
+        let (ca, cb) = refine_crossing(ev, (&a0, &a1), (&b0, &b1), c.alpha, c.beta)?;
+        // Keep the crossing inside its segments' parameter ranges, so the cut pieces stay in
+        // path order.
+        let ca = OffsetSample {
+            t: ca.t.clamp(a0.t, a1.t),
+            ..ca
+        };
+        let cb_t = cb.t.clamp(b0.t, b1.t);
+        let jet = ev.path.surface().checked_jet(
+            ca.u,
+            ca.v,
+            DerivOrder::First,
+            &mut SurfaceHint::default(),
+        )?;
+        let cross = jet.su.cross(&jet.sv);
+        let n = cross * (ev.path.surface().orientation().sign() / cross.norm());
+        let g_a = n.cross(&ca.carried_tangent) * sign;
+        let g_b = n.cross(&cb.carried_tangent) * sign;
+        let a_fwd_bad = (a1.point - a0.point).dot(&g_b) < 0.0;
+        let b_fwd_bad = (b1.point - b0.point).dot(&g_a) < 0.0;
+        // The crossing as the end of a's part and as the start of b's part.
+        let end_a = ca;
+        let start_b = OffsetSample { t: cb_t, ..ca };
+        let mut out: Vec<PiecePoints> = Vec::with_capacity(pieces.len() + 1);
+        let with_end = |mut p: PiecePoints, x: OffsetSample| {
+            p.1.push(None);
+            p.0.push(x);
+            p
+        };
+        let with_start = |mut p: PiecePoints, x: OffsetSample| {
+            p.0.insert(0, x);
+            p.1.insert(0, None);
+            p
+        };
+        let last = |i: usize| pieces[i].0.len() - 1;
+        match (a_fwd_bad, b_fwd_bad) {
+            (true, false) => {
+                // (t_a, t_b): a loop.
+                loops.push(PathInterval { t0: ca.t, t1: cb_t });
+                out.extend(pieces[..pa].iter().cloned());
+                out.push(with_end(slice_piece(&pieces[pa], 0, ja), end_a));
+                out.push(with_start(
+                    slice_piece(&pieces[pb], jb + 1, last(pb)),
+                    start_b,
+                ));
+                out.extend(pieces[pb + 1..].iter().cloned());
+            }
+            (false, true) => {
+                // The ends beyond X: [start of a's piece, t_a) and (t_b, end of b's piece].
+                loops.push(PathInterval {
+                    t0: pieces[pa].0[0].t,
+                    t1: ca.t,
+                });
+                loops.push(PathInterval {
+                    t0: cb_t,
+                    t1: pieces[pb].0[last(pb)].t,
+                });
+                out.extend(pieces[..pa].iter().cloned());
+                if pa == pb {
+                    let mid = slice_piece(&pieces[pa], ja + 1, jb);
+                    out.push(with_end(with_start(mid, end_a), start_b));
+                } else {
+                    out.push(with_start(
+                        slice_piece(&pieces[pa], ja + 1, last(pa)),
+                        end_a,
+                    ));
+                    out.extend(pieces[pa + 1..pb].iter().cloned());
+                    out.push(with_end(slice_piece(&pieces[pb], 0, jb), start_b));
+                }
+                out.extend(pieces[pb + 1..].iter().cloned());
+            }
+            (true, true) => {
+                loops.push(PathInterval {
+                    t0: ca.t,
+                    t1: pieces[pb].0[last(pb)].t,
+                });
+                out.extend(pieces[..pa].iter().cloned());
+                out.push(with_end(slice_piece(&pieces[pa], 0, ja), end_a));
+                out.extend(pieces[pb + 1..].iter().cloned());
+            }
+            (false, false) => {
+                loops.push(PathInterval {
+                    t0: pieces[pa].0[0].t,
+                    t1: cb_t,
+                });
+                out.extend(pieces[..pa].iter().cloned());
+                out.push(with_start(
+                    slice_piece(&pieces[pb], jb + 1, last(pb)),
+                    start_b,
+                ));
+                out.extend(pieces[pb + 1..].iter().cloned());
+            }
+        }
+        out.retain(|p| p.0.len() >= 2);
+        *pieces = out;
+    }
+    Ok(())
 }

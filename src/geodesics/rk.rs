@@ -81,12 +81,148 @@ pub const E: [f64; STAGES] = [
     B5[6] - B4[6],
 ];
 
+/// The stages of one attempted step that every stage evaluation accepted.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct Stages<const N: usize, J> {
+    /// The stage derivatives kᵢ (four components each: the state's derivative and, beyond the
+    /// state's N components, whatever else the evaluation returns, such as the second
+    /// derivatives a curve node needs).
+    pub k: [[f64; 4]; STAGES],
+    /// The fifth-order solution y + h Σ bᵢ kᵢ.
+    pub y5: [f64; N],
+    /// The error estimate h Σ eᵢ kᵢ.
+    pub err: [f64; N],
+    /// What the last stage's evaluation returned with its derivative (the jet there: by
+    /// "first same as last" the jet at `y5`).
+    pub last: J,
+}
+
+/// One attempted Dormand–Prince step of length `h` from the state `y` whose derivative is
+/// `k0` (the first N components), with the stages evaluated by `eval`: the geodesic tracer
+/// and the fixed-angle course share it, so both sum the tableau in the same order (each stage
+/// yᵢ = y + h Σⱼ aᵢⱼ kⱼ, the sums from j = 0 up; y5 and the estimate likewise from i = 0).
+/// `Ok(Err(r))`: `eval` refused a stage with `r` (outside the domain, degenerate); the
+/// step is to be retried shorter. Errors: those of `eval`.
+pub(crate) fn attempt_step<const N: usize, J, R, E>(
+    y: &[f64; N],
+    k0: [f64; 4],
+    h: f64,
+    first: J,
+    mut eval: impl FnMut(&[f64; N]) -> Result<Result<([f64; 4], J), R>, E>,
+) -> Result<Result<Stages<N, J>, R>, E> {
+    let mut k = [[0.0; 4]; STAGES];
+    k[0] = k0;
+    let mut last = first;
+    for i in 1..STAGES {
+        let mut yi = *y;
+        for (c, yc) in yi.iter_mut().enumerate() {
+            let mut acc = 0.0;
+            for j in 0..i {
+                acc += A[i][j] * k[j][c];
+            }
+            *yc += h * acc;
+        }
+        match eval(&yi)? {
+            Ok((fi, ji)) => {
+                k[i] = fi;
+                last = ji;
+            }
+            Err(r) => return Ok(Err(r)),
+        }
+    }
+    let mut y5 = *y;
+    let mut err = [0.0; N];
+    for c in 0..N {
+        let (mut a5, mut ae) = (0.0, 0.0);
+        for i in 0..STAGES {
+            a5 += B5[i] * k[i][c];
+            ae += E[i] * k[i][c];
+        }
+        y5[c] += h * a5;
+        err[c] = h * ae;
+    }
+    Ok(Ok(Stages { k, y5, err, last }))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
 
     fn a(i: usize, j: usize) -> f64 {
         if j < 6 { A[i][j] } else { 0.0 }
+    }
+
+    /// The shared step sums the tableau in the order the tracer and the course did when each
+    /// had its own loop (written out here once more): the same bits, for a state of four
+    /// components and of two, and a refusal passed through at the stage that refused.
+    #[test]
+    fn attempt_step_keeps_the_summation_order() {
+        // y' = (y1, -y0, y3, -y2) + a small nonlinearity.
+        let f = |y: &[f64]| -> [f64; 4] {
+            let g = |i: usize| y.get(i).copied().unwrap_or(0.0);
+            [g(1), -g(0) + 0.1 * g(1) * g(1), g(0) * 0.3, -g(1) * g(0)]
+        };
+        fn written_out<const N: usize>(
+            y: [f64; N],
+            h: f64,
+            f: &dyn Fn(&[f64]) -> [f64; 4],
+        ) -> ([f64; N], [f64; N]) {
+            let mut k = [[0.0; 4]; STAGES];
+            k[0] = f(&y);
+            for i in 1..STAGES {
+                let mut yi = y;
+                for (c, yc) in yi.iter_mut().enumerate() {
+                    let mut acc = 0.0;
+                    for j in 0..i {
+                        acc += A[i][j] * k[j][c];
+                    }
+                    *yc += h * acc;
+                }
+                k[i] = f(&yi);
+            }
+            let mut y5 = y;
+            let mut d = [0.0; N];
+            for c in 0..N {
+                let (mut a5, mut ae) = (0.0, 0.0);
+                for i in 0..STAGES {
+                    a5 += B5[i] * k[i][c];
+                    ae += E[i] * k[i][c];
+                }
+                y5[c] += h * a5;
+                d[c] = h * ae;
+            }
+            (y5, d)
+        }
+        let y4 = [0.3, -1.1, 0.7, 0.2];
+        let st = attempt_step(&y4, f(&y4), 0.37, 0, |yi| {
+            Ok::<_, ()>(Ok::<_, ()>((f(yi), 1)))
+        })
+        .unwrap()
+        .unwrap();
+        let (y5, d) = written_out(y4, 0.37, &f);
+        assert_eq!(st.y5.map(f64::to_bits), y5.map(f64::to_bits));
+        assert_eq!(st.err.map(f64::to_bits), d.map(f64::to_bits));
+        assert_eq!(st.last, 1);
+        let y2 = [0.3, -1.1];
+        let st = attempt_step(&y2, f(&y2), 0.21, 0, |yi| {
+            Ok::<_, ()>(Ok::<_, ()>((f(yi), 2)))
+        })
+        .unwrap()
+        .unwrap();
+        let (y5, d) = written_out(y2, 0.21, &f);
+        assert_eq!(st.y5.map(f64::to_bits), y5.map(f64::to_bits));
+        assert_eq!(st.err.map(f64::to_bits), d.map(f64::to_bits));
+        let mut calls = 0;
+        let r = attempt_step(&y2, f(&y2), 0.21, 0, |yi| {
+            calls += 1;
+            Ok::<_, ()>(if calls == 3 {
+                Err("outside")
+            } else {
+                Ok((f(yi), 0))
+            })
+        })
+        .unwrap();
+        assert!(matches!(r, Err("outside")) && calls == 3);
     }
 
     /// Row sums: cᵢ = Σⱼ aᵢⱼ (the usual simplifying condition).

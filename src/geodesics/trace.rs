@@ -355,6 +355,44 @@ pub fn start_velocity(
     Ok((p, q))
 }
 
+/// The start velocity (p, q) with the component across a domain side removed, when the
+/// start lies on that side (within the snap distance, 1e-11 of the domain width) and the
+/// component is so small that over the whole `length` it moves the point less than the snap
+/// distance: a direction along the side up to rounding (the end of a path on the boundary,
+/// its perpendicular along the side) is taken as along it, and the velocity is scaled back
+/// to unit speed. Without this, a tilt of one rounding unit out of the domain ends the
+/// geodesic at its start (a start heading out), or after a fraction of its length at a
+/// start just inside; a tilt inward moves the end off the side by rounding units, which
+/// repeated offsets accumulate.
+fn along_a_side<S: SurfaceSource + ?Sized>(
+    jet: &SurfaceJet,
+    start: (f64, f64),
+    (p, q): (f64, f64),
+    length: f64,
+    surface: &S,
+) -> (f64, f64) {
+    let doms = [surface.u_domain(), surface.v_domain()];
+    let x = [start.0, start.1];
+    let mut vel = [p, q];
+    let mut changed = false;
+    for k in 0..2 {
+        let snap = 1e-11 * doms[k].width();
+        let on_side = x[k] - doms[k].lo <= snap || doms[k].hi - x[k] <= snap;
+        if on_side && vel[k] != 0.0 && vel[k].abs() * length <= snap {
+            vel[k] = 0.0;
+            changed = true;
+        }
+    }
+    if !changed {
+        return (p, q);
+    }
+    let speed = (jet.su * vel[0] + jet.sv * vel[1]).norm();
+    if !(speed > 0.0) {
+        return (p, q);
+    }
+    (vel[0] / speed, vel[1] / speed)
+}
+
 /// Traces the geodesic from (u, v) in direction `dir` for arc length `length` (see the module
 /// docs for the method and the ways it ends).
 ///
@@ -362,7 +400,8 @@ pub fn start_velocity(
 /// (nothing is clamped); `DegenerateSurface` for a start at a degenerate point;
 /// `InvalidArgument` for a length that is not positive and finite, a bad option or a zero
 /// direction (naming the value); `LeavesSurface` for a start on the domain boundary heading
-/// out; `GeodesicIncomplete` when the tolerance cannot be met or the step cap is used up;
+/// out (a direction that crosses a side it starts on by less than 1e-11 of the domain width
+/// over the whole length is taken along the side instead); `GeodesicIncomplete` when the tolerance cannot be met or the step cap is used up;
 /// every error of the surface.
 pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
     surface: &S,
@@ -383,7 +422,13 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
     let mut hint = SurfaceHint::default();
     let jet0 = surface.checked_jet(u, v, DerivOrder::Second, &mut hint)?;
     let sp = SurfacePoint::new(&jet0, surface.orientation(), u, v, ud.width(), vd.width())?;
-    let (p, q) = start_velocity(&jet0, &sp, dir)?;
+    let (p, q) = along_a_side(
+        &jet0,
+        (u, v),
+        start_velocity(&jet0, &sp, dir)?,
+        length,
+        surface,
+    );
     let mut tr = Tracer {
         surface,
         hint,
@@ -458,56 +503,25 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
             hs = reach;
         }
         // The stages.
-        let mut k = [[0.0; 4]; rk::STAGES];
-        k[0] = f;
-        let mut last_jet = jet;
-        let mut refusal = None;
-        for i in 1..rk::STAGES {
-            let mut yi = y;
-            for (c, yc) in yi.iter_mut().enumerate() {
-                let mut acc = 0.0;
-                for j in 0..i {
-                    acc += rk::A[i][j] * k[j][c];
-                }
-                *yc += hs * acc;
-            }
-            match tr.eval(&yi)? {
-                Ok((fi, ji)) => {
-                    k[i] = fi;
-                    last_jet = ji;
-                }
-                Err(r) => {
-                    refusal = Some(r);
-                    break;
-                }
-            }
-        }
-        if let Some(r) = refusal {
-            stats.rejected += 1;
-            just_rejected = true;
-            match r {
-                Refusal::Outside => h = 0.7 * hs,
-                Refusal::Degenerate(cond) => {
-                    h = 0.5 * hs;
-                    if h < h_min {
-                        end = GeodesicEnd::Degenerate { conditioning: cond };
-                        break 'steps;
+        let st = match rk::attempt_step(&y, f, hs, jet, |yi| tr.eval(yi))? {
+            Ok(st) => st,
+            Err(r) => {
+                stats.rejected += 1;
+                just_rejected = true;
+                match r {
+                    Refusal::Outside => h = 0.7 * hs,
+                    Refusal::Degenerate(cond) => {
+                        h = 0.5 * hs;
+                        if h < h_min {
+                            end = GeodesicEnd::Degenerate { conditioning: cond };
+                            break 'steps;
+                        }
                     }
                 }
+                continue;
             }
-            continue;
-        }
-        let mut y5 = y;
-        let mut d = [0.0; 4];
-        for c in 0..4 {
-            let (mut a5, mut ae) = (0.0, 0.0);
-            for i in 0..rk::STAGES {
-                a5 += rk::B5[i] * k[i][c];
-                ae += rk::E[i] * k[i][c];
-            }
-            y5[c] += hs * a5;
-            d[c] = hs * ae;
-        }
+        };
+        let (k, y5, d, last_jet) = (st.k, st.y5, st.err, st.last);
         if tr.jumps_a_break(&y, &y5) {
             // A step must not straddle a knot line: aim again (the reach includes them).
             stats.rejected += 1;

@@ -21,11 +21,13 @@
 //!   B) is traced for up to 3w and its crossing with B's edge found (polygon crossing, then
 //!   Newton on both curve parameters); with d its arc length there, A's edge being w/2 along
 //!   the same geodesic, the edge-to-edge width across A is d − w/2: positive a gap, negative
-//!   an overlap. Intervals where |d − w/2| exceeds the tolerance are reported with their
-//!   worst width. Where the perpendicular meets no edge of B within 3w (B ended, or
-//!   diverged) the samples are counted as unmatched. What it does not see: the gap between
-//!   samples (taken at `samples` even parameters of A), and an overlap wider than w/2 on the
-//!   far side of A's centreline (the perpendicular starts at A's centreline).
+//!   an overlap. Where that geodesic meets no edge of B, B's edge may lie beyond A's
+//!   centreline (an overlap deeper than w/2): the perpendicular the other way is traced for
+//!   up to 1.5w, and a crossing at arc length s there gives d = −s (overlaps down to 2w
+//!   deep). Intervals where |d − w/2| exceeds the tolerance are reported with their worst
+//!   width. Where neither perpendicular meets an edge of B (B ended, or diverged) the samples
+//!   are counted as unmatched. What it does not see: the gap between samples (taken at
+//!   `samples` even parameters of A).
 //! - Checks ([`course_check`]): [`fibre_state`] at even samples of the course: steering
 //!   curvature |κg|, edge strain (w/2)|κg|, twist rate τg, and whether the limits are passed.
 
@@ -257,59 +259,30 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
                 }
             }
         }
-        let mut k = [[0.0f64; 4]; rk::STAGES];
-        k[0] = f;
-        let mut last_jet = None;
-        let mut refused = None;
-        for i in 1..rk::STAGES {
-            let mut yi = y;
-            for (c, yc) in yi.iter_mut().enumerate() {
-                let mut acc = 0.0;
-                for j in 0..i {
-                    acc += rk::A[i][j] * k[j][c];
-                }
-                *yc += hs * acc;
-            }
-            match eval(yi)? {
-                Ok((fi, ji)) => {
-                    k[i] = fi;
-                    last_jet = Some(ji);
-                }
-                Err(r) => {
-                    refused = Some(r);
-                    break;
-                }
-            }
-        }
-        if let Some(r) = refused {
-            stats.rejected += 1;
-            just_rejected = true;
-            match r {
-                None => h = 0.7 * hs,
-                Some(ratio) => {
-                    h = 0.5 * hs;
-                    if h < h_min {
-                        end = GeodesicEnd::Degenerate {
-                            conditioning: ratio,
-                        };
-                        break;
+        let st = match rk::attempt_step(&y, f, hs, None, |yi: &[f64; 2]| {
+            Ok::<_, StrakeError>(eval(*yi)?.map(|(fi, ji)| (fi, Some(ji))))
+        })? {
+            Ok(st) => st,
+            Err(r) => {
+                stats.rejected += 1;
+                just_rejected = true;
+                match r {
+                    None => h = 0.7 * hs,
+                    Some(ratio) => {
+                        h = 0.5 * hs;
+                        if h < h_min {
+                            end = GeodesicEnd::Degenerate {
+                                conditioning: ratio,
+                            };
+                            break;
+                        }
                     }
                 }
+                continue;
             }
-            continue;
-        }
-        let jet = last_jet.expect("six stages evaluated");
-        let mut y5 = y;
-        let mut d = [0.0; 2];
-        for c in 0..2 {
-            let (mut a5, mut ae) = (0.0, 0.0);
-            for i in 0..rk::STAGES {
-                a5 += rk::B5[i] * k[i][c];
-                ae += rk::E[i] * k[i][c];
-            }
-            y5[c] += hs * a5;
-            d[c] = hs * ae;
-        }
+        };
+        let jet = st.last.expect("six stages evaluated");
+        let (k, y5, d) = (st.k, st.y5, st.err);
         let err = (jet.su * d[0] + jet.sv * d[1]).norm();
         if !(err <= tol) {
             stats.rejected += 1;
@@ -442,7 +415,7 @@ pub struct CourseGaps {
     /// At each sample of A: (t, edge-to-edge width d − w/2, d the distance to B's edge),
     /// `None` where no B was met.
     pub widths: Vec<(f64, Option<f64>)>,
-    /// Samples where the perpendicular met no B within 3w.
+    /// Samples where the perpendicular met no edge of B (within 3w toward B, 1.5w away).
     pub unmatched: usize,
 }
 
@@ -545,23 +518,12 @@ pub fn course_gaps<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + 
     };
     let mut widths = Vec::with_capacity(samples);
     let mut unmatched = 0;
-    for i in 0..samples {
-        let t = ad.even(i, samples);
-        let fr = path.frame(t, &mut hints)?;
-        let g = match trace_geodesic(
-            surface,
-            fr.u,
-            fr.v,
-            StartDirection::Space(fr.b * sign),
-            3.0 * band_width,
-            trace,
-        ) {
+    // The arc length along the geodesic from (u, v) toward `dir` (up to `reach`) where it
+    // first meets B's edge, if it does.
+    let meet = |u: f64, v: f64, dir: Vec3, reach: f64| -> Result<Option<f64>> {
+        let g = match trace_geodesic(surface, u, v, StartDirection::Space(dir), reach, trace) {
             Ok(g) => g,
-            Err(StrakeError::LeavesSurface { .. }) => {
-                widths.push((t, None));
-                unmatched += 1;
-                continue;
-            }
+            Err(StrakeError::LeavesSurface { .. }) => return Ok(None),
             Err(e) => return Err(e),
         };
         let mut nearest: Option<f64> = None;
@@ -570,6 +532,18 @@ pub fn course_gaps<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + 
                 nearest = Some(nearest.map_or(d, |n: f64| n.min(d)));
             }
         }
+        Ok(nearest)
+    };
+    for i in 0..samples {
+        let t = ad.even(i, samples);
+        let fr = path.frame(t, &mut hints)?;
+        let toward = fr.b * sign;
+        // Toward B first; an edge of B beyond A's centreline (an overlap deeper than w/2) is
+        // met the other way, at a negative distance.
+        let nearest = match meet(fr.u, fr.v, toward, 3.0 * band_width)? {
+            Some(d) => Some(d),
+            None => meet(fr.u, fr.v, -toward, 1.5 * band_width)?.map(|d| -d),
+        };
         match nearest {
             Some(d) => widths.push((t, Some(d - 0.5 * band_width))),
             None => {
