@@ -785,7 +785,11 @@ fn width_of_a_flat_cutter_tilted_without_lead_is_the_segment_closed_form() {
             for side in [1.0, -1.0] {
                 // Negative tilt mirrors the outline: the same width.
                 let m = cut_width(&c, &angles(0.0, side * th), h).unwrap();
-                assert!((m - want).abs() <= allowed, "tilt {} h {h}: {m}", side * tilt);
+                assert!(
+                    (m - want).abs() <= allowed,
+                    "tilt {} h {h}: {m}",
+                    side * tilt
+                );
             }
         }
     }

@@ -123,10 +123,11 @@ impl Circle {
             return ([sigma, 0.0], [1.0, 0.0], [0.0, 1.0]);
         }
         let a = sigma * k;
-        ([a.sin() / k, (1.0 - a.cos()) / k], [a.cos(), a.sin()], [
-            -a.sin(),
-            a.cos(),
-        ])
+        (
+            [a.sin() / k, (1.0 - a.cos()) / k],
+            [a.cos(), a.sin()],
+            [-a.sin(), a.cos()],
+        )
     }
     /// Angle of p about the centre, as arc length (the y coordinate for the plane).
     fn arc(&self, p: [f64; 2]) -> f64 {
@@ -226,7 +227,10 @@ fn against_brute_force(kappa: f64) {
     ];
     for (cutter, ang, w) in cases {
         let got = scallop_between_cutters(&cutter, &ang, w, kappa).unwrap();
-        assert!(!got.on_flank, "{cutter:?} {ang:?}: the case must keep off the flank");
+        assert!(
+            !got.on_flank,
+            "{cutter:?} {ang:?}: the case must keep off the flank"
+        );
         let brute = brute_scallop(&cutter, &ang, w, kappa);
         eprintln!(
             "{cutter:?} lead {:.0} tilt {:.0} w {w} kappa {kappa:.4}: {:.9e} brute {brute:.9e}",
@@ -289,10 +293,16 @@ fn ball_scallop_is_the_two_circle_closed_form() {
         for (w, kappa) in [(0.9, 0.0), (1.5, 0.1), (0.6, 0.3), (2.0, -0.2), (1.2, -1.0)] {
             let got = scallop_between_cutters(&ball, &ang, w, kappa).unwrap();
             let want = scallop_height(3.0, w, kappa).unwrap();
-            assert!(rel(got.height, want) < 1e-11, "w {w} kappa {kappa}: {got:?} vs {want}");
+            assert!(
+                rel(got.height, want) < 1e-11,
+                "w {w} kappa {kappa}: {got:?} vs {want}"
+            );
             let back = step_over_for_cutter_scallop(&ball, &ang, want, kappa).unwrap();
             let w_exact = step_over_for_scallop(3.0, want, kappa).unwrap();
-            assert!(rel(back.step_over, w_exact) < 1e-11, "{back:?} vs {w_exact}");
+            assert!(
+                rel(back.step_over, w_exact) < 1e-11,
+                "{back:?} vs {w_exact}"
+            );
         }
     }
 }
@@ -368,8 +378,15 @@ fn cutter_scallop_refuses_bad_input() {
         corner_radius: 2.0,
     };
     assert!(scallop_between_cutters(&bad, &ang, 1.0, 0.0).is_err());
-    let e = msg(
-        scallop_between_cutters(&c, &ToolAngles { lead: 2.0, tilt: 0.0 }, 1.0, 0.0).unwrap_err(),
-    );
+    let e = msg(scallop_between_cutters(
+        &c,
+        &ToolAngles {
+            lead: 2.0,
+            tilt: 0.0,
+        },
+        1.0,
+        0.0,
+    )
+    .unwrap_err());
     assert!(e.contains("lead angle = 2"), "{e}");
 }

@@ -309,7 +309,13 @@ impl Outline {
     pub(crate) fn new(cutter: &Cutter, angles: &ToolAngles) -> Outline {
         let (big_r, r) = cutter.torus_radii();
         let [at, ab, an] = angles.local();
-        Outline { big_r, r, at, ab, an }
+        Outline {
+            big_r,
+            r,
+            at,
+            ab,
+            an,
+        }
     }
 
     /// φ where the lower outline meets the flank on the +b_t side (u·a = 0); the −b_t side is

@@ -439,3 +439,175 @@ pub fn step_over_for_cutter_scallop(
         on_flank: flank_r || flank_l,
     })
 }
+
+/// A cutter and its axis, for pass planning ([`super::passes::PassOptions::cutter`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PassCutter {
+    /// The cutter's shape.
+    pub cutter: Cutter,
+    /// Lead and tilt in the tool-side frame of every pass (the passes all run the same way).
+    pub angles: ToolAngles,
+}
+
+impl PassCutter {
+    /// Errors (`InvalidArgument`, naming the field) for an invalid cutter or angles.
+    pub fn validate(&self) -> Result<()> {
+        self.cutter.validate()?;
+        self.angles.validate()
+    }
+
+    /// The ball's radius when the cutter is a ball-end mill (whose profile is its circle at
+    /// any lead and tilt), else `None`.
+    pub fn ball_radius(&self) -> Option<f64> {
+        match self.cutter {
+            Cutter::Ball { radius } => Some(radius),
+            _ => None,
+        }
+    }
+}
+
+/// The step-over at the path sample `f` for the target scallop `h` with `cutter` on `side`:
+/// [`step_over_for_cutter_scallop`] with the curvature across the path κ = s κn(B) of
+/// [`crate::checks::scallop::cross_path_curvature`].
+///
+/// Errors: [`StrakeError::CutterTooLarge`] (radius: the profile's radius across the path)
+/// where the profile does not fit the concave cross-section; the other errors of
+/// [`step_over_for_cutter_scallop`].
+pub fn cutter_step_over_at(
+    f: &crate::geometry::frame::DarbouxFrame,
+    cutter: &PassCutter,
+    side: crate::checks::cutter::ToolSide,
+    h: f64,
+) -> Result<f64> {
+    super::scallop_left::check_target_scallop(h)?;
+    cutter.validate()?;
+    let kappa = crate::checks::scallop::cross_path_curvature(f, side);
+    let rho = cutter_radii(&cutter.cutter, &cutter.angles)?.across_path;
+    if kappa > 0.0 && kappa * rho >= 1.0 {
+        return Err(StrakeError::CutterTooLarge {
+            radius: rho,
+            curvature_radius: 1.0 / kappa,
+            u: f.u,
+            v: f.v,
+        });
+    }
+    Ok(step_over_for_cutter_scallop(&cutter.cutter, &cutter.angles, h, kappa)?.step_over)
+}
+
+/// The scallop left at one point of a pass by its neighbour, for a cutter (see
+/// [`scallop_between_cutter_passes`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CutterScallopLeft {
+    /// Parameter on the pass.
+    pub t: f64,
+    /// Parameter on the neighbour of the contact point nearest to the pass's.
+    pub t_neighbour: f64,
+    /// Step-over measured: the distance between the two contact points (chord) turned into
+    /// arc length on the circle of the mean curvature across the path, 2 asin(d κ/2)/κ.
+    pub step_over: f64,
+    /// Mean of the two contact points' curvatures across the path (s κn(B)).
+    pub kappa: f64,
+    /// Scallop height of [`scallop_between_cutters`] for that step-over and curvature.
+    pub height: f64,
+}
+
+/// Measures the scallop left between pass `a` and its neighbour `b` (curves on `surface`) by
+/// `cutter` on `side`, at each parameter of `ts` on `a`: the neighbour's contact point nearest
+/// to a's (Gauss–Newton on b's parameter from `t_b0`, then from each found one), the distance
+/// between them as arc length on the circle of their mean curvature across the path, and the
+/// exact cusp of the two profiles there ([`scallop_between_cutters`]; the pair is the same
+/// configuration whichever side the neighbour lies on). Unlike the ball's [`super::scallop_left::scallop_between`] (the meeting of
+/// the swept tubes in space) this is the cross-section model at the measured step-over: it
+/// sees the distance the offsets actually made and the curvature at both passes, not the
+/// surface between them.
+///
+/// Errors: `NotConverged` where the nearest point of the neighbour is an end of its domain
+/// (the neighbour is not beside this point); `InvalidArgument` where the profiles do not meet
+/// (the step-over is wider than the cutter cuts) or the cutter is invalid; every error of the
+/// frames and of the surface.
+#[allow(clippy::too_many_arguments)]
+pub fn scallop_between_cutter_passes<S, A, B>(
+    surface: &S,
+    a: &A,
+    b: &B,
+    cutter: &PassCutter,
+    side: crate::checks::cutter::ToolSide,
+    ts: &[f64],
+    t_b0: f64,
+) -> Result<Vec<CutterScallopLeft>>
+where
+    S: crate::surface::SurfaceSource + ?Sized,
+    A: crate::curve::UvCurve + ?Sized,
+    B: crate::curve::UvCurve + ?Sized,
+{
+    use crate::paths::curve_on_surface::{CurveOnSurface, Hints};
+    cutter.validate()?;
+    let pa = CurveOnSurface::new(surface, a);
+    let pb = CurveOnSurface::new(surface, b);
+    let (mut ha, mut hb) = (Hints::default(), Hints::default());
+    let dom = b.domain();
+    let mut tb = t_b0.clamp(dom.lo, dom.hi);
+    let mut out = Vec::with_capacity(ts.len());
+    for &t in ts {
+        let fa = pa.frame(t, &mut ha)?;
+        // The nearest contact point of b: Gauss–Newton on (c(t) − p)·c'(t) = 0.
+        let mut best = (f64::INFINITY, tb);
+        let mut tq = tb;
+        for _ in 0..60 {
+            let f = pb.frame(tq, &mut hb)?;
+            let d = f.point - fa.point;
+            let dist = d.norm();
+            if dist < best.0 {
+                best = (dist, tq);
+            }
+            let dc = f.t * f.speed;
+            let den = dc.norm_squared();
+            if den.is_nan() || den <= 0.0 {
+                break;
+            }
+            let tn = (tq - d.dot(&dc) / den).clamp(dom.lo, dom.hi);
+            if (tn - tq).abs() <= 1e-15 * dom.width().max(tq.abs()) {
+                break;
+            }
+            tq = tn;
+        }
+        let (chord, t_near) = best;
+        let fb = pb.frame(t_near, &mut hb)?;
+        let end = (t_near - dom.lo).abs().min((dom.hi - t_near).abs()) <= 1e-12 * dom.width();
+        let abeam = (fb.point - fa.point).dot(&fb.t).abs() <= 1e-6 * chord.max(f64::MIN_POSITIVE);
+        if end && !abeam {
+            return Err(StrakeError::NotConverged {
+                what: format!(
+                    "at t = {} on the pass the nearest point of the neighbour is an end of it \
+                     (t = {}): the neighbour is not beside this point",
+                    Exact(t),
+                    Exact(t_near)
+                ),
+                iterations: 0,
+            });
+        }
+        tb = t_near;
+        let kappa = 0.5
+            * (crate::checks::scallop::cross_path_curvature(&fa, side)
+                + crate::checks::scallop::cross_path_curvature(&fb, side));
+        let x = 0.5 * chord * kappa;
+        let w = if x == 0.0 {
+            chord
+        } else if x.abs() < 1.0 {
+            2.0 * x.asin() / kappa
+        } else {
+            f64::INFINITY
+        };
+        // Which pass is on the +b_t side does not matter: both carry the same profile, so the
+        // pair is the same configuration seen from either.
+        let h = scallop_between_cutters(&cutter.cutter, &cutter.angles, w, kappa)?;
+        out.push(CutterScallopLeft {
+            t,
+            t_neighbour: t_near,
+            step_over: w,
+            kappa,
+            height: h.height,
+        });
+    }
+    Ok(out)
+}
