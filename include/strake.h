@@ -1769,6 +1769,34 @@ typedef struct StrakePassOptions {
    * stopped by it is a band around the first pass (`StrakePassSummary.covered` = 0).
    */
   uint32_t max_rows;
+  /**
+   * 0: plan for the ball of `ball_radius` (`cutter` and `angles` are not read); 1: plan
+   * for `cutter` at `angles` (`ball_radius` is not read). Added after `max_rows`: a host
+   * that zero-initialises the struct keeps the ball.
+   */
+  uint32_t use_cutter;
+  /**
+   * The cutter (when `use_cutter` is 1): a flat-end or toroidal cutter spaces iso-scallop
+   * passes by the exact cusp of its two profiles across the path at lead and tilt (the
+   * width it cuts included) and reports the scallop of that cusp at the step-over the
+   * offsets made; a ball-end mill is planned as the ball of its radius.
+   */
+  struct StrakeCutter cutter;
+  /**
+   * Lead and tilt of the axis in each pass's tool-side frame (when `use_cutter` is 1;
+   * radians, each strictly inside (-pi/2, pi/2)).
+   */
+  struct StrakeToolAngles angles;
+  /**
+   * Most surface jets the geodesic traces of the whole plan may evaluate (0: 200000000);
+   * a plan that needs more ends with NOT_CONVERGED naming the pass it was making.
+   */
+  uint64_t max_jets;
+  /**
+   * Most surface jets the traces of one offset may evaluate (0: 2000000), each offset
+   * also held to what is left of `max_jets`.
+   */
+  uint64_t max_offset_jets;
 } StrakePassOptions;
 
 /**
@@ -1812,6 +1840,16 @@ typedef struct StrakePassSummary {
    * `max_rows` before trying the parallels of its last row.
    */
   int32_t covered;
+  /**
+   * Offsets computed, the iso-scallop corrections included (a plan without corrections
+   * makes one per pass that has a neighbour).
+   */
+  size_t offset_attempts;
+  /**
+   * Probes of the scallop left that could not be measured (the neighbour not beside the
+   * probe: no cusp in the section); their scallop is not in `scallop_max` / `scallop_min`.
+   */
+  size_t unmeasured;
 } StrakePassSummary;
 
 /**
@@ -3696,23 +3734,28 @@ StrakeStatus strake_drive_result_intervals(const struct StrakeDriveResult *resul
 void strake_drive_result_free(struct StrakeDriveResult *result);
 
 /**
- * Plans passes of a ball-end mill across `surface` from the pass `first` (a curve handle on
+ * Plans passes of a ball-end mill (or, with `options->use_cutter` = 1, of a flat-end or
+ * toroidal cutter at lead and tilt) across `surface` from the pass `first` (a curve handle on
  * it): each next pass is the geodesic parallel of the one before at the step-over that leaves
  * `options->scallop_height` point by point (iso-scallop: the exact two-circle rule with the
- * surface's curvature across the path), or at `options->step_over` (constant), laid to the
- * side `options->advance`, until no parallel lies on the surface any more (or for
- * `options->max_rows` rows, when not 0: a band around the first pass). A parallel that
- * breaks (the boundary, a trimmed loop) gives several passes. Between every pass and the one
- * it was laid beside, the scallop left is measured by a direct construction (the meeting of
- * the two balls' swept tubes), not by the rule.
+ * surface's curvature across the path for a ball, the exact cusp of the two cutter profiles
+ * across the path for a flat or toroidal cutter, which includes the width it cuts), or at
+ * `options->step_over` (constant), laid to the side `options->advance`, until no parallel
+ * lies on the surface any more (or for `options->max_rows` rows, when not 0: a band around
+ * the first pass). A parallel that breaks (the boundary, a trimmed loop) gives several
+ * passes. Between every pass and the one it was laid beside, the scallop left is measured:
+ * for a ball by a direct construction (the meeting of the two balls' swept tubes), for a
+ * cutter by the cusp of its profiles at the step-over the offsets made; not by the rule.
  *
  * Returns `STRAKE_STATUS_OK` and writes a new plan to `*out` (free it with
  * `strake_pass_plan_free`; read it with `strake_pass_plan_summary`, `strake_pass_plan_passes`
  * and `strake_pass_plan_curve`); otherwise `*out` is untouched. Errors: NULL_POINTER
  * (`surface`, `first`, `options`, `out`); INVALID_ARGUMENT naming the field and value (a
  * target scallop of zero, NaN or negative, a radius, step-over or tolerance that is not
- * positive and finite, a flag out of range, balls that do not overlap at the constant
- * step-over); CUTTER_TOO_LARGE (the ball does not fit the concave curvature across a pass);
+ * positive and finite, a flag out of range, an invalid cutter or angles, balls or profiles
+ * that do not overlap at the constant step-over); CUTTER_TOO_LARGE (the ball or the cutter's
+ * profile does not fit the concave curvature across a pass); NOT_CONVERGED (a work cap,
+ * `max_jets` or `max_offset_jets`, used up);
  * PASS_LIMIT (more than `max_passes` passes needed); the errors of the offsets
  * (GEODESIC_INCOMPLETE, DEGENERATE_SURFACE, NOT_CONVERGED ...) and of the surface and curve.
  * Thread-safe.

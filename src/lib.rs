@@ -73,6 +73,10 @@ pub use planning::drive_pattern::{
 };
 pub use planning::passes::{PassOptions, PassPlan, PlannedPass, StepRule, plan_passes};
 pub use planning::planar_pattern::{ArchimedeanSpiral, parallel_lines};
+pub use planning::scallop_cutter::{
+    CutterScallop, CutterScallopLeft, CutterScallopStep, PassCutter, cutter_step_over_at,
+    scallop_between_cutter_passes, scallop_between_cutters, step_over_for_cutter_scallop,
+};
 pub use planning::scallop_left::{
     ScallopLeft, check_target_scallop, scallop_between, step_over_at,
 };

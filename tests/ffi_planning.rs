@@ -257,6 +257,11 @@ fn pass_options() -> StrakePassOptions {
         scallop_samples: 0,
         max_passes: 0,
         max_rows: 0,
+        use_cutter: 0,
+        cutter: StrakeCutter::default(),
+        angles: StrakeToolAngles::default(),
+        max_jets: 0,
+        max_offset_jets: 0,
     }
 }
 
@@ -449,6 +454,52 @@ fn iso_scallop_passes_on_a_cylinder_through_the_c_abi() {
                 StrakeStatus::InvalidArgument,
                 "chord_tolerance` = 0",
             ),
+            (
+                StrakePassOptions {
+                    use_cutter: 2,
+                    ..opts
+                },
+                StrakeStatus::InvalidArgument,
+                "`options->use_cutter` = 2",
+            ),
+            (
+                StrakePassOptions {
+                    use_cutter: 1,
+                    cutter: StrakeCutter {
+                        kind: StrakeCutterKind::Toroidal as u32,
+                        radius: 1.0,
+                        corner_radius: 2.0,
+                    },
+                    ..opts
+                },
+                StrakeStatus::InvalidArgument,
+                "corner_radius = 2 exceeds the tool radius 1",
+            ),
+            (
+                StrakePassOptions {
+                    use_cutter: 1,
+                    cutter: StrakeCutter {
+                        kind: StrakeCutterKind::Flat as u32,
+                        radius: 5.0,
+                        corner_radius: 0.0,
+                    },
+                    angles: StrakeToolAngles {
+                        lead: 2.0,
+                        tilt: 0.0,
+                    },
+                    ..opts
+                },
+                StrakeStatus::InvalidArgument,
+                "lead angle = 2 rad",
+            ),
+            (
+                StrakePassOptions {
+                    max_jets: 50,
+                    ..opts
+                },
+                StrakeStatus::NotConverged,
+                "max_jets = 50",
+            ),
         ];
         for (o, status, needle) in cases {
             expect(
@@ -474,4 +525,70 @@ fn iso_scallop_passes_on_a_cylinder_through_the_c_abi() {
     assert_eq!(StrakeStatus::CutterTooLarge as u32, 55);
     assert_eq!(StrakeStatus::PassLimit as u32, 56);
     free(s, first);
+}
+
+// The cutter fields added at the end of StrakePassOptions: a toroidal cutter (5/1 mm) at 6°
+// lead and 8° tilt outside a cylinder of radius 10 plans rulings at the step-over of the exact
+// two-profile cusp, the same as the Rust API (whose cusp tests/scallop_cutter.rs checks against
+// brute force); the summary's offset attempts and unmeasured probes.
+#[test]
+fn toroidal_cutter_passes_on_a_cylinder_through_the_c_abi() {
+    let mut r0 = 10.0_f64;
+    let s = surface(
+        Some(cylinder),
+        (&mut r0 as *mut f64).cast::<c_void>(),
+        (0.0, 1.2),
+        (-3.0, 3.0),
+        0,
+    );
+    let first = uv_line([0.05, -2.5], [0.05, 2.5]);
+    let (lead, tilt) = (6f64.to_radians(), 8f64.to_radians());
+    let opts = StrakePassOptions {
+        scallop_height: 0.02,
+        distance_samples: 9,
+        scallop_samples: 3,
+        use_cutter: 1,
+        cutter: StrakeCutter {
+            kind: StrakeCutterKind::Toroidal as u32,
+            radius: 5.0,
+            corner_radius: 1.0,
+        },
+        angles: StrakeToolAngles { lead, tilt },
+        max_offset_jets: 1_000_000,
+        ..pass_options()
+    };
+    let w = strake::step_over_for_cutter_scallop(
+        &strake::checks::Cutter::Toroidal {
+            radius: 5.0,
+            corner_radius: 1.0,
+        },
+        &strake::checks::ToolAngles { lead, tilt },
+        0.02,
+        -0.1,
+    )
+    .unwrap()
+    .step_over;
+    let expected = 1 + ((1.2 - 0.05) / (w / 10.0)).floor() as usize;
+    // SAFETY (all calls): live handles, valid structs and slots.
+    unsafe {
+        let mut plan: *mut StrakePassPlan = ptr::null_mut();
+        let st = strake_plan_passes(s, first, &opts, &mut plan);
+        assert_eq!(st, StrakeStatus::Ok, "{}", message());
+        let mut sum = StrakePassSummary::default();
+        assert_eq!(strake_pass_plan_summary(plan, &mut sum), StrakeStatus::Ok);
+        assert_eq!(sum.count, expected, "step-over {w}");
+        close("scallop max", sum.scallop_max, 0.02, 1e-5, 1.0);
+        close("scallop min", sum.scallop_min, 0.02, 1e-5, 1.0);
+        // One offset per pass after the first, the corrections on top.
+        assert!(sum.offset_attempts >= expected - 1, "{sum:?}");
+        assert_eq!(sum.unmeasured, 0);
+        let mut info = vec![StrakePassInfo::default(); expected - 1];
+        let mut count = 0;
+        let st = strake_pass_plan_passes(plan, info.as_mut_ptr(), info.len(), &mut count);
+        assert_eq!(st, StrakeStatus::Ok);
+        close("step-over", info[0].step_over_max, w, 1e-9, 1.0);
+        strake_pass_plan_free(plan);
+        strake_curve_free(first);
+        strake_surface_free(s);
+    }
 }

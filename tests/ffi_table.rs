@@ -446,6 +446,11 @@ impl Fix {
             scallop_samples: 0,
             max_passes: 0,
             max_rows: 2,
+            use_cutter: 0,
+            cutter: StrakeCutter::default(),
+            angles: StrakeToolAngles::default(),
+            max_jets: 0,
+            max_offset_jets: 0,
         };
         let mut samples = vec![StrakeSample::default(); 5];
         let mut n = 0;

@@ -184,3 +184,95 @@ fn bad_input_gives_a_status_naming_the_value() {
     let e = plan_passes(&s, &first, &opts).unwrap_err();
     assert!(e.to_string().contains("ball radius = inf"), "{e}");
 }
+
+// Issue 13 item 4 for every cutter: a flat cutter of radius 5 at 5° lead on a plane. Seen
+// along T it cuts the tilted bottom, an ellipse 10 wide and 5 sin 5° deep (closed form of the
+// ellipse), so the passes are the ellipse's chord at the target height apart:
+// 10 √(1 − (1 − h/depth)²), and the scallop left is the target.
+#[test]
+fn iso_scallop_passes_of_a_flat_cutter_on_a_plane_are_the_ellipse_chord_apart() {
+    use strake::checks::{Cutter, ToolAngles};
+    let s = strake::analytic::plane((0.0, 50.0), (0.0, 40.0));
+    let first = uv_line(2.0, 2.0, 48.0, 2.0).unwrap();
+    let h = 0.1;
+    // T = +x, B = N × T = +y: advance to the left.
+    let mut opts = PassOptions::iso_scallop(1.0, ToolSide::AlongNormal, h, OffsetSide::Left, 1e-7);
+    opts.cutter = Some(strake::PassCutter {
+        cutter: Cutter::Flat { radius: 5.0 },
+        angles: ToolAngles {
+            lead: 5f64.to_radians(),
+            tilt: 0.0,
+        },
+    });
+    opts.distance_samples = 9;
+    opts.scallop_samples = 3;
+    let plan = plan_passes(&s, &first, &opts).unwrap();
+    let depth = 5.0 * 5f64.to_radians().sin();
+    let w = 10.0 * (1.0 - (1.0 - h / depth).powi(2)).sqrt();
+    let expected = 1 + ((40.0 - 2.0) / w).floor() as usize;
+    assert_eq!(plan.count, expected, "step-over {w}");
+    for (k, p) in plan.passes.iter().enumerate() {
+        let y = 2.0 + (k + 1) as f64 * w;
+        let (_, py) = uv_at(&p.curve, 0.5);
+        assert!((py - y).abs() < 1e-6, "pass {k}: y {py} vs {y}");
+        assert!((p.step_over.0 - w).abs() < 1e-9, "{:?}", p.step_over);
+    }
+    assert!((plan.scallop_max - h).abs() < 1e-6, "{}", plan.scallop_max);
+    assert!((plan.scallop_min - h).abs() < 1e-6, "{}", plan.scallop_min);
+    assert_eq!(plan.unmeasured, 0);
+}
+
+// A toroidal cutter (5/1) at 6° lead and 8° tilt outside a cylinder of radius 10, passes along
+// the rulings: each step-over is the exact two-profile inverse on the convex cross-section
+// (κ = −1/10, checked against brute force in tests/scallop_cutter.rs), the rulings are the
+// geodesic parallels (do Carmo §4-4), and the scallop measured is the target.
+#[test]
+fn iso_scallop_passes_of_a_toroidal_cutter_on_a_cylinder_are_rulings() {
+    use strake::checks::{Cutter, ToolAngles};
+    let (big_r, h) = (10.0, 0.02);
+    let s = patch(cylinder(big_r, -3.0, 3.0), (0.0, 1.2), (-3.0, 3.0));
+    let first = uv_line(0.05, -2.5, 0.05, 2.5).unwrap();
+    let tool = strake::PassCutter {
+        cutter: Cutter::Toroidal {
+            radius: 5.0,
+            corner_radius: 1.0,
+        },
+        angles: ToolAngles {
+            lead: 6f64.to_radians(),
+            tilt: 8f64.to_radians(),
+        },
+    };
+    let mut opts = PassOptions::iso_scallop(1.0, ToolSide::AlongNormal, h, OffsetSide::Right, 1e-7);
+    opts.cutter = Some(tool);
+    opts.distance_samples = 9;
+    opts.scallop_samples = 3;
+    let plan = plan_passes(&s, &first, &opts).unwrap();
+    let w = strake::step_over_for_cutter_scallop(&tool.cutter, &tool.angles, h, -1.0 / big_r)
+        .unwrap()
+        .step_over;
+    let du = w / big_r;
+    let expected = 1 + ((1.2 - 0.05) / du).floor() as usize;
+    assert_eq!(plan.count, expected, "step-over {w}");
+    for (k, p) in plan.passes.iter().enumerate() {
+        let (pu, _) = uv_at(&p.curve, 0.5);
+        assert!(
+            (pu - (0.05 + (k + 1) as f64 * du)).abs() < 1e-6,
+            "pass {k}: u {pu}"
+        );
+        assert!((p.step_over.1 - w).abs() < 1e-9, "{:?}", p.step_over);
+    }
+    assert!((plan.scallop_max - h).abs() < 1e-6, "{}", plan.scallop_max);
+    assert!((plan.scallop_min - h).abs() < 1e-6, "{}", plan.scallop_min);
+    // The flat bottom does not fit inside a cylinder: the upright toroidal cutter gouges.
+    let mut inside = opts;
+    inside.tool_side = ToolSide::AgainstNormal;
+    inside.cutter = Some(strake::PassCutter {
+        angles: ToolAngles {
+            lead: 0.0,
+            tilt: 0.0,
+        },
+        ..tool
+    });
+    let e = plan_passes(&s, &first, &inside).unwrap_err();
+    assert!(matches!(e, StrakeError::CutterTooLarge { .. }), "{e:?}");
+}

@@ -772,7 +772,8 @@ static int plan_cavity_passes(int raw, const StrakeSurface *surface, const Strak
     for (rule = 0; rule < 2; rule++) {
         for (side = 0; side < 2; side++) {
             StrakePassOptions options = {PLAN_BALL_RADIUS, STRAKE_TOOL_SIDE_ALONG_NORMAL, rule, PLAN_SCALLOP,
-                                         flat_step, side, PLAN_CHORD, 0, 0, 0, PLAN_ROWS};
+                                         flat_step, side, PLAN_CHORD, 0, 0, 0, PLAN_ROWS,
+                                         0, {STRAKE_CUTTER_KIND_BALL, 0.0, 0.0}, {0.0, 0.0}, 0, 0};
             StrakePassPlan *plan = NULL;
             StrakePassSummary sum;
             StrakePassInfo *info = NULL;

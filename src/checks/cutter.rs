@@ -245,23 +245,9 @@ pub fn cut_width(cutter: &Cutter, angles: &ToolAngles, h: f64) -> Result<f64> {
             h = crate::numfmt::Exact(h)
         )));
     }
-    let (big_r, r) = cutter.torus_radii();
-    let [_, ab, an] = angles.local();
-    // Outline point for the outward direction u(φ) = (sin φ, −cos φ) in (b_t, n_t), valid while
-    // g = u·a ≤ 0: X = h(φ) u + h'(φ) u', u' = (cos φ, sin φ), h = R √(1 − g²) + r.
-    let point = |phi: f64| {
-        let (s, c) = phi.sin_cos();
-        let g = (s * ab - c * an).min(0.0);
-        let dg = c * ab + s * an;
-        let root = (1.0 - g * g).max(0.0).sqrt();
-        let hv = big_r * root + r;
-        let dh = if root > 0.0 {
-            -big_r * g * dg / root
-        } else {
-            0.0
-        };
-        (hv * s + dh * c, -hv * c + dh * s)
-    };
+    let outline = Outline::new(cutter, angles);
+    let (ab, an) = (outline.ab, outline.an);
+    let point = |phi: f64| outline.point(phi);
     let z0 = point(0.0).1;
     // Lateral position of the outline at height h on one side: phi_end is where the outline
     // meets the flank (g = 0), dir the side's sign.
@@ -296,4 +282,66 @@ pub fn cut_width(cutter: &Cutter, angles: &ToolAngles, h: f64) -> Result<f64> {
     let phi_plus = an.atan2(ab);
     let phi_minus = phi_plus - std::f64::consts::PI;
     Ok(side(phi_plus) - side(phi_minus))
+}
+
+/// The outline of a cutter seen along T (its projection onto the plane across the path,
+/// spanned by b_t and n_t), parametrised by the angle φ of its outward normal
+/// u(φ) = (sin φ, −cos φ) in (b_t, n_t): the support point X(φ) = h u + h′ u′ of the support
+/// function h(φ) = R √(1 − (u·a)²) + r of the bottom disc (radius R, normal a) swept by the
+/// ball of radius r, for the lower part u·a ≤ 0 (φ from `phi_minus` to `phi_plus`, where
+/// u·a = 0 and the flank along the axis begins). Coordinates from the centre of the
+/// corner-centre circle.
+///
+/// √(1 − (u·a)²) is computed as |u × a| = √((u′·a)² + a_T²), without the cancellation of
+/// 1 − (u·a)² next to u = −a (the bottom disc seen edge-on, a flat cutter tilted without
+/// lead), where that form lost up to half the digits of the support point.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Outline {
+    pub(crate) big_r: f64,
+    pub(crate) r: f64,
+    pub(crate) at: f64,
+    pub(crate) ab: f64,
+    pub(crate) an: f64,
+}
+
+impl Outline {
+    /// The outline of `cutter` (validated by the caller) at `angles`.
+    pub(crate) fn new(cutter: &Cutter, angles: &ToolAngles) -> Outline {
+        let (big_r, r) = cutter.torus_radii();
+        let [at, ab, an] = angles.local();
+        Outline {
+            big_r,
+            r,
+            at,
+            ab,
+            an,
+        }
+    }
+
+    /// φ where the lower outline meets the flank on the +b_t side (u·a = 0); the −b_t side is
+    /// this minus π.
+    pub(crate) fn phi_plus(&self) -> f64 {
+        self.an.atan2(self.ab)
+    }
+
+    /// The support point X(φ) (b_t, n_t components); beyond the flank (u·a > 0) the point
+    /// where the flank begins.
+    pub(crate) fn point(&self, phi: f64) -> (f64, f64) {
+        let (s, c) = phi.sin_cos();
+        let g = s * self.ab - c * self.an;
+        let dg = c * self.ab + s * self.an;
+        let (root, dh) = if g >= 0.0 {
+            (1.0, 0.0)
+        } else {
+            let root = dg.hypot(self.at);
+            let dh = if root > 0.0 {
+                -self.big_r * g * dg / root
+            } else {
+                0.0
+            };
+            (root, dh)
+        };
+        let hv = self.big_r * root + self.r;
+        (hv * s + dh * c, -hv * c + dh * s)
+    }
 }

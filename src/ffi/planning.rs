@@ -3,7 +3,7 @@
 //! beforehand are opaque handles, read piece by piece (curves as new curve handles) and
 //! through the buffer protocol (`buf`, `capacity`, `count`).
 
-use super::checks::tool_side;
+use super::checks::{angles, cutter, tool_side};
 use super::curve::{StrakeCurve, publish as publish_curve};
 use super::guard::{Failure, guard, input, out_buffer, output};
 use super::path_curves::projection_options;
@@ -19,6 +19,7 @@ use crate::planning::drive_pattern::{
 };
 use crate::planning::passes::{PassOptions, PassPlan, StepRule, plan_passes};
 use crate::planning::planar_pattern::ArchimedeanSpiral;
+use crate::planning::scallop_cutter::PassCutter;
 use std::mem::MaybeUninit;
 
 /// A pattern projected onto a surface along a direction: its pieces (curves on the surface)
@@ -306,27 +307,51 @@ fn pass_options(o: &StrakePassOptions) -> Result<PassOptions, Failure> {
     if o.max_rows != 0 {
         p.max_rows = Some(o.max_rows as usize);
     }
+    p.cutter = match o.use_cutter {
+        0 => None,
+        1 => Some(PassCutter {
+            cutter: cutter(&o.cutter)?,
+            angles: angles(&o.angles),
+        }),
+        other => {
+            return Err(Failure::invalid(format!(
+                "`options->use_cutter` = {other}; it must be 0 (the ball of `ball_radius`) or 1 \
+                 (`cutter` at `angles`)"
+            )));
+        }
+    };
+    if o.max_jets != 0 {
+        p.max_jets = usize::try_from(o.max_jets).unwrap_or(usize::MAX);
+    }
+    if o.max_offset_jets != 0 {
+        p.offset.max_jets = usize::try_from(o.max_offset_jets).unwrap_or(usize::MAX);
+    }
     p.check()?;
     Ok(p)
 }
 
-/// Plans passes of a ball-end mill across `surface` from the pass `first` (a curve handle on
+/// Plans passes of a ball-end mill (or, with `options->use_cutter` = 1, of a flat-end or
+/// toroidal cutter at lead and tilt) across `surface` from the pass `first` (a curve handle on
 /// it): each next pass is the geodesic parallel of the one before at the step-over that leaves
 /// `options->scallop_height` point by point (iso-scallop: the exact two-circle rule with the
-/// surface's curvature across the path), or at `options->step_over` (constant), laid to the
-/// side `options->advance`, until no parallel lies on the surface any more (or for
-/// `options->max_rows` rows, when not 0: a band around the first pass). A parallel that
-/// breaks (the boundary, a trimmed loop) gives several passes. Between every pass and the one
-/// it was laid beside, the scallop left is measured by a direct construction (the meeting of
-/// the two balls' swept tubes), not by the rule.
+/// surface's curvature across the path for a ball, the exact cusp of the two cutter profiles
+/// across the path for a flat or toroidal cutter, which includes the width it cuts), or at
+/// `options->step_over` (constant), laid to the side `options->advance`, until no parallel
+/// lies on the surface any more (or for `options->max_rows` rows, when not 0: a band around
+/// the first pass). A parallel that breaks (the boundary, a trimmed loop) gives several
+/// passes. Between every pass and the one it was laid beside, the scallop left is measured:
+/// for a ball by a direct construction (the meeting of the two balls' swept tubes), for a
+/// cutter by the cusp of its profiles at the step-over the offsets made; not by the rule.
 ///
 /// Returns `STRAKE_STATUS_OK` and writes a new plan to `*out` (free it with
 /// `strake_pass_plan_free`; read it with `strake_pass_plan_summary`, `strake_pass_plan_passes`
 /// and `strake_pass_plan_curve`); otherwise `*out` is untouched. Errors: NULL_POINTER
 /// (`surface`, `first`, `options`, `out`); INVALID_ARGUMENT naming the field and value (a
 /// target scallop of zero, NaN or negative, a radius, step-over or tolerance that is not
-/// positive and finite, a flag out of range, balls that do not overlap at the constant
-/// step-over); CUTTER_TOO_LARGE (the ball does not fit the concave curvature across a pass);
+/// positive and finite, a flag out of range, an invalid cutter or angles, balls or profiles
+/// that do not overlap at the constant step-over); CUTTER_TOO_LARGE (the ball or the cutter's
+/// profile does not fit the concave curvature across a pass); NOT_CONVERGED (a work cap,
+/// `max_jets` or `max_offset_jets`, used up);
 /// PASS_LIMIT (more than `max_passes` passes needed); the errors of the offsets
 /// (GEODESIC_INCOMPLETE, DEGENERATE_SURFACE, NOT_CONVERGED ...) and of the surface and curve.
 /// Thread-safe.
@@ -380,6 +405,8 @@ pub unsafe extern "C" fn strake_pass_plan_summary(
                 offset_points: p.offset_points,
                 trace_jets: p.trace_jets,
                 covered: i32::from(p.covered),
+                offset_attempts: p.offset_attempts,
+                unmeasured: p.unmeasured,
             },
         );
         Ok(())

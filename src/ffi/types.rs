@@ -411,7 +411,7 @@ pub enum StrakeCutterKind {
 /// r = radius; flat: R = radius, r = 0; toroidal: R = radius - corner_radius,
 /// r = corner_radius).
 #[repr(C)]
-#[derive(Debug, Clone, Copy, PartialEq)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct StrakeCutter {
     /// One of the `STRAKE_CUTTER_KIND_...` values.
     pub kind: u32,
@@ -772,6 +772,24 @@ pub struct StrakePassOptions {
     /// Most rows beside the first pass (0: no limit, until the surface is covered); a plan
     /// stopped by it is a band around the first pass (`StrakePassSummary.covered` = 0).
     pub max_rows: u32,
+    /// 0: plan for the ball of `ball_radius` (`cutter` and `angles` are not read); 1: plan
+    /// for `cutter` at `angles` (`ball_radius` is not read). Added after `max_rows`: a host
+    /// that zero-initialises the struct keeps the ball.
+    pub use_cutter: u32,
+    /// The cutter (when `use_cutter` is 1): a flat-end or toroidal cutter spaces iso-scallop
+    /// passes by the exact cusp of its two profiles across the path at lead and tilt (the
+    /// width it cuts included) and reports the scallop of that cusp at the step-over the
+    /// offsets made; a ball-end mill is planned as the ball of its radius.
+    pub cutter: StrakeCutter,
+    /// Lead and tilt of the axis in each pass's tool-side frame (when `use_cutter` is 1;
+    /// radians, each strictly inside (-pi/2, pi/2)).
+    pub angles: StrakeToolAngles,
+    /// Most surface jets the geodesic traces of the whole plan may evaluate (0: 200000000);
+    /// a plan that needs more ends with NOT_CONVERGED naming the pass it was making.
+    pub max_jets: u64,
+    /// Most surface jets the traces of one offset may evaluate (0: 2000000), each offset
+    /// also held to what is left of `max_jets`.
+    pub max_offset_jets: u64,
 }
 
 /// Totals of a plan of passes.
@@ -797,6 +815,12 @@ pub struct StrakePassSummary {
     /// 1 when the plan ran until no parallel lay on the surface; 0 when it stopped at
     /// `max_rows` before trying the parallels of its last row.
     pub covered: i32,
+    /// Offsets computed, the iso-scallop corrections included (a plan without corrections
+    /// makes one per pass that has a neighbour).
+    pub offset_attempts: usize,
+    /// Probes of the scallop left that could not be measured (the neighbour not beside the
+    /// probe: no cusp in the section); their scallop is not in `scallop_max` / `scallop_min`.
+    pub unmeasured: usize,
 }
 
 /// One pass after the first in a plan of passes.

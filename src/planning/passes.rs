@@ -42,9 +42,18 @@
 //!
 //! What it does not see: the scallop between passes of different lines that meet (pieces of
 //! a broken parallel, passes of two lines that end up side by side), the strip left between
-//! the last pass and the boundary (narrower than one step-over, its scallop not measured),
-//! cutters other than the ball (the direct construction is for the ball's swept tube).
+//! the last pass and the boundary (narrower than one step-over, its scallop not measured).
+//!
+//! **Other cutters** ([`PassOptions::cutter`]): a flat-end or toroidal cutter at lead and tilt
+//! takes the step-over of the exact cusp of its two profiles across the path
+//! ([`super::scallop_cutter::cutter_step_over_at`], limited by the width the cutter cuts by
+//! construction) instead of the ball's two circles, and its scallop left is measured by the
+//! same cusp at the distance the offsets actually made, over the mean curvature across the
+//! path of the two passes ([`super::scallop_cutter::scallop_between_cutter_passes`]: the
+//! cross-section model, not a construction in space like the ball's tubes). All passes run
+//! the same way, so every pass has the same lead and tilt relative to its travel.
 
+use super::scallop_cutter::{PassCutter, cutter_step_over_at, scallop_between_cutter_passes};
 use super::scallop_left::{check_target_scallop, scallop_between, step_over_at};
 use crate::checks::cutter::ToolSide;
 use crate::curve::UvCurve;
@@ -83,8 +92,16 @@ pub enum StepRule {
 /// Options of a pass plan.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct PassOptions {
-    /// Radius of the ball-end mill (host length unit, > 0).
+    /// Radius of the ball-end mill (host length unit, > 0); not used when [`PassOptions::cutter`]
+    /// is given.
     pub ball_radius: f64,
+    /// The cutter at lead and tilt (`None`: the ball of [`PassOptions::ball_radius`]). A flat or
+    /// toroidal cutter spaces iso-scallop passes by the exact cusp of its two profiles across
+    /// the path ([`super::scallop_cutter::step_over_for_cutter_scallop`]: the width it cuts
+    /// included) and measures the scallop left by
+    /// [`super::scallop_cutter::scallop_between_cutter_passes`]; a ball-end mill is planned as
+    /// the ball of its radius (its profile does not depend on lead and tilt).
+    pub cutter: Option<PassCutter>,
     /// The side of the surface the tool is on.
     pub tool_side: ToolSide,
     /// The rule for the distance between neighbours.
@@ -130,6 +147,7 @@ impl PassOptions {
     ) -> Self {
         PassOptions {
             ball_radius,
+            cutter: None,
             tool_side,
             rule: StepRule::IsoScallop { height },
             advance,
@@ -146,7 +164,9 @@ impl PassOptions {
 
     /// Fails naming the field and value unless every option is in range.
     pub fn check(&self) -> Result<()> {
-        if !(self.ball_radius.is_finite() && self.ball_radius > 0.0) {
+        if let Some(c) = &self.cutter {
+            c.validate()?;
+        } else if !(self.ball_radius.is_finite() && self.ball_radius > 0.0) {
             return Err(StrakeError::InvalidArgument(format!(
                 "ball radius = {}: it must be positive and finite",
                 crate::numfmt::Exact(self.ball_radius)
@@ -315,6 +335,26 @@ fn plan_budget_spent(opts: &PassOptions, pass: usize, row: usize, plan: &PassPla
     }
 }
 
+/// The scallop left at parameter `tau` of pass `a` by its neighbour `b` (searched from `t_b0`):
+/// the ball's swept tubes ([`scallop_between`]) for a ball of radius `tool.0`, the two
+/// profiles at the measured step-over ([`scallop_between_cutter_passes`]) for a cutter.
+fn measure<S: SurfaceSource + ?Sized, A: UvCurve + ?Sized, B: UvCurve + ?Sized>(
+    surface: &S,
+    a: &A,
+    b: &B,
+    tool: (f64, Option<&PassCutter>),
+    side: ToolSide,
+    tau: f64,
+    t_b0: f64,
+) -> Result<f64> {
+    match tool.1 {
+        None => scallop_between(surface, a, b, tool.0, side, &[tau], t_b0).map(|v| v[0].height),
+        Some(c) => {
+            scallop_between_cutter_passes(surface, a, b, c, side, &[tau], t_b0).map(|v| v[0].height)
+        }
+    }
+}
+
 /// Plans passes across `surface` from `first` (see the module docs).
 ///
 /// Errors: `InvalidArgument` naming the field for bad options (a target scallop of zero or
@@ -345,7 +385,14 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         unmeasured: 0,
         covered: true,
     };
-    let r = opts.ball_radius;
+    // The ball's radius, or the flat or toroidal cutter whose profiles are measured.
+    let (r, profile) = match &opts.cutter {
+        None => (opts.ball_radius, None),
+        Some(c) => match c.ball_radius() {
+            Some(radius) => (radius, None),
+            None => (f64::NAN, Some(*c)),
+        },
+    };
     // The passes of the current row: None = the first pass, Some(i) = plan.passes[i].
     let mut row: Vec<Option<usize>> = vec![None];
     let mut row_number = 0;
@@ -377,8 +424,11 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
                         let f = path
                             .frame(t, &mut hints)
                             .map_err(|e| at_pass(pass_index, t, e))?;
-                        step_over_at(&f, r, opts.tool_side, height)
-                            .map_err(|e| at_pass(pass_index, t, e))?
+                        match &profile {
+                            None => step_over_at(&f, r, opts.tool_side, height),
+                            Some(c) => cutter_step_over_at(&f, c, opts.tool_side, height),
+                        }
+                        .map_err(|e| at_pass(pass_index, t, e))?
                     }
                 };
                 ts.push(t);
@@ -430,18 +480,17 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
                         continue;
                     };
                     let sample_t = piece.samples[j].t;
-                    let h = scallop_between(
+                    let h = measure(
                         surface,
                         &piece.curve,
                         curve,
-                        r,
+                        (r, profile.as_ref()),
                         opts.tool_side,
-                        &[tau],
+                        tau,
                         sample_t,
                     );
                     match h {
-                        Ok(left) => {
-                            let h = left[0].height;
+                        Ok(h) => {
                             if h > height * (1.0 + SCALLOP_MEASURE_TOLERANCE)
                                 || h < height * (1.0 - opts.scallop_tolerance)
                             {
@@ -488,18 +537,18 @@ pub fn plan_passes<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
                 for q in 0..m {
                     let j = ((2 * q + 1) * piece.samples.len()) / (2 * m);
                     let t_parent = piece.samples[j].t;
-                    match scallop_between(
+                    match measure(
                         surface,
                         &piece.curve,
                         curve,
-                        r,
+                        (r, profile.as_ref()),
                         opts.tool_side,
-                        &[params[j]],
+                        params[j],
                         t_parent,
                     ) {
-                        Ok(left) => {
-                            lo = lo.min(left[0].height);
-                            hi = hi.max(left[0].height);
+                        Ok(h) => {
+                            lo = lo.min(h);
+                            hi = hi.max(h);
                         }
                         // No cusp found in the section of this pass's tube (the balls'
                         // circles there do not meet): counted, not hidden.
