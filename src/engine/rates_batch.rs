@@ -20,12 +20,17 @@ use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::geometry::math::all_finite;
 use crate::geometry::rates::{InvariantRates, ThirdPartials, rates_from_jets};
 use crate::nurbs::SpanHint;
-use crate::surface::{SurfaceHint, SurfaceSource};
+use crate::surface::{KnotSides, SurfaceHint, SurfaceSource};
 use std::mem::MaybeUninit;
 
 /// The rates at a sample from its frame `f`, its jets `sj`, `cj`, the curve's third
 /// derivatives `c3` and, when the surface gave them with its jets, the third partials
 /// `third` (otherwise asked of [`SurfaceSource::checked_partials`] at order 3 with `hint`).
+/// A sample on a crease of the surface (`crease`: the sides its jet was evaluated on, see
+/// [`crate::surface::crease`]) takes its third partials from
+/// [`SurfaceSource::checked_partials_sided`] on those sides, whatever `third` holds: a
+/// surface that is not C2 across the line has different third partials on its two sides,
+/// and the rates must be those of the side the frame was taken on.
 ///
 /// Errors, in this order: `NonFinite` (curve jet, "d3u" / "d3v"); the errors of
 /// `checked_partials` (e.g. `OrderUnavailable`) or `NonFinite` (surface jet, "Suuu" …);
@@ -38,6 +43,7 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
     cj: &CurveJet,
     c3: [f64; 2],
     third: Option<&ThirdPartials>,
+    crease: Option<KnotSides>,
     hint: &mut SurfaceHint,
 ) -> Result<InvariantRates> {
     for (what, value) in [("d3u", c3[0]), ("d3v", c3[1])] {
@@ -49,8 +55,12 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
             });
         }
     }
-    let th = match third {
-        Some(th) => {
+    let th = match (crease, third) {
+        (Some(sides), _) => {
+            let p = surface.checked_partials_sided(cj.u, cj.v, sides, 3, hint)?;
+            [p.d[3][0], p.d[2][1], p.d[1][2], p.d[0][3]]
+        }
+        (None, Some(th)) => {
             for (what, v) in ["Suuu", "Suuv", "Suvv", "Svvv"].into_iter().zip(th) {
                 if !all_finite(v) {
                     let value = [v.x, v.y, v.z]
@@ -66,7 +76,7 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
             }
             *th
         }
-        None => {
+        (None, None) => {
             let p = surface.checked_partials(cj.u, cj.v, 3, hint)?;
             [p.d[3][0], p.d[2][1], p.d[1][2], p.d[0][3]]
         }
@@ -154,6 +164,7 @@ impl FrameSink for RatesSink<'_> {
         ts: &[f64],
         cj: &[CurveJet],
         sj: &[SurfaceJet],
+        creases: &[Option<KnotSides>],
     ) -> std::result::Result<(), SampleError> {
         let n = ts.len();
         let block = curve.third_derivatives_block(ts, &mut self.curve_hint, &mut self.c3[..n]);
@@ -189,6 +200,7 @@ impl FrameSink for RatesSink<'_> {
                 &cj[i],
                 self.c3[i],
                 third,
+                creases[i],
                 &mut self.surface_hint,
             )
             .map_err(fail)?;

@@ -152,6 +152,17 @@ impl SurfaceSource for StrakeSurface {
     ) -> Result<SurfacePartials> {
         self.source.partials_in_domain(u, v, order, hint)
     }
+    fn partials_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: crate::surface::KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        self.source
+            .partials_in_domain_sided(u, v, sides, order, hint)
+    }
 }
 
 /// Checks declared knot lines: finite, strictly inside `domain`, strictly ascending.

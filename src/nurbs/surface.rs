@@ -629,6 +629,16 @@ impl SurfaceSource for NurbsSurface {
     ) -> Result<crate::geometry::jet::SurfacePartials> {
         Ok(self.partials_unchecked(u, v, order, hint))
     }
+    fn partials_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<crate::geometry::jet::SurfacePartials> {
+        Ok(self.partials_sided_unchecked(u, v, sides, order, hint))
+    }
     fn jet_in_domain(
         &self,
         u: f64,
