@@ -197,9 +197,10 @@ fn checked_lines(
         }
         if i > 0 && x <= xs[i - 1] {
             return Err(Failure::invalid(format!(
-                "{name}[{i}] = {x} does not exceed {name}[{}] = {}: knot lines must be strictly ascending",
+                "{name}[{i}] = {} does not exceed {name}[{}] = {}: knot lines must be strictly ascending",
+                crate::numfmt::Exact(x),
                 i - 1,
-                xs[i - 1]
+                crate::numfmt::Exact(xs[i - 1])
             )));
         }
     }

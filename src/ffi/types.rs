@@ -253,9 +253,10 @@ impl StrakeFrame {
             let len = vec3(*x).norm();
             if (len - 1.0).abs() > UNIT_VECTOR_SLACK {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "{what} = ({}, {}, {}) has length {len}; it must be a unit vector (pass a \
+                    "{what} = {} has length {}; it must be a unit vector (pass a \
                      frame computed by strake)",
-                    x[0], x[1], x[2]
+                    crate::numfmt::ExactVec(&x[..]),
+                    crate::numfmt::Num(len)
                 )));
             }
         }
@@ -1296,7 +1297,7 @@ impl StrakeCentrePoint {
         if self.speed_ratio <= 0.0 {
             return invalid(format!(
                 "point.speed_ratio = {} must be positive",
-                self.speed_ratio
+                crate::numfmt::Exact(self.speed_ratio)
             ));
         }
         for (name, x) in [
@@ -1305,7 +1306,10 @@ impl StrakeCentrePoint {
             ("point.axis_rate", self.axis_rate),
         ] {
             if x < 0.0 {
-                return invalid(format!("{name} = {x} must not be negative"));
+                return invalid(format!(
+                    "{name} = {} must not be negative",
+                    crate::numfmt::Exact(x)
+                ));
             }
         }
         for (name, v) in [("point.axis", self.axis), ("point.tangent", self.tangent)] {

@@ -97,7 +97,7 @@ impl KnotVector {
                     return Err(StrakeError::InvalidKnots(format!(
                         "{name}: knot value {} at index {run_start} has multiplicity {mult}, \
                          above degree + 1 = {}",
-                        knots[run_start],
+                        crate::numfmt::Exact(knots[run_start]),
                         degree + 1
                     )));
                 }
@@ -107,12 +107,16 @@ impl KnotVector {
         let (lo, hi) = (knots[degree], knots[count]);
         if lo >= hi {
             return Err(StrakeError::InvalidKnots(format!(
-                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] has zero length"
+                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{}, {}] has zero length",
+                crate::numfmt::Exact(lo),
+                crate::numfmt::Exact(hi)
             )));
         }
         if !(hi - lo).is_finite() {
             return Err(StrakeError::InvalidKnots(format!(
-                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] is too wide: its width overflows"
+                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{}, {}] is too wide: its width overflows",
+                crate::numfmt::Exact(lo),
+                crate::numfmt::Exact(hi)
             )));
         }
         let mut breaks: Vec<f64> = knots[degree + 1..count]
