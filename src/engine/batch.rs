@@ -107,6 +107,7 @@ pub(crate) trait FrameSink {
     /// A failure is that of its sample, and it ends the batch (samples of the chunk after
     /// the first failing frame never come here).
     #[inline]
+    #[allow(clippy::too_many_arguments)]
     fn chunk_done<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         &mut self,
         surface: &S,

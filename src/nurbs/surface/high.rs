@@ -138,7 +138,7 @@ impl NurbsSurface {
 mod tests {
     use crate::geometry::jet::DerivOrder;
     use crate::nurbs::surface::random_test_surface;
-    use crate::surface::{KnotSide, KnotSides, SurfaceHint};
+    use crate::surface::SurfaceHint;
 
     /// The second-order part agrees with the production path; the third and fourth partials
     /// agree with central differences of the production second partials.
