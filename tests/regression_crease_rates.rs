@@ -7,6 +7,9 @@
 //! 3 and 4) evaluated the surface's partials with a plain span search, the side above the knot,
 //! so a curve moving into the side below got a frame of one side and rates of the other. Every
 //! evaluation on a path now takes the sides of the frame (`SurfaceSource::partials_in_domain_sided`).
+//! The same holds across a simple knot of a cubic, which is C2 (no crease, no flag) but whose
+//! third partials jump: third-order results are those of the side the curve moves into
+//! (`crease::sides_for_order`), checked there as the limit from that side.
 //!
 //! The surface: a cubic in u with a double knot at u = 1 (C1 across the line, so the curvatures
 //! are continuous but the third partials jump), linear in v, its second row of control points
@@ -302,5 +305,64 @@ fn the_tool_centre_path_on_a_c1_crease_is_that_of_the_side_moved_into() {
             }
             assert!((g.centre - w.centre).norm() < 1e-12, "{name}");
         }
+    }
+}
+
+/// The same profile's first five points as a cubic with a simple knot at u = 1: C2 across
+/// the line (no crease, no flag), but its third partials jump there.
+fn c2_surface() -> NurbsSurface {
+    surface_of(
+        &[0.0, 0.0, 0.0, 0.0, 1.0, 2.0, 2.0, 2.0, 2.0],
+        &PROFILE[..5],
+    )
+}
+
+#[test]
+fn rates_on_a_c2_knot_line_are_the_limit_from_the_side_moved_into() {
+    // Across a simple knot of a cubic the frame is continuous (C2) but the rates jump. The
+    // side the curve moves into is where it is a moment later: the rates at the knot must be
+    // the limit of the rates at t0 + h as h → 0⁺ (within one span they are smooth, so the
+    // difference is O(h)), not that at t0 − h.
+    let s = c2_surface();
+    let h = 1e-7;
+    for (name, c, t, _, along) in paths() {
+        let path = CurveOnSurface::new(&s, &c);
+        let flags = path.crease_flags(t, &mut Hints::default()).unwrap();
+        assert!(
+            flags.is_smooth(),
+            "{name}: a C2 line is no crease: {flags:?}"
+        );
+        let at = |t: f64| rates_of(&path.frame_with_rates(t, &mut Hints::default()).unwrap().1);
+        let (on, next, before) = (at(t), at(t + h), at(t - h));
+        let jump = next
+            .iter()
+            .zip(&before)
+            .map(|(a, b)| (a - b).abs())
+            .fold(0.0, f64::max);
+        // A crossing path meets both sides (a touching one stays on one: no jump there, and
+        // the plain evaluation takes the side above, so the path touching from below shows
+        // the defect).
+        assert_eq!(jump > 1e-2, !along, "{name}: the rates jump by {jump:e}");
+        for k in 0..4 {
+            let tol = 1e-4 * (1.0 + next[k].abs());
+            assert!(
+                (on[k] - next[k]).abs() <= tol,
+                "{name}: rate {k} at the knot {:e}, moving into {:e}, before {:e}",
+                on[k],
+                next[k],
+                before[k]
+            );
+        }
+        // The batch and the tool-centre path agree with the one-point rates.
+        let ts = [0.0, t, 1.0];
+        let f = path.frame(t, &mut Hints::default()).unwrap();
+        let (mut frames, mut rates) = ([f; 3], [InvariantRates::default(); 3]);
+        path.frames_with_rates_at(&ts, &mut frames, &mut rates)
+            .unwrap();
+        assert_eq!(rates_of(&rates[1]), on, "{name}: batch vs one point");
+        let mut out = [CentrePoint::default(); 2];
+        centre_path_at(&path, &[t, t + h], &setup(), 3, &mut out).unwrap();
+        let d = (out[0].curvature - out[1].curvature).abs();
+        assert!(d < 1e-4, "{name}: centre curvature {out:?}");
     }
 }

@@ -101,13 +101,10 @@ pub(crate) trait FrameSink {
         surface.jets_in_domain_block(u, v, DerivOrder::Second, hint, out)
     }
     /// Every frame of the chunk's samples `base .. base + ts.len()` is final (`ts`, `cj`, `sj`
-    /// their parameters and jets; `creases[i]` the sides sample i's jet was evaluated on when
-    /// it lies on a crease of the surface, `None` at a smooth point): work that needs the
-    /// frames is done here, in sample order.
+    /// their parameters and jets): work that needs the frames is done here, in sample order.
     /// A failure is that of its sample, and it ends the batch (samples of the chunk after
     /// the first failing frame never come here).
     #[inline]
-    #[allow(clippy::too_many_arguments)]
     fn chunk_done<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
         &mut self,
         surface: &S,
@@ -116,9 +113,8 @@ pub(crate) trait FrameSink {
         ts: &[f64],
         cj: &[CurveJet],
         sj: &[SurfaceJet],
-        creases: &[Option<KnotSides>],
     ) -> Result<(), SampleError> {
-        let _ = (surface, curve, base, ts, cj, sj, creases);
+        let _ = (surface, curve, base, ts, cj, sj);
         Ok(())
     }
 }
@@ -192,7 +188,6 @@ where
     // Lanes on a crease of the surface and the sides to evaluate them on.
     let mut creased = [false; CHUNK];
     let mut sides = [KnotSides::default(); CHUNK];
-    let mut creases = [None; CHUNK];
     let mut kernel = FrameKernel::new();
     let mut base = 0;
     while base < count {
@@ -247,7 +242,6 @@ where
                     let (flags, s) = snap_onto_surface_creases(surface, c, &scales);
                     creased[i] = !flags.is_smooth();
                     sides[i] = s;
-                    creases[i] = creased[i].then_some(s);
                 }
                 Err(e) => {
                     good = i;
@@ -316,15 +310,7 @@ where
             }
         }
         if good > 0 {
-            sink.chunk_done(
-                surface,
-                curve,
-                base,
-                &ts[..good],
-                &cj[..good],
-                &sj[..good],
-                &creases[..good],
-            )?;
+            sink.chunk_done(surface, curve, base, &ts[..good], &cj[..good], &sj[..good])?;
         }
         if let Some(error) = pending {
             return Err(SampleError {

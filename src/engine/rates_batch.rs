@@ -20,17 +20,18 @@ use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::geometry::math::all_finite;
 use crate::geometry::rates::{InvariantRates, ThirdPartials, rates_from_jets};
 use crate::nurbs::SpanHint;
-use crate::surface::{KnotSides, SurfaceHint, SurfaceSource};
+use crate::surface::crease::sides_for_order;
+use crate::surface::{SurfaceHint, SurfaceSource};
 use std::mem::MaybeUninit;
 
 /// The rates at a sample from its frame `f`, its jets `sj`, `cj`, the curve's third
 /// derivatives `c3` and, when the surface gave them with its jets, the third partials
 /// `third` (otherwise asked of [`SurfaceSource::checked_partials`] at order 3 with `hint`).
-/// A sample on a crease of the surface (`crease`: the sides its jet was evaluated on, see
-/// [`crate::surface::crease`]) takes its third partials from
-/// [`SurfaceSource::checked_partials_sided`] on those sides, whatever `third` holds: a
-/// surface that is not C2 across the line has different third partials on its two sides,
-/// and the rates must be those of the side the frame was taken on.
+/// A sample on a knot line across which the surface is not C3 (a crease, or a simple knot of
+/// a bicubic; [`crate::surface::crease::sides_for_order`]) takes its third partials from
+/// [`SurfaceSource::checked_partials_sided`] at the knot on the side the curve moves into,
+/// whatever `third` holds: the third partials differ between the two sides, and the rates
+/// must be those of the side the curve moves into (on a crease the side of its frame).
 ///
 /// Errors, in this order: `NonFinite` (curve jet, "d3u" / "d3v"); the errors of
 /// `checked_partials` (e.g. `OrderUnavailable`) or `NonFinite` (surface jet, "Suuu" …);
@@ -44,7 +45,6 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
     cj: &CurveJet,
     c3: [f64; 2],
     third: Option<&ThirdPartials>,
-    crease: Option<KnotSides>,
     hint: &mut SurfaceHint,
 ) -> Result<InvariantRates> {
     for (what, value) in [("d3u", c3[0]), ("d3v", c3[1])] {
@@ -56,12 +56,13 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
             });
         }
     }
-    let th = match (crease, third) {
-        (Some(sides), _) => {
-            let p = surface.checked_partials_sided(cj.u, cj.v, sides, 3, hint)?;
+    let (u, v, sides, on_line) = sides_for_order(surface, cj, 3);
+    let th = match (on_line, third) {
+        (true, _) => {
+            let p = surface.checked_partials_sided(u, v, sides, 3, hint)?;
             [p.d[3][0], p.d[2][1], p.d[1][2], p.d[0][3]]
         }
-        (None, Some(th)) => {
+        (false, Some(th)) => {
             for (what, v) in ["Suuu", "Suuv", "Suvv", "Svvv"].into_iter().zip(th) {
                 if !all_finite(v) {
                     let value = [v.x, v.y, v.z]
@@ -77,7 +78,7 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
             }
             *th
         }
-        (None, None) => {
+        (false, None) => {
             let p = surface.checked_partials(cj.u, cj.v, 3, hint)?;
             [p.d[3][0], p.d[2][1], p.d[1][2], p.d[0][3]]
         }
@@ -165,7 +166,6 @@ impl FrameSink for RatesSink<'_> {
         ts: &[f64],
         cj: &[CurveJet],
         sj: &[SurfaceJet],
-        creases: &[Option<KnotSides>],
     ) -> std::result::Result<(), SampleError> {
         let n = ts.len();
         let block = curve.third_derivatives_block(ts, &mut self.curve_hint, &mut self.c3[..n]);
@@ -201,7 +201,6 @@ impl FrameSink for RatesSink<'_> {
                 &cj[i],
                 self.c3[i],
                 third,
-                creases[i],
                 &mut self.surface_hint,
             )
             .map_err(fail)?;

@@ -120,6 +120,12 @@ impl SurfaceSource for StrakeSurface {
     fn v_creases(&self) -> &[crate::surface::crease::KnotLine] {
         self.source.v_creases()
     }
+    fn u_knot_lines(&self) -> &[crate::surface::crease::KnotLine] {
+        self.source.u_knot_lines()
+    }
+    fn v_knot_lines(&self) -> &[crate::surface::crease::KnotLine] {
+        self.source.v_knot_lines()
+    }
     fn jet_in_domain_sided(
         &self,
         u: f64,

@@ -606,6 +606,12 @@ impl SurfaceSource for NurbsSurface {
     fn v_creases(&self) -> &[KnotLine] {
         self.v_knots.creases()
     }
+    fn u_knot_lines(&self) -> &[KnotLine] {
+        self.u_knots.knot_lines()
+    }
+    fn v_knot_lines(&self) -> &[KnotLine] {
+        self.v_knots.knot_lines()
+    }
     fn jet_in_domain_sided(
         &self,
         u: f64,

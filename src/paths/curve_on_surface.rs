@@ -11,7 +11,7 @@ use crate::geometry::jet::CurveJet;
 use crate::geometry::jet::{CurvePartials, DerivOrder, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::SurfacePoint;
 use crate::geometry::rates::InvariantRates;
-use crate::surface::crease::snap_onto_surface_creases;
+use crate::surface::crease::{sides_for_order, snap_onto_surface_creases};
 use crate::surface::{CreaseFlags, KnotSides, SurfaceSource};
 
 /// One sample of a path: where it is along the curve and its frame there.
@@ -266,16 +266,19 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     ) -> Result<(DarbouxFrame, SurfacePartials, CurvePartials)> {
         let (cj, flags, sides) = self.curve_point(t, hints)?;
         let (frame, _) = self.frame_of_point(&cj, flags, sides, t, hints)?;
-        let (sp, cp) = self.partials_of_point(&cj, sides, t, order, hints)?;
+        let (sp, cp) = self.partials_of_point(&cj, t, order, hints)?;
         Ok((frame, sp, cp))
     }
 
     /// The surface's and the curve's partials to `order` at `t`, with the crease flags of the
     /// point. (u, v) are those of the frame (snapped onto the surface's edge and onto a crease
-    /// as [`Self::frame`] does; `cp.u[0]`, `cp.v[0]` hold them), and on a crease the surface's
-    /// partials are those of the side the curve moves into
-    /// ([`SurfaceSource::partials_in_domain_sided`]), so that a third-order result (a rate of
-    /// change, the tool-centre path's curvature) takes the same side as the frame.
+    /// as [`Self::frame`] does; `cp.u[0]`, `cp.v[0]` hold them), and on a knot line across
+    /// which partials of `order` may jump (a crease, or for third order also a C2 line) the
+    /// surface's partials are those of the side the curve moves into, at the knot
+    /// ([`crate::surface::crease::sides_for_order`],
+    /// [`SurfaceSource::partials_in_domain_sided`]), so that a third-order result (a rate of
+    /// change, the tool-centre path's curvature) takes the side of travel, on a crease the
+    /// frame's.
     ///
     /// Errors: those of [`UvCurve::checked_partials`], `OutOfDomain` for a (u, v) off the
     /// surface's domain, those of [`SurfaceSource::checked_partials_sided`]
@@ -286,8 +289,8 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         order: usize,
         hints: &mut Hints,
     ) -> Result<(SurfacePartials, CurvePartials, CreaseFlags)> {
-        let (cj, flags, sides) = self.curve_point(t, hints)?;
-        let (sp, cp) = self.partials_of_point(&cj, sides, t, order, hints)?;
+        let (cj, flags, _) = self.curve_point(t, hints)?;
+        let (sp, cp) = self.partials_of_point(&cj, t, order, hints)?;
         Ok((sp, cp, flags))
     }
 
@@ -295,7 +298,6 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     fn partials_of_point(
         &self,
         cj: &CurveJet,
-        sides: KnotSides,
         t: f64,
         order: usize,
         hints: &mut Hints,
@@ -304,9 +306,12 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         let mut cp = self.curve.checked_partials(ts, order, &mut hints.curve)?;
         cp.u[0] = cj.u;
         cp.v[0] = cj.v;
-        let sp =
-            self.surface
-                .checked_partials_sided(cj.u, cj.v, sides, order, &mut hints.surface)?;
+        // On a knot line across which partials of `order` jump: at the knot, on the side the
+        // curve moves into (on a crease the frame's).
+        let (u, v, sides, _) = sides_for_order(self.surface, cj, order);
+        let sp = self
+            .surface
+            .checked_partials_sided(u, v, sides, order, &mut hints.surface)?;
         Ok((sp, cp))
     }
 
@@ -333,15 +338,9 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         let c3 = curve_third_at(self.curve, ts, &mut hints.curve)?;
         let mut third = [[crate::geometry::math::Vec3::zeros(); 4]];
         let (mut h, mut scratch) = (hints.surface, [SurfaceJet::default()]);
-        let have = flags.is_smooth()
-            && self.surface.jets_and_third_block(
-                &[cj.u],
-                &[cj.v],
-                &mut h,
-                &mut scratch,
-                &mut third,
-            );
-        let side = (!flags.is_smooth()).then_some(sides);
+        let have =
+            self.surface
+                .jets_and_third_block(&[cj.u], &[cj.v], &mut h, &mut scratch, &mut third);
         let r = rates_at(
             self.surface,
             &f,
@@ -349,7 +348,6 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
             &cj,
             c3,
             have.then_some(&third[0]),
-            side,
             &mut hints.surface,
         )?;
         Ok((f, r))

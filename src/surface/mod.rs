@@ -55,6 +55,18 @@ pub trait SurfaceSource: Send + Sync {
     fn v_creases(&self) -> &[crease::KnotLine] {
         &[]
     }
+    /// Every u knot line with its continuity, ascending, a superset of
+    /// [`SurfaceSource::u_creases`]: where partials of an order above the line's continuity
+    /// are evaluated on a path (third partials across a simple knot of a bicubic, which is C2
+    /// there), the side the curve moves into is chosen as for a crease
+    /// ([`crease::sides_for_order`]). By default the creases.
+    fn u_knot_lines(&self) -> &[crease::KnotLine] {
+        self.u_creases()
+    }
+    /// As [`SurfaceSource::u_knot_lines`], in v.
+    fn v_knot_lines(&self) -> &[crease::KnotLine] {
+        self.v_creases()
+    }
     /// The jet at (u, v) evaluated on the given sides of the knot lines through the point: on
     /// a line of [`SurfaceSource::u_creases`] the limit from above or below. Called only with
     /// (u, v) inside the domain, like [`SurfaceSource::jet_in_domain`], which the default
@@ -261,6 +273,12 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
     }
     fn v_creases(&self) -> &[crease::KnotLine] {
         (**self).v_creases()
+    }
+    fn u_knot_lines(&self) -> &[crease::KnotLine] {
+        (**self).u_knot_lines()
+    }
+    fn v_knot_lines(&self) -> &[crease::KnotLine] {
+        (**self).v_knot_lines()
     }
     fn jet_in_domain_sided(
         &self,
