@@ -37,7 +37,6 @@ use std::mem::MaybeUninit;
 /// `checked_partials` (e.g. `OrderUnavailable`) or `NonFinite` (surface jet, "Suuu" …);
 /// those of [`rates_from_jets`].
 #[inline]
-#[allow(clippy::too_many_arguments)]
 pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
     surface: &S,
     f: &DarbouxFrame,

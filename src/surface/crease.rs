@@ -22,6 +22,12 @@
 //! a line that is at most C0), so that a host can tell a point on a crease from a smooth point.
 //! Only sources that know their knots report creases (native NURBS surfaces); a host callback
 //! surface reports none (its jets are what the host computes at the given (u, v)).
+//!
+//! Every other evaluation on a path takes the same sides (the partials of the rates of change,
+//! the tool-centre path, its chordal sampling, the arc-length speed), and partials of an order
+//! above a line's continuity follow the same rule on every knot line, crease or not
+//! ([`sides_for_order`]: the third partials of a bicubic jump across its simple knots, where it
+//! is C2 and no flag is set).
 
 use crate::geometry::frame::ParamScales;
 use crate::geometry::jet::{CurveJet, DOMAIN_SNAP_ULPS, Interval};
