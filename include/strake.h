@@ -1351,10 +1351,82 @@ typedef struct StrakeCurveJet {
  * respect to t and return 0, or return a non-zero code to report a failure (strake returns
  * `STRAKE_STATUS_CURVE_CALLBACK_FAILED` and passes the code back). Entries must be finite.
  * The same rules on threads and unwinding apply as for `StrakeSurfaceFn`.
+ *
+ * Such a curve gives second order only: the calls that need the curve's third derivatives
+ * (`strake_invariant_rates_at`, `strake_invariant_rates_path`, `strake_centre_point_at`,
+ * `strake_centre_path_at`, `strake_sample_chordal_centre`) return
+ * `STRAKE_STATUS_ORDER_UNAVAILABLE` with it, naming the order needed; use
+ * `strake_curve_from_high_callback` for them.
  */
 typedef int32_t (*StrakeCurveFn)(void *user_data,
                                  double t,
                                  struct StrakeCurveJet *out);
+
+/**
+ * A point (u(t), v(t)) of a curve in the surface's parameter plane with its derivatives with
+ * respect to the curve parameter t to fourth order, filled by a host callback of
+ * `strake_curve_from_high_callback`. The first six entries are those of `StrakeCurveJet`, in
+ * the same order. strake sets every entry to zero before it calls the host, so entries above
+ * the requested order may be left alone.
+ */
+typedef struct StrakeCurveHighJet {
+  /**
+   * u(t).
+   */
+  double u;
+  /**
+   * v(t).
+   */
+  double v;
+  /**
+   * du/dt (order >= 1).
+   */
+  double du;
+  /**
+   * dv/dt (order >= 1).
+   */
+  double dv;
+  /**
+   * d2u/dt2 (order >= 2).
+   */
+  double ddu;
+  /**
+   * d2v/dt2 (order >= 2).
+   */
+  double ddv;
+  /**
+   * d3u/dt3 (order >= 3).
+   */
+  double d3u;
+  /**
+   * d3v/dt3 (order >= 3).
+   */
+  double d3v;
+  /**
+   * d4u/dt4 (order 4).
+   */
+  double d4u;
+  /**
+   * d4v/dt4 (order 4).
+   */
+  double d4v;
+} StrakeCurveHighJet;
+
+/**
+ * A host curve evaluator with derivatives to third or fourth order: t -> (u(t), v(t)).
+ *
+ * Called with the host's `user_data`, a parameter t inside the domain given at creation, the
+ * highest derivative order needed (0 to the `max_order` declared at creation: 0 u, v; 1 also
+ * du, dv; 2 also ddu, ddv; 3 also d3u, d3v; 4 also d4u, d4v) and a jet that strake has set
+ * to zero. Fill the entries up to `order` and return 0; any non-zero code reports a failure
+ * (`STRAKE_STATUS_CURVE_CALLBACK_FAILED`, the code passed back). Entries must be finite (a NaN
+ * or infinity gives `STRAKE_STATUS_NON_FINITE` naming the entry, e.g. "d3u"). The same rules
+ * on threads and unwinding apply as for `StrakeSurfaceFn`.
+ */
+typedef int32_t (*StrakeCurveHighFn)(void *user_data,
+                                     double t,
+                                     int32_t order,
+                                     struct StrakeCurveHighJet *out);
 
 /**
  * The widths of the parameter domains, for `strake_frame_from_jets`: degeneracy is judged
@@ -2354,6 +2426,34 @@ StrakeStatus strake_curve_from_callback(StrakeCurveFn f,
                                         double t_min,
                                         double t_max,
                                         struct StrakeCurve **out);
+
+/**
+ * Creates a curve evaluated by the host's callback `f` over [t_min, t_max] that gives
+ * derivatives up to `max_order` (3 or 4): as `strake_curve_from_callback` (same domain and
+ * `user_data` rules; frames, sampling and every second-order call are the same, `f` asked for
+ * order 2), and in addition the calls that need the curve's higher derivatives work:
+ * `strake_invariant_rates_at`, `strake_invariant_rates_path` and the tool-centre path's calls
+ * at order 3 (`strake_centre_point_at`, `strake_centre_path_at`,
+ * `strake_sample_chordal_centre`), which ask `f` for order 3, and the tool-centre path at
+ * order 4 (the curvature's rate of change, torsion and jerk figure), which asks for order 4.
+ * Asked for more than `max_order`, those calls return `STRAKE_STATUS_ORDER_UNAVAILABLE`
+ * naming the curve and both orders; `f` is never called with `order` above `max_order`.
+ *
+ * Returns `STRAKE_STATUS_OK` and writes a new handle to `*out` (free it with
+ * `strake_curve_free`); otherwise `*out` is left untouched. Errors: NULL_POINTER (`f`,
+ * `out`), NON_FINITE (a domain end), INVALID_ARGUMENT (`max_order` not 3 or 4, an empty or
+ * reversed range).
+ *
+ * # Safety
+ * `f` must be NULL or a function with the signature of [`StrakeCurveHighFn`] honouring its
+ * contract; `out` must be NULL or point to a writable `StrakeCurve *`.
+ */
+StrakeStatus strake_curve_from_high_callback(StrakeCurveHighFn f,
+                                             void *user_data,
+                                             uint32_t max_order,
+                                             double t_min,
+                                             double t_max,
+                                             struct StrakeCurve **out);
 
 /**
  * Releases a curve. NULL is a no-op. The handle must not be used afterwards, nor be in use by

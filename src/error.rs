@@ -291,8 +291,12 @@ impl fmt::Display for StrakeError {
                 v,
             } => write!(
                 f,
-                "cutter too large: radius across the path {radius} reaches the concave radius \
-                 of curvature {curvature_radius} at (u, v) = ({u}, {v}); the cutter gouges there"
+                "cutter too large: radius across the path {} reaches the concave radius \
+                 of curvature {} at (u, v) = ({}, {}); the cutter gouges there",
+                Num(*radius),
+                Num(*curvature_radius),
+                Exact(*u),
+                Exact(*v)
             ),
             StrakeError::PassLimit { passes, limit } => write!(
                 f,
@@ -318,7 +322,10 @@ impl fmt::Display for StrakeError {
                 v,
             } => write!(
                 f,
-                "geodesic trace incomplete at arc length {arc_length}, (u, v) = ({u}, {v}): {what}"
+                "geodesic trace incomplete at arc length {}, (u, v) = ({}, {}): {what}",
+                Num(*arc_length),
+                Exact(*u),
+                Exact(*v)
             ),
             StrakeError::GeodesicNotFound { what } => write!(f, "no geodesic found: {what}"),
             StrakeError::LeavesSurface { what } => write!(f, "leaves the surface: {what}"),

@@ -7,7 +7,10 @@
 //!   at fault): the shortest digits that read back to the same f64 (up to 17), in the same
 //!   layout: `0.49947054245269523`, `1e+300`, `-3.5`, `0`.
 //!
-//! Both print `inf`, `-inf` and `NaN` (spelt as the rest of the messages always have, so that
+//! - [`ExactVec`]: a vector or point (a direction, an axis, a frame vector at fault) as the
+//!   tuple of its components, each as [`Exact`]: `(1, 0, 2.5e-300)`.
+//!
+//! All print `inf`, `-inf` and `NaN` (spelt as the rest of the messages always have, so that
 //! a host matching on it keeps working), and −0 as `-0`.
 
 use std::fmt;
@@ -29,6 +32,23 @@ impl fmt::Display for Num {
 impl fmt::Display for Exact {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         write_g(f, self.0, None)
+    }
+}
+
+/// Exact components of a vector or point: `(x, y, z)`, each as [`Exact`] prints it.
+#[derive(Debug, Clone, Copy)]
+pub struct ExactVec<'a>(pub &'a [f64]);
+
+impl fmt::Display for ExactVec<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str("(")?;
+        for (i, &x) in self.0.iter().enumerate() {
+            if i > 0 {
+                f.write_str(", ")?;
+            }
+            write_g(f, x, None)?;
+        }
+        f.write_str(")")
     }
 }
 
@@ -123,6 +143,19 @@ mod tests {
         for (x, want) in cases {
             assert_eq!(Num(x).to_string(), want, "{x:e}");
         }
+    }
+
+    // Vectors: the components as `Exact` prints them, in parentheses (the layout of the
+    // messages' "(u, v) = (0, 0.25)").
+    #[test]
+    fn vectors_print_their_components_exactly() {
+        assert_eq!(
+            ExactVec(&[1.0, 0.0, -2.5e-300]).to_string(),
+            "(1, 0, -2.5e-300)"
+        );
+        assert_eq!(ExactVec(&[f64::NAN, 1e300]).to_string(), "(NaN, 1e+300)");
+        assert_eq!(ExactVec(&[0.1]).to_string(), "(0.1)");
+        assert_eq!(ExactVec(&[]).to_string(), "()");
     }
 
     // Exact values keep every digit needed to read the same f64 back.

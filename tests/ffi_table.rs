@@ -261,6 +261,24 @@ unsafe extern "C" fn plane_batch(
     0
 }
 
+/// The line of `line_curve` with its derivatives to fourth order (all zero above the first).
+unsafe extern "C" fn high_line_curve(
+    _: *mut c_void,
+    t: f64,
+    _order: i32,
+    out: *mut StrakeCurveHighJet,
+) -> i32 {
+    // SAFETY: strake passes a valid jet.
+    let j = unsafe { &mut *out };
+    *j = StrakeCurveHighJet {
+        u: 0.5,
+        v: t,
+        dv: 1.0,
+        ..Default::default()
+    };
+    0
+}
+
 unsafe extern "C" fn line_curve(_: *mut c_void, t: f64, out: *mut StrakeCurveJet) -> i32 {
     // SAFETY: strake passes a valid jet.
     let j = unsafe { &mut *out };
@@ -858,6 +876,26 @@ fn table() -> Vec<Case> {
                 a[2].f(),
                 a[3].f(),
                 a[4].p()
+            ))
+        ),
+        case!(
+            strake_curve_from_high_callback,
+            ["user_data"],
+            |_f, s| vec![
+                P(high_line_curve as *mut c_void),
+                P(ptr::null_mut()),
+                U(4),
+                F(-1.0),
+                F(1.0),
+                s.handle(free_curve)
+            ],
+            |a| st(strake_curve_from_high_callback(
+                a[0].func(),
+                a[1].p(),
+                a[2].u(),
+                a[3].f(),
+                a[4].f(),
+                a[5].p()
             ))
         ),
         case!(

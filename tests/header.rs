@@ -370,6 +370,7 @@ fn header_names_are_prefixed_and_statuses_numbered() {
         "strake_centre_feed_path",
         "strake_surface_from_high_callback",
         "strake_sample_chordal_centre",
+        "strake_curve_from_high_callback",
     ];
     let mut found = functions.clone();
     found.sort_unstable();

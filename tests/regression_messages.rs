@@ -9,6 +9,9 @@
 //!   nothing; the header promises a size of at least 1 and a terminated buffer.
 //! - Explanatory numbers printed with 17 digits and `0e0`; now C's `%g` layout (6 significant
 //!   digits), exact values (parameters) with the shortest round-trip digits.
+//! - Vectors and points were printed by Rust's `{:?}` (`[0.0, 0.0, 0.0]`) or by `{}` per
+//!   component (`1e300` printed as 301 digits); they now print as `(x, y, z)` with each
+//!   component as an exact number.
 
 #[path = "support/ffi_util.rs"]
 mod ffi_util;
@@ -140,4 +143,39 @@ fn numbers_in_messages_read_as_c_prints_them() {
     let m = e.to_string();
     assert!(m.contains("(u, v) = (0, 0.25)"), "{m}");
     assert!(m.contains("conditioning 4.99471e-07"), "{m}");
+}
+
+#[test]
+fn vectors_in_messages_read_as_c_prints_them() {
+    // The layout the C test of `tests/ffi_table.rs` checks: `%g` numbers, no `1.0`, no `{:e}`.
+    let plane = strake::DrivePlane::new([0.0; 3], [1e300, 0.0, 0.0], [2e300, 0.0, 0.0])
+        .err()
+        .unwrap()
+        .to_string();
+    assert!(
+        plane.contains("x = (1e+300, 0, 0) and y = (2e+300, 0, 0)"),
+        "{plane}"
+    );
+    let circle = strake::nurbs::conics::circle(
+        [0.0; 3],
+        [0.0; 3],
+        [0.0, 1.0, 0.0],
+        1.0,
+        strake::nurbs::CircleForm::NinePoint,
+    )
+    .err()
+    .unwrap()
+    .to_string();
+    assert!(circle.contains("circle x axis (0, 0, 0)"), "{circle}");
+    let line = strake::uv_line(0.5, f64::NAN, 1.0, 0.25)
+        .err()
+        .unwrap()
+        .to_string();
+    assert!(line.contains("(0.5, NaN) -> (1, 0.25)"), "{line}");
+    for m in [&plane, &circle, &line] {
+        assert!(
+            !m.contains(".0,") && !m.contains(".0]") && !m.contains('['),
+            "{m}"
+        );
+    }
 }

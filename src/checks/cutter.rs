@@ -77,7 +77,9 @@ impl Cutter {
                 positive("corner_radius", corner_radius)?;
                 if corner_radius > radius {
                     return Err(StrakeError::InvalidArgument(format!(
-                        "cutter corner_radius = {corner_radius} exceeds the tool radius {radius}"
+                        "cutter corner_radius = {} exceeds the tool radius {}",
+                        crate::numfmt::Exact(corner_radius),
+                        crate::numfmt::Exact(radius)
                     )));
                 }
                 Ok(())

@@ -82,8 +82,9 @@ fn finite_result(what: &'static str, x: f64) -> Result<f64> {
 fn concave_fit(r: f64, kappa: f64) -> Result<()> {
     if kappa * r >= 1.0 {
         return Err(StrakeError::InvalidArgument(format!(
-            "cutter radius {r} does not fit the concave radius of curvature {}: the cutter gouges",
-            1.0 / kappa
+            "cutter radius {} does not fit the concave radius of curvature {}: the cutter gouges",
+            crate::numfmt::Exact(r),
+            crate::numfmt::Num(1.0 / kappa)
         )));
     }
     Ok(())
@@ -277,7 +278,7 @@ pub fn step_over_for_cutter(
             return Err(StrakeError::InvalidArgument(format!(
                 "the flat bottom does not fit the concave cross-section of radius {}: the \
                  cutter gouges",
-                1.0 / kappa
+                crate::numfmt::Num(1.0 / kappa)
             )));
         } else if kappa == 0.0 {
             f64::INFINITY

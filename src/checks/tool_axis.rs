@@ -103,7 +103,9 @@ impl ToolFrame {
             let len = v.norm();
             if !(len.is_finite() && (len - 1.0).abs() <= 1e-6) {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "frame {name} has length {len}; it must be a unit vector"
+                    "frame {name} = {} has length {}; it must be a unit vector",
+                    crate::numfmt::ExactVec(&[v.x, v.y, v.z]),
+                    crate::numfmt::Num(len)
                 )));
             }
         }

@@ -278,7 +278,9 @@ impl<C: UvCurve + ?Sized> UvCurve for &C {
 pub fn uv_line(u0: f64, v0: f64, u1: f64, v1: f64) -> Result<NurbsCurve<2>> {
     if !(u0.is_finite() && v0.is_finite() && u1.is_finite() && v1.is_finite()) {
         return Err(StrakeError::InvalidArgument(format!(
-            "uv line endpoints ({u0}, {v0}) -> ({u1}, {v1}) are not finite"
+            "uv line endpoints {} -> {} are not finite",
+            crate::numfmt::ExactVec(&[u0, v0]),
+            crate::numfmt::ExactVec(&[u1, v1])
         )));
     }
     NurbsCurve::new(1, &[0.0, 0.0, 1.0, 1.0], &[[u0, v0], [u1, v1]], None)

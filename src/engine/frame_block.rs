@@ -1341,8 +1341,15 @@ mod tests {
             assert_eq!(k, v.variant() as usize);
         }
         let mut flagged = 0;
-        for round in 0..3 * MAX_POINTS {
-            let len = 1 + round % MAX_POINTS;
+        // Under Miri (which interprets every operation, about a million times slower) one
+        // round of each refusal kind, with a full chunk, a partial group and a single lane.
+        let rounds = if cfg!(miri) { 5 } else { 3 * MAX_POINTS };
+        for round in 0..rounds {
+            let len = if cfg!(miri) {
+                [MAX_POINTS, 17, 16, 5, 1][round]
+            } else {
+                1 + round % MAX_POINTS
+            };
             let v = |st: &mut u64| Vec3::new(lcg(st), lcg(st), lcg(st));
             let mut sj: Vec<SurfaceJet> = (0..len)
                 .map(|_| SurfaceJet {
@@ -1402,7 +1409,7 @@ mod tests {
             }
         }
         // Every refusal above reached the kernel and was flagged.
-        assert!(flagged >= 3 * MAX_POINTS * 2, "{flagged}");
+        assert!(flagged >= rounds * 2, "{flagged}");
     }
 
     // Common practice: a `Vec3` is three f64 in the order x, y, z (what the transposes of the
@@ -1426,7 +1433,8 @@ mod tests {
             v_extent: 1.5,
             t_extent: 1.0,
         };
-        for round in 0..200 {
+        // Under Miri a full block, a single lane and two partial blocks.
+        for round in 0..if cfg!(miri) { 4 } else { 200 } {
             let v = |st: &mut u64| Vec3::new(lcg(st), lcg(st), lcg(st));
             let sj: Vec<SurfaceJet> = (0..BLOCK)
                 .map(|_| SurfaceJet {
@@ -1452,7 +1460,11 @@ mod tests {
                     ddv: lcg(&mut st),
                 })
                 .collect();
-            let len = 1 + round % BLOCK;
+            let len = if cfg!(miri) {
+                [BLOCK, 1, BLOCK - 1, 5][round]
+            } else {
+                1 + round % BLOCK
+            };
             let x = BlockInput::gather(&sj[..len], &cj[..len]);
             for (orientation, variant) in [Orientation::Forward, Orientation::Reversed]
                 .into_iter()

@@ -20,12 +20,18 @@ use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
 use crate::geometry::math::all_finite;
 use crate::geometry::rates::{InvariantRates, ThirdPartials, rates_from_jets};
 use crate::nurbs::SpanHint;
+use crate::surface::crease::sides_for_order;
 use crate::surface::{SurfaceHint, SurfaceSource};
 use std::mem::MaybeUninit;
 
 /// The rates at a sample from its frame `f`, its jets `sj`, `cj`, the curve's third
 /// derivatives `c3` and, when the surface gave them with its jets, the third partials
 /// `third` (otherwise asked of [`SurfaceSource::checked_partials`] at order 3 with `hint`).
+/// A sample on a knot line across which the surface is not C3 (a crease, or a simple knot of
+/// a bicubic; [`crate::surface::crease::sides_for_order`]) takes its third partials from
+/// [`SurfaceSource::checked_partials_sided`] at the knot on the side the curve moves into,
+/// whatever `third` holds: the third partials differ between the two sides, and the rates
+/// must be those of the side the curve moves into (on a crease the side of its frame).
 ///
 /// Errors, in this order: `NonFinite` (curve jet, "d3u" / "d3v"); the errors of
 /// `checked_partials` (e.g. `OrderUnavailable`) or `NonFinite` (surface jet, "Suuu" …);
@@ -49,8 +55,13 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
             });
         }
     }
-    let th = match third {
-        Some(th) => {
+    let (u, v, sides, on_line) = sides_for_order(surface, cj, 3);
+    let th = match (on_line, third) {
+        (true, _) => {
+            let p = surface.checked_partials_sided(u, v, sides, 3, hint)?;
+            [p.d[3][0], p.d[2][1], p.d[1][2], p.d[0][3]]
+        }
+        (false, Some(th)) => {
             for (what, v) in ["Suuu", "Suuv", "Suvv", "Svvv"].into_iter().zip(th) {
                 if !all_finite(v) {
                     let value = [v.x, v.y, v.z]
@@ -66,7 +77,7 @@ pub(crate) fn rates_at<S: SurfaceSource + ?Sized>(
             }
             *th
         }
-        None => {
+        (false, None) => {
             let p = surface.checked_partials(cj.u, cj.v, 3, hint)?;
             [p.d[3][0], p.d[2][1], p.d[1][2], p.d[0][3]]
         }

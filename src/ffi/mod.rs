@@ -59,8 +59,8 @@ pub use courses::{
     strake_course_adjacent, strake_course_check, strake_course_fixed_angle, strake_course_gaps,
 };
 pub use curve::{
-    StrakeCurve, StrakeCurveFn, strake_curve_free, strake_curve_from_callback,
-    strake_curve_new_nurbs,
+    StrakeCurve, StrakeCurveFn, StrakeCurveHighFn, strake_curve_free, strake_curve_from_callback,
+    strake_curve_from_high_callback, strake_curve_new_nurbs,
 };
 pub use evaluate::{strake_frame_at, strake_frame_from_jets, strake_frames_at, strake_frames_even};
 pub use geodesics::{
@@ -93,11 +93,11 @@ pub use surface::{
 pub use surface_evaluate::strake_surface_evaluate;
 pub use types::{StrakeCourseCheck, StrakeCourseGap};
 pub use types::{
-    StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes, StrakeFeedLimits,
-    StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState, StrakeParamScales,
-    StrakeParametrization, StrakeProjection, StrakeProjectionOptions, StrakeSample, StrakeScallop,
-    StrakeStepOver, StrakeSurfaceJet, StrakeToolAngles, StrakeToolAxis, StrakeToolSide,
-    StrakeViolation,
+    StrakeCurveHighJet, StrakeCurveJet, StrakeCutter, StrakeCutterKind, StrakeExtremes,
+    StrakeFeedLimits, StrakeFibreLimits, StrakeFibreState, StrakeFrame, StrakeGougeState,
+    StrakeParamScales, StrakeParametrization, StrakeProjection, StrakeProjectionOptions,
+    StrakeSample, StrakeScallop, StrakeStepOver, StrakeSurfaceJet, StrakeToolAngles,
+    StrakeToolAxis, StrakeToolSide, StrakeViolation,
 };
 pub use types::{
     StrakeDirectionKind, StrakeDomainSide, StrakeDriveOptions, StrakeDrivePlane, StrakeGeodesicEnd,

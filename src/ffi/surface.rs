@@ -120,6 +120,12 @@ impl SurfaceSource for StrakeSurface {
     fn v_creases(&self) -> &[crate::surface::crease::KnotLine] {
         self.source.v_creases()
     }
+    fn u_knot_lines(&self) -> &[crate::surface::crease::KnotLine] {
+        self.source.u_knot_lines()
+    }
+    fn v_knot_lines(&self) -> &[crate::surface::crease::KnotLine] {
+        self.source.v_knot_lines()
+    }
     fn jet_in_domain_sided(
         &self,
         u: f64,
@@ -151,6 +157,17 @@ impl SurfaceSource for StrakeSurface {
         hint: &mut SurfaceHint,
     ) -> Result<SurfacePartials> {
         self.source.partials_in_domain(u, v, order, hint)
+    }
+    fn partials_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: crate::surface::KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        self.source
+            .partials_in_domain_sided(u, v, sides, order, hint)
     }
 }
 
@@ -186,9 +203,10 @@ fn checked_lines(
         }
         if i > 0 && x <= xs[i - 1] {
             return Err(Failure::invalid(format!(
-                "{name}[{i}] = {x} does not exceed {name}[{}] = {}: knot lines must be strictly ascending",
+                "{name}[{i}] = {} does not exceed {name}[{}] = {}: knot lines must be strictly ascending",
+                crate::numfmt::Exact(x),
                 i - 1,
-                xs[i - 1]
+                crate::numfmt::Exact(xs[i - 1])
             )));
         }
     }

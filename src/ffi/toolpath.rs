@@ -94,7 +94,8 @@ fn centre_limits(l: &StrakeCentreFeedLimits) -> Result<CentreFeedLimits, Failure
             Ok(Some(x))
         } else {
             Err(Failure::invalid(format!(
-                "limits->{name} = {x} must be positive and finite, or 0 for no such limit"
+                "limits->{name} = {} must be positive and finite, or 0 for no such limit",
+                crate::numfmt::Exact(x)
             )))
         }
     };

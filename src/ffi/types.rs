@@ -83,6 +83,64 @@ impl From<&StrakeCurveJet> for CurveJet {
     }
 }
 
+/// A point (u(t), v(t)) of a curve in the surface's parameter plane with its derivatives with
+/// respect to the curve parameter t to fourth order, filled by a host callback of
+/// `strake_curve_from_high_callback`. The first six entries are those of `StrakeCurveJet`, in
+/// the same order. strake sets every entry to zero before it calls the host, so entries above
+/// the requested order may be left alone.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct StrakeCurveHighJet {
+    /// u(t).
+    pub u: f64,
+    /// v(t).
+    pub v: f64,
+    /// du/dt (order >= 1).
+    pub du: f64,
+    /// dv/dt (order >= 1).
+    pub dv: f64,
+    /// d2u/dt2 (order >= 2).
+    pub ddu: f64,
+    /// d2v/dt2 (order >= 2).
+    pub ddv: f64,
+    /// d3u/dt3 (order >= 3).
+    pub d3u: f64,
+    /// d3v/dt3 (order >= 3).
+    pub d3v: f64,
+    /// d4u/dt4 (order 4).
+    pub d4u: f64,
+    /// d4v/dt4 (order 4).
+    pub d4v: f64,
+}
+
+impl StrakeCurveHighJet {
+    /// The second-order part, as the Rust jet.
+    pub fn jet(&self) -> CurveJet {
+        CurveJet {
+            u: self.u,
+            v: self.v,
+            du: self.du,
+            dv: self.dv,
+            ddu: self.ddu,
+            ddv: self.ddv,
+        }
+    }
+
+    /// The derivatives of the Rust API to `order` (≤ 4; entries above it zero).
+    pub fn partials(&self, order: usize) -> crate::geometry::jet::CurvePartials {
+        let mut p = crate::geometry::jet::CurvePartials {
+            order,
+            u: [self.u, self.du, self.ddu, self.d3u, self.d4u],
+            v: [self.v, self.dv, self.ddv, self.d3v, self.d4v],
+        };
+        for k in order + 1..p.u.len() {
+            p.u[k] = 0.0;
+            p.v[k] = 0.0;
+        }
+        p
+    }
+}
+
 /// The widths of the parameter domains, for `strake_frame_from_jets`: degeneracy is judged
 /// relative to them (a surface point is degenerate when |Su x Sv| is small against |Su| u_extent
 /// and |Sv| v_extent; a curve stalls when (du/u_extent, dv/v_extent) t_extent is small). Each
@@ -253,9 +311,10 @@ impl StrakeFrame {
             let len = vec3(*x).norm();
             if (len - 1.0).abs() > UNIT_VECTOR_SLACK {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "{what} = ({}, {}, {}) has length {len}; it must be a unit vector (pass a \
+                    "{what} = {} has length {}; it must be a unit vector (pass a \
                      frame computed by strake)",
-                    x[0], x[1], x[2]
+                    crate::numfmt::ExactVec(&x[..]),
+                    crate::numfmt::Num(len)
                 )));
             }
         }
@@ -1321,7 +1380,7 @@ impl StrakeCentrePoint {
         if self.speed_ratio <= 0.0 {
             return invalid(format!(
                 "point.speed_ratio = {} must be positive",
-                self.speed_ratio
+                crate::numfmt::Exact(self.speed_ratio)
             ));
         }
         for (name, x) in [
@@ -1330,7 +1389,10 @@ impl StrakeCentrePoint {
             ("point.axis_rate", self.axis_rate),
         ] {
             if x < 0.0 {
-                return invalid(format!("{name} = {x} must not be negative"));
+                return invalid(format!(
+                    "{name} = {} must not be negative",
+                    crate::numfmt::Exact(x)
+                ));
             }
         }
         for (name, v) in [("point.axis", self.axis), ("point.tangent", self.tangent)] {

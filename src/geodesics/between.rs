@@ -35,7 +35,7 @@ use crate::geodesics::trace::{
 use crate::geometry::jet::DerivOrder;
 use crate::geometry::math::Vec3;
 use crate::geometry::principal::SurfacePoint;
-use crate::numfmt::Exact;
+use crate::numfmt::{Exact, Num};
 use crate::paths::curve_on_surface::CurveOnSurface;
 use crate::paths::sampling::arc_length;
 use crate::surface::{SurfaceHint, SurfaceSource};
@@ -126,7 +126,9 @@ impl<S: SurfaceSource + ?Sized> Shooter<'_, S> {
         let (mut theta, mut len) = (theta0, len0);
         let Some(mut g) = self.shoot(theta, len)? else {
             return Ok(Solve::Failed(format!(
-                "the first shot (angle {theta}, length {len}) leaves the surface"
+                "the first shot (angle {}, length {}) leaves the surface",
+                Num(theta),
+                Num(len)
             )));
         };
         let mut miss = (g.end_point - q).norm();
@@ -143,7 +145,7 @@ impl<S: SurfaceSource + ?Sized> Shooter<'_, S> {
             let Some(gt) = self.shoot(theta + h, len)? else {
                 return Ok(Solve::Failed(format!(
                     "the shot at angle {} for the derivative leaves the surface",
-                    theta + h
+                    Num(theta + h)
                 )));
             };
             let (ut, vt) = gt.end_uv();
@@ -153,7 +155,9 @@ impl<S: SurfaceSource + ?Sized> Shooter<'_, S> {
             if !(det.abs() > 0.0) || !det.is_finite() {
                 return Ok(Solve::Failed(format!(
                     "the end does not move with the start angle (conjugate point?) at angle \
-                     {theta}, length {len}"
+                     {}, length {}",
+                    Num(theta),
+                    Num(len)
                 )));
             }
             let d_theta = (-r[0] * dl[1] + r[1] * dl[0]) / det;

@@ -50,7 +50,9 @@ impl HermiteUvCurve {
                 return Err(StrakeError::InvalidArgument(format!(
                     "Hermite knots must increase (a knot may repeat once, inside): knot {} = {} \
                      then {}",
-                    i, w[0], w[1]
+                    i,
+                    crate::numfmt::Exact(w[0]),
+                    crate::numfmt::Exact(w[1])
                 )));
             }
         }

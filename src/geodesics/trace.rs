@@ -327,9 +327,8 @@ pub fn start_velocity(
             let t = d - sp.n * d.dot(&sp.n);
             if !(t.norm() > 1e-12 * d.norm()) || d.norm() == 0.0 {
                 return Err(StrakeError::InvalidArgument(format!(
-                    "direction ({}, {}, {}) has no length in the tangent plane (zero, or along \
-                     the normal)",
-                    d.x, d.y, d.z
+                    "direction {} has no length in the tangent plane (zero, or along the normal)",
+                    crate::numfmt::ExactVec(&[d.x, d.y, d.z])
                 )));
             }
             t

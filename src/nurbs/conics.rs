@@ -110,7 +110,9 @@ fn check_length(name: &str, x: f64) -> Result<()> {
 fn check_point(name: &str, p: [f64; 3]) -> Result<()> {
     if let Some(&bad) = p.iter().find(|c| !c.is_finite()) {
         return Err(StrakeError::InvalidArgument(format!(
-            "{name} {p:?} has a non-finite coordinate {bad}"
+            "{name} {} has a non-finite coordinate {}",
+            crate::numfmt::ExactVec(&p),
+            crate::numfmt::Exact(bad)
         )));
     }
     Ok(())
@@ -137,7 +139,8 @@ pub fn circle(
     let xn = dot(x_axis, x_axis).sqrt();
     if !(xn > 0.0 && xn.is_finite()) {
         return Err(StrakeError::InvalidArgument(format!(
-            "circle x axis {x_axis:?} has zero or infinite length"
+            "circle x axis {} has zero or infinite length",
+            crate::numfmt::ExactVec(&x_axis)
         )));
     }
     let x = x_axis.map(|c| c / xn);
@@ -151,7 +154,9 @@ pub fn circle(
     let ylen = dot(y_axis, y_axis).sqrt();
     if !(yn > 1e-12 * ylen && yn.is_finite()) {
         return Err(StrakeError::InvalidArgument(format!(
-            "circle y axis {y_axis:?} is zero or parallel to the x axis {x_axis:?}"
+            "circle y axis {} is zero or parallel to the x axis {}",
+            crate::numfmt::ExactVec(&y_axis),
+            crate::numfmt::ExactVec(&x_axis)
         )));
     }
     let y = y0.map(|c| c / yn);
@@ -250,7 +255,9 @@ pub fn cylinder(radius: f64, z0: f64, z1: f64, form: CircleForm) -> Result<Nurbs
     check_length("cylinder radius", radius)?;
     if !(z0.is_finite() && z1.is_finite() && z0 < z1) {
         return Err(StrakeError::InvalidArgument(format!(
-            "cylinder heights z0 = {z0}, z1 = {z1} must be finite with z0 < z1"
+            "cylinder heights z0 = {}, z1 = {} must be finite with z0 < z1",
+            crate::numfmt::Exact(z0),
+            crate::numfmt::Exact(z1)
         )));
     }
     let c = circle(

@@ -26,13 +26,16 @@ pub struct KnotVector {
     /// The interior knots of multiplicity m ≥ p − 1 (a B-spline is at most C1 across them),
     /// ascending, with their continuity p − m.
     creases: Vec<KnotLine>,
+    /// Every interior knot, ascending, with its continuity p − m.
+    lines: Vec<KnotLine>,
 }
 
-/// An interior knot across which a B-spline of its knot vector is not C2: multiplicity
-/// m ≥ p − 1 for degree p, so the spline is only C^(p − m) there (The NURBS Book, 2nd ed.,
-/// ch. 2, the continuity of the basis functions at a knot). The second derivatives, hence the
-/// curvatures of a surface, may jump across it; with `continuity` ≤ 0 the first derivatives,
-/// hence its normal, may jump too.
+/// An interior knot of multiplicity m for degree p, across which a B-spline of its knot vector
+/// is only C^(p − m) (The NURBS Book, 2nd ed., ch. 2, the continuity of the basis functions at
+/// a knot). A crease ([`KnotVector::creases`]) has m ≥ p − 1: the second derivatives, hence
+/// the curvatures of a surface, may jump across it; with `continuity` ≤ 0 the first
+/// derivatives, hence its normal, may jump too. Across any knot line the derivatives of order
+/// above `continuity` may jump ([`KnotVector::knot_lines`]).
 ///
 /// The continuity is that of the parametrisation: a rational conic with double knots (the
 /// nine-point circle) is geometrically smooth across a line that is only C0 in its parameter.
@@ -97,7 +100,7 @@ impl KnotVector {
                     return Err(StrakeError::InvalidKnots(format!(
                         "{name}: knot value {} at index {run_start} has multiplicity {mult}, \
                          above degree + 1 = {}",
-                        knots[run_start],
+                        crate::numfmt::Exact(knots[run_start]),
                         degree + 1
                     )));
                 }
@@ -107,12 +110,16 @@ impl KnotVector {
         let (lo, hi) = (knots[degree], knots[count]);
         if lo >= hi {
             return Err(StrakeError::InvalidKnots(format!(
-                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] has zero length"
+                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{}, {}] has zero length",
+                crate::numfmt::Exact(lo),
+                crate::numfmt::Exact(hi)
             )));
         }
         if !(hi - lo).is_finite() {
             return Err(StrakeError::InvalidKnots(format!(
-                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{lo}, {hi}] is too wide: its width overflows"
+                "{name}: the parameter domain [knot[{degree}], knot[{count}]] = [{}, {}] is too wide: its width overflows",
+                crate::numfmt::Exact(lo),
+                crate::numfmt::Exact(hi)
             )));
         }
         let mut breaks: Vec<f64> = knots[degree + 1..count]
@@ -121,15 +128,20 @@ impl KnotVector {
             .filter(|&k| k > lo && k < hi)
             .collect();
         breaks.dedup();
-        let creases = breaks
+        let lines: Vec<KnotLine> = breaks
             .iter()
-            .filter_map(|&at| {
+            .map(|&at| {
                 let m = knots.iter().filter(|&&k| k == at).count();
-                (m + 1 >= degree).then_some(KnotLine {
+                KnotLine {
                     at,
                     continuity: degree as i32 - m as i32,
-                })
+                }
             })
+            .collect();
+        let creases = lines
+            .iter()
+            .filter(|l| l.continuity <= 1)
+            .copied()
             .collect();
         Ok(KnotVector {
             knots: knots.to_vec(),
@@ -137,6 +149,7 @@ impl KnotVector {
             count,
             breaks,
             creases,
+            lines,
         })
     }
 
@@ -158,6 +171,14 @@ impl KnotVector {
     #[inline]
     pub fn creases(&self) -> &[KnotLine] {
         &self.creases
+    }
+
+    /// Every interior knot with its continuity p − m, ascending: the lines across which a
+    /// derivative of order above the continuity may jump (the third derivatives across a
+    /// simple knot of a cubic, which is C2 there).
+    #[inline]
+    pub fn knot_lines(&self) -> &[KnotLine] {
+        &self.lines
     }
 
     /// The knot span below the knot `u` = u_i (i ≥ p + 1, u_i inside the domain): the span index

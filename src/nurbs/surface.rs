@@ -606,6 +606,12 @@ impl SurfaceSource for NurbsSurface {
     fn v_creases(&self) -> &[KnotLine] {
         self.v_knots.creases()
     }
+    fn u_knot_lines(&self) -> &[KnotLine] {
+        self.u_knots.knot_lines()
+    }
+    fn v_knot_lines(&self) -> &[KnotLine] {
+        self.v_knots.knot_lines()
+    }
     fn jet_in_domain_sided(
         &self,
         u: f64,
@@ -628,6 +634,16 @@ impl SurfaceSource for NurbsSurface {
         hint: &mut SurfaceHint,
     ) -> Result<crate::geometry::jet::SurfacePartials> {
         Ok(self.partials_unchecked(u, v, order, hint))
+    }
+    fn partials_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<crate::geometry::jet::SurfacePartials> {
+        Ok(self.partials_sided_unchecked(u, v, sides, order, hint))
     }
     fn jet_in_domain(
         &self,

@@ -11,7 +11,7 @@ use crate::geometry::jet::CurveJet;
 use crate::geometry::jet::{CurvePartials, DerivOrder, SurfaceJet, SurfacePartials};
 use crate::geometry::principal::SurfacePoint;
 use crate::geometry::rates::InvariantRates;
-use crate::surface::crease::snap_onto_surface_creases;
+use crate::surface::crease::{sides_for_order, snap_onto_surface_creases};
 use crate::surface::{CreaseFlags, KnotSides, SurfaceSource};
 
 /// One sample of a path: where it is along the curve and its frame there.
@@ -84,20 +84,22 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     #[inline]
     pub fn frame_flagged(&self, t: f64, hints: &mut Hints) -> Result<(DarbouxFrame, CreaseFlags)> {
         let (cj, flags, sides) = self.curve_point(t, hints)?;
-        let sj = if flags.is_smooth() {
-            self.surface
-                .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?
-        } else {
-            let sj = self.surface.jet_in_domain_sided(
-                cj.u,
-                cj.v,
-                sides,
-                DerivOrder::Second,
-                &mut hints.surface,
-            )?;
-            sj.check_finite()?;
-            sj
-        };
+        let (f, _) = self.frame_of_point(&cj, flags, sides, t, hints)?;
+        Ok((f, flags))
+    }
+
+    /// The frame and the surface jet at the curve point `cj` (from [`Self::curve_point`]),
+    /// the jet on the sides `sides` where the point is on a crease.
+    #[inline]
+    fn frame_of_point(
+        &self,
+        cj: &CurveJet,
+        flags: CreaseFlags,
+        sides: KnotSides,
+        t: f64,
+        hints: &mut Hints,
+    ) -> Result<(DarbouxFrame, SurfaceJet)> {
+        let sj = self.surface_jet_at(cj, flags, sides, DerivOrder::Second, hints)?;
         let sp = SurfacePoint::new(
             &sj,
             self.surface.orientation(),
@@ -106,7 +108,31 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
             self.scales.u_extent,
             self.scales.v_extent,
         )?;
-        Ok((darboux_frame_at(&sj, &sp, &cj, &self.scales, t)?, flags))
+        Ok((darboux_frame_at(&sj, &sp, cj, &self.scales, t)?, sj))
+    }
+
+    /// The surface jet to `order` at the curve point `cj` (from [`Self::curve_point`]): a
+    /// plain checked evaluation at a smooth point, the jet of the side the curve moves into on
+    /// a crease (checked finite).
+    #[inline]
+    pub(crate) fn surface_jet_at(
+        &self,
+        cj: &CurveJet,
+        flags: CreaseFlags,
+        sides: KnotSides,
+        order: DerivOrder,
+        hints: &mut Hints,
+    ) -> Result<SurfaceJet> {
+        if flags.is_smooth() {
+            self.surface
+                .checked_jet(cj.u, cj.v, order, &mut hints.surface)
+        } else {
+            let sj =
+                self.surface
+                    .jet_in_domain_sided(cj.u, cj.v, sides, order, &mut hints.surface)?;
+            sj.check_finite()?;
+            Ok(sj)
+        }
     }
 
     /// The crease flags of the frame at `t` (those of [`Self::frame_flagged`]) without the
@@ -119,7 +145,11 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     /// The curve jet at `t` with (u, v) snapped onto the surface's edge and onto its creases,
     /// the crease flags and the sides to evaluate on.
     #[inline]
-    fn curve_point(&self, t: f64, hints: &mut Hints) -> Result<(CurveJet, CreaseFlags, KnotSides)> {
+    pub(crate) fn curve_point(
+        &self,
+        t: f64,
+        hints: &mut Hints,
+    ) -> Result<(CurveJet, CreaseFlags, KnotSides)> {
         let mut cj = self.curve.checked_jet(t, &mut hints.curve)?;
         // A (u, v) within round-off of the surface's edge is on the edge: snapped onto it
         // exactly, so the frame and the batch see the same point.
@@ -223,7 +253,7 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
 
     /// The frame at `t` and the surface's and curve's partials there to `order` (3 or 4):
     /// what the rates of change and the tool-centre path are computed from. The frame is that
-    /// of [`Self::frame`], bit for bit.
+    /// of [`Self::frame`], bit for bit; the partials are those of [`Self::partials_at`].
     ///
     /// Errors: those of [`Self::frame`]; `OrderUnavailable` when the surface or the curve does
     /// not provide `order` (a host callback that gives second order only); `NonFinite` for a
@@ -234,12 +264,55 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
         order: usize,
         hints: &mut Hints,
     ) -> Result<(DarbouxFrame, SurfacePartials, CurvePartials)> {
-        let frame = self.frame(t, hints)?;
-        let cp = self.curve.checked_partials(t, order, &mut hints.curve)?;
+        let (cj, flags, sides) = self.curve_point(t, hints)?;
+        let (frame, _) = self.frame_of_point(&cj, flags, sides, t, hints)?;
+        let (sp, cp) = self.partials_of_point(&cj, t, order, hints)?;
+        Ok((frame, sp, cp))
+    }
+
+    /// The surface's and the curve's partials to `order` at `t`, with the crease flags of the
+    /// point. (u, v) are those of the frame (snapped onto the surface's edge and onto a crease
+    /// as [`Self::frame`] does; `cp.u[0]`, `cp.v[0]` hold them), and on a knot line across
+    /// which partials of `order` may jump (a crease, or for third order also a C2 line) the
+    /// surface's partials are those of the side the curve moves into, at the knot
+    /// ([`crate::surface::crease::sides_for_order`],
+    /// [`SurfaceSource::partials_in_domain_sided`]), so that a third-order result (a rate of
+    /// change, the tool-centre path's curvature) takes the side of travel, on a crease the
+    /// frame's.
+    ///
+    /// Errors: those of [`UvCurve::checked_partials`], `OutOfDomain` for a (u, v) off the
+    /// surface's domain, those of [`SurfaceSource::checked_partials_sided`]
+    /// (`OrderUnavailable`, `NonFinite`).
+    pub fn partials_at(
+        &self,
+        t: f64,
+        order: usize,
+        hints: &mut Hints,
+    ) -> Result<(SurfacePartials, CurvePartials, CreaseFlags)> {
+        let (cj, flags, _) = self.curve_point(t, hints)?;
+        let (sp, cp) = self.partials_of_point(&cj, t, order, hints)?;
+        Ok((sp, cp, flags))
+    }
+
+    /// The partials of [`Self::partials_at`] at the curve point `cj` of [`Self::curve_point`].
+    fn partials_of_point(
+        &self,
+        cj: &CurveJet,
+        t: f64,
+        order: usize,
+        hints: &mut Hints,
+    ) -> Result<(SurfacePartials, CurvePartials)> {
+        let ts = self.curve.domain().snap("t", t)?;
+        let mut cp = self.curve.checked_partials(ts, order, &mut hints.curve)?;
+        cp.u[0] = cj.u;
+        cp.v[0] = cj.v;
+        // On a knot line across which partials of `order` jump: at the knot, on the side the
+        // curve moves into (on a crease the frame's).
+        let (u, v, sides, _) = sides_for_order(self.surface, cj, order);
         let sp = self
             .surface
-            .checked_partials(cp.u[0], cp.v[0], order, &mut hints.surface)?;
-        Ok((frame, sp, cp))
+            .checked_partials_sided(u, v, sides, order, &mut hints.surface)?;
+        Ok((sp, cp))
     }
 
     /// The frame at `t` and the rates of change along arc length of κn, κg, τg and κ there
@@ -260,29 +333,7 @@ impl<'a, S: SurfaceSource + ?Sized, C: UvCurve + ?Sized> CurveOnSurface<'a, S, C
     ) -> Result<(DarbouxFrame, InvariantRates)> {
         // The steps of `Self::frame_flagged`, keeping the jets.
         let (cj, flags, sides) = self.curve_point(t, hints)?;
-        let sj = if flags.is_smooth() {
-            self.surface
-                .checked_jet(cj.u, cj.v, DerivOrder::Second, &mut hints.surface)?
-        } else {
-            let sj = self.surface.jet_in_domain_sided(
-                cj.u,
-                cj.v,
-                sides,
-                DerivOrder::Second,
-                &mut hints.surface,
-            )?;
-            sj.check_finite()?;
-            sj
-        };
-        let sp = SurfacePoint::new(
-            &sj,
-            self.surface.orientation(),
-            cj.u,
-            cj.v,
-            self.scales.u_extent,
-            self.scales.v_extent,
-        )?;
-        let f = darboux_frame_at(&sj, &sp, &cj, &self.scales, t)?;
+        let (f, sj) = self.frame_of_point(&cj, flags, sides, t, hints)?;
         let ts = self.curve.domain().snap("t", t)?;
         let c3 = curve_third_at(self.curve, ts, &mut hints.curve)?;
         let mut third = [[crate::geometry::math::Vec3::zeros(); 4]];

@@ -143,17 +143,17 @@ pub(crate) fn check_arc_tolerance(tol: f64) -> Result<()> {
     Ok(())
 }
 
-/// The speed |c'(t)| = |Su u' + Sv v'| (length per unit t).
+/// The speed |c'(t)| = |Su u' + Sv v'| (length per unit t), at the point the frame is taken
+/// at: (u, v) snapped onto the surface's edge and creases, Su and Sv of the side the curve
+/// moves into on a crease (across a C0 knot line they differ between the sides).
 #[inline]
 fn speed<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(
     path: &CurveOnSurface<'_, S, C>,
     t: f64,
     hints: &mut Hints,
 ) -> Result<f64> {
-    let cj = path.curve().checked_jet(t, &mut hints.curve)?;
-    let sj = path
-        .surface()
-        .checked_jet(cj.u, cj.v, DerivOrder::First, &mut hints.surface)?;
+    let (cj, flags, sides) = path.curve_point(t, hints)?;
+    let sj = path.surface_jet_at(&cj, flags, sides, DerivOrder::First, hints)?;
     Ok((sj.su * cj.du + sj.sv * cj.dv).norm())
 }
 

@@ -140,8 +140,8 @@ pub fn fixed_angle_course<S: SurfaceSource + ?Sized>(
     opts.check()?;
     if !(axis.iter().all(|c| c.is_finite()) && axis.norm() > 0.0) {
         return Err(StrakeError::InvalidArgument(format!(
-            "axis ({}, {}, {}) must be finite and not zero",
-            axis.x, axis.y, axis.z
+            "axis {} must be finite and not zero",
+            crate::numfmt::ExactVec(&[axis.x, axis.y, axis.z])
         )));
     }
     if !(angle.is_finite() && length.is_finite() && length > 0.0) {

@@ -87,8 +87,9 @@ impl DrivePlane {
         let area = x.cross(&y).norm();
         if area.is_nan() || area <= 1e-12 * x.norm() * y.norm() || area == 0.0 {
             return Err(StrakeError::InvalidArgument(format!(
-                "plane axes x = {x_axis:?} and y = {y_axis:?} are parallel or zero: they must \
-                 span a plane"
+                "plane axes x = {} and y = {} are parallel or zero: they must span a plane",
+                crate::numfmt::ExactVec(&x_axis),
+                crate::numfmt::ExactVec(&y_axis)
             )));
         }
         Ok(DrivePlane {
@@ -319,7 +320,8 @@ impl<'a, S: SurfaceSource + ?Sized> RayCaster<'a, S> {
         let len = d.norm();
         if len == 0.0 || !len.is_finite() {
             return Err(StrakeError::InvalidArgument(format!(
-                "direction = {direction:?} has zero length: it must be a nonzero vector"
+                "direction = {} has zero length: it must be a nonzero vector",
+                crate::numfmt::ExactVec(&direction)
             )));
         }
         let d = d / len;

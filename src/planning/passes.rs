@@ -294,7 +294,10 @@ fn length<S: SurfaceSource + ?Sized, C: UvCurve + ?Sized>(s: &S, c: &C) -> Resul
 fn at_pass(pass: usize, t: f64, error: StrakeError) -> StrakeError {
     match error {
         e @ StrakeError::CutterTooLarge { .. } => e,
-        e => StrakeError::InvalidArgument(format!("pass {pass}, t = {t}: {e}")),
+        e => StrakeError::InvalidArgument(format!(
+            "pass {pass}, t = {}: {e}",
+            crate::numfmt::Exact(t)
+        )),
     }
 }
 

@@ -63,7 +63,8 @@ pub fn parallel_lines(
     let count = ((ohi - olo) / spacing).floor();
     if count.is_nan() || count >= MAX_LINES as f64 {
         return Err(StrakeError::InvalidArgument(format!(
-            "line spacing = {spacing} gives more than {MAX_LINES} lines across the rectangle"
+            "line spacing = {} gives more than {MAX_LINES} lines across the rectangle",
+            crate::numfmt::Exact(spacing)
         )));
     }
     let count = count as usize + 1;

@@ -206,11 +206,12 @@ where
             // neighbour's nearest centre is not abeam (not side by side here).
             return Err(StrakeError::NotConverged {
                 what: format!(
-                    "at t = {t} on the pass no cusp was found in the section of its tube: the \
-                     neighbour's nearest centre is {:e} away (less than 2r = {:e}) but not \
+                    "at t = {} on the pass no cusp was found in the section of its tube: the \
+                     neighbour's nearest centre is {} away (less than 2r = {}) but not \
                      beside it",
-                    (cb_near - centre).norm(),
-                    2.0 * r
+                    crate::numfmt::Exact(t),
+                    crate::numfmt::Num((cb_near - centre).norm()),
+                    crate::numfmt::Num(2.0 * r)
                 ),
                 iterations: 0,
             });

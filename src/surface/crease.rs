@@ -22,6 +22,12 @@
 //! a line that is at most C0), so that a host can tell a point on a crease from a smooth point.
 //! Only sources that know their knots report creases (native NURBS surfaces); a host callback
 //! surface reports none (its jets are what the host computes at the given (u, v)).
+//!
+//! Every other evaluation on a path takes the same sides (the partials of the rates of change,
+//! the tool-centre path, its chordal sampling, the arc-length speed), and partials of an order
+//! above a line's continuity follow the same rule on every knot line, crease or not
+//! ([`sides_for_order`]: the third partials of a bicubic jump across its simple knots, where it
+//! is C2 and no flag is set).
 
 use crate::geometry::frame::ParamScales;
 use crate::geometry::jet::{CurveJet, DOMAIN_SNAP_ULPS, Interval};
@@ -162,6 +168,46 @@ pub fn snap_onto_creases(
         }
     }
     (CreaseFlags(flags), sides)
+}
+
+/// Where and on which sides the partials of order `order` are evaluated at the curve point
+/// `cj` (its (u, v) inside the domain, already snapped onto the creases by
+/// [`snap_onto_surface_creases`]): on a knot line of [`SurfaceSource::u_knot_lines`] whose
+/// continuity is below `order` (within the snap distance, as for a crease), the knot itself
+/// and the side the curve moves into by the rule of the module docs; elsewhere (u, v)
+/// unchanged on [`KnotSides::default`]. For `order` 2 these are the point and sides of
+/// [`snap_onto_surface_creases`]; for 3 also the C2 lines across which the third partials
+/// jump. Returns (u, v, sides, whether the point is on such a line).
+#[inline]
+pub fn sides_for_order<S: SurfaceSource + ?Sized>(
+    surface: &S,
+    cj: &CurveJet,
+    order: usize,
+) -> (f64, f64, KnotSides, bool) {
+    let (ul, vl) = (surface.u_knot_lines(), surface.v_knot_lines());
+    let mut sides = KnotSides::default();
+    if ul.is_empty() && vl.is_empty() {
+        return (cj.u, cj.v, sides, false);
+    }
+    let (ud, vd) = (surface.u_domain(), surface.v_domain());
+    let below = |l: &KnotLine| i64::from(l.continuity) < order as i64;
+    let on_u = nearest(ul, cj.u, ud.snap_tolerance()).filter(below);
+    let on_v = nearest(vl, cj.v, vd.snap_tolerance()).filter(below);
+    if on_u.is_none() && on_v.is_none() {
+        return (cj.u, cj.v, sides, false);
+    }
+    let (a, b) = (cj.du / ud.width(), cj.dv / vd.width());
+    let still = DOMAIN_SNAP_ULPS * f64::EPSILON * a.hypot(b);
+    let (mut u, mut v) = (cj.u, cj.v);
+    if let Some(l) = on_u {
+        u = l.at;
+        sides.u = side_of(cj.du, cj.ddu, a.abs() <= still);
+    }
+    if let Some(l) = on_v {
+        v = l.at;
+        sides.v = side_of(cj.dv, cj.ddv, b.abs() <= still);
+    }
+    (u, v, sides, true)
 }
 
 /// [`snap_onto_creases`] with the domains and crease lines of `surface`.

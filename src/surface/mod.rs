@@ -55,6 +55,18 @@ pub trait SurfaceSource: Send + Sync {
     fn v_creases(&self) -> &[crease::KnotLine] {
         &[]
     }
+    /// Every u knot line with its continuity, ascending, a superset of
+    /// [`SurfaceSource::u_creases`]: where partials of an order above the line's continuity
+    /// are evaluated on a path (third partials across a simple knot of a bicubic, which is C2
+    /// there), the side the curve moves into is chosen as for a crease
+    /// ([`crease::sides_for_order`]). By default the creases.
+    fn u_knot_lines(&self) -> &[crease::KnotLine] {
+        self.u_creases()
+    }
+    /// As [`SurfaceSource::u_knot_lines`], in v.
+    fn v_knot_lines(&self) -> &[crease::KnotLine] {
+        self.v_creases()
+    }
     /// The jet at (u, v) evaluated on the given sides of the knot lines through the point: on
     /// a line of [`SurfaceSource::u_creases`] the limit from above or below. Called only with
     /// (u, v) inside the domain, like [`SurfaceSource::jet_in_domain`], which the default
@@ -166,6 +178,23 @@ pub trait SurfaceSource: Send + Sync {
         Ok(p)
     }
 
+    /// The partials at (u, v) up to `order` (as [`SurfaceSource::partials_in_domain`])
+    /// evaluated on the given sides of the knot lines through the point, as
+    /// [`SurfaceSource::jet_in_domain_sided`] does for the jet: on a crease line the third
+    /// partials (and, across a C0 or C1 line, the first or second) are those of the side the
+    /// curve moves into. The default ignores `sides` (a source without knot lines).
+    fn partials_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        let _ = sides;
+        self.partials_in_domain(u, v, order, hint)
+    }
+
     /// [`SurfaceSource::partials_in_domain`] with the checks of
     /// [`SurfaceSource::checked_jet`]: u, v finite and inside the domain, `order` at most
     /// [`MAX_PARTIAL_ORDER`] (`InvalidArgument` otherwise), every entry up to `order` finite.
@@ -176,6 +205,20 @@ pub trait SurfaceSource: Send + Sync {
         order: usize,
         hint: &mut SurfaceHint,
     ) -> Result<SurfacePartials> {
+        self.checked_partials_sided(u, v, KnotSides::default(), order, hint)
+    }
+
+    /// [`SurfaceSource::checked_partials`] on the given sides of the knot lines through
+    /// (u, v) ([`SurfaceSource::partials_in_domain_sided`]); with [`KnotSides::default`] the
+    /// same as `checked_partials`.
+    fn checked_partials_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
         if order > MAX_PARTIAL_ORDER {
             return Err(StrakeError::InvalidArgument(format!(
                 "derivative order {order} is above {MAX_PARTIAL_ORDER}"
@@ -183,7 +226,7 @@ pub trait SurfaceSource: Send + Sync {
         }
         self.u_domain().check("u", u)?;
         self.v_domain().check("v", v)?;
-        let p = self.partials_in_domain(u, v, order, hint)?;
+        let p = self.partials_in_domain_sided(u, v, sides, order, hint)?;
         p.check_finite()?;
         Ok(p)
     }
@@ -230,6 +273,12 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
     }
     fn v_creases(&self) -> &[crease::KnotLine] {
         (**self).v_creases()
+    }
+    fn u_knot_lines(&self) -> &[crease::KnotLine] {
+        (**self).u_knot_lines()
+    }
+    fn v_knot_lines(&self) -> &[crease::KnotLine] {
+        (**self).v_knot_lines()
     }
     fn jet_in_domain_sided(
         &self,
@@ -281,5 +330,15 @@ impl<S: SurfaceSource + ?Sized> SurfaceSource for &S {
         hint: &mut SurfaceHint,
     ) -> Result<SurfacePartials> {
         (**self).partials_in_domain(u, v, order, hint)
+    }
+    fn partials_in_domain_sided(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> Result<SurfacePartials> {
+        (**self).partials_in_domain_sided(u, v, sides, order, hint)
     }
 }

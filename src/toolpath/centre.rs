@@ -335,12 +335,9 @@ pub(crate) fn centre_from_rates(
 /// ([`CurveOnSurface::frames_with_rates_at`], 64 samples at a time) and the centre point from
 /// the closed forms [`centre_point`] uses at order 3 (agreeing with it to round-off: its
 /// rates come from the surface's partials, whose second-order entries may differ from the
-/// jets' by a few units in the last place); at order 4 one sample at a time. At order 3
-/// the frames and the rates come from the third-order batch
-/// ([`CurveOnSurface::frames_with_rates_at`], 64 samples at a time) and the centre point from
-/// the closed forms of [`centre_point`] at order 3 (agreeing with it to round-off: its rates
-/// come from the surface's partials, whose second-order entries may differ from the jets'
-/// by a few units in the last place); at order 4 one sample at a time.
+/// jets' by a few units in the last place); at order 4 one sample at a time. On a crease of
+/// the surface every partial is that of the side the curve moves into, as the frame's
+/// ([`CurveOnSurface::partials_at`]).
 ///
 /// Errors, naming the sample: those of [`CurveOnSurface::frame_and_partials`] and
 /// [`centre_point`]; where the centre path folds back, [`StrakeError::CentrePathFolds`]

@@ -60,12 +60,8 @@ impl ChordTarget for CentreTarget<'_> {
         S: SurfaceSource + ?Sized,
         C: UvCurve + ?Sized,
     {
-        let cp = path
-            .curve()
-            .checked_partials(sample.t, 3, &mut hints.curve)?;
-        let sp = path
-            .surface()
-            .checked_partials(cp.u[0], cp.v[0], 3, &mut hints.surface)?;
+        // On a crease, the partials of the side the frame was taken on.
+        let (sp, cp, _) = path.partials_at(sample.t, 3, hints)?;
         let orientation = path.surface().orientation();
         let p = centre_point(&sample.frame, &sp, &cp, orientation, self.0, sample.t)?;
         Ok((p.curvature, sample.frame.speed * p.speed_ratio))

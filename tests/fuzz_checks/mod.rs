@@ -528,6 +528,72 @@ pub fn frames_both_ways(what: &str, s: &Surface, c: &Curve, ts: &[f64]) {
     }
 }
 
+/// The rates of change of the invariants at each of `ts`, one point at a time and as one path
+/// call: every OK result finite (frame and rates), the path call OK exactly when every point
+/// is, and then the same bits, frames and rates (on a crease too: the side of travel is chosen
+/// the same way by both).
+pub fn rates_both_ways(what: &str, s: &Surface, c: &Curve, ts: &[f64]) {
+    let rbits = |r: &StrakeInvariantRates| {
+        [
+            r.normal_curvature_rate,
+            r.geodesic_curvature_rate,
+            r.geodesic_torsion_rate,
+            r.curvature_rate,
+        ]
+        .map(f64::to_bits)
+    };
+    let mut one = Vec::with_capacity(ts.len());
+    for &t in ts {
+        let mut f = StrakeFrame::default();
+        let mut r = StrakeInvariantRates::default();
+        // SAFETY: live handles, writable outputs.
+        let st = unsafe { strake_invariant_rates_at(s.0, c.0, t, &mut f, &mut r) };
+        if status("strake_invariant_rates_at", st) {
+            let w = format!("{what}: invariant_rates_at({t:e})");
+            frame(&w, &f);
+            finite(&w, "normal_curvature_rate", r.normal_curvature_rate);
+            finite(&w, "geodesic_curvature_rate", r.geodesic_curvature_rate);
+            finite(&w, "geodesic_torsion_rate", r.geodesic_torsion_rate);
+            finite(&w, "curvature_rate", r.curvature_rate);
+            one.push(Some((f, r)));
+        } else {
+            one.push(None);
+        }
+    }
+    if ts.is_empty() {
+        return;
+    }
+    let mut frames = vec![StrakeFrame::default(); ts.len()];
+    let mut rates = vec![StrakeInvariantRates::default(); ts.len()];
+    // SAFETY: `ts.len()` readable doubles, writable frames and rates.
+    let st = unsafe {
+        strake_invariant_rates_path(
+            s.0,
+            c.0,
+            ts.as_ptr(),
+            ts.len(),
+            frames.as_mut_ptr(),
+            rates.as_mut_ptr(),
+        )
+    };
+    let ok = status("strake_invariant_rates_path", st);
+    let all_one_ok = one.iter().all(Option::is_some);
+    assert_eq!(
+        ok, all_one_ok,
+        "{what}: strake_invariant_rates_path {st:?} but rates_at per point ok = {all_one_ok} \
+         (ts {ts:?})"
+    );
+    if ok {
+        for (i, ((f, r), o)) in frames.iter().zip(&rates).zip(&one).enumerate() {
+            let (of, or) = o.as_ref().expect("checked above");
+            assert!(
+                bits(f) == bits(of) && rbits(r) == rbits(or),
+                "{what}: path sample {i} differs from the one-point call\n{f:?} {r:?}\n{of:?} {or:?}"
+            );
+        }
+    }
+}
+
 fn bits(f: &StrakeFrame) -> Vec<u64> {
     let mut v = vec![
         f.curve_param,
@@ -551,8 +617,8 @@ fn bits(f: &StrakeFrame) -> Vec<u64> {
 }
 
 /// Target `surface`: a NURBS surface from arbitrary arrays through the C ABI and the Rust API;
-/// evaluation at arbitrary (u, v) (C and Rust, same bits); frames along a straight curve
-/// through the domain (one point and batch, same bits).
+/// evaluation at arbitrary (u, v) (C and Rust, same bits); frames and the rates of change of
+/// the invariants along a straight curve through the domain (one point and batch, same bits).
 pub fn run_surface(data: &[u8]) {
     let mut inp = Input::new(data);
     let a = SurfaceArrays::read(&mut inp);
@@ -634,6 +700,7 @@ pub fn run_surface(data: &[u8]) {
     let m = inp.small(5);
     let ts: Vec<f64> = (0..m).map(|_| inp.param(0.0, 1.0)).collect();
     frames_both_ways("surface", &s, &c, &ts);
+    rates_both_ways("surface", &s, &c, &ts);
 }
 
 /// A NURBS curve in the parameter plane, decoded from the input (control points mostly in
@@ -731,7 +798,7 @@ fn tolerance(inp: &mut Input) -> f64 {
 }
 
 /// Target `curve`: a NURBS curve from arbitrary arrays on a fixed surface; frames at arbitrary
-/// t (one point and batch), even frames, the three sampling rules with arbitrary options, arc
+/// t and the rates of change there (one point and batch), even frames, the three sampling rules with arbitrary options, arc
 /// length between arbitrary parameters, samples at arbitrary t.
 pub fn run_curve(data: &[u8]) {
     let mut inp = Input::new(data);
@@ -742,6 +809,7 @@ pub fn run_curve(data: &[u8]) {
     let m = inp.small(5);
     let ts: Vec<f64> = (0..m).map(|_| inp.param(t0, t1)).collect();
     frames_both_ways("curve", &s, &c, &ts);
+    rates_both_ways("curve", &s, &c, &ts);
 
     let n = inp.small(20);
     let mut even = vec![StrakeFrame::default(); n.max(1)];

@@ -16,7 +16,7 @@ use crate::geometry::jet::{MAX_PARTIAL_ORDER, SurfacePartials};
 use crate::geometry::math::Vec3;
 use crate::nurbs::basis::MAX_ORDER;
 use crate::nurbs::high_order::{BINOMIAL, ders_basis};
-use crate::surface::SurfaceHint;
+use crate::surface::{KnotSide, KnotSides, SurfaceHint};
 
 const K: usize = MAX_PARTIAL_ORDER + 1;
 
@@ -32,13 +32,27 @@ impl NurbsSurface {
         order: usize,
         hint: &mut SurfaceHint,
     ) -> SurfacePartials {
+        self.partials_sided_unchecked(u, v, KnotSides::default(), order, hint)
+    }
+
+    /// As [`Self::partials_unchecked`], on the given sides of the knot lines through (u, v)
+    /// (as [`Self::jet_sided_unchecked`]: with [`KnotSide::Below`] and u on an interior knot,
+    /// the polynomial of the span that ends at the knot, the limit from below).
+    pub fn partials_sided_unchecked(
+        &self,
+        u: f64,
+        v: f64,
+        sides: KnotSides,
+        order: usize,
+        hint: &mut SurfaceHint,
+    ) -> SurfacePartials {
         let (p, q) = (self.u_knots.degree(), self.v_knots.degree());
         if p.max(q) < 4 {
-            self.partials_with::<4>(u, v, order, hint)
+            self.partials_with::<4>(u, v, sides, order, hint)
         } else if p.max(q) < 8 {
-            self.partials_with::<8>(u, v, order, hint)
+            self.partials_with::<8>(u, v, sides, order, hint)
         } else {
-            self.partials_with::<MAX_ORDER>(u, v, order, hint)
+            self.partials_with::<MAX_ORDER>(u, v, sides, order, hint)
         }
     }
 
@@ -46,13 +60,20 @@ impl NurbsSurface {
         &self,
         u: f64,
         v: f64,
+        sides: KnotSides,
         order: usize,
         hint: &mut SurfaceHint,
     ) -> SurfacePartials {
         let d = order.min(MAX_PARTIAL_ORDER);
         let (p, q) = (self.u_knots.degree(), self.v_knots.degree());
-        let span_u = self.u_knots.find_span(u, &mut hint.u);
-        let span_v = self.v_knots.find_span(v, &mut hint.v);
+        let mut span_u = self.u_knots.find_span(u, &mut hint.u);
+        let mut span_v = self.v_knots.find_span(v, &mut hint.v);
+        if sides.u == KnotSide::Below {
+            span_u = self.u_knots.span_below(u, span_u);
+        }
+        if sides.v == KnotSide::Below {
+            span_v = self.v_knots.span_below(v, span_v);
+        }
         let nu = ders_basis::<N>(self.u_knots.knots(), p, span_u, u, d);
         let nv = ders_basis::<N>(self.v_knots.knots(), q, span_v, v, d);
         let count_v = self.v_knots.count();
