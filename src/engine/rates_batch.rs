@@ -13,8 +13,8 @@
 
 use crate::curve::UvCurve;
 use crate::engine::batch::{CHUNK, FrameSink, SampleError};
-use crate::engine::lanes::{LANES, Lane, W};
 use crate::engine::frame_block::FrameSlots;
+use crate::engine::lanes::{LANES, Lane, Mask, W};
 use crate::error::{NonFiniteSource, Result, StrakeError};
 use crate::geometry::frame::DarbouxFrame;
 use crate::geometry::jet::{CurveJet, DerivOrder, SurfaceJet};
@@ -101,6 +101,7 @@ pub(crate) struct RatesSink<'a> {
     c3: [[f64; 2]; CHUNK],
     curve_hint: SpanHint,
     surface_hint: SurfaceHint,
+    scratch: LaneScratch,
 }
 
 impl<'a> RatesSink<'a> {
@@ -114,6 +115,7 @@ impl<'a> RatesSink<'a> {
             c3: [[0.0; 2]; CHUNK],
             curve_hint: SpanHint::default(),
             surface_hint: SurfaceHint::default(),
+            scratch: LaneScratch::new(),
         }
     }
 }
@@ -184,6 +186,7 @@ impl FrameSink for RatesSink<'_> {
             let frames = &self.frames[base + start..base + start + m];
             let ok = if self.have_third {
                 lane_rates(
+                    &mut self.scratch,
                     frames,
                     &sj[range.clone()],
                     &cj[range.clone()],
@@ -205,6 +208,7 @@ impl FrameSink for RatesSink<'_> {
                     asked += 1;
                 }
                 let ok = lane_rates(
+                    &mut self.scratch,
                     frames,
                     &sj[range.clone()],
                     &cj[range],
@@ -254,6 +258,7 @@ impl FrameSink for RatesSink<'_> {
 /// error).
 #[inline]
 pub(crate) fn lane_rates(
+    scratch: &mut LaneScratch,
     frames: &[DarbouxFrame],
     sj: &[SurfaceJet],
     cj: &[CurveJet],
@@ -272,65 +277,76 @@ pub(crate) fn lane_rates(
     if m == 0 {
         return 0;
     }
-    let x = gather(frames, sj, cj, c3, third, m);
-    let out = match crate::isa::vector_kernels() {
+    let LaneScratch { x, out, finite } = scratch;
+    gather(x, frames, sj, cj, c3, third, m);
+    match crate::isa::vector_kernels() {
         #[cfg(target_arch = "x86_64")]
         crate::isa::VectorKernels::Avx512 => {
             // SAFETY: the processor supports AVX-512F (`vector_kernels` never exceeds the
             // supported variant).
-            unsafe { block_rates_avx512(&x) }
+            unsafe { block_rates_avx512(x, out, finite) }
         }
         #[cfg(target_arch = "x86_64")]
         crate::isa::VectorKernels::Avx2 => {
             // SAFETY: as above, AVX2.
-            unsafe { block_rates_avx2(&x) }
+            unsafe { block_rates_avx2(x, out, finite) }
         }
-        _ => block_rates_baseline(&x),
-    };
+        _ => block_rates_baseline(x, out, finite),
+    }
     let mut ok = 0u32;
     for l in 0..m {
-        let r = InvariantRates {
-            normal_curvature: out[0].0[l],
-            geodesic_curvature: out[1].0[l],
-            geodesic_torsion: out[2].0[l],
-            space_curvature: out[3].0[l],
-        };
-        // One test for all: the product of zero and a non-finite value is NaN.
-        let mut z = c3[l][0] * 0.0 + c3[l][1] * 0.0;
-        for v in &third[l] {
-            z = z + v.x * 0.0 + v.y * 0.0 + v.z * 0.0;
-        }
-        z = z
-            + r.normal_curvature * 0.0
-            + r.geodesic_curvature * 0.0
-            + r.geodesic_torsion * 0.0
-            + r.space_curvature * 0.0;
-        if z == 0.0 {
-            rates[l] = r;
+        if finite.0[l] {
+            rates[l] = InvariantRates {
+                normal_curvature: out[0].0[l],
+                geodesic_curvature: out[1].0[l],
+                geodesic_torsion: out[2].0[l],
+                space_curvature: out[3].0[l],
+            };
             ok |= 1 << l;
         }
     }
     ok
 }
 
-/// The inputs of `m` ≥ 1 samples, one lane each (lanes from `m` on repeat the last sample).
+/// The lane-wide inputs and outputs of [`lane_rates`], kept by the caller so that they are
+/// neither cleared nor moved per block (about 6 KiB; they are copies of the samples' numbers).
+pub(crate) struct LaneScratch {
+    x: RatesIn<W>,
+    out: [W; 4],
+    /// Lanes whose third-order inputs and rates are all finite.
+    finite: Mask,
+}
+
+impl LaneScratch {
+    pub(crate) fn new() -> Self {
+        let z = W::splat(0.0);
+        LaneScratch {
+            x: RatesIn {
+                c: [z; 6],
+                s: [[z; 3]; 5],
+                s3: [[z; 3]; 4],
+                tbn: [[z; 3]; 3],
+                k: [z; 3],
+            },
+            out: [z; 4],
+            finite: Mask([false; LANES]),
+        }
+    }
+}
+
+/// The inputs of `m` ≥ 1 samples into `x`, one lane each (lanes from `m` on repeat the last
+/// sample).
 #[inline(always)]
 fn gather(
+    x: &mut RatesIn<W>,
     frames: &[DarbouxFrame],
     sj: &[SurfaceJet],
     cj: &[CurveJet],
     c3: &[[f64; 2]],
     third: &[ThirdPartials],
     m: usize,
-) -> RatesIn<W> {
-    let z = W::splat(0.0);
-    let mut x = RatesIn {
-        c: [z; 6],
-        s: [[z; 3]; 5],
-        s3: [[z; 3]; 4],
-        tbn: [[z; 3]; 3],
-        k: [z; 3],
-    };
+) {
+    let (frames, sj, cj, c3, third) = (&frames[..m], &sj[..m], &cj[..m], &c3[..m], &third[..m]);
     for l in 0..LANES {
         let i = l.min(m - 1);
         let (f, s, c) = (&frames[i], &sj[i], &cj[i]);
@@ -340,7 +356,10 @@ fn gather(
         {
             x.c[k].0[l] = value;
         }
-        for (k, v) in [&s.su, &s.sv, &s.suu, &s.suv, &s.svv].into_iter().enumerate() {
+        for (k, v) in [&s.su, &s.sv, &s.suu, &s.suv, &s.svv]
+            .into_iter()
+            .enumerate()
+        {
             put3(&mut x.s[k], l, v);
         }
         for (k, v) in third[i].iter().enumerate() {
@@ -353,7 +372,6 @@ fn gather(
         x.k[1].0[l] = f.geodesic_curvature;
         x.k[2].0[l] = f.geodesic_torsion;
     }
-    x
 }
 
 #[inline(always)]
@@ -379,8 +397,7 @@ unsafe fn load3<T: Lane>(w: &[W; 3], at: usize) -> [T; 3] {
 /// # Safety
 /// `T`'s instructions must be available.
 #[inline(always)]
-unsafe fn block_rates<T: Lane>(x: &RatesIn<W>) -> [W; 4] {
-    let mut out = [W::splat(0.0); 4];
+unsafe fn block_rates<T: Lane>(x: &RatesIn<W>, out: &mut [W; 4], finite: &mut Mask) {
     for at in (0..LANES).step_by(T::N) {
         // SAFETY: passed on from the caller.
         let y: RatesIn<T> = unsafe {
@@ -419,15 +436,30 @@ unsafe fn block_rates<T: Lane>(x: &RatesIn<W>) -> [W; 4] {
         for k in 0..4 {
             r[k].store(&mut out[k], at);
         }
+        // Finite where every product with zero is zero (a non-finite value gives NaN); of the
+        // inputs, those the frames did not already check: the curve's third derivatives and
+        // the third partials.
+        let zero = <T as crate::geometry::rates::RateNum>::k(0.0);
+        let [s0, s1, s2, s3] = y.s3;
+        let t0 = (y.c[4] * zero + y.c[5] * zero)
+            + (r[0] * zero + r[1] * zero)
+            + (r[2] * zero + r[3] * zero);
+        let t1 = (s0[0] * zero + s0[1] * zero)
+            + (s0[2] * zero + s1[0] * zero)
+            + (s1[1] * zero + s1[2] * zero);
+        let t2 = (s2[0] * zero + s2[1] * zero)
+            + (s2[2] * zero + s3[0] * zero)
+            + (s3[1] * zero + s3[2] * zero);
+        let sum = t0 + t1 + t2;
+        T::store_mask(sum.ge(zero) & sum.le(zero), finite, at);
     }
-    out
 }
 
 /// [`block_rates`] on the 16-lane arrays (the baseline build).
 #[inline(never)]
-fn block_rates_baseline(x: &RatesIn<W>) -> [W; 4] {
+fn block_rates_baseline(x: &RatesIn<W>, out: &mut [W; 4], finite: &mut Mask) {
     // SAFETY: the arrays need no particular instructions.
-    unsafe { block_rates::<W>(x) }
+    unsafe { block_rates::<W>(x, out, finite) }
 }
 
 /// [`block_rates`] on AVX2 registers, four lanes at a time.
@@ -436,9 +468,9 @@ fn block_rates_baseline(x: &RatesIn<W>) -> [W; 4] {
 /// The processor must support AVX2.
 #[cfg(target_arch = "x86_64")]
 #[target_feature(enable = "avx2")]
-unsafe fn block_rates_avx2(x: &RatesIn<W>) -> [W; 4] {
+unsafe fn block_rates_avx2(x: &RatesIn<W>, out: &mut [W; 4], finite: &mut Mask) {
     // SAFETY: AVX2 is available (the caller's promise).
-    unsafe { block_rates::<crate::engine::lanes::x86::Avx4>(x) }
+    unsafe { block_rates::<crate::engine::lanes::x86::Avx4>(x, out, finite) }
 }
 
 /// [`block_rates`] on AVX-512 registers, eight lanes at a time.
@@ -447,7 +479,7 @@ unsafe fn block_rates_avx2(x: &RatesIn<W>) -> [W; 4] {
 /// The processor must support AVX-512F.
 #[cfg(target_arch = "x86_64")]
 #[target_feature(enable = "avx512f")]
-unsafe fn block_rates_avx512(x: &RatesIn<W>) -> [W; 4] {
+unsafe fn block_rates_avx512(x: &RatesIn<W>, out: &mut [W; 4], finite: &mut Mask) {
     // SAFETY: AVX-512F is available (the caller's promise).
-    unsafe { block_rates::<crate::engine::lanes::x86_512::Avx8>(x) }
+    unsafe { block_rates::<crate::engine::lanes::x86_512::Avx8>(x, out, finite) }
 }
