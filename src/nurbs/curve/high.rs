@@ -103,38 +103,52 @@ impl<const D: usize> NurbsCurve<D> {
             } else {
                 basis_rows_lanes::<N, P, G, false, 4>(knots, &self.recip, &spans, Lanes(x), 3)
             };
-            for (l, o) in out[start..start + len].iter_mut().enumerate() {
-                let first = spans[l] - P;
-                let mut a = [[0.0; D]; 4];
-                let mut w = [0.0; 4];
+            // The sums per point (each on its own span), lane l of `a` and `w` for point l
+            // (lanes from `len` on repeat the last point).
+            let mut a = [[Lanes([0.0; G]); D]; 4];
+            let mut w = [Lanes([0.0; G]); 4];
+            for l in 0..G {
+                let first = spans[l.min(len - 1)] - P;
+                let lr = l.min(len - 1);
                 for r in 0..P + 1 {
                     let cp = &self.weighted[first + r];
                     for k in 0..4 {
-                        let nk = rows[k][r].0[l];
+                        let nk = rows[k][r].0[lr];
                         for (c, &x) in a[k].iter_mut().zip(cp) {
-                            *c += nk * x;
+                            c.0[l] += nk * x;
                         }
                         if rational {
-                            w[k] += nk * self.weights[first + r];
+                            w[k].0[l] += nk * self.weights[first + r];
                         }
                     }
                 }
-                if !rational {
-                    *o = a[3];
-                    continue;
-                }
-                let inv_w = 1.0 / w[0];
-                let mut c = [[0.0; D]; 4];
-                for k in 0..4 {
+            }
+            let out = &mut out[start..start + len];
+            if !rational {
+                for (l, o) in out.iter_mut().enumerate() {
                     for d in 0..D {
-                        let mut x = a[k][d];
-                        for i in 1..=k {
-                            x -= BINOMIAL[k][i] * w[i] * c[k - i][d];
-                        }
-                        c[k][d] = x * inv_w;
+                        o[d] = a[3][d].0[l];
                     }
                 }
-                *o = c[3];
+                continue;
+            }
+            // The quotient rule lane-wide: in each lane the operations of one point, in the
+            // same order.
+            let inv_w = Lanes::splat(1.0) / w[0];
+            let mut c = [[Lanes([0.0; G]); D]; 4];
+            for k in 0..4 {
+                for d in 0..D {
+                    let mut x = a[k][d];
+                    for i in 1..=k {
+                        x = x - Lanes::splat(BINOMIAL[k][i]) * w[i] * c[k - i][d];
+                    }
+                    c[k][d] = x * inv_w;
+                }
+            }
+            for (l, o) in out.iter_mut().enumerate() {
+                for d in 0..D {
+                    o[d] = c[3][d].0[l];
+                }
             }
         }
     }
