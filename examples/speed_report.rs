@@ -70,8 +70,46 @@ impl<'a> Case<'a> {
     }
 }
 
+/// Nanoseconds of CPU time this thread has run (Linux `CLOCK_THREAD_CPUTIME_ID`): on a
+/// machine shared with other programs, the time the thread was not scheduled is left out,
+/// which wall-clock time counts.
+#[cfg(target_os = "linux")]
+fn thread_cpu_ns() -> f64 {
+    let mut ts = libc::timespec {
+        tv_sec: 0,
+        tv_nsec: 0,
+    };
+    // SAFETY: a valid timespec to write; the clock exists on every Linux.
+    let rc = unsafe { libc::clock_gettime(libc::CLOCK_THREAD_CPUTIME_ID, &mut ts) };
+    assert_eq!(rc, 0, "clock_gettime(CLOCK_THREAD_CPUTIME_ID)");
+    ts.tv_sec as f64 * 1e9 + ts.tv_nsec as f64
+}
+
+/// Whether the one-thread cases are timed by this thread's CPU time (the default on Linux;
+/// `STRAKE_SPEED_CLOCK=wall` asks for wall-clock time). Cases with more than one thread (the
+/// parallel ones) are always timed by the wall clock.
+fn cpu_clock() -> bool {
+    match std::env::var("STRAKE_SPEED_CLOCK").as_deref() {
+        Ok("wall") => false,
+        Ok("cpu") | Err(_) => cfg!(target_os = "linux"),
+        Ok(v) => panic!("STRAKE_SPEED_CLOCK={v}: expected cpu or wall"),
+    }
+}
+
+/// A time stamp in ns: this thread's CPU time when `cpu`, else the wall clock from `origin`.
+fn stamp(cpu: bool, origin: Instant) -> f64 {
+    #[cfg(target_os = "linux")]
+    if cpu {
+        return thread_cpu_ns();
+    }
+    let _ = cpu;
+    origin.elapsed().as_nanos() as f64
+}
+
 /// Runs every case `ROUNDS` times, interleaved, and records ns per point.
 fn measure(cases: &mut [Case]) {
+    let cpu = cpu_clock();
+    let origin = Instant::now();
     for c in cases.iter_mut() {
         // Warm up, then calibrate the repetitions to reach SAMPLE_NS per sample.
         (c.run)();
@@ -82,11 +120,12 @@ fn measure(cases: &mut [Case]) {
     }
     for _ in 0..ROUNDS {
         for c in cases.iter_mut() {
-            let t = Instant::now();
+            let cpu = cpu && !c.name.starts_with("parallel");
+            let t = stamp(cpu, origin);
             for _ in 0..c.reps {
                 (c.run)();
             }
-            let ns = t.elapsed().as_nanos() as f64;
+            let ns = stamp(cpu, origin) - t;
             c.samples.push(ns / (c.reps * c.points) as f64);
         }
     }
@@ -468,6 +507,15 @@ fn main() {
         strake::supported_vector_kernels().name()
     );
 
+    println!(
+        "clock: {}",
+        if cpu_clock() {
+            "this thread's CPU time for the one-thread cases (time not scheduled left out; STRAKE_SPEED_CLOCK=wall for wall clock), wall clock for the parallel ones"
+        } else {
+            "wall clock for every case"
+        }
+    );
+
     let surface = wing_skin(true);
     let curve = wing_path();
     let ts = path_ts(N);
@@ -531,6 +579,7 @@ fn main() {
     let jets_c = RefCell::new(vec![StrakeSurfaceJet::default(); N]);
     let jets_block = RefCell::new(vec![SurfaceJet::default(); N]);
     let rates_out = RefCell::new(vec![strake::InvariantRates::default(); N]);
+    let third_block = RefCell::new(vec![[strake::geometry::math::Vec3::zeros(); 4]; N]);
 
     let mut cases = vec![
         Case::new("surface jet, marching", N, || {
@@ -547,6 +596,21 @@ fn main() {
                 surface
                     .jets_in_domain_block(u, v, DerivOrder::Second, &mut h, o)
                     .unwrap();
+            }
+            black_box(&mut *out);
+        }),
+        Case::new("surface jets + third partials, block of 64", N, || {
+            // What the third-order batch asks of a native surface per chunk.
+            let mut h = SurfaceHint::default();
+            let mut out = jets_block.borrow_mut();
+            let mut third = third_block.borrow_mut();
+            for (((u, v), o), t) in us
+                .chunks(64)
+                .zip(vs.chunks(64))
+                .zip(out.chunks_mut(64))
+                .zip(third.chunks_mut(64))
+            {
+                assert!(surface.jets_and_third_block(u, v, &mut h, o, t));
             }
             black_box(&mut *out);
         }),
@@ -574,6 +638,16 @@ fn main() {
             for chunk in ts.chunks(64) {
                 let out = &mut jets[..chunk.len()];
                 curve.jets_in_domain_block(chunk, &mut h, out).unwrap();
+                black_box(&*out);
+            }
+        }),
+        Case::new("curve third derivatives, block of 64", N, || {
+            // What the third-order batch asks of the curve per chunk.
+            let mut h = SpanHint::default();
+            let mut out = [[0.0; 2]; 64];
+            for chunk in ts.chunks(64) {
+                let out = &mut out[..chunk.len()];
+                curve.third_derivatives_block(chunk, &mut h, out).unwrap();
                 black_box(&*out);
             }
         }),
@@ -798,6 +872,20 @@ fn main() {
         g("path point, batch"),
         "target <= 1.5",
     );
+    {
+        // Where the third order's extra time goes (same run): the surface's third partials
+        // (block with them minus block without), the curve's third derivatives, and the rest
+        // (the rates' closed forms, their gathers and checks).
+        let extra = g("path point with rates (third order), batch") - g("path point, batch");
+        let surf3 = g("surface jets + third partials, block of 64")
+            - g("surface jets, block of 64, marching");
+        let crv3 = g("curve third derivatives, block of 64");
+        println!(
+            "{:<62} {extra:6.1} ns: surface third partials {surf3:.1}, curve third derivatives {crv3:.1}, rates and the rest {:.1}",
+            "  third order's extra time per point",
+            extra - surf3 - crv3
+        );
+    }
     ratio(
         "native path point (batch) / finite differences, textbook evaluator",
         g("path point, batch"),

@@ -242,16 +242,18 @@ fn cross<T: RateNum>(a: &[T; 3], b: &[T; 3]) -> [T; 3] {
     ]
 }
 
-/// Σ vᵢ xᵢ, component by component, left to right.
+/// Σ vᵢ xᵢ, component by component, left to right. Plain loops, no closure: a closure is a
+/// function of its own, which inside a `#[target_feature]` kernel the optimiser may leave
+/// out of line (and then every lane operation in it becomes a call).
 #[inline(always)]
 fn comb<T: RateNum, const K: usize>(v: [&[T; 3]; K], x: [T; K]) -> [T; 3] {
-    std::array::from_fn(|c| {
-        let mut acc = v[0][c] * x[0];
-        for i in 1..K {
-            acc = acc + v[i][c] * x[i];
+    let mut acc = [v[0][0] * x[0], v[0][1] * x[0], v[0][2] * x[0]];
+    for i in 1..K {
+        for c in 0..3 {
+            acc[c] = acc[c] + v[i][c] * x[i];
         }
-        acc
-    })
+    }
+    acc
 }
 
 #[inline(always)]
