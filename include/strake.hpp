@@ -46,6 +46,7 @@ using Frame = StrakeFrame;
 using Sample = StrakeSample;
 using SurfaceJet = StrakeSurfaceJet;
 using CurveJet = StrakeCurveJet;
+using CurveHighJet = StrakeCurveHighJet;
 using Cutter = StrakeCutter;
 using ToolAngles = StrakeToolAngles;
 using ToolAxis = StrakeToolAxis;
@@ -310,6 +311,17 @@ struct CurveFn final : Holder {
     static std::int32_t call(void *user_data, double t, StrakeCurveJet *out) noexcept {
         auto *self = static_cast<CurveFn *>(user_data);
         return guarded([&] { self->f(t, *out); });
+    }
+};
+
+template <class F>
+struct CurveHighFn final : Holder {
+    explicit CurveHighFn(F f) : f(std::move(f)) {}
+    F f;
+    static std::int32_t call(void *user_data, double t, std::int32_t order,
+                             StrakeCurveHighJet *out) noexcept {
+        auto *self = static_cast<CurveHighFn *>(user_data);
+        return guarded([&] { self->f(t, static_cast<int>(order), *out); });
     }
 };
 
@@ -629,6 +641,25 @@ public:
         auto holder = std::make_unique<H>(std::move(f));
         StrakeCurve *h = nullptr;
         check(strake_curve_from_callback(&H::call, holder.get(), t_min, t_max, &h));
+        Curve c(h);
+        c.holder_ = std::move(holder);
+        return c;
+    }
+
+    /**
+     * A curve evaluated by the host's callable f(t, order, jet) over [t_min, t_max] with
+     * derivatives up to `max_order` (3 or 4) in a CurveHighJet
+     * (strake_curve_from_high_callback): fill the entries up to `order` (u, v; du, dv; ddu,
+     * ddv; d3u, d3v; d4u, d4v). The calls that need the curve's third or fourth derivatives
+     * (invariant rates, the tool-centre path) then work. To fail, throw.
+     */
+    template <class F>
+    static Curve from_high_function(F f, std::uint32_t max_order, double t_min, double t_max) {
+        using H = detail::CurveHighFn<std::decay_t<F>>;
+        auto holder = std::make_unique<H>(std::move(f));
+        StrakeCurve *h = nullptr;
+        check(strake_curve_from_high_callback(&H::call, holder.get(), max_order, t_min, t_max,
+                                              &h));
         Curve c(h);
         c.holder_ = std::move(holder);
         return c;

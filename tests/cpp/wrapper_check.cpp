@@ -152,6 +152,41 @@ static void sphere_checks() {
     CHECK(std::fabs(fr.rates.normal_curvature_rate) < 1e-12 &&
           std::fabs(fr.rates.geodesic_curvature_rate) < 1e-12 &&
           std::fabs(fr.rates.geodesic_torsion_rate) < 1e-12);
+    // The same circle run at a varying speed by a host curve of third order,
+    // u(t) = t + 0.3 t^3 (d3u = 1.8): the rates stay 0 whatever the parametrisation; the same
+    // curve of second order only is refused by the third-order call.
+    auto lat_jet = [v0](double t, int order, strake::CurveHighJet &j) {
+        j.u = t + 0.3 * t * t * t;
+        j.v = v0;
+        if (order >= 1) j.du = 1 + 0.9 * t * t;
+        if (order >= 2) j.ddu = 1.8 * t;
+        if (order >= 3) j.d3u = 1.8;
+    };
+    strake::Curve lat3 = strake::Curve::from_high_function(lat_jet, 3, -0.8, 0.8);
+    strake::FrameRates fr3 = strake::invariant_rates_at(s, lat3, 0.5);
+    CHECK(near(fr3.frame.geodesic_curvature, std::tan(v0) / sphere_r, 1e-13));
+    CHECK(std::fabs(fr3.rates.normal_curvature_rate) < 1e-12 &&
+          std::fabs(fr3.rates.geodesic_curvature_rate) < 1e-12 &&
+          std::fabs(fr3.rates.geodesic_torsion_rate) < 1e-12 &&
+          std::fabs(fr3.rates.curvature_rate) < 1e-12);
+    strake::Curve lat2 = strake::Curve::from_function(
+        [&](double t, strake::CurveJet &j) {
+            strake::CurveHighJet h{};
+            lat_jet(t, 2, h);
+            j.u = h.u;
+            j.v = h.v;
+            j.du = h.du;
+            j.dv = h.dv;
+            j.ddu = h.ddu;
+            j.ddv = h.ddv;
+        },
+        -0.8, 0.8);
+    try {
+        strake::invariant_rates_at(s, lat2, 0.5);
+        CHECK(false);
+    } catch (const strake::EvaluationError &e) {
+        CHECK(e.status() == STRAKE_STATUS_ORDER_UNAVAILABLE);
+    }
     const std::array<double, 4> ts{0.0, 0.3, 0.6, 1.0};
     strake::PathRates rates = strake::invariant_rates_path(s, lat, ts);
     CHECK(rates.rates.size() == 4 && std::fabs(rates.rates[3].curvature_rate) < 1e-12 &&

@@ -583,6 +583,32 @@ class Curve(_Handle):
             cb, None, float(t_range[0]), float(t_range[1]), out), keep=(cb, f))
 
     @classmethod
+    def from_high_function(cls, f: Callable[[float, int], ArrayLike], t_range: Sequence[float],
+                           max_order: int = 4) -> "Curve":
+        """A curve evaluated by ``f(t, order)`` with derivatives up to ``max_order`` (3 or 4;
+        strake_curve_from_high_callback), for the calls that need the curve's third or fourth
+        derivatives (invariant rates, the tool-centre path). ``f`` returns an array of shape
+        (k, 2), at least ``order + 1`` rows: (u, v), (du, dv), (d2u, d2v), (d3u, d3v),
+        (d4u, d4v) with respect to t. To refuse a t, raise."""
+
+        def trampoline(_user, t, order, jet):
+            try:
+                rows = np.ascontiguousarray(f(t, order), dtype=np.float64)
+                if rows.ndim != 2 or rows.shape[1] != 2 or not order + 1 <= rows.shape[0] <= 5:
+                    raise ValueError(
+                        f"the curve function must return an array of shape (k, 2) with "
+                        f"{order + 1} <= k <= 5 rows for order {order}, got shape {rows.shape}")
+                ctypes.memmove(jet, rows.ctypes.data, rows.shape[0] * 16)
+                return 0
+            except BaseException as e:
+                return _report(e)
+
+        cb = _lib.CURVE_HIGH_FN(trampoline)
+        return cls._made(lambda out: _lib.lib.strake_curve_from_high_callback(
+            cb, None, int(max_order), float(t_range[0]), float(t_range[1]), out),
+            keep=(cb, f))
+
+    @classmethod
     def through_uv_points(cls, uv_points: ArrayLike, degree: int = 3, centripetal: bool = False,
                           start_derivative: Optional[Sequence[float]] = None,
                           end_derivative: Optional[Sequence[float]] = None) -> "Curve":

@@ -21,7 +21,7 @@ from __future__ import annotations
 import ctypes
 import os
 import re
-from ctypes import c_char_p, c_double, c_int32, c_size_t, c_uint32, c_void_p
+from ctypes import c_char_p, c_double, c_int32, c_size_t, c_uint32, c_uint64, c_void_p
 
 import numpy as np
 
@@ -29,11 +29,18 @@ _HERE = os.path.dirname(os.path.abspath(__file__))
 LIBRARY_PATH = os.path.join(_HERE, "libstrake.so")
 HEADER_PATH = os.path.join(_HERE, "strake.h")
 
-_SCALARS = {"double": np.float64, "int32_t": np.int32, "uint32_t": np.uint32, "size_t": np.uintp}
+_SCALARS = {
+    "double": np.float64,
+    "int32_t": np.int32,
+    "uint32_t": np.uint32,
+    "uint64_t": np.uint64,
+    "size_t": np.uintp,
+}
 _CTYPES = {
     "double": c_double,
     "int32_t": c_int32,
     "uint32_t": c_uint32,
+    "uint64_t": c_uint64,
     "size_t": c_size_t,
     "StrakeStatus": c_uint32,
 }
@@ -46,7 +53,7 @@ def _strip_comments(text: str) -> str:
 
 def parse_structs(header: str) -> dict:
     """numpy dtypes (aligned as C lays them out) of every `typedef struct Strake... { }` of
-    strake.h: fields of double, int32_t, uint32_t, size_t, pointers, fixed arrays and nested
+    strake.h: fields of double, int32_t, uint32_t, uint64_t, size_t, pointers, fixed arrays and nested
     structs."""
     out: dict = {}
     for m in re.finditer(r"typedef struct (Strake\w+) \{(.*?)\} \1;", header, re.S):
@@ -169,6 +176,7 @@ SURFACE_FN = CALLBACK_TYPES["StrakeSurfaceFn"]
 SURFACE_BATCH_FN = CALLBACK_TYPES["StrakeSurfaceBatchFn"]
 SURFACE_HIGH_FN = CALLBACK_TYPES["StrakeSurfaceHighFn"]
 CURVE_FN = CALLBACK_TYPES["StrakeCurveFn"]
+CURVE_HIGH_FN = CALLBACK_TYPES["StrakeCurveHighFn"]
 
 #: numpy dtype of one frame, field for field the C struct StrakeFrame.
 FRAME_DTYPE = STRUCTS["StrakeFrame"]

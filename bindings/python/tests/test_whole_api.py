@@ -112,6 +112,31 @@ def test_rates_and_the_centre_path_along_a_circle_of_latitude(sphere):
     assert samples["arc_length"][-1] == pytest.approx(2 * R * math.cos(v0), abs=1e-9)
 
 
+def test_a_host_curve_of_third_order_along_a_circle_of_latitude(sphere):
+    # The circle of latitude v0 run at a varying speed, u(t) = t + 0.3 t^3 (d3u = 1.8, so a
+    # lost third derivative would show): the invariants are constant in arc length, so every
+    # rate is 0 whatever the parametrisation, and a ball's centre path has curvature
+    # 1/((R + r) cos v0) (closed forms as in the test above).
+    v0 = 0.3
+
+    def lat_high(t, order):
+        return [[t + 0.3 * t**3, v0], [1 + 0.9 * t**2, 0.0], [1.8 * t, 0.0], [1.8, 0.0],
+                [0.0, 0.0]][: order + 1]
+
+    lat = sd.Curve.from_high_function(lat_high, (-0.8, 0.8), max_order=4)
+    frame, rates = sd.invariant_rates_at(sphere, lat, 0.5)
+    assert frame["geodesic_curvature"] == pytest.approx(math.tan(v0) / R, rel=1e-13)
+    assert max(abs(x) for x in rates.values()) < 1e-12
+    ball = {"kind": sd.BALL, "radius": 0.5, "corner_radius": 0.0}
+    c = sd.centre_point_at(sphere, lat, 0.25, ball, {"lead": 0.0, "tilt": 0.0})
+    assert c["curvature"] == pytest.approx(1 / ((R + 0.5) * math.cos(v0)), rel=1e-12)
+    # The same curve of second order only: the third-order call is refused.
+    lat2 = sd.Curve.from_function(lambda t: lat_high(t, 2), (-0.8, 0.8))
+    with pytest.raises(sd.EvaluationError) as e:
+        sd.invariant_rates_at(sphere, lat2, 0.5)
+    assert e.value.status == sd.Status.ORDER_UNAVAILABLE
+
+
 def test_order_unavailable_is_an_evaluation_error_and_folds_a_tool_path_error(sphere):
     s = sd.Surface.from_function(bowl, (-1, 1), (-1, 1))
     line = sd.Curve.line((-0.5, 0.0), (0.5, 0.0))
