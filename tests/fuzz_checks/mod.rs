@@ -1315,7 +1315,9 @@ pub fn run_checks(data: &[u8]) {
                     finite_or_inf(w, "across_path", o.across_path);
                     finite_or_inf(w, "across_section", o.across_section);
                     finite_or_inf(w, "along_path", o.along_path);
-                    finite(w, "inclination_plane", o.inclination_plane);
+                    // INFINITY for an upright flat or toroidal cutter (its flat bottom
+                    // touches) and where R/sin β exceeds DBL_MAX (documented).
+                    finite_or_inf(w, "inclination_plane", o.inclination_plane);
                     finite(w, "inclination", o.inclination);
                 }
             }
