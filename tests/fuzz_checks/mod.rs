@@ -1213,7 +1213,7 @@ fn side(inp: &mut Input) -> u32 {
 fn positive(inp: &mut Input) -> f64 {
     match inp.u8() % 3 {
         0 => inp.f64(),
-        _ => f64::from(1 + inp.u8()) / 64.0,
+        _ => (1.0 + f64::from(inp.u8())) / 64.0,
     }
 }
 
