@@ -1069,6 +1069,8 @@ typedef struct StrakeCutterRadii {
   double along_path;
   /**
    * R/sin(beta) + r: normal to the inclination plane (across the path only for pure lead).
+   * r for a ball; INFINITY for a flat or toroidal cutter upright (beta = 0: its flat bottom
+   * touches) and where R/sin(beta) exceeds DBL_MAX.
    */
   double inclination_plane;
   /**

@@ -175,3 +175,60 @@ fn signed_distance_never_exceeds_the_distance_at_a_denormal_gap() {
         out[0]
     );
 }
+
+/// Found by the `fit` target (`finding-ba0266c671a3`): the point (1e300, 8.75, 8.75),
+/// projected with an infinite distance tolerance, came back OK with distance = inf: |S − P|
+/// was computed as the square root of a sum of squares, which overflowed although the
+/// distance (about 1e300) does not. The length is now scaled where the squares overflow, and
+/// a point whose distance itself overflows is refused with NON_FINITE naming the distance.
+#[test]
+fn projecting_a_far_point_gives_a_finite_distance() {
+    let s = fixed_surface(2);
+    let opts = StrakeProjectionOptions {
+        tolerance: f64::INFINITY,
+        periodic_u: 0,
+        periodic_v: 1,
+        grid: 0,
+        max_iterations: 0,
+    };
+    // The finding's two points: the second starts from the first one's foot (continuation).
+    let mut out = [StrakeProjection::default(); 2];
+    let p = [2.0, 8.0, -0.5, 1e300, 8.75, 8.75];
+    // SAFETY: two readable points, two writable projections.
+    let st = unsafe { strake_surface_project_points(s.0, p.as_ptr(), 2, &opts, out.as_mut_ptr()) };
+    assert_eq!(st, StrakeStatus::Ok, "{}", fuzz_checks::message());
+    // The foot is on the fixed plane patch [0, 2] x [0, 1.5] (z = 0), so the distance is 1e300
+    // to round-off (the other coordinates vanish against it).
+    let d = out[1].distance;
+    assert!(
+        d.is_finite() && (d - 1e300).abs() <= 1e-15 * 1e300,
+        "{:?}",
+        out[1]
+    );
+    assert!(out[1].signed_distance.abs() <= d);
+}
+
+/// Found by the `checks` target (`finding-529e71234f7c`): an upright flat cutter's
+/// `inclination_plane` radius is INFINITY under OK. That is the documented value (R/sin β + r
+/// at β = 0: the flat bottom touches; `Cutter::effective_radius`), which the C field's doc
+/// did not state and the fuzz check refused; both now say so, and this pins the value.
+#[test]
+fn an_upright_flat_cutter_has_an_infinite_inclination_plane_radius() {
+    let c = StrakeCutter {
+        kind: StrakeCutterKind::Flat as u32,
+        radius: 0.5,
+        corner_radius: 0.0,
+    };
+    let a = StrakeToolAngles {
+        lead: 0.0,
+        tilt: 0.0,
+    };
+    let mut o = StrakeCutterRadii::default();
+    // SAFETY: valid inputs and output.
+    let st = unsafe { strake_cutter_radii(&c, &a, &mut o) };
+    assert_eq!(st, StrakeStatus::Ok, "{}", fuzz_checks::message());
+    assert_eq!(o.inclination_plane, f64::INFINITY);
+    assert_eq!(o.across_path, f64::INFINITY);
+    assert_eq!(o.flat_bottom_contact, 1);
+    assert_eq!(o.inclination, 0.0);
+}

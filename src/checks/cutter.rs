@@ -104,7 +104,8 @@ impl Cutter {
     /// cutter's parallel through the contact point, seen along the inclination direction m),
     /// for an axis inclined by β from the surface normal: R/sin β + r (Vickers & Quan, J. Eng.
     /// Ind. 111(1) (1989) 22–26). Infinite for a flat or toroidal cutter at β = 0 (the flat
-    /// bottom touches); r for a ball (independent of β).
+    /// bottom touches), and where R/sin β exceeds the largest f64 (a denormal β); r for a ball
+    /// (independent of β).
     ///
     /// This is the radius across the path only when the axis is inclined by lead alone (m = T).
     /// With tilt it is not: use [`cutter_radii`] for the radii across and along the path (a

@@ -925,6 +925,8 @@ pub struct StrakeCutterRadii {
     /// Radius of the cutter's normal section along T.
     pub along_path: f64,
     /// R/sin(beta) + r: normal to the inclination plane (across the path only for pure lead).
+    /// r for a ball; INFINITY for a flat or toroidal cutter upright (beta = 0: its flat bottom
+    /// touches) and where R/sin(beta) exceeds DBL_MAX.
     pub inclination_plane: f64,
     /// Inclination beta of the axis from the tool-side normal (radians).
     pub inclination: f64,

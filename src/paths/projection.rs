@@ -251,7 +251,7 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
         let mut jet = self.eval(u, v, DerivOrder::Second)?;
         let noise = 8.0 * f64::EPSILON * (p.amax() + jet.p.amax());
         let mut r = jet.p - p;
-        let mut d = r.norm();
+        let mut d = length(&r);
         let done = |u, v, jet, distance, iterations, converged| {
             Ok(Newton {
                 u,
@@ -309,7 +309,7 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
                 let step = (su * (un - u) + sv * (vn - v)).norm();
                 let jn = self.eval(un, vn, DerivOrder::Second)?;
                 let rn = jn.p - p;
-                let dn = rn.norm();
+                let dn = length(&rn);
                 // A growth within the round-off of |r| counts as no growth: near the foot
                 // point |r| is flat to second order and its rounding would block the last,
                 // most accurate steps.
@@ -392,7 +392,9 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
                     what: format!(
                         "Newton's method for point inversion from the {GRID_CANDIDATES} nearest \
                          grid nodes (best distance {d} at (u, v) = ({u}, {v}))",
-                        d = crate::numfmt::Num(d)
+                        d = crate::numfmt::Num(d),
+                        u = crate::numfmt::Exact(u),
+                        v = crate::numfmt::Exact(v)
                     ),
                     iterations: spent,
                 });
@@ -412,6 +414,15 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
         let b = best.expect("set above");
         let uw = Self::wrap(b.u, self.u_dom, self.opts.periodic_u);
         let vw = Self::wrap(b.v, self.v_dom, self.opts.periodic_v);
+        if !b.distance.is_finite() {
+            // A point so far out (coordinates near ±DBL_MAX) that |S − P| overflows: no
+            // distance to report, never an infinite one under OK.
+            return Err(StrakeError::NonFinite {
+                source: crate::error::NonFiniteSource::Result,
+                what: "distance |S - P| from the point to the surface",
+                value: b.distance,
+            });
+        }
         if b.distance > self.opts.tolerance {
             return Err(StrakeError::TooFarFromSurface {
                 distance: b.distance,
@@ -443,6 +454,23 @@ impl<'a, S: SurfaceSource + ?Sized> Projector<'a, S> {
             signed_distance: (pv - b.jet.p).dot(&n).clamp(-b.distance, b.distance),
             iterations: b.iterations + spent,
         })
+    }
+}
+
+/// |r| without overflow where the sum of squares overflows but the length does not (a point
+/// 1e300 from the surface): scaled by the largest component first (exact for powers of two,
+/// to round-off otherwise). The plain `norm` elsewhere, where it is the same bits.
+#[inline]
+fn length(r: &Vec3) -> f64 {
+    let n = r.norm();
+    if n.is_finite() {
+        return n;
+    }
+    let m = r.amax();
+    if m.is_finite() && m > 0.0 {
+        m * (r / m).norm()
+    } else {
+        n
     }
 }
 

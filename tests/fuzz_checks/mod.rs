@@ -1213,7 +1213,7 @@ fn side(inp: &mut Input) -> u32 {
 fn positive(inp: &mut Input) -> f64 {
     match inp.u8() % 3 {
         0 => inp.f64(),
-        _ => f64::from(1 + inp.u8()) / 64.0,
+        _ => (1.0 + f64::from(inp.u8())) / 64.0,
     }
 }
 
@@ -1315,7 +1315,9 @@ pub fn run_checks(data: &[u8]) {
                     finite_or_inf(w, "across_path", o.across_path);
                     finite_or_inf(w, "across_section", o.across_section);
                     finite_or_inf(w, "along_path", o.along_path);
-                    finite(w, "inclination_plane", o.inclination_plane);
+                    // INFINITY for an upright flat or toroidal cutter (its flat bottom
+                    // touches) and where R/sin β exceeds DBL_MAX (documented).
+                    finite_or_inf(w, "inclination_plane", o.inclination_plane);
                     finite(w, "inclination", o.inclination);
                 }
             }
