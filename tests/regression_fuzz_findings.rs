@@ -232,3 +232,65 @@ fn an_upright_flat_cutter_has_an_infinite_inclination_plane_radius() {
     assert_eq!(o.flat_bottom_contact, 1);
     assert_eq!(o.inclination, 0.0);
 }
+
+/// `strake_check_step_over` at extreme but valid scales gave a step-over of 0 (or NaN) under
+/// STATUS_OK: h/r and κ r, the units the inverse worked in, under- or overflowed (a ball of
+/// radius DBL_MAX on a convex cross-section, a denormal scallop height). The inputs that found
+/// it are `fuzz/corpus/checks/finding-step-over-*`. Each is checked against the limit the exact
+/// geometry tends to there (closed forms of the two-circle construction, common practice):
+/// - r → ∞ on a convex cross-section of radius ρ: the ball is a plane, and the tangent lines of
+///   two passes meet at h = ρ (1/cos(θ/2) − 1), θ = w/ρ, so w = 2ρ acos(ρ/(ρ + h));
+/// - h → 0: w = √(8 h / (1/r − κ)) (1 + O(h)).
+#[test]
+fn step_over_holds_its_digits_at_extreme_scales() {
+    use strake::checks::{step_over_for_scallop, step_over_for_scallop_approx};
+    let rel = |got: f64, want: f64| ((got - want) / want).abs();
+    // A ball as wide as a double allows, on convex cross-sections (radius 0.3 and 3e-4).
+    for rho in [0.3, 3e-4] {
+        let h = 1.5625e-2;
+        let w = step_over_for_scallop(f64::MAX, h, -1.0 / rho).expect("step-over");
+        let want = 2.0 * rho * (rho / (rho + h)).acos();
+        assert!(rel(w, want) < 1e-13, "rho = {rho}: {w:e} against {want:e}");
+        let approx = step_over_for_scallop_approx(f64::MAX, h, -1.0 / rho).expect("approx");
+        assert!(
+            rel(approx, (8.0 * h * rho).sqrt()) < 1e-15,
+            "approx {approx:e}"
+        );
+    }
+    // Denormal and tiny heights on concave, convex and flat cross-sections, and radii from the
+    // smallest normal double to 1e150.
+    for (r, h, kappa) in [
+        (12.75, 5e-324, 0.05),
+        (4.625, 5e-324, 1.0842021724855044e-19),
+        (1e150, 1.28981331e-315, -0.2226933294046529),
+        (
+            2.2250738585072014e-308,
+            1.850043846e-314,
+            -0.3123282375051456,
+        ),
+        (f64::MAX, 2.2250738585072014e-308, -0.12656610838742888),
+        (3.0, 1e-300, 1e-300),
+    ] {
+        let w = step_over_for_scallop(r, h, kappa).expect("step-over");
+        let want = (8.0 * h).sqrt() * (1.0 / (1.0 / r - kappa)).sqrt();
+        // Within a denormal result's own precision (5e-324 in 1e-310 is 5e-14), plus the
+        // limit's own error, of relative order h/r (the chord is 2 √(h (2r − h)) on a plane).
+        let tol = if want < 2.2250738585072014e-308 {
+            1e-10
+        } else {
+            1e-12
+        } + h / r;
+        assert!(
+            w > 0.0 && rel(w, want) < tol,
+            "r = {r:e}, h = {h:e}, kappa = {kappa:e}: {w:e} against {want:e}"
+        );
+        let approx = step_over_for_scallop_approx(r, h, kappa).expect("approx");
+        assert!(
+            rel(approx, want) < tol,
+            "approx {approx:e} against {want:e}"
+        );
+    }
+    // Still refused: a height the geometry cannot reach, a ball that does not fit.
+    assert!(step_over_for_scallop(1.40625, 4.0, 0.0).is_err());
+    assert!(step_over_for_scallop(1.0, 0.1, 1.0).is_err());
+}

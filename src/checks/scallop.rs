@@ -182,36 +182,55 @@ pub fn step_over_for_scallop(r: f64, h: f64, kappa: f64) -> Result<f64> {
             r = crate::numfmt::Exact(r)
         ))
     };
-    // Work in units of r (see the module docs).
-    let (h1, k1) = (h / r, kappa * r);
-    let rho = 1.0 / k1.abs();
-    if k1 == 0.0 || !rho.is_finite() {
-        if h1 > 1.0 {
+    // In the host's lengths, not in units of r: h/r and κ r under- and overflow at extreme
+    // but valid scales (r = DBL_MAX on a convex cross-section of radius 0.3, a denormal h),
+    // while every factor below stays representable. √(2r − h) is finite for h < 2r.
+    let root_2r_h = sqrt_sum(r, r - h);
+    if !(root_2r_h > 0.0) {
+        return Err(too_high());
+    }
+    let rho = 1.0 / kappa.abs();
+    if kappa == 0.0 || !rho.is_finite() {
+        // The plane: the chord of the circle at depth h, w = 2 √(h (2r − h)).
+        if h > r {
             return Err(too_high());
         }
-        return Ok(r * (2.0 * (h1 * (2.0 - h1)).sqrt()));
+        return finite_result("step-over", 2.0 * h.sqrt() * root_2r_h);
     }
-    // Law of cosines at the cusp, distance d from the centre: cos(θ/2) = (d² + rc² − 1)/(2 d rc).
-    let (d, rc) = if k1 < 0.0 {
-        (rho + h1, rho + 1.0)
+    // Law of cosines at the cusp, distance D from the centre of the cross-section's circle
+    // (radius ρ) and Rc from it to the cutter's centre: cos(θ/2) = (D² + Rc² − r²)/(2 D Rc),
+    // so 1 − cos(θ/2) = (r² − (D − Rc)²)/(2 D Rc) = h (2r − h)/(2 D Rc) since |D − Rc| = |r − h|.
+    let (root_d, root_rc) = if kappa < 0.0 {
+        (sqrt_sum(rho, h), sqrt_sum(rho, r))
     } else {
-        (rho - h1, rho - 1.0)
+        ((rho - h).sqrt(), (rho - r).sqrt())
     };
-    if d <= 0.0 {
+    if !(root_d > 0.0 && root_rc > 0.0) {
         return Err(too_high());
     }
-    // 1 − cos(θ/2) = (1 − (d − rc)²)/(2 d rc) = h (2 − h)/(2 d rc), since |d − rc| = |1 − h|;
-    // θ/2 = 2 asin(√((1 − cos(θ/2))/2)), with the root taken factor by factor (d rc may be
-    // 1e600 for a nearly flat surface).
-    let num = h1 * (2.0 - h1);
-    if num.is_nan() || num < 0.0 {
-        return Err(too_high());
-    }
-    let x = num.sqrt() / (2.0 * d.sqrt() * rc.sqrt());
+    // θ/2 = 2 asin(√((1 − cos(θ/2))/2)) with x = √((1 − cos(θ/2))/2) taken factor by factor
+    // (D Rc may be 1e600 for a nearly flat surface, h (2r − h) 1e-320 for a denormal h).
+    let x = 0.5 * (h.sqrt() / root_d) * (root_2r_h / root_rc);
     if x.is_nan() || x > 1.0 {
         return Err(too_high());
     }
-    Ok(r * (4.0 * rho * x.asin()))
+    // w = 4 ρ asin(x) = 4 ρ x · asin(x)/x, with 4 ρ x = 2 √h √(2r − h) (√ρ/√D)(√ρ/√Rc): the
+    // last two factors are near 1 on a nearly flat cross-section, where x itself may
+    // underflow (ρ = 1e300, h = 1e-300); asin(x)/x = 1 + x²/6 + … is 1 to round-off below 1e-8.
+    let linear = 2.0 * h.sqrt() * root_2r_h * ((rho.sqrt() / root_d) * (rho.sqrt() / root_rc));
+    let arc = if x < 1e-8 { 1.0 } else { x.asin() / x };
+    finite_result("step-over", linear * arc)
+}
+
+/// √(a + b) for finite a ≥ 0 and a + b ≥ 0, without overflow when a + b exceeds the largest
+/// double (both scaled by 1/4, exact for such magnitudes).
+fn sqrt_sum(a: f64, b: f64) -> f64 {
+    let s = a + b;
+    if s.is_finite() {
+        s.sqrt()
+    } else {
+        2.0 * (0.25 * a + 0.25 * b).sqrt()
+    }
 }
 
 /// The approximate inverse w ≈ √(8 h / (1/r − κ)).
@@ -220,8 +239,14 @@ pub fn step_over_for_scallop_approx(r: f64, h: f64, kappa: f64) -> Result<f64> {
     check("scallop height", h, true)?;
     check("cross-path curvature", kappa, false)?;
     concave_fit(r, kappa)?;
-    // √(8h) √(r/(1 − κ r)), scaled as above.
-    let w = (8.0 * h).sqrt() * (r / (1.0 - kappa * r)).sqrt();
+    // √8 √h √(r/(1 − κ r)), with r/(1 − κ r) written as 1/(1/r − κ) for r ≥ 1 (κ r may
+    // overflow there, 1/r may overflow below 1).
+    let q = if r < 1.0 {
+        r / (1.0 - kappa * r)
+    } else {
+        1.0 / (1.0 / r - kappa)
+    };
+    let w = 8f64.sqrt() * h.sqrt() * q.sqrt();
     finite_result("approximate step-over", w)
 }
 
