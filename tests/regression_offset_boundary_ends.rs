@@ -51,7 +51,7 @@ fn offset_five_times<S: SurfaceSource, C: UvCurve>(
         assert!(off.loops.is_empty(), "offset {k}: loops {:?}", off.loops);
         assert_eq!(off.pieces.len(), 1, "offset {k}");
         assert!(
-            off.fit_error < 1e-8,
+            off.fit_error < 1e-12,
             "offset {k}: fit error {:e}",
             off.fit_error
         );
