@@ -294,9 +294,9 @@ pub(crate) fn lane_rates(
         _ => block_rates_baseline(x, out, finite),
     }
     let mut ok = 0u32;
-    for l in 0..m {
+    for (l, r) in rates[..m].iter_mut().enumerate() {
         if finite.0[l] {
-            rates[l] = InvariantRates {
+            *r = InvariantRates {
                 normal_curvature: out[0].0[l],
                 geodesic_curvature: out[1].0[l],
                 geodesic_torsion: out[2].0[l],
