@@ -4,12 +4,14 @@
 //! It rides on the frame batch ([`crate::engine::batch`]): per chunk the surface's jets come
 //! with its third partials from one evaluation where the surface has one
 //! ([`SurfaceSource::jets_and_third_block`]: native NURBS), the frames from the frame kernel
-//! as always (the same bits as [`crate::CurveOnSurface::frames_at`]), then per sample of the
-//! chunk the curve's third derivatives (one [`UvCurve::third_derivatives_block`] call per
-//! chunk) and the closed forms of [`crate::geometry::rates::rates_from_jets`] from the frame
-//! and the jets. The one-point path ([`crate::CurveOnSurface::frame_with_rates`]) takes the
-//! same steps through [`rates_at`], so both give the same bits and the same errors (tested).
-//! Nothing is allocated.
+//! as always (the same bits as [`crate::CurveOnSurface::frames_at`]), then the curve's third
+//! derivatives (one [`UvCurve::third_derivatives_block`] call per chunk) and the closed forms
+//! of [`crate::geometry::rates::rates_from_jets`] from the frames and the jets, 16 samples at
+//! a time on the widest vector registers allowed ([`lane_rates`]); a sample whose third-order
+//! inputs or rates are not all finite goes through the one-point steps ([`rates_at`]), which
+//! name its error. The one-point path ([`crate::CurveOnSurface::frame_with_rates`]) takes the
+//! same steps through [`rates_at`], and every lane performs its operations in the same order,
+//! so both give the same bits and the same errors (tested). Nothing is allocated.
 
 use crate::curve::UvCurve;
 use crate::engine::batch::{CHUNK, FrameSink, SampleError};
@@ -305,9 +307,9 @@ pub(crate) fn lane_rates(
         _ => block_rates_baseline(x, out, finite),
     }
     let mut ok = 0u32;
-    for l in 0..m {
+    for (l, r) in rates[..m].iter_mut().enumerate() {
         if finite.0[l] {
-            rates[l] = InvariantRates {
+            *r = InvariantRates {
                 normal_curvature: out[0].0[l],
                 geodesic_curvature: out[1].0[l],
                 geodesic_torsion: out[2].0[l],

@@ -37,38 +37,8 @@ impl<const D: usize> NurbsCurve<D> {
     /// per point the sums over the span's control points and the quotient rule
     /// C^(k) = (A^(k) − Σ_{i=1..k} C(k,i) w^(i) C^(k−i)) / w (A4.2) to k = 3, the same
     /// operations in every lane, so a block of one point gives the bits it gives that point
-    /// in any block. Other degrees: [`Self::high_derivs_unchecked`] point by point. Where
-    /// [`crate::isa::vector_kernels`] allows AVX2 the same code is compiled for it (wider
-    /// registers, the same IEEE operations: the same bits, tested).
+    /// in any block. Other degrees: [`Self::high_derivs_unchecked`] point by point.
     pub(crate) fn third_block(&self, ts: &[f64], hint: &mut SpanHint, out: &mut [[f64; D]]) {
-        #[cfg(target_arch = "x86_64")]
-        if crate::isa::vector_kernels() >= crate::isa::VectorKernels::Avx2 {
-            // SAFETY: the processor supports AVX2 (`vector_kernels` never exceeds the
-            // supported variant).
-            unsafe { self.third_block_avx2(ts, hint, out) };
-            return;
-        }
-        self.third_block_portable(ts, hint, out);
-    }
-
-    /// [`Self::third_block`] in the baseline instruction set.
-    #[inline(never)]
-    fn third_block_portable(&self, ts: &[f64], hint: &mut SpanHint, out: &mut [[f64; D]]) {
-        self.third_block_with(ts, hint, out);
-    }
-
-    /// [`Self::third_block`] compiled for AVX2.
-    ///
-    /// # Safety
-    /// The processor must support AVX2.
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx2")]
-    unsafe fn third_block_avx2(&self, ts: &[f64], hint: &mut SpanHint, out: &mut [[f64; D]]) {
-        self.third_block_with(ts, hint, out);
-    }
-
-    #[inline(always)]
-    fn third_block_with(&self, ts: &[f64], hint: &mut SpanHint, out: &mut [[f64; D]]) {
         let n = ts.len().min(out.len());
         match self.degree() {
             3 => self.third_groups::<4, 3>(&ts[..n], hint, &mut out[..n]),
@@ -103,52 +73,38 @@ impl<const D: usize> NurbsCurve<D> {
             } else {
                 basis_rows_lanes::<N, P, G, false, 4>(knots, &self.recip, &spans, Lanes(x), 3)
             };
-            // The sums per point (each on its own span), lane l of `a` and `w` for point l
-            // (lanes from `len` on repeat the last point).
-            let mut a = [[Lanes([0.0; G]); D]; 4];
-            let mut w = [Lanes([0.0; G]); 4];
-            for l in 0..G {
-                let first = spans[l.min(len - 1)] - P;
-                let lr = l.min(len - 1);
+            for (l, o) in out[start..start + len].iter_mut().enumerate() {
+                let first = spans[l] - P;
+                let mut a = [[0.0; D]; 4];
+                let mut w = [0.0; 4];
                 for r in 0..P + 1 {
                     let cp = &self.weighted[first + r];
                     for k in 0..4 {
-                        let nk = rows[k][r].0[lr];
+                        let nk = rows[k][r].0[l];
                         for (c, &x) in a[k].iter_mut().zip(cp) {
-                            c.0[l] += nk * x;
+                            *c += nk * x;
                         }
                         if rational {
-                            w[k].0[l] += nk * self.weights[first + r];
+                            w[k] += nk * self.weights[first + r];
                         }
                     }
                 }
-            }
-            let out = &mut out[start..start + len];
-            if !rational {
-                for (l, o) in out.iter_mut().enumerate() {
+                if !rational {
+                    *o = a[3];
+                    continue;
+                }
+                let inv_w = 1.0 / w[0];
+                let mut c = [[0.0; D]; 4];
+                for k in 0..4 {
                     for d in 0..D {
-                        o[d] = a[3][d].0[l];
+                        let mut x = a[k][d];
+                        for i in 1..=k {
+                            x -= BINOMIAL[k][i] * w[i] * c[k - i][d];
+                        }
+                        c[k][d] = x * inv_w;
                     }
                 }
-                continue;
-            }
-            // The quotient rule lane-wide: in each lane the operations of one point, in the
-            // same order.
-            let inv_w = Lanes::splat(1.0) / w[0];
-            let mut c = [[Lanes([0.0; G]); D]; 4];
-            for k in 0..4 {
-                for d in 0..D {
-                    let mut x = a[k][d];
-                    for i in 1..=k {
-                        x = x - Lanes::splat(BINOMIAL[k][i]) * w[i] * c[k - i][d];
-                    }
-                    c[k][d] = x * inv_w;
-                }
-            }
-            for (l, o) in out.iter_mut().enumerate() {
-                for d in 0..D {
-                    o[d] = c[3][d].0[l];
-                }
+                *o = c[3];
             }
         }
     }
@@ -279,20 +235,6 @@ mod tests {
                     let mut one = [[0.0; 2]];
                     c.third_block(&[t], &mut SpanHint::default(), &mut one);
                     assert_eq!(one[0], out[i]);
-                }
-                // Every variant the processor has gives the same bits (common practice: the
-                // same IEEE operations in the same order, compiled for other registers).
-                let mut base = vec![[0.0; 2]; ts.len()];
-                c.third_block_portable(&ts, &mut SpanHint::default(), &mut base);
-                #[cfg(target_arch = "x86_64")]
-                if std::arch::is_x86_feature_detected!("avx2") {
-                    let mut wide = vec![[0.0; 2]; ts.len()];
-                    // SAFETY: AVX2 is present (checked just above).
-                    unsafe { c.third_block_avx2(&ts, &mut SpanHint::default(), &mut wide) };
-                    let bits = |v: &[[f64; 2]]| -> Vec<[u64; 2]> {
-                        v.iter().map(|x| x.map(f64::to_bits)).collect()
-                    };
-                    assert_eq!(bits(&wide), bits(&base), "degree {p}");
                 }
             }
         }
