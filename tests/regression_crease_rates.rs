@@ -233,6 +233,19 @@ fn rates_on_a_c1_crease_are_those_of_the_side_moved_into() {
             "{name}: batch vs one point"
         );
         assert_eq!(frames[2], f, "{name}");
+        // A batch of 40 with the crease sample among full lane blocks (the lane-wide closed
+        // forms must leave it to the side-choosing one-point steps).
+        let mut ts40: Vec<f64> = (0..40).map(|i| i as f64 / 39.0).collect();
+        ts40[21] = t;
+        let mut frames40 = vec![f; 40];
+        let mut rates40 = vec![r; 40];
+        path.frames_with_rates_at(&ts40, &mut frames40, &mut rates40)
+            .unwrap();
+        assert_eq!(
+            rates_of(&rates40[21]),
+            rates_of(&r),
+            "{name}: batch of 40 vs one point"
+        );
         // The partials a path evaluation uses are those of the side too.
         let (sp, _, pf) = path.partials_at(t, 4, &mut Hints::default()).unwrap();
         assert_eq!(pf, flags);

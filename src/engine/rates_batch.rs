@@ -231,6 +231,16 @@ impl FrameSink for RatesSink<'_> {
                 );
                 ok & ((1u32 << asked) - 1)
             };
+            // A lane on a knot line across which the surface is not C3 takes its third
+            // partials on the side it moves into: left to the one-point steps (`rates_at`),
+            // which choose the side, whatever the block computed.
+            let mut on_line = 0u32;
+            for (k, c) in cj[start..start + m].iter().enumerate() {
+                if sides_for_order(surface, c, 3).3 {
+                    on_line |= 1 << k;
+                }
+            }
+            let ok = ok & !on_line;
             if ok == (1u32 << m) - 1 {
                 continue;
             }
