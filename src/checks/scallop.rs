@@ -186,7 +186,7 @@ pub fn step_over_for_scallop(r: f64, h: f64, kappa: f64) -> Result<f64> {
     // but valid scales (r = DBL_MAX on a convex cross-section of radius 0.3, a denormal h),
     // while every factor below stays representable. √(2r − h) is finite for h < 2r.
     let root_2r_h = sqrt_sum(r, r - h);
-    if !(root_2r_h > 0.0) {
+    if root_2r_h.is_nan() || root_2r_h <= 0.0 {
         return Err(too_high());
     }
     let rho = 1.0 / kappa.abs();
@@ -205,7 +205,7 @@ pub fn step_over_for_scallop(r: f64, h: f64, kappa: f64) -> Result<f64> {
     } else {
         ((rho - h).sqrt(), (rho - r).sqrt())
     };
-    if !(root_d > 0.0 && root_rc > 0.0) {
+    if root_d.is_nan() || root_rc.is_nan() || root_d <= 0.0 || root_rc <= 0.0 {
         return Err(too_high());
     }
     // θ/2 = 2 asin(√((1 − cos(θ/2))/2)) with x = √((1 − cos(θ/2))/2) taken factor by factor
