@@ -794,6 +794,15 @@ fn main() {
     if let Some(text) = &only {
         cases.retain(|c| c.name.contains(text.as_str()));
     }
+    // The planning section (geodesic steps, offsets, iso-scallop passes): with the rest, or
+    // alone with STRAKE_SPEED_ONLY=planning.
+    let planning = only.as_deref().is_none_or(|t| "planning".contains(t));
+    if planning {
+        planning_report(&surface, &curve, &us, &vs);
+    }
+    if only.as_deref() == Some("planning") {
+        return;
+    }
     let wall = Instant::now();
     measure(&mut cases);
     let wall = wall.elapsed().as_secs_f64();
@@ -1144,5 +1153,133 @@ fn main() {
         strake_surface_free(c_batch);
         strake_curve_free(c_curve);
         strake_curve_free(c_line);
+    }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Planning: geodesic steps, offsets and iso-scallop passes, against the cost of one surface jet.
+
+/// Median of `rounds` timings (ns) of `run`, each repeated until it lasts 20 ms.
+fn median_ns(rounds: usize, mut run: impl FnMut()) -> f64 {
+    run();
+    let t = Instant::now();
+    run();
+    let once = t.elapsed().as_nanos().max(1) as f64;
+    let reps = ((2e7 / once).ceil() as usize).max(1);
+    let mut v: Vec<f64> = (0..rounds)
+        .map(|_| {
+            let t = Instant::now();
+            for _ in 0..reps {
+                run();
+            }
+            t.elapsed().as_nanos() as f64 / reps as f64
+        })
+        .collect();
+    v.sort_by(f64::total_cmp);
+    v[v.len() / 2]
+}
+
+/// The planning section of the report (see benches/README.md, "Planning").
+fn planning_report(
+    surface: &strake::NurbsSurface,
+    curve: &strake::NurbsCurve<2>,
+    us: &[f64],
+    vs: &[f64],
+) {
+    use strake::checks::{Cutter, ToolAngles, ToolSide};
+    use strake::{
+        OffsetDistance, OffsetOptions, OffsetSide, PassCutter, PassOptions, StartDirection,
+        TraceOptions, offset_path, plan_passes, trace_geodesic,
+    };
+    println!("\nplanning (the wing-skin surface; medians of 7 rounds)");
+    // One second-order surface jet, marching along the path (the access a trace makes).
+    let jet_ns = median_ns(7, || {
+        let mut hint = SurfaceHint::default();
+        for (&u, &v) in us.iter().zip(vs) {
+            black_box(
+                surface
+                    .jet_in_domain(u, v, DerivOrder::Second, &mut hint)
+                    .unwrap(),
+            );
+        }
+    }) / us.len() as f64;
+    println!("one surface jet (2nd order, marching)       {jet_ns:8.1} ns");
+    for tol in [1e-6, 1e-9] {
+        let opts = TraceOptions::new(tol);
+        let trace =
+            || trace_geodesic(surface, 0.05, 0.5, StartDirection::Angle(0.3), 6.0, &opts).unwrap();
+        let g = trace();
+        let st = g.stats;
+        let ns = median_ns(7, || {
+            black_box(trace());
+        });
+        let per_step = ns / st.accepted as f64;
+        println!(
+            "geodesic, tolerance {tol:.0e}: {} accepted + {} rejected steps, {} jets over {:.3}: {:.2} jets per accepted step (target <= 8); {per_step:.0} ns per accepted step = {:.2} jets' time",
+            st.accepted,
+            st.rejected,
+            st.jets,
+            g.length,
+            st.jets as f64 / st.accepted as f64,
+            per_step / jet_ns
+        );
+    }
+    let off_opts = OffsetOptions::new(1e-6);
+    let offset = || {
+        offset_path(
+            surface,
+            curve,
+            OffsetSide::Left,
+            &OffsetDistance::Constant(0.15),
+            &off_opts,
+        )
+        .unwrap()
+    };
+    let o = offset();
+    let points: usize = o.pieces.iter().map(|p| p.samples.len()).sum();
+    let ns = median_ns(7, || {
+        black_box(offset());
+    });
+    println!(
+        "offset of the path at 0.15 (chord 1e-6): {points} points, {:.0} jets per point, {:.1} us per point = {:.0} jets' time",
+        o.jets as f64 / points as f64,
+        ns / points as f64 * 1e-3,
+        ns / points as f64 / jet_ns
+    );
+    let ball = PassOptions {
+        max_rows: Some(2),
+        ..PassOptions::iso_scallop(0.5, ToolSide::AlongNormal, 0.002, OffsetSide::Left, 1e-6)
+    };
+    let toroidal = PassOptions {
+        cutter: Some(PassCutter {
+            cutter: Cutter::Toroidal {
+                radius: 0.5,
+                corner_radius: 0.1,
+            },
+            angles: ToolAngles {
+                lead: 0.05,
+                tilt: 0.3,
+            },
+        }),
+        ..ball
+    };
+    for (name, opts) in [
+        ("ball r 0.5", ball),
+        ("toroidal 0.5/0.1, lead 0.05, tilt 0.3", toroidal),
+    ] {
+        let plan = || plan_passes(surface, curve, &opts).unwrap();
+        let p = plan();
+        let ns = median_ns(3, || {
+            black_box(plan());
+        });
+        println!(
+            "iso-scallop, {name}, h 0.002, 2 rows: {} passes, {} offsets, {} output points, {:.0} jets per point, {:.1} us per point = {:.0} jets' time",
+            p.count,
+            p.offset_attempts,
+            p.offset_points,
+            p.trace_jets as f64 / p.offset_points as f64,
+            ns / p.offset_points as f64 * 1e-3,
+            ns / p.offset_points as f64 / jet_ns
+        );
     }
 }

@@ -217,11 +217,16 @@ impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
         }
     }
 
-    /// Smallest s > 0 at which the local quadratic x + x's + x''s²/2 meets a domain side.
-    fn boundary_reach(&self, y: &[f64; 4], f: &[f64; 4]) -> f64 {
+    /// Smallest s > 0 at which the local quadratic x + x's + x''s²/2 meets a domain side, or
+    /// a value ≥ `within` when it meets none before s = `within`: a line farther than
+    /// |x'| s + |x''| s²/2 at s = 1.01 `within` (the quadratic cannot reach it) is skipped, which
+    /// changes no result below `within` (the caller uses the reach only when it is smaller).
+    fn boundary_reach(&self, y: &[f64; 4], f: &[f64; 4], within: f64) -> f64 {
         let mut best = f64::INFINITY;
+        let s_far = 1.01 * within;
         for k in 0..2 {
             let (x, d, a) = (y[k], f[k], 0.5 * f[k + 2]);
+            let far = d.abs() * s_far + a.abs() * s_far * s_far;
             // Knot lines are aimed at just short of them (by a thousandth of the way), so that
             // no stage of the step lands on the far side; the last approach is within the
             // snap distance after a few such steps.
@@ -234,6 +239,9 @@ impl<S: SurfaceSource + ?Sized> Tracer<'_, S> {
                 .into_iter()
                 .chain(lines)
             {
+                if (x - b).abs() > far {
+                    continue;
+                }
                 // a s² + d s + (x − b) = 0
                 let c = x - b;
                 let roots = if a.abs() <= 1e-300 || (a * c).abs() < 1e-12 * d * d {
@@ -497,7 +505,7 @@ pub fn trace_geodesic<S: SurfaceSource + ?Sized>(
         }
         let remaining = length - s;
         let mut hs = h.min(remaining).min(h_max);
-        let reach = tr.boundary_reach(&y, &f);
+        let reach = tr.boundary_reach(&y, &f, hs);
         if reach < hs {
             hs = reach;
         }
